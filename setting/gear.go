@@ -1,0 +1,24 @@
+package setting
+
+// Reverser is a reverser position: +1 is full forward gear, 0 mid gear and
+// -1 full back gear. Notches lie between. Each gear maps it to its own
+// mechanism (die-block position in the link, link lift).
+type Reverser float64
+
+// Gear is a valve gear: the linkage from the crank axle to the valve.
+// More gears (Baker, Joy, ...) are added by implementing Gear; the event code
+// only ever sees the valve-motion function a Gear gives.
+type Gear interface {
+	// Kind names the gear type in the trade's words ("Walschaerts").
+	Kind() string
+	// Validate checks the gear's dimensions against the engine. Errors are
+	// *Error values naming the field.
+	Validate(e Engine) error
+	// Valve returns the valve displacement in mm from its central position,
+	// positive forward (toward the front cover), at crank angle thetaDeg
+	// (degrees from front dead centre in the forward running direction) with
+	// the reverser at r. Every call solves the linkage afresh, staying on the
+	// branch the gear is assembled in. A linkage that cannot close returns an
+	// *Error naming the link and the crank angle.
+	Valve(e Engine, thetaDeg float64, r Reverser) (float64, error)
+}

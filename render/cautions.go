@@ -1,0 +1,131 @@
+package render
+
+import (
+	"math"
+
+	"evenbeat/setting"
+)
+
+// Cautions card sizes, in logical units.
+const (
+	// ButtonHeight is the height of a card's main button: above the 48 CSS
+	// px a finger needs.
+	ButtonHeight = 56
+	// AckLabel is the text of the cautions card's button.
+	AckLabel = "I understand"
+	// CautionsTitle is the heading of the cautions card.
+	CautionsTitle  = "Before you turn the wheels"
+	cautionSizeMax = 17 // largest body size the card tries
+	bulletIndent   = 18 // space for the bullet before each caution
+	paraGap        = 6  // extra space between cautions
+)
+
+// CautionsLayout is where the cautions card puts each part inside its box.
+type CautionsLayout struct {
+	Inner  Rect       // the box less the card padding
+	Title  []string   // wrapped title lines
+	TitleY float64    // top of the first title line
+	Size   float64    // body text size chosen to fit (14 to 17)
+	Items  [][]string // each caution wrapped to the text width
+	ItemsY []float64  // top of each caution's first line
+	Ack    Rect       // the acknowledge button
+	Fits   bool       // false when even 14-unit text overflows the box
+	NeedH  float64    // the box height the content needs at this Size
+}
+
+// LayoutCautions lays out the card for the given cautions in box, choosing
+// the largest body size from 17 down to 14 at which everything fits above
+// the button. When nothing fits, Size is 14, Fits is false and the text
+// runs under the button: the caller should give a taller box (see
+// CautionsHeight) or let the card scroll.
+func LayoutCautions(box Rect, cautions []string) CautionsLayout {
+	var l CautionsLayout
+	for size := float64(cautionSizeMax); size >= BodySize; size-- {
+		l = layoutCautionsAt(box, cautions, size)
+		if l.Fits {
+			break
+		}
+	}
+	return l
+}
+
+func layoutCautionsAt(box Rect, cautions []string, size float64) CautionsLayout {
+	l := CautionsLayout{Inner: box.Inset(cardPad), Size: size}
+	w := l.Inner.W()
+	l.Title = Wrap(CautionsTitle, w-bulletIndent-4, TitleSize+2, true)
+	y := l.Inner.Min.Y
+	l.TitleY = y
+	y += float64(len(l.Title))*lineStep(TitleSize+2) + gap
+	for _, s := range cautions {
+		lines := Wrap(s, w-bulletIndent, size, false)
+		l.Items = append(l.Items, lines)
+		l.ItemsY = append(l.ItemsY, y)
+		y += float64(len(lines))*lineStep(size) + paraGap
+	}
+	y += gap
+	l.NeedH = y + ButtonHeight + cardPad - box.Min.Y
+	ackTop := math.Max(y, l.Inner.Max.Y-ButtonHeight)
+	l.Fits = y+ButtonHeight <= l.Inner.Max.Y
+	if !l.Fits {
+		ackTop = l.Inner.Max.Y - ButtonHeight
+	}
+	l.Ack = Rect{Point{l.Inner.Min.X, ackTop}, Point{l.Inner.Max.X, ackTop + ButtonHeight}}
+	return l
+}
+
+// CautionsHeight returns the least box height at which the cautions card
+// fits a box of the given width with 14-unit text.
+func CautionsHeight(width float64) float64 {
+	return layoutCautionsAt(Rect{Max: Point{width, 1e6}}, setting.Cautions(), BodySize).NeedH
+}
+
+// Cautions draws the first-run cautions card (setting.Cautions, wrapped to
+// the box) with a large acknowledge button at the bottom, and returns the
+// button's rectangle for hit testing (ButtonHeight tall, the card's inner
+// width).
+func Cautions(c Canvas, box Rect, th Theme) (ack Rect) {
+	l := LayoutCautions(box, setting.Cautions())
+	card := RoundRect(box, cardRadius)
+	c.Fill(card, FillStyle{Color: th.Surface})
+	c.Stroke(card, LineStyle{Color: th.Warn, Width: 2})
+
+	// Title with a warning triangle.
+	ts := TextStyle{Color: th.Ink, Size: TitleSize + 2, Bold: true}
+	tri := lineStep(TitleSize+2) * 0.7
+	cy := l.TitleY + Ascent(TitleSize+2, true)*0.62
+	warningSign(c, Point{l.Inner.Min.X + tri/2, cy}, tri, th)
+	drawLines(c, Point{l.Inner.Min.X + bulletIndent + 4, l.TitleY}, l.Title, ts)
+
+	body := TextStyle{Color: th.Ink, Size: l.Size}
+	for i, lines := range l.Items {
+		y := l.ItemsY[i]
+		// Bullet: a small square centred on the first line's x-height.
+		by := y + Ascent(l.Size, false) - l.Size*0.3
+		r := l.Size * 0.18
+		c.Fill(RectPath(Rect{Point{l.Inner.Min.X + 3, by - r}, Point{l.Inner.Min.X + 3 + 2*r, by + r}}), FillStyle{Color: th.Warn})
+		drawLines(c, Point{l.Inner.Min.X + bulletIndent, y}, lines, body)
+	}
+
+	c.Fill(RoundRect(l.Ack, 10), FillStyle{Color: th.Accent})
+	c.Text(Point{(l.Ack.Min.X + l.Ack.Max.X) / 2, (l.Ack.Min.Y + l.Ack.Max.Y) / 2}, AckLabel,
+		TextStyle{Color: th.OnAccent, Size: ButtonSize, Bold: true, HAlign: Center, VAlign: Middle})
+	return l.Ack
+}
+
+// warningSign draws a filled triangle of side size with an exclamation
+// mark, centred on c.
+func warningSign(c Canvas, at Point, size float64, th Theme) {
+	h := size * math.Sqrt(3) / 2
+	var p Path
+	p.MoveTo(Point{at.X, at.Y - h/2})
+	p.LineTo(Point{at.X + size/2, at.Y + h/2})
+	p.LineTo(Point{at.X - size/2, at.Y + h/2})
+	p.Close()
+	c.Fill(Outline(p, LineStyle{Width: size * 0.12}), FillStyle{Color: th.Warn})
+	c.Fill(p, FillStyle{Color: th.Warn})
+	var bar Path
+	bar.MoveTo(Point{at.X, at.Y - h*0.15})
+	bar.LineTo(Point{at.X, at.Y + h*0.18})
+	c.Stroke(bar, LineStyle{Color: th.Surface, Width: size * 0.11})
+	c.Fill(Circle(Point{at.X, at.Y + h*0.34}, size*0.06), FillStyle{Color: th.Surface})
+}

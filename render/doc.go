@@ -1,0 +1,34 @@
+// Package render draws Evenbeat's diagrams through a small Canvas seam, so
+// the same diagram code paints the ebiten canvas in the browser, a PNG on
+// the command line, and a text log in tests.
+//
+// Units and conventions: every coordinate is in logical units, equal to
+// CSS pixels on a phone, origin at the top-left, y pointing down (as image
+// and ebiten). A backend maps logical units to device pixels by its own
+// scale (3 on a 3x phone). Text sizes are em sizes in logical units; no
+// diagram text is smaller than 14. Angles at the API are degrees; lengths
+// shown to the user are the model's millimetres.
+//
+// The pieces:
+//   - Canvas (Size, Fill, Stroke, Text) with value styles whose zero values
+//     are documented defaults.
+//   - Outline: the one place a stroke becomes a fillable outline (round
+//     joins and caps, dashes applied), so every backend draws the same
+//     lines; Arc, Circle, RectPath, RoundRect build paths.
+//   - Text measurement with the one embedded font (package render/font):
+//     NewFace, TextWidth, TextOrigin, TextBox, Wrap.
+//   - Theme: Light and Dark palettes and the line and marker styles that
+//     tell the front and back ends apart by shape as well as colour.
+//   - Diagrams, each a function of (canvas, model, box): PistonCurve,
+//     Cautions (returns its button's hit rectangle) and Icon; their layout
+//     maths (LayoutPiston, LayoutCautions, Ticks, Scale) are plain
+//     functions tested with numbers.
+//
+// Backends live in sub-packages: render/recorder (a text log for goldens
+// and layout checks) and render/raster (*image.RGBA and PNG). The browser's
+// ebiten backend lives with the app.
+//
+// Imports: setting, golang.org/x/image and github.com/golang/freetype, and
+// the standard library. Never ebiten or syscall/js: render must build and
+// test natively with no display.
+package render

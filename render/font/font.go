@@ -1,0 +1,50 @@
+// Package font holds the one font family every Evenbeat backend draws with:
+// Go Regular and Go Bold, the Go fonts by Bigelow & Holmes, under the
+// BSD-style licence in the LICENSE file beside this one.
+//
+// The TrueType bytes come from golang.org/x/image/font/gofont; they are
+// parsed once, on first use, with github.com/golang/freetype/truetype, so the
+// PNG backend and the browser draw the very same glyph outlines.
+//
+// The package imports only x/image and freetype; never ebiten or syscall/js.
+package font
+
+import (
+	"sync"
+
+	"github.com/golang/freetype/truetype"
+	"golang.org/x/image/font/gofont/gobold"
+	"golang.org/x/image/font/gofont/goregular"
+)
+
+// regular and bold parse the embedded fonts once. They are set when the
+// package loads and never reassigned; the parsed fonts are read-only.
+var (
+	regular = sync.OnceValue(func() *truetype.Font { return mustParse(goregular.TTF) })
+	bold    = sync.OnceValue(func() *truetype.Font { return mustParse(gobold.TTF) })
+)
+
+// mustParse parses embedded font bytes. They are fixed at build time, so a
+// failure is a programmer error and panics.
+func mustParse(ttf []byte) *truetype.Font {
+	f, err := truetype.Parse(ttf)
+	if err != nil {
+		panic("render/font: embedded font does not parse: " + err.Error())
+	}
+	return f
+}
+
+// Regular returns the parsed Go Regular font. The value is shared and must
+// be treated as read-only; it is safe for concurrent use.
+func Regular() *truetype.Font { return regular() }
+
+// Bold returns the parsed Go Bold font, shared and read-only like Regular.
+func Bold() *truetype.Font { return bold() }
+
+// Get returns Bold when bold is true, else Regular.
+func Get(bold bool) *truetype.Font {
+	if bold {
+		return Bold()
+	}
+	return Regular()
+}

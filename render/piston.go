@@ -1,0 +1,222 @@
+package render
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+
+	"evenbeat/setting"
+)
+
+// Text sizes of the diagrams, in logical units (CSS px). Nothing is drawn
+// below 14, the least a phone reader should be asked to read.
+const (
+	TitleSize   = 18
+	BodySize    = 14
+	ButtonSize  = 18
+	cardPad     = 14 // inner padding of a card
+	cardRadius  = 12 // corner radius of a card
+	gap         = 8  // space between blocks
+	tickLen     = 5  // length of a tick mark
+	legendRow   = 22 // height of one legend row
+	legendLineW = 30 // length of a legend line sample
+)
+
+// pistonStep is the crank-angle step, in degrees, between the points of
+// the piston curve: 2 degrees is under 2 px across a phone-wide plot.
+const pistonStep = 2
+
+// PistonLayout is where PistonCurve puts each part inside its box. It is a
+// plain function of the box and the texts, so it is tested with numbers.
+type PistonLayout struct {
+	Inner    Rect     // the box less the card padding
+	Title    []string // wrapped title lines
+	Sub      []string // wrapped figures lines
+	TitleY   float64  // top of the first title line
+	SubY     float64  // top of the first figures line
+	YLabelY  float64  // top of the y-axis label line
+	Plot     Rect     // the plotting area (axes at its left and bottom)
+	XTicksY  float64  // top of the x tick labels
+	XLabelY  float64  // top of the x-axis label
+	LegendY  float64  // top of the first legend row
+	Caption  []string // wrapped caption lines
+	CaptionY float64  // top of the first caption line
+}
+
+// lineStep returns the baseline-to-baseline distance of text of a size.
+func lineStep(size float64) float64 { return size * LineHeight }
+
+// LayoutPiston lays out the piston diagram in box for the given title,
+// figures and caption texts. The plot takes whatever height is left, but
+// never less than 40 units (on a box too small for that the diagram
+// overflows at the bottom rather than squash the plot to nothing).
+func LayoutPiston(box Rect, title, sub, caption string) PistonLayout {
+	var l PistonLayout
+	l.Inner = box.Inset(cardPad)
+	w := l.Inner.W()
+	l.Title = Wrap(title, w, TitleSize, true)
+	l.Sub = Wrap(sub, w, BodySize, false)
+	l.Caption = Wrap(caption, w, BodySize, false)
+	y := l.Inner.Min.Y
+	l.TitleY = y
+	y += float64(len(l.Title)) * lineStep(TitleSize)
+	l.SubY = y
+	y += float64(len(l.Sub))*lineStep(BodySize) + gap
+	l.YLabelY = y
+	y += lineStep(BodySize) + gap
+	top := y
+	left := l.Inner.Min.X + TextWidth("100", BodySize, false) + tickLen + 4
+	right := l.Inner.Max.X - TextWidth("360", BodySize, false)/2
+	// Below the plot: tick labels, axis label, four legend rows, caption.
+	below := tickLen + 2 + lineStep(BodySize) + lineStep(BodySize) + gap +
+		4*legendRow + gap + float64(len(l.Caption))*lineStep(BodySize)
+	bottom := math.Max(l.Inner.Max.Y-below, top+40)
+	l.Plot = Rect{Point{left, top}, Point{right, bottom}}
+	y = bottom + tickLen + 2
+	l.XTicksY = y
+	y += lineStep(BodySize)
+	l.XLabelY = y
+	y += lineStep(BodySize) + gap
+	l.LegendY = y
+	y += 4*legendRow + gap
+	l.CaptionY = y
+	return l
+}
+
+// PistonCurve draws the piston's position (per cent of stroke from front
+// dead centre) against crank angle, 0 to 360 degrees, for engine e in box,
+// as a card: the exact curve for the finite connecting rod, the same curve
+// for an infinitely long rod (a pure cosine) for comparison so the rod's
+// angularity shows, both dead centres marked (front: round marker, back:
+// square), axes with round ticks, and a title with the engine's figures.
+// An engine that fails Validate gets the card with the validation message
+// in place of the plot.
+func PistonCurve(c Canvas, e setting.Engine, box Rect, th Theme) {
+	c.Fill(RoundRect(box, cardRadius), FillStyle{Color: th.Surface})
+	const title = "Piston position against crank angle"
+	if err := e.Validate(); err != nil {
+		in := box.Inset(cardPad)
+		drawLines(c, Point{in.Min.X, in.Min.Y}, Wrap(title, in.W(), TitleSize, true), TextStyle{Color: th.Ink, Size: TitleSize, Bold: true})
+		y := in.Min.Y + lineStep(TitleSize) + gap
+		drawLines(c, Point{in.Min.X, y}, Wrap(err.Error(), in.W(), BodySize, false), TextStyle{Color: th.Warn, Size: BodySize})
+		return
+	}
+	bdc := e.BackDeadCentre()
+	sub := fmt.Sprintf("Crank radius %s mm, connecting rod %s mm, stroke %s mm. Back dead centre at %s°.",
+		mm(e.CrankRadius), mm(e.RodLength), mm(e.Stroke()), deg(bdc))
+	at90 := 100 * e.PistonFraction(90)
+	caption := fmt.Sprintf("At 90° the piston has gone %s %% of its stroke, not 50 %%: the rod's angle puts it ahead of the pure cosine in the first half turn and behind it in the second.", pct(at90))
+	l := LayoutPiston(box, title, sub, caption)
+
+	ink := TextStyle{Color: th.Ink, Size: BodySize}
+	muted := TextStyle{Color: th.Muted, Size: BodySize}
+	drawLines(c, Point{l.Inner.Min.X, l.TitleY}, l.Title, TextStyle{Color: th.Ink, Size: TitleSize, Bold: true})
+	drawLines(c, Point{l.Inner.Min.X, l.SubY}, l.Sub, muted)
+	c.Text(Point{l.Inner.Min.X, l.YLabelY}, "piston, % of stroke", TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
+
+	xs := Scale{Min: 0, Max: 360, A: l.Plot.Min.X, B: l.Plot.Max.X}
+	ys := Scale{Min: 0, Max: 100, A: l.Plot.Max.Y, B: l.Plot.Min.Y}
+
+	// Grid and ticks.
+	var grid, ticks Path
+	for _, v := range AngleTicks(0, 360, 4) {
+		x := xs.At(v)
+		grid.MoveTo(Point{x, l.Plot.Min.Y})
+		grid.LineTo(Point{x, l.Plot.Max.Y})
+		ticks.MoveTo(Point{x, l.Plot.Max.Y})
+		ticks.LineTo(Point{x, l.Plot.Max.Y + tickLen})
+		c.Text(Point{x, l.XTicksY}, FormatTick(v), TextStyle{Color: th.Ink, Size: BodySize, HAlign: Center, VAlign: Top})
+	}
+	for _, v := range Ticks(0, 100, 4) {
+		y := ys.At(v)
+		grid.MoveTo(Point{l.Plot.Min.X, y})
+		grid.LineTo(Point{l.Plot.Max.X, y})
+		ticks.MoveTo(Point{l.Plot.Min.X - tickLen, y})
+		ticks.LineTo(Point{l.Plot.Min.X, y})
+		c.Text(Point{l.Plot.Min.X - tickLen - 3, y}, FormatTick(v), TextStyle{Color: th.Ink, Size: BodySize, HAlign: Right, VAlign: Middle})
+	}
+	c.Stroke(grid, th.GridLine())
+	var axes Path
+	axes.MoveTo(l.Plot.Min)
+	axes.LineTo(Point{l.Plot.Min.X, l.Plot.Max.Y})
+	axes.LineTo(l.Plot.Max)
+	c.Stroke(axes, th.AxisLine())
+	c.Stroke(ticks, th.AxisLine())
+	c.Text(Point{(l.Plot.Min.X + l.Plot.Max.X) / 2, l.XLabelY}, "crank angle, degrees", TextStyle{Color: th.Muted, Size: BodySize, HAlign: Center, VAlign: Top})
+
+	// Curves: the infinitely long rod first, so the real one lies on top.
+	c.Stroke(curve(xs, ys, func(th float64) float64 { return 50 * (1 - math.Cos(th*math.Pi/180)) }), th.CompareLine())
+	c.Stroke(curve(xs, ys, func(th float64) float64 { return 100 * e.PistonFraction(th) }), th.CurveLine())
+
+	// Dead centres: front at 0 and 360, back at its own angle.
+	bx := xs.At(bdc)
+	var guide Path
+	guide.MoveTo(Point{bx, l.Plot.Min.Y})
+	guide.LineTo(Point{bx, l.Plot.Max.Y})
+	c.Stroke(guide, LineStyle{Color: th.Back, Width: 1, Dashes: []float64{3, 3}})
+	th.FrontMark(c, Point{xs.At(0), ys.At(0)})
+	th.FrontMark(c, Point{xs.At(360), ys.At(0)})
+	th.BackMark(c, Point{bx, ys.At(100)})
+
+	// Legend.
+	x0 := l.Inner.Min.X
+	tx := x0 + legendLineW + 10
+	y := l.LegendY + legendRow/2
+	sample := func(s LineStyle) {
+		var p Path
+		p.MoveTo(Point{x0, y})
+		p.LineTo(Point{x0 + legendLineW, y})
+		c.Stroke(p, s)
+	}
+	label := func(s string) {
+		c.Text(Point{tx, y}, s, TextStyle{Color: th.Ink, Size: BodySize, VAlign: Middle})
+		y += legendRow
+	}
+	sample(th.CurveLine())
+	label("connecting rod " + mm(e.RodLength) + " mm")
+	sample(th.CompareLine())
+	label("infinitely long rod (pure cosine)")
+	th.FrontMark(c, Point{x0 + legendLineW/2, y})
+	label("front dead centre, 0°")
+	th.BackMark(c, Point{x0 + legendLineW/2, y})
+	label("back dead centre, " + deg(bdc) + "°")
+
+	drawLines(c, Point{l.Inner.Min.X, l.CaptionY}, l.Caption, ink)
+}
+
+// curve samples f (per cent of stroke against crank angle in degrees)
+// every pistonStep degrees from 0 to 360 as a polyline.
+func curve(xs, ys Scale, f func(float64) float64) Path {
+	var p Path
+	for a := 0; a <= 360; a += pistonStep {
+		pt := Point{xs.At(float64(a)), ys.At(f(float64(a)))}
+		if a == 0 {
+			p.MoveTo(pt)
+		} else {
+			p.LineTo(pt)
+		}
+	}
+	return p
+}
+
+// drawLines draws lines of text downward from top-left at, one line step
+// apart, each line's box top on its row.
+func drawLines(c Canvas, at Point, lines []string, s TextStyle) {
+	size := textSize(s)
+	s.VAlign = Top
+	for i, ln := range lines {
+		if ln == "" {
+			continue
+		}
+		c.Text(Point{at.X, at.Y + float64(i)*lineStep(size)}, ln, s)
+	}
+}
+
+// mm formats a length in millimetres to at most one decimal.
+func mm(v float64) string { return strconv.FormatFloat(math.Round(v*10)/10, 'f', -1, 64) }
+
+// deg formats an angle in degrees to one decimal.
+func deg(v float64) string { return strconv.FormatFloat(v, 'f', 1, 64) }
+
+// pct formats a percentage to one decimal.
+func pct(v float64) string { return strconv.FormatFloat(v, 'f', 1, 64) }

@@ -1,0 +1,52 @@
+package main
+
+import (
+	"os"
+	"os/exec"
+	"path/filepath"
+	"runtime"
+	"strings"
+	"testing"
+)
+
+// TestDomainAndDrawingStayPortable guards the import direction setting <-
+// render <- wasm: the domain and the diagrams must build and test natively,
+// with no display, so neither may depend on ebiten or syscall/js. Natively
+// no dependency may be either; for js/wasm the standard library itself uses
+// syscall/js, so there no package of this module may import it directly,
+// and ebiten must still be absent.
+func TestDomainAndDrawingStayPortable(t *testing.T) {
+	root, err := moduleRoot(".")
+	if err != nil {
+		t.Fatal(err)
+	}
+	goBin := filepath.Join(runtime.GOROOT(), "bin", "go") //nolint:staticcheck // the toolchain running this test
+	for _, target := range [][]string{nil, {"GOOS=js", "GOARCH=wasm"}} {
+		cmd := exec.Command(goBin, "list", "-deps", "-f", "{{.ImportPath}} {{join .Imports \" \"}}", "./setting/...", "./render/...")
+		cmd.Dir = root
+		cmd.Env = append(os.Environ(), target...)
+		out, err := cmd.CombinedOutput()
+		if err != nil {
+			t.Fatalf("go list (%v): %v\n%s", target, err, out)
+		}
+		n := 0
+		for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
+			f := strings.Fields(line)
+			pkg, imports := f[0], f[1:]
+			n++
+			if strings.HasPrefix(pkg, "github.com/hajimehoshi/ebiten") || (target == nil && pkg == "syscall/js") {
+				t.Errorf("setting or render depends on %s (target %v); keep ebiten and syscall/js in wasm/", pkg, target)
+			}
+			if pkg == "evenbeat" || strings.HasPrefix(pkg, "evenbeat/") {
+				for _, imp := range imports {
+					if imp == "syscall/js" {
+						t.Errorf("%s imports syscall/js (target %v); keep browser code in wasm/", pkg, target)
+					}
+				}
+			}
+		}
+		if n < 3 {
+			t.Fatalf("go list listed only %d packages: %s", n, out)
+		}
+	}
+}

@@ -1,0 +1,24 @@
+// Package site holds the static files of the browser app: the page that
+// starts the WebAssembly program, the web app manifest and the service
+// worker template. cmd/evenbeat adds the built main.wasm, Go's wasm_exec.js
+// and the icons (drawn by render), fills in the service worker's version and
+// serves or writes the whole set.
+//
+// It imports only the standard library.
+package site
+
+import "embed"
+
+// Files holds index.html, manifest.webmanifest and sw.js. sw.js is a
+// template: VersionMark and AssetsMark are replaced at build time.
+//
+//go:embed index.html manifest.webmanifest sw.js
+var Files embed.FS
+
+// VersionMark is the text in sw.js replaced by the cache version key (a
+// content hash of every other asset).
+const VersionMark = "__EVENBEAT_VERSION__"
+
+// AssetsMark is the text in sw.js replaced by the JSON array of asset URLs
+// the worker precaches.
+const AssetsMark = "__EVENBEAT_ASSETS__"

@@ -1,0 +1,158 @@
+//go:build js
+
+package main
+
+import (
+	"log"
+	"math"
+	"syscall/js"
+
+	"github.com/hajimehoshi/ebiten/v2"
+	"github.com/hajimehoshi/ebiten/v2/inpututil"
+
+	"evenbeat/render"
+)
+
+// ackKey is the store key of the cautions acknowledgement.
+const ackKey = "cautions-acknowledged"
+
+// game is the ebiten side of the app: it turns ticks, input and the screen
+// size into calls on app, and draws app through the ebiten canvas only when
+// something changed.
+type game struct {
+	app    *app
+	canvas *ebitenCanvas
+	queue  *pointerQueue
+	taps   tapper
+	store  *store // nil when the browser gives no storage
+
+	outW, outH int     // outside size (CSS px) from Layout
+	scale      float64 // device pixels per CSS px
+	events     []pointerEvent
+	touches    []ebiten.TouchID
+	held       map[ebiten.TouchID]render.Point
+
+	window       js.Value
+	published    screen
+	publishedAck render.Rect
+	drawn        bool
+}
+
+func newGame(a *app, st *store) *game {
+	return &game{
+		app:       a,
+		canvas:    newEbitenCanvas(),
+		queue:     newPointerQueue(),
+		store:     st,
+		held:      map[ebiten.TouchID]render.Point{},
+		window:    js.Global(),
+		published: 255,
+	}
+}
+
+// Layout makes the screen as many pixels as the device has: the outside
+// size in CSS px times the device scale factor, so lines are sharp on a 3x
+// phone.
+func (g *game) Layout(outW, outH int) (int, int) {
+	g.outW, g.outH = outW, outH
+	g.scale = ebiten.Monitor().DeviceScaleFactor()
+	return int(math.Ceil(float64(outW) * g.scale)), int(math.Ceil(float64(outH) * g.scale))
+}
+
+// Update runs the logic of one tick: size, input, saving, state for the page.
+func (g *game) Update() error {
+	if g.scale > 0 {
+		g.app.Resize(float64(g.outW), float64(g.outH))
+	}
+	var fromPage bool
+	g.events, fromPage = g.queue.Drain(g.events[:0])
+	if !fromPage {
+		// The page's listeners have delivered nothing yet: fall back on
+		// ebiten's polled touches and mouse.
+		g.events = g.polled(g.events)
+	}
+	for _, ev := range g.events {
+		in, ok := g.taps.Feed(ev)
+		if ok && g.app.Handle(in) {
+			g.saveAck()
+		}
+	}
+	g.publish()
+	return nil
+}
+
+// polled reads touches (by touch ID) and the left mouse button as pointer
+// events, in CSS px.
+func (g *game) polled(dst []pointerEvent) []pointerEvent {
+	at := func(x, y int) render.Point {
+		return render.Point{X: float64(x) / g.scale, Y: float64(y) / g.scale}
+	}
+	g.touches = inpututil.AppendJustPressedTouchIDs(g.touches[:0])
+	for _, id := range g.touches {
+		p := at(ebiten.TouchPosition(id))
+		g.held[id] = p
+		dst = append(dst, pointerEvent{Kind: pointerDown, ID: int(id), At: p})
+	}
+	for id := range g.held {
+		if inpututil.IsTouchJustReleased(id) {
+			// A released touch has no position any more: use its last one.
+			dst = append(dst, pointerEvent{Kind: pointerUp, ID: int(id), At: g.held[id]})
+			delete(g.held, id)
+		} else {
+			g.held[id] = at(ebiten.TouchPosition(id))
+		}
+	}
+	const mouseID = -1
+	if inpututil.IsMouseButtonJustPressed(ebiten.MouseButtonLeft) {
+		dst = append(dst, pointerEvent{Kind: pointerDown, ID: mouseID, At: at(ebiten.CursorPosition())})
+	}
+	if inpututil.IsMouseButtonJustReleased(ebiten.MouseButtonLeft) {
+		dst = append(dst, pointerEvent{Kind: pointerUp, ID: mouseID, At: at(ebiten.CursorPosition())})
+	}
+	return dst
+}
+
+// saveAck stores the acknowledgement; window.evenbeatAckSaved turns true
+// when the browser has it on disk.
+func (g *game) saveAck() {
+	if g.store == nil {
+		return
+	}
+	g.store.Put(ackKey, "yes", func(err error) {
+		if err != nil {
+			log.Print(err)
+			return
+		}
+		g.window.Set("evenbeatAckSaved", true)
+	})
+}
+
+// publish tells the page (and tests) which screen shows and where the
+// acknowledgement button is, in CSS px.
+func (g *game) publish() {
+	if g.app.screen == g.published && g.app.ack == g.publishedAck {
+		return
+	}
+	g.published, g.publishedAck = g.app.screen, g.app.ack
+	g.window.Set("evenbeatState", g.app.screen.String())
+	r := g.app.ack
+	g.window.Set("evenbeatAck", map[string]any{"x": r.Min.X, "y": r.Min.Y, "w": r.W(), "h": r.H()})
+}
+
+// Draw draws the app when it changed; otherwise the last frame stays (the
+// screen is not cleared between frames).
+func (g *game) Draw(screen *ebiten.Image) {
+	if !g.app.dirty || g.app.w == 0 {
+		return
+	}
+	g.canvas.Begin(screen, g.scale)
+	g.app.Draw(g.canvas)
+	g.app.dirty = false
+	if !g.drawn {
+		g.drawn = true
+		g.window.Set("evenbeatFirstFrame", g.window.Get("performance").Call("now"))
+		if el := g.window.Get("document").Call("getElementById", "loading"); el.Truthy() {
+			el.Get("style").Set("display", "none")
+		}
+	}
+}

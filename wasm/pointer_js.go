@@ -1,0 +1,64 @@
+//go:build js
+
+package main
+
+import (
+	"sync"
+	"syscall/js"
+
+	"evenbeat/render"
+)
+
+// pointerQueue collects pointer events from JavaScript listeners as they
+// happen. Ebiten polls input once per tick, so a press and release inside
+// one slow frame would be lost; the queue keeps both, and Update drains it.
+type pointerQueue struct {
+	mu     sync.Mutex
+	events []pointerEvent
+	seen   bool // any event has arrived: the listeners work
+	funcs  []js.Func
+}
+
+// newPointerQueue listens on the document (capture phase, passive), so it
+// hears the canvas ebiten adds later too.
+func newPointerQueue() *pointerQueue {
+	q := &pointerQueue{}
+	doc := js.Global().Get("document")
+	opts := map[string]any{"capture": true, "passive": true}
+	for name, kind := range map[string]pointerKind{
+		"pointerdown":   pointerDown,
+		"pointerup":     pointerUp,
+		"pointercancel": pointerCancel,
+	} {
+		kind := kind
+		f := js.FuncOf(func(this js.Value, args []js.Value) any {
+			ev := args[0]
+			q.push(pointerEvent{
+				Kind: kind,
+				ID:   ev.Get("pointerId").Int(),
+				At:   render.Point{X: ev.Get("clientX").Float(), Y: ev.Get("clientY").Float()},
+			})
+			return nil
+		})
+		q.funcs = append(q.funcs, f)
+		doc.Call("addEventListener", name, f, opts)
+	}
+	return q
+}
+
+func (q *pointerQueue) push(ev pointerEvent) {
+	q.mu.Lock()
+	q.events = append(q.events, ev)
+	q.seen = true
+	q.mu.Unlock()
+}
+
+// Drain appends the queued events to dst in arrival order and empties the
+// queue; it also reports whether the listeners have ever delivered one.
+func (q *pointerQueue) Drain(dst []pointerEvent) ([]pointerEvent, bool) {
+	q.mu.Lock()
+	defer q.mu.Unlock()
+	dst = append(dst, q.events...)
+	q.events = q.events[:0]
+	return dst, q.seen
+}

@@ -384,3 +384,42 @@ func short(raw json.RawMessage) string {
 	}
 	return s
 }
+
+// Plausibility limits for Warnings: typical values, used to warn and never
+// to refuse.
+const (
+	rodCranksLow, rodCranksHigh = 4.0, 10.0 // a rod about 6 cranks long is ordinary (J. Rose, Modern Machine Shop Practice, 1888)
+	exhaustClearanceMax         = 25.4 / 16 // mm: exhaust clearance seldom more than 1/16 in (common practice)
+	fullGearCutOffMin           = 75.0      // %: full-gear cut-off at least 75 % in miniature for easy starting (common practice)
+)
+
+// Warnings returns sentences about values of a valid spec that lie far
+// outside what is usual, for the user to confirm; it never refuses
+// anything. It checks the rod length in cranks, each end's exhaust
+// clearance, and the mean full-forward-gear cut-off. A spec that does not
+// validate gives no warnings (Validate says what is wrong).
+func (s EngineSpec) Warnings() []string {
+	if s.Validate() != nil {
+		return nil
+	}
+	var w []string
+	if k := s.Engine.RodLength / s.Engine.CrankRadius; k < rodCranksLow || k > rodCranksHigh {
+		w = append(w, fmt.Sprintf("The connecting rod is %.1f cranks long; about 6 is usual. Check the rod length and crank radius.", k))
+	}
+	for _, end := range [2]CylinderEnd{Front, Back} {
+		if c := -s.Valve.End(end).ExhaustLap; c > exhaustClearanceMax {
+			w = append(w, fmt.Sprintf("The %s exhaust clearance is %.2f mm; more than %.1f mm is unusual. Check the sign of the exhaust lap (negative means clearance).", end, c, exhaustClearanceMax))
+		}
+	}
+	g, _ := s.Gear.Gear()
+	t, err := Table(s.Engine, s.Valve, g, []Notch{{"full forward", 1}}, []Direction{Forward})
+	if err == nil {
+		f, b := t.Rows[0].Events.Front, t.Rows[0].Events.Back
+		if !f.NeverOpens && !b.NeverOpens && !f.NeverCloses && !b.NeverCloses {
+			if m := (f.CutOff.StrokePercent + b.CutOff.StrokePercent) / 2; m < fullGearCutOffMin {
+				w = append(w, fmt.Sprintf("The full-gear cut-off is %.0f %% of the stroke; at least %.0f %% is usual so that the engine starts easily.", m, fullGearCutOffMin))
+			}
+		}
+	}
+	return w
+}

@@ -15,7 +15,7 @@ const (
 	AckLabel = "I understand"
 	// CautionsTitle is the heading of the cautions card.
 	CautionsTitle  = "Before you turn the wheels"
-	cautionSizeMax = 17 // largest body size the card tries
+	cautionSizeMax = 19 // largest body size the card tries
 	bulletIndent   = 18 // space for the bullet before each caution
 	paraGap        = 6  // extra space between cautions
 )
@@ -34,7 +34,7 @@ type CautionsLayout struct {
 }
 
 // LayoutCautions lays out the card for the given cautions in box, choosing
-// the largest body size from 17 down to 14 at which everything fits above
+// the largest body size from 19 down to 14 at which everything fits above
 // the button. When nothing fits, Size is 14, Fits is false and the text
 // runs under the button: the caller should give a taller box (see
 // CautionsHeight) or let the card scroll.
@@ -85,9 +85,9 @@ func CautionsHeight(width float64) float64 {
 // width).
 func Cautions(c Canvas, box Rect, th Theme) (ack Rect) {
 	l := LayoutCautions(box, setting.Cautions())
-	card := RoundRect(box, cardRadius)
-	c.Fill(card, FillStyle{Color: th.Surface})
-	c.Stroke(card, LineStyle{Color: th.Warn, Width: 2})
+	c.Fill(RoundRect(box, cardRadius), FillStyle{Color: th.Surface})
+	// The border is stroked inside the box: half its width in from the edge.
+	c.Stroke(RoundRect(box.Inset(1), cardRadius-1), LineStyle{Color: th.Warn, Width: 2})
 
 	// Title with a warning triangle.
 	ts := TextStyle{Color: th.Ink, Size: TitleSize + 2, Bold: true}
@@ -121,7 +121,7 @@ func warningSign(c Canvas, at Point, size float64, th Theme) {
 	p.LineTo(Point{at.X + size/2, at.Y + h/2})
 	p.LineTo(Point{at.X - size/2, at.Y + h/2})
 	p.Close()
-	c.Fill(Outline(p, LineStyle{Width: size * 0.12}), FillStyle{Color: th.Warn})
+	c.Stroke(p, LineStyle{Color: th.Warn, Width: size * 0.12}) // rounds the corners
 	c.Fill(p, FillStyle{Color: th.Warn})
 	var bar Path
 	bar.MoveTo(Point{at.X, at.Y - h*0.15})

@@ -38,25 +38,31 @@ type PistonLayout struct {
 	Plot     Rect     // the plotting area (axes at its left and bottom)
 	XTicksY  float64  // top of the x tick labels
 	XLabelY  float64  // top of the x-axis label
-	LegendY  float64  // top of the first legend row
+	Legend   Point    // top-left of the first legend row
 	Caption  []string // wrapped caption lines
+	CaptionX float64  // left of the caption lines
 	CaptionY float64  // top of the first caption line
 }
+
+// sideColumnFrom is the inner width from which the legend and caption move
+// beside the plot instead of under it (a phone on its side, a report).
+const sideColumnFrom = 600
 
 // lineStep returns the baseline-to-baseline distance of text of a size.
 func lineStep(size float64) float64 { return size * LineHeight }
 
 // LayoutPiston lays out the piston diagram in box for the given title,
-// figures and caption texts. The plot takes whatever height is left, but
-// never less than 40 units (on a box too small for that the diagram
-// overflows at the bottom rather than squash the plot to nothing).
+// figures and caption texts. Narrow boxes stack legend and caption under
+// the plot; boxes at least sideColumnFrom wide inside put them in a column
+// on the right. The plot takes whatever height is left, but never less
+// than 40 units (on a box too small for that the diagram overflows at the
+// bottom rather than squash the plot to nothing).
 func LayoutPiston(box Rect, title, sub, caption string) PistonLayout {
 	var l PistonLayout
 	l.Inner = box.Inset(cardPad)
 	w := l.Inner.W()
 	l.Title = Wrap(title, w, TitleSize, true)
 	l.Sub = Wrap(sub, w, BodySize, false)
-	l.Caption = Wrap(caption, w, BodySize, false)
 	y := l.Inner.Min.Y
 	l.TitleY = y
 	y += float64(len(l.Title)) * lineStep(TitleSize)
@@ -67,19 +73,33 @@ func LayoutPiston(box Rect, title, sub, caption string) PistonLayout {
 	top := y
 	left := l.Inner.Min.X + TextWidth("100", BodySize, false) + tickLen + 4
 	right := l.Inner.Max.X - TextWidth("360", BodySize, false)/2
-	// Below the plot: tick labels, axis label, four legend rows, caption.
-	below := tickLen + 2 + lineStep(BodySize) + lineStep(BodySize) + gap +
-		4*legendRow + gap + float64(len(l.Caption))*lineStep(BodySize)
+	axisBelow := tickLen + 2 + 2*lineStep(BodySize) // tick labels and axis label
+	legendH := 4.0 * legendRow
+	var below float64
+	if w >= sideColumnFrom {
+		side := math.Min(300, 0.38*w)
+		l.Legend = Point{l.Inner.Max.X - side, l.YLabelY}
+		l.Caption = Wrap(caption, side, BodySize, false)
+		l.CaptionX = l.Legend.X
+		l.CaptionY = l.Legend.Y + legendH + gap
+		right = l.Legend.X - 2*gap - TextWidth("360", BodySize, false)/2
+		below = axisBelow
+	} else {
+		l.Caption = Wrap(caption, w, BodySize, false)
+		below = axisBelow + gap + legendH + gap + float64(len(l.Caption))*lineStep(BodySize)
+	}
 	bottom := math.Max(l.Inner.Max.Y-below, top+40)
 	l.Plot = Rect{Point{left, top}, Point{right, bottom}}
 	y = bottom + tickLen + 2
 	l.XTicksY = y
 	y += lineStep(BodySize)
 	l.XLabelY = y
-	y += lineStep(BodySize) + gap
-	l.LegendY = y
-	y += 4*legendRow + gap
-	l.CaptionY = y
+	if w < sideColumnFrom {
+		y += lineStep(BodySize) + gap
+		l.Legend = Point{l.Inner.Min.X, y}
+		l.CaptionX = l.Inner.Min.X
+		l.CaptionY = y + legendH + gap
+	}
 	return l
 }
 
@@ -90,21 +110,23 @@ func LayoutPiston(box Rect, title, sub, caption string) PistonLayout {
 // angularity shows, both dead centres marked (front: round marker, back:
 // square), axes with round ticks, and a title with the engine's figures.
 // An engine that fails Validate gets the card with the validation message
-// in place of the plot.
+// in place of the plot. The curves use setting.Engine.Prepare's exact
+// slider-crank.
 func PistonCurve(c Canvas, e setting.Engine, box Rect, th Theme) {
 	c.Fill(RoundRect(box, cardRadius), FillStyle{Color: th.Surface})
 	const title = "Piston position against crank angle"
-	if err := e.Validate(); err != nil {
+	crank, err := e.Prepare()
+	if err != nil {
 		in := box.Inset(cardPad)
 		drawLines(c, Point{in.Min.X, in.Min.Y}, Wrap(title, in.W(), TitleSize, true), TextStyle{Color: th.Ink, Size: TitleSize, Bold: true})
 		y := in.Min.Y + lineStep(TitleSize) + gap
 		drawLines(c, Point{in.Min.X, y}, Wrap(err.Error(), in.W(), BodySize, false), TextStyle{Color: th.Warn, Size: BodySize})
 		return
 	}
-	bdc := e.BackDeadCentre()
+	bdc := crank.BackDeadCentre()
 	sub := fmt.Sprintf("Crank radius %s mm, connecting rod %s mm, stroke %s mm. Back dead centre at %s°.",
-		mm(e.CrankRadius), mm(e.RodLength), mm(e.Stroke()), deg(bdc))
-	at90 := 100 * e.PistonFraction(90)
+		mm(e.CrankRadius), mm(e.RodLength), mm(crank.Stroke()), deg(bdc))
+	at90 := 100 * crank.PistonFraction(90)
 	caption := fmt.Sprintf("At 90° the piston has gone %s %% of its stroke, not 50 %%: the rod's angle puts it ahead of the pure cosine in the first half turn and behind it in the second.", pct(at90))
 	l := LayoutPiston(box, title, sub, caption)
 
@@ -146,7 +168,7 @@ func PistonCurve(c Canvas, e setting.Engine, box Rect, th Theme) {
 
 	// Curves: the infinitely long rod first, so the real one lies on top.
 	c.Stroke(curve(xs, ys, func(th float64) float64 { return 50 * (1 - math.Cos(th*math.Pi/180)) }), th.CompareLine())
-	c.Stroke(curve(xs, ys, func(th float64) float64 { return 100 * e.PistonFraction(th) }), th.CurveLine())
+	c.Stroke(curve(xs, ys, func(th float64) float64 { return 100 * crank.PistonFraction(th) }), th.CurveLine())
 
 	// Dead centres: front at 0 and 360, back at its own angle.
 	bx := xs.At(bdc)
@@ -159,9 +181,9 @@ func PistonCurve(c Canvas, e setting.Engine, box Rect, th Theme) {
 	th.BackMark(c, Point{bx, ys.At(100)})
 
 	// Legend.
-	x0 := l.Inner.Min.X
+	x0 := l.Legend.X
 	tx := x0 + legendLineW + 10
-	y := l.LegendY + legendRow/2
+	y := l.Legend.Y + legendRow/2
 	sample := func(s LineStyle) {
 		var p Path
 		p.MoveTo(Point{x0, y})
@@ -181,7 +203,7 @@ func PistonCurve(c Canvas, e setting.Engine, box Rect, th Theme) {
 	th.BackMark(c, Point{x0 + legendLineW/2, y})
 	label("back dead centre, " + deg(bdc) + "°")
 
-	drawLines(c, Point{l.Inner.Min.X, l.CaptionY}, l.Caption, ink)
+	drawLines(c, Point{l.CaptionX, l.CaptionY}, l.Caption, ink)
 }
 
 // curve samples f (per cent of stroke against crank angle in degrees)

@@ -1,0 +1,461 @@
+package session
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+	"time"
+
+	"evenbeat/setting"
+)
+
+// Plausibility ranges. They are common practice, from memory, to be
+// replaced by cited values where a published source gives them; they only
+// ever give warnings.
+const (
+	// leadLowMM and leadHighMM bound the usual full-gear lead of a 5 in
+	// gauge engine (common practice, from memory). Larger engines scale the
+	// band by crank radius over typicalCrankMM.
+	leadLowMM  = 0.1
+	leadHighMM = 0.4
+	// typicalCrankMM is a typical 5 in gauge crank radius (from memory:
+	// strokes of 1.5 to 2.5 in).
+	typicalCrankMM = 25
+	// cutOffLow and cutOffHigh bound the usual full-gear cut-off, percent of
+	// stroke (common practice, from memory; published-checks C7 asks for at
+	// least 75 % in miniature).
+	cutOffLow  = 65
+	cutOffHigh = 88
+	// coarseGaugeMM: a gauge coarser than this cannot show a lead to the
+	// hundredth (common practice).
+	coarseGaugeMM = 0.03
+	// roughMarkDeg: marks rougher than this make dead-centre readings
+	// unreliable (about 0.1 mm of lead per degree on a 5 in gauge engine,
+	// valve-setting primer section 4, common practice).
+	roughMarkDeg = 2
+)
+
+// Check returns the values that are possible but unusual: a lead outside
+// the usual band, a wheel of odd size, marks far apart. Each names its
+// field. Check never refuses anything; Decode has already refused what is
+// impossible.
+func (s *Session) Check() []Warning {
+	var w []Warning
+	add := func(field, format string, args ...any) {
+		w = append(w, Warning{field, fmt.Sprintf(format, args...)})
+	}
+	m := s.Measuring
+	if m.WheelDiameterMM < 40 || m.WheelDiameterMM > 2500 {
+		add("measuring.wheel_diameter_mm", "A wheel of %s mm is unusual for an engine with valve gear; check that the diameter is in mm.", fmtNum(m.WheelDiameterMM))
+	}
+	if m.GaugeResolutionMM > coarseGaugeMM {
+		add("measuring.gauge_resolution_mm", "A gauge reading to %s mm cannot show a lead to a hundredth of a mm; a 0.01 mm (or 0.001 in) gauge is usual.", fmtNum(m.GaugeResolutionMM))
+	}
+	if md := math.Abs(m.MarkError.Degrees(m.WheelDiameterMM)); md > roughMarkDeg {
+		add("measuring.mark_error_"+string(m.MarkError.Scale), "A mark error of %.1f degrees of crank is rough: near dead centre each degree can move the valve about 0.1 mm on a 5 in gauge engine. Finer marks, or sweeps, give a better plan.", md)
+	}
+	for i, a := range s.Adjustments {
+		if p := a.Thread.Pitch(); a.Thread != (Thread{}) && (p < 0.2 || p > 6) {
+			add(fmt.Sprintf("adjustments[%d].thread", i), "A thread pitch of %s mm is unusual for an adjusting thread; check the pitch (or the threads per inch).", fmtNum(p))
+		}
+	}
+	for ci := range s.Cylinders {
+		w = append(w, s.checkCylinder(ci)...)
+	}
+	return w
+}
+
+// checkCylinder returns the warnings of one cylinder.
+func (s *Session) checkCylinder(ci int) []Warning {
+	var w []Warning
+	add := func(field, format string, args ...any) {
+		w = append(w, Warning{field, fmt.Sprintf(format, args...)})
+	}
+	c := &s.Cylinders[ci]
+	cp := fmt.Sprintf("cylinders[%d]", ci)
+	a, err := s.angles(ci)
+	if err != nil {
+		add(cp+".differences", "This cylinder's engine cannot be read: %s", messageOf(err))
+		return w
+	}
+	for i, dc := range c.DeadCentres {
+		span := dc.SpanDeg(s.Measuring.WheelDiameterMM)
+		f := fmt.Sprintf("%s.dead_centres[%d]", cp, i)
+		switch {
+		case span == 0:
+			// Readiness reports identical marks.
+		case span < 2:
+			add(f, "The two marks are only %.1f degrees apart: the crosshead was marked very close to the end of its travel, where it hardly moves, so the midpoint is uncertain. Mark it 20 to 40 degrees of crank before dead centre.", span)
+		case span > 120:
+			add(f, "The two marks are %.0f degrees of crank apart, turning %s; marks either side of a dead centre are usually 20 to 60 degrees apart. Check their order and the turning direction.", span, dc.Direction)
+		}
+	}
+	if a.info.haveEngine {
+		for _, dir := range []Direction{Forward, Backward} {
+			fdc, okF := a.deadCentre(Front, dir)
+			bdc, okB := a.deadCentre(Back, dir)
+			if okF && okB {
+				got := wrap(bdc-fdc, 360)
+				if want := a.geomBack; math.Abs(got-want) > 5 {
+					add(cp+".dead_centres", "Turning %s, the bracketed dead centres are %.1f degrees apart, but the engine's geometry puts them %.1f degrees apart. Check the marks, the wheel diameter and the cylinder offset.", dir, got, want)
+				}
+			}
+		}
+	}
+	obs, err := s.Observations(ci)
+	if err != nil {
+		return w
+	}
+	band := 1.0
+	if cr := a.info.engine.CrankRadius; cr > 2*typicalCrankMM {
+		band = cr / typicalCrankMM
+	}
+	for ri, r := range c.Rounds {
+		rp := fmt.Sprintf("%s.rounds[%d]", cp, ri)
+		if ri > 0 {
+			if d0, e0 := parseDate(c.Rounds[ri-1].Date); e0 == nil {
+				if d1, e1 := parseDate(r.Date); e1 == nil && d1.Before(d0) {
+					add(rp+".date", "This round is dated %s, before the round before it (%s); rounds are kept oldest first.", r.Date, c.Rounds[ri-1].Date)
+				}
+			}
+		}
+		for i, ch := range r.AdjustmentsBefore {
+			for _, adj := range s.Adjustments {
+				if adj.Kind == ch.Kind && adj.Eccentric == ch.Eccentric && (ch.Amount < adj.Min || ch.Amount > adj.Max) {
+					add(fmt.Sprintf("%s.adjustments_before[%d]", rp, i), "This change (%s) is outside the adjustment's limits (%s to %s); check the change or the limits.", fmtNum(ch.Amount), fmtNum(adj.Min), fmtNum(adj.Max))
+				}
+			}
+		}
+		edges, ok := roundEdges(obs, ri)
+		if !ok {
+			continue
+		}
+		if lf, lb := a.info.steamLap[0], a.info.steamLap[1]; lf+lb > 0 {
+			apart := math.Abs(edges[1] - edges[0])
+			if math.Abs(apart-(lf+lb)) > math.Max(0.5, 0.25*(lf+lb)) {
+				add(rp+".port_marks", "The port marks are %s mm apart, but the engine's steam laps add up to %s mm; check the marks or the laps.", fmtNum(round3(apart)), fmtNum(round3(lf+lb)))
+			}
+		}
+		for _, o := range obs {
+			if o.Round != ri || !o.HasCrank || math.Abs(float64(o.Reverser)) != 1 {
+				continue
+			}
+			switch o.Kind {
+			case AtDeadCentre:
+				lead := a.lead(o, edges)
+				lo, hi := leadLowMM*band, leadHighMM*band
+				if lead < 0 {
+					add(o.Field, "The lead at %s is %s mm: the port is still closed at dead centre (negative lead).", o.Label, fmtNum(round3(lead)))
+				} else if lead < lo || lead > hi {
+					add(o.Field, "The lead at %s is %s mm, outside the usual %s to %s mm (common practice for this size of engine, from memory).", o.Label, fmtNum(round3(lead)), fmtNum(round3(lo)), fmtNum(round3(hi)))
+				}
+			case CutOffKind:
+				if !a.info.haveEngine {
+					continue
+				}
+				pct := 100 * a.info.engine.PistonFraction(o.CrankDeg)
+				if o.End == Back {
+					pct = 100 - pct
+				}
+				if pct < cutOffLow || pct > cutOffHigh {
+					add(o.Field, "The %s is at %.0f %% of the stroke; full-gear cut-off is usually 70 to 80 %% (common practice, from memory).", o.Label, pct)
+				}
+			}
+		}
+		for i, f := range r.FeelerOpenings {
+			if a.info.pistonValve {
+				add(fmt.Sprintf("%s.feeler_openings[%d]", rp, i), "Feeler openings are measured on a slide valve with the chest open, but this engine has a piston valve; check the reading.")
+			}
+			if pw := a.info.portWidth[endIndex(f.Port)]; pw > 0 && f.OpeningMM > pw {
+				add(fmt.Sprintf("%s.feeler_openings[%d].opening_mm", rp, i), "The opening %s mm is wider than the port (%s mm).", fmtNum(f.OpeningMM), fmtNum(pw))
+			}
+		}
+	}
+	return w
+}
+
+// endIndex is 0 for the front, 1 for the back.
+func endIndex(e End) int {
+	if e == Back {
+		return 1
+	}
+	return 0
+}
+
+func round3(x float64) float64 { return math.Round(x*1000) / 1000 }
+
+func parseDate(s string) (time.Time, error) {
+	if t, err := time.Parse("2006-01-02", s); err == nil {
+		return t, nil
+	}
+	return time.Parse(time.RFC3339, s)
+}
+
+// roundEdges returns the normalised steam-edge gauge readings (front,
+// back) of round ri from the observations.
+func roundEdges(obs []Observation, ri int) ([2]float64, bool) {
+	var e [2]float64
+	n := 0
+	for _, o := range obs {
+		if o.Round == ri && o.Kind == PortMarkKind {
+			e[endIndex(o.End)] = o.GaugeMM
+			n++
+		}
+	}
+	return e, n == 2
+}
+
+// lead returns the lead of a dead-centre observation given the round's
+// steam edges: how far the port is open to steam, negative when closed.
+func (a *angles) lead(o Observation, edges [2]float64) float64 {
+	s := 1.0 // internal admission: the front port opens as the valve moves forward
+	if a.info.admission == setting.External {
+		s = -1
+	}
+	if o.End == Back {
+		return -s * (o.GaugeMM - edges[1])
+	}
+	return s * (o.GaugeMM - edges[0])
+}
+
+// Readiness returns what stops or weakens a plan for cylinder cyl, judged
+// on its latest round: too few readings, readings that are all the same,
+// readings that contradict one another. An empty result means the readings
+// are enough for a plan.
+func (s *Session) Readiness(cyl int) []Problem {
+	var ps []Problem
+	add := func(blocking bool, field, format string, args ...any) {
+		ps = append(ps, Problem{Field: field, Blocking: blocking, Message: fmt.Sprintf(format, args...)})
+	}
+	if cyl < 0 || cyl >= len(s.Cylinders) {
+		add(true, "cylinders", "There is no cylinder %d; the session has %d.", cyl, len(s.Cylinders))
+		return ps
+	}
+	c := &s.Cylinders[cyl]
+	cp := fmt.Sprintf("cylinders[%d]", cyl)
+	if len(c.Rounds) == 0 {
+		add(true, cp+".rounds", "There are no readings for the %s cylinder yet. Take a round: the port marks, then gauge readings at both dead centres in full forward and full back gear (a sweep every 30 degrees is better still).", c.Name)
+		return ps
+	}
+	a, err := s.angles(cyl)
+	if err != nil {
+		add(true, cp+".differences", "This cylinder's engine cannot be read: %s", messageOf(err))
+		return ps
+	}
+	obs, err := s.Observations(cyl)
+	if err != nil {
+		f := cp
+		var e *setting.Error
+		if errors.As(err, &e) {
+			f = e.Field
+		}
+		add(true, f, "%s", messageOf(err))
+		return ps
+	}
+	ri := len(c.Rounds) - 1
+	r := &c.Rounds[ri]
+	rp := fmt.Sprintf("%s.rounds[%d]", cp, ri)
+	res := s.Measuring.GaugeResolutionMM
+
+	for i, dc := range c.DeadCentres {
+		if dc.First == dc.Second {
+			add(true, fmt.Sprintf("%s.dead_centres[%d]", cp, i), "The two bracketing marks of the %s dead centre are the same (%s): mark the tyre once a little before dead centre and once after, where the crosshead comes back to the same place.", dc.End, fmtNum(dc.First))
+		}
+	}
+	usesMarks := false
+	for _, x := range r.Sweeps {
+		usesMarks = usesMarks || len(x.Readings) > 0
+	}
+	for _, x := range r.CutOffs {
+		usesMarks = usesMarks || x.At.Scale != ""
+	}
+	for _, x := range r.FeelerOpenings {
+		usesMarks = usesMarks || x.At.Scale != ""
+	}
+	if usesMarks {
+		if _, ok := a.deadCentre(Front, Forward); !ok {
+			add(false, cp+".dead_centres", "Front dead centre has not been found by bracketing marks, so marks round the wheel are counted as if the datum were front dead centre. Bracket front dead centre (mark the tyre either side of it) for a better plan.")
+		}
+	}
+
+	// Steam edges: this round's, or an earlier round's if the valve has not
+	// been moved on its spindle since.
+	edges, haveEdges := roundEdges(obs, ri)
+	if !haveEdges {
+		for k := ri - 1; k >= 0 && !haveEdges; k-- {
+			moved := false
+			for j := k + 1; j <= ri; j++ {
+				for _, ch := range c.Rounds[j].AdjustmentsBefore {
+					moved = moved || ch.Kind == ValveOnSpindle
+				}
+			}
+			if moved {
+				break
+			}
+			if edges, haveEdges = roundEdges(obs, k); haveEdges {
+				add(false, rp, "This round has no port marks; those of round %d are used. That holds only if the gauge has not been moved or re-set since.", k+1)
+			}
+		}
+	}
+	if !haveEdges && len(r.FeelerOpenings) == 0 {
+		add(true, rp+".port_marks", "The port marks are missing: without the gauge readings where each steam edge cracks, leads and cut-offs cannot be found. Find where each steam edge is line-on-line (or give the laps and the gauge reading at valve centre).")
+	}
+	if haveEdges {
+		external := a.info.admission == setting.External
+		switch {
+		case edges[0] == edges[1]:
+			add(true, rp+".port_marks", "The front and back port marks are the same reading; the two steam edges crack at different valve positions (steam lap either side of centre). Re-take the port marks.")
+		case external && edges[0] > edges[1], !external && edges[0] < edges[1]:
+			want := "lower"
+			if !external {
+				want = "higher"
+			}
+			add(true, rp+".port_marks", "The port marks are the wrong way round for %s admission: the front steam edge should crack at the %s reading when the gauge grows as the valve moves %s. Check which mark is which, and measuring.gauge_increases_toward.", a.info.admission, want, directionWords(s.Measuring.GaugeIncreases))
+		}
+	}
+
+	// Enough readings, and not all the same.
+	type key struct {
+		rev setting.Reverser
+		dir Direction
+	}
+	dcs := map[key]map[End][]Observation{}
+	var sweeps, usable int
+	var forwardGear, backGear bool
+	for _, o := range obs {
+		if o.Round != ri || !o.HasCrank {
+			continue
+		}
+		usable++
+		forwardGear = forwardGear || o.Reverser > 0
+		backGear = backGear || o.Reverser < 0
+		if o.Kind == AtDeadCentre {
+			k := key{o.Reverser, o.Direction}
+			if dcs[k] == nil {
+				dcs[k] = map[End][]Observation{}
+			}
+			dcs[k][o.End] = append(dcs[k][o.End], o)
+		}
+	}
+	if usable == 0 {
+		add(true, rp, "This round has no readings at crank positions. Take gauge readings at both dead centres in full forward and full back gear, or a sweep.")
+		return ps
+	}
+	keys := make([]key, 0, len(dcs))
+	for k := range dcs {
+		keys = append(keys, k)
+	}
+	sort.Slice(keys, func(i, j int) bool {
+		if keys[i].rev != keys[j].rev {
+			return keys[i].rev > keys[j].rev
+		}
+		return keys[i].dir < keys[j].dir
+	})
+	for _, k := range keys {
+		byEnd := dcs[k]
+		f, b := byEnd[Front], byEnd[Back]
+		for _, list := range [][]Observation{f, b} {
+			if len(list) > 1 {
+				lo, hi := spread(list)
+				if hi-lo > 3*res+0.02 {
+					add(false, list[1].Field, "The %s was read %d times, from %s to %s mm; the fit takes them together, but re-check the reading.", list[0].Label, len(list), fmtNum(lo), fmtNum(hi))
+				}
+			}
+		}
+		switch {
+		case len(f) > 0 && len(b) == 0:
+			add(false, f[0].Field, "Only the front dead centre was read in %s; read the back dead centre in the same position too, so that the ends can be compared.", settingWords(f[0]))
+		case len(b) > 0 && len(f) == 0:
+			add(false, b[0].Field, "Only the back dead centre was read in %s; read the front dead centre in the same position too, so that the ends can be compared.", settingWords(b[0]))
+		case len(f) > 0 && len(b) > 0 && math.Abs(f[0].GaugeMM-b[0].GaugeMM) < res && a.info.steamLap[0]+a.info.steamLap[1] > 0:
+			add(true, b[0].Field, "The gauge read the same at both dead centres in %s (%s mm), but the valve must move by about twice its lap plus lead between them. Check that the gauge is on the valve spindle and the gear is connected.", settingWords(f[0]), fmtNum(f[0].RawGaugeMM))
+		}
+	}
+	for i, w := range r.Sweeps {
+		wp := fmt.Sprintf("%s.sweeps[%d]", rp, i)
+		if len(w.Readings) == 0 {
+			continue
+		}
+		sweeps++
+		lo, hi := math.Inf(1), math.Inf(-1)
+		var ang []float64
+		for _, g := range w.Readings {
+			lo, hi = math.Min(lo, g.GaugeMM), math.Max(hi, g.GaugeMM)
+			deg, _ := a.crank(g.At, w.Direction)
+			ang = append(ang, deg)
+		}
+		if len(w.Readings) >= 3 && hi-lo <= res/2 {
+			add(true, wp, "All %d readings of this sweep are %s mm: the valve did not move, so the gauge is not on the spindle or the gear is disconnected. Re-take the sweep.", len(w.Readings), fmtNum(lo))
+			continue
+		}
+		sort.Float64s(ang)
+		for j := 1; j < len(ang); j++ {
+			if ang[j]-ang[j-1] < 1e-6 {
+				add(false, wp, "Two readings of this sweep are at the same place (%.1f degrees of crank); the fit takes them together.", ang[j])
+				break
+			}
+		}
+		if len(w.Readings) < 5 {
+			add(false, wp, "This sweep has only %d readings; at least 5 are needed to fit it on its own (offset and two harmonics), 12 or more (every 30 degrees) is better.", len(w.Readings))
+		} else if gap := largestGap(ang); gap > 90 {
+			add(false, wp, "This sweep leaves a gap of %.0f degrees of crank with no reading; take readings every 30 degrees or closer all the way round.", gap)
+		}
+	}
+	if len(dcs) == 0 && sweeps == 0 {
+		add(true, rp, "This round has no gauge readings at dead centres and no sweep, so the leads cannot be found. Read the gauge at both dead centres in full forward and full back gear, or take a sweep.")
+	}
+	if a.info.gearKind != setting.KindSingleEccentric {
+		if !backGear {
+			add(false, rp, "There are no readings in back gear, so only forward gear can be set. Take readings at both dead centres in full back gear too.")
+		}
+		if !forwardGear {
+			add(false, rp, "There are no readings in forward gear, so only back gear can be set. Take readings at both dead centres in full forward gear too.")
+		}
+	}
+	if len(r.CutOffs) > 0 && !haveEdges {
+		add(false, rp+".cut_offs", "Cut-off points need the port marks (the gauge reading at which the port closes); without them the cut-offs cannot be used.")
+	}
+	return ps
+}
+
+// spread returns the smallest and largest raw gauge readings of a list.
+func spread(list []Observation) (lo, hi float64) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for _, o := range list {
+		lo, hi = math.Min(lo, o.RawGaugeMM), math.Max(hi, o.RawGaugeMM)
+	}
+	return lo, hi
+}
+
+// largestGap returns the largest gap between sorted angles round a turn.
+func largestGap(sorted []float64) float64 {
+	if len(sorted) == 0 {
+		return 360
+	}
+	gap := sorted[0] + 360 - sorted[len(sorted)-1]
+	for j := 1; j < len(sorted); j++ {
+		gap = math.Max(gap, sorted[j]-sorted[j-1])
+	}
+	return gap
+}
+
+// settingWords names an observation's reverser and direction.
+func settingWords(o Observation) string { return o.setting() }
+
+// directionWords says which way the valve moves for a gauge direction.
+func directionWords(e End) string {
+	if e == Back {
+		return "back"
+	}
+	return "forward"
+}
+
+// messageOf returns an error's sentence without its field.
+func messageOf(err error) string {
+	var e *setting.Error
+	if errors.As(err, &e) {
+		return e.Message
+	}
+	return err.Error()
+}

@@ -1,0 +1,27 @@
+// Package session reads, writes and checks Evenbeat session files: one
+// engine being set, with its profile (geometry, what can be adjusted and
+// how, how it is measured) and every cylinder's readings, round by round,
+// as a setter takes them with a dial gauge on the valve spindle and marks
+// on the wheel tyre. The format is documented in docs/session-format.md.
+//
+// Units and conventions (the same as package setting):
+//
+//   - Lengths are mm, always, in the file and at the API; the display unit
+//     (mm or inch) only says how to show them. ParseLength reads what the
+//     user types ("0.005in", "5 thou", "1/16", "0.13 mm").
+//   - Angles are degrees. Crank angle is measured from front dead centre
+//     in the forward running direction of the wheel.
+//   - Marks round the wheel are mm round the tyre (TyreMM) or degrees
+//     (Deg) from a datum the setter chooses, numbered so that they grow as
+//     the wheel turns forward. Dead centre is midway between two bracketing
+//     marks (Midway).
+//   - Gauge readings are stored as read. Observations normalise them so
+//     that they grow as the valve moves toward the front cover.
+//
+// Decode validates every value and refuses files of another format or a
+// newer version; Check gives warnings for values that are possible but
+// unusual; Readiness says what a plan for a cylinder still lacks;
+// Observations turns the readings into the list a fitter works on.
+//
+// The package imports only the standard library and evenbeat/setting.
+package session

@@ -1,0 +1,343 @@
+package session
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"strconv"
+	"strings"
+)
+
+// The decoder reads the file into a small tree first (keys kept in order,
+// numbers kept as their text), so that every later check can name the exact
+// field it is looking at, duplicate keys are caught, and the engine object
+// can be handed to the engine decoder as it was written.
+
+type nodeKind int
+
+const (
+	nodeNull nodeKind = iota
+	nodeBool
+	nodeNumber
+	nodeString
+	nodeArray
+	nodeObject
+)
+
+// node is one JSON value.
+type node struct {
+	kind  nodeKind
+	text  string   // string value, or the number as written
+	b     bool     // bool value
+	keys  []string // object keys, in file order
+	vals  []*node  // object values, parallel to keys
+	elems []*node  // array elements
+}
+
+// maxFileBytes bounds what Decode reads: a session of many rounds is a few
+// hundred kilobytes; anything near this is not a session.
+const maxFileBytes = 16 << 20
+
+// readTree reads one JSON value and nothing after it.
+func readTree(r io.Reader) (*node, []byte, error) {
+	data, err := io.ReadAll(io.LimitReader(r, maxFileBytes+1))
+	if err != nil {
+		return nil, nil, userError("", fmt.Sprintf("The session file could not be read: %v.", err))
+	}
+	if len(data) > maxFileBytes {
+		return nil, nil, userError("", fmt.Sprintf("The file is larger than %d MB; a session file is far smaller. Is this the right file?", maxFileBytes>>20))
+	}
+	if len(bytes.TrimSpace(data)) == 0 {
+		return nil, nil, userError("", "The file is empty; a session file starts with {\"format\": \"evenbeat-session\", ...}.")
+	}
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.UseNumber()
+	n, err := readValue(dec, "")
+	if err != nil {
+		return nil, nil, syntaxError(data, dec, err)
+	}
+	if _, err := dec.Token(); err != io.EOF {
+		line, col := lineCol(data, dec.InputOffset())
+		return nil, nil, userError("", fmt.Sprintf("The file has more text after the end of the session (line %d, column %d); a session file holds one JSON object.", line, col))
+	}
+	return n, data, nil
+}
+
+// readValue reads one value from the token stream.
+func readValue(dec *json.Decoder, path string) (*node, error) {
+	tok, err := dec.Token()
+	if err != nil {
+		if err == io.EOF {
+			err = io.ErrUnexpectedEOF
+		}
+		return nil, err
+	}
+	switch t := tok.(type) {
+	case nil:
+		return &node{kind: nodeNull}, nil
+	case bool:
+		return &node{kind: nodeBool, b: t}, nil
+	case json.Number:
+		return &node{kind: nodeNumber, text: string(t)}, nil
+	case string:
+		return &node{kind: nodeString, text: t}, nil
+	case json.Delim:
+		switch t {
+		case '[':
+			n := &node{kind: nodeArray}
+			for dec.More() {
+				e, err := readValue(dec, fmt.Sprintf("%s[%d]", path, len(n.elems)))
+				if err != nil {
+					return nil, err
+				}
+				n.elems = append(n.elems, e)
+			}
+			if _, err := dec.Token(); err != nil {
+				return nil, err
+			}
+			return n, nil
+		case '{':
+			n := &node{kind: nodeObject}
+			for dec.More() {
+				kt, err := dec.Token()
+				if err != nil {
+					return nil, err
+				}
+				key, ok := kt.(string)
+				if !ok {
+					return nil, errors.New("object key is not a string")
+				}
+				p := joinPath(path, key)
+				if n.get(key) != nil {
+					return nil, &dupKeyError{path: p}
+				}
+				v, err := readValue(dec, p)
+				if err != nil {
+					return nil, err
+				}
+				n.keys = append(n.keys, key)
+				n.vals = append(n.vals, v)
+			}
+			if _, err := dec.Token(); err != nil {
+				return nil, err
+			}
+			return n, nil
+		}
+	}
+	return nil, fmt.Errorf("unexpected token %v", tok)
+}
+
+// dupKeyError reports a key written twice in one object.
+type dupKeyError struct{ path string }
+
+func (e *dupKeyError) Error() string { return "duplicate key " + e.path }
+
+// syntaxError turns a JSON reading error into a sentence with a line and
+// column.
+func syntaxError(data []byte, dec *json.Decoder, err error) error {
+	var dup *dupKeyError
+	if errors.As(err, &dup) {
+		return userError(dup.path, "This field is written twice; keep one of them.")
+	}
+	off := dec.InputOffset()
+	var se *json.SyntaxError
+	if errors.As(err, &se) {
+		off = se.Offset
+	}
+	line, col := lineCol(data, off)
+	if errors.Is(err, io.ErrUnexpectedEOF) {
+		return userError("", fmt.Sprintf("The file ends too early (line %d, column %d): it is cut short or a bracket is missing.", line, col))
+	}
+	msg := err.Error()
+	msg = strings.TrimPrefix(msg, "json: ")
+	return userError("", fmt.Sprintf("The file is not valid JSON at line %d, column %d: %s.", line, col, msg))
+}
+
+// lineCol converts a byte offset to a 1-based line and column.
+func lineCol(data []byte, off int64) (line, col int) {
+	if off > int64(len(data)) {
+		off = int64(len(data))
+	}
+	if off < 0 {
+		off = 0
+	}
+	before := data[:off]
+	line = bytes.Count(before, []byte("\n")) + 1
+	col = int(off) - bytes.LastIndexByte(before, '\n')
+	return line, col
+}
+
+// get returns the value of key in an object node, or nil.
+func (n *node) get(key string) *node {
+	for i, k := range n.keys {
+		if k == key {
+			return n.vals[i]
+		}
+	}
+	return nil
+}
+
+// joinPath appends an object key to a JSON-path-like field name.
+func joinPath(path, key string) string {
+	if !plainKey(key) {
+		key = strconv.Quote(key)
+	}
+	if path == "" {
+		return key
+	}
+	return path + "." + key
+}
+
+// plainKey reports whether key can be shown without quotes.
+func plainKey(key string) bool {
+	if key == "" {
+		return false
+	}
+	for _, r := range key {
+		if !(r == '_' || r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9') {
+			return false
+		}
+	}
+	return true
+}
+
+// describe names a JSON value's type for messages ("the text \"NaN\"").
+func (n *node) describe() string {
+	switch n.kind {
+	case nodeNull:
+		return "null"
+	case nodeBool:
+		return strconv.FormatBool(n.b)
+	case nodeNumber:
+		return "the number " + n.text
+	case nodeString:
+		s := n.text
+		if len(s) > 40 {
+			s = s[:40] + "..."
+		}
+		return "the text " + strconv.Quote(s)
+	case nodeArray:
+		return "a list"
+	default:
+		return "an object"
+	}
+}
+
+// writeCompact writes n as compact JSON, keys in order.
+func (n *node) writeCompact(b *bytes.Buffer) {
+	n.write(b, "", "")
+}
+
+// write writes n as JSON; with indent != "" each member starts a new line.
+func (n *node) write(b *bytes.Buffer, prefix, indent string) {
+	switch n.kind {
+	case nodeNull:
+		b.WriteString("null")
+	case nodeBool:
+		b.WriteString(strconv.FormatBool(n.b))
+	case nodeNumber:
+		b.WriteString(n.text)
+	case nodeString:
+		writeString(b, n.text)
+	case nodeArray:
+		if len(n.elems) == 0 {
+			b.WriteString("[]")
+			return
+		}
+		inner := prefix + indent
+		b.WriteByte('[')
+		for i, e := range n.elems {
+			if i > 0 {
+				b.WriteByte(',')
+			}
+			newline(b, inner, indent)
+			e.write(b, inner, indent)
+		}
+		newline(b, prefix, indent)
+		b.WriteByte(']')
+	case nodeObject:
+		if len(n.keys) == 0 {
+			b.WriteString("{}")
+			return
+		}
+		inner := prefix + indent
+		b.WriteByte('{')
+		for i, k := range n.keys {
+			if i > 0 {
+				b.WriteByte(',')
+			}
+			newline(b, inner, indent)
+			writeString(b, k)
+			b.WriteByte(':')
+			if indent != "" {
+				b.WriteByte(' ')
+			}
+			n.vals[i].write(b, inner, indent)
+		}
+		newline(b, prefix, indent)
+		b.WriteByte('}')
+	}
+}
+
+func newline(b *bytes.Buffer, prefix, indent string) {
+	if indent == "" {
+		return
+	}
+	b.WriteByte('\n')
+	b.WriteString(prefix)
+}
+
+// writeString writes s as a JSON string (HTML characters left alone).
+func writeString(b *bytes.Buffer, s string) {
+	var tmp bytes.Buffer
+	enc := json.NewEncoder(&tmp)
+	enc.SetEscapeHTML(false)
+	_ = enc.Encode(s) // a Go string always encodes
+	b.Write(bytes.TrimRight(tmp.Bytes(), "\n"))
+}
+
+// mergePatch applies an RFC 7396 JSON Merge Patch to target and returns the
+// result; target is not changed.
+func mergePatch(target, patch *node) *node {
+	if patch.kind != nodeObject {
+		return patch
+	}
+	out := &node{kind: nodeObject}
+	if target != nil && target.kind == nodeObject {
+		out.keys = append(out.keys, target.keys...)
+		out.vals = append(out.vals, target.vals...)
+	}
+	for i, k := range patch.keys {
+		v := patch.vals[i]
+		idx := -1
+		for j, ok := range out.keys {
+			if ok == k {
+				idx = j
+				break
+			}
+		}
+		if v.kind == nodeNull {
+			if idx >= 0 {
+				out.keys = append(out.keys[:idx:idx], out.keys[idx+1:]...)
+				out.vals = append(out.vals[:idx:idx], out.vals[idx+1:]...)
+			}
+			continue
+		}
+		if idx >= 0 {
+			out.vals[idx] = mergePatch(out.vals[idx], v)
+		} else {
+			out.keys = append(out.keys, k)
+			out.vals = append(out.vals, mergePatch(nil, v))
+		}
+	}
+	return out
+}
+
+// parseCompact parses JSON bytes known to be valid into a tree.
+func parseCompact(data []byte) (*node, error) {
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.UseNumber()
+	return readValue(dec, "")
+}

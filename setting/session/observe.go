@@ -1,0 +1,398 @@
+package session
+
+import (
+	"bytes"
+	"fmt"
+	"math"
+
+	"evenbeat/setting"
+)
+
+// Kind says what an observation measured.
+type Kind string
+
+// Observation kinds.
+const (
+	// AtDeadCentre: a gauge reading with the crank on a dead centre.
+	AtDeadCentre Kind = "dead centre"
+	// InSweep: a gauge reading at a mark round the wheel.
+	InSweep Kind = "sweep"
+	// PortMarkKind: the gauge reading at which End's steam edge cracks. It
+	// has no crank angle: it places the steam edge in gauge terms.
+	PortMarkKind Kind = "port mark"
+	// CutOffKind: the crank angle at which the valve closes End's steam port
+	// (back at End's port mark).
+	CutOffKind Kind = "cut-off"
+	// FeelerKind: End's port opening measured with feelers at a crank angle.
+	FeelerKind Kind = "feeler opening"
+)
+
+// CrossheadErrorMM is the error (one standard deviation) taken for a
+// crosshead position read off the slide bar with a rule: about 0.5 mm
+// (common practice, from memory).
+const CrossheadErrorMM = 0.5
+
+// Observation is one reading in the form a fitter uses: where the crank was
+// (degrees from front dead centre, in the forward running direction), the
+// reverser position, and what was read, with its error estimates.
+//
+// Gauge values are normalised so that they grow as the valve moves toward
+// the front cover, whichever way the gauge was mounted: GaugeMM = valve
+// displacement + an unknown gauge zero (one per round, since the gauge may
+// be re-set between rounds). A least-squares fitter weights the residual
+// model(CrankDeg, Reverser) + zero - GaugeMM by
+// 1 / sqrt(GaugeSigmaMM^2 + (slope x CrankSigmaDeg)^2), where slope is the
+// model's dv/dtheta in mm per degree there.
+type Observation struct {
+	Kind     Kind
+	Cylinder int    // index into Session.Cylinders
+	Round    int    // index into that cylinder's Rounds
+	Field    string // the reading's field in the file
+	// Label names the reading in words for messages: "back dead centre,
+	// full forward".
+	Label string
+
+	// HasCrank is false for port marks, which belong to no crank angle.
+	HasCrank bool
+	// CrankDeg is the crank angle in degrees from front dead centre in the
+	// forward running direction, in [0, 360).
+	CrankDeg float64
+	// CrankSigmaDeg is the estimated error of CrankDeg (one standard
+	// deviation, degrees) from the mark error and the dead-centre bracket.
+	CrankSigmaDeg float64
+
+	// Reverser is the reverser position (+1 full forward, 0 mid, -1 full
+	// back); Notch its name when one was given.
+	Reverser setting.Reverser
+	Notch    string
+	// Direction is the way the wheel was turned.
+	Direction Direction
+	// End is the dead centre (AtDeadCentre) or the port (PortMarkKind,
+	// CutOffKind, FeelerKind); empty for sweeps.
+	End End
+
+	// HasGauge is true when GaugeMM holds a reading: false for feeler
+	// openings, and for cut-offs in a round without port marks.
+	HasGauge bool
+	// GaugeMM is the normalised gauge reading (mm, growing as the valve
+	// moves forward). For a cut-off it is End's port mark in that round.
+	GaugeMM float64
+	// RawGaugeMM is the reading as the gauge showed it.
+	RawGaugeMM float64
+	// GaugeSigmaMM is the gauge reading's error: resolution / sqrt(12),
+	// the error of rounding to the nearest division.
+	GaugeSigmaMM float64
+
+	// OpeningMM is the measured port opening (FeelerKind), negative when
+	// covered.
+	OpeningMM float64
+}
+
+// CylinderEngine returns the engine as cylinder i is built: the session's
+// engine with the cylinder's Differences applied.
+func (s *Session) CylinderEngine(i int) (setting.EngineSpec, error) {
+	if i < 0 || i >= len(s.Cylinders) {
+		return setting.EngineSpec{}, userError("cylinders", fmt.Sprintf("There is no cylinder %d; the session has %d.", i, len(s.Cylinders)))
+	}
+	if len(s.Cylinders[i].Differences) == 0 {
+		return s.Engine, nil
+	}
+	base, err := encodeTree(s.Engine)
+	if err != nil {
+		return setting.EngineSpec{}, userError("engine", fmt.Sprintf("The engine cannot be read back: %v.", err))
+	}
+	patch, err := parseCompact(s.Cylinders[i].Differences)
+	if err != nil {
+		path := fmt.Sprintf("cylinders[%d].differences", i)
+		return setting.EngineSpec{}, userError(path, path+": must be a JSON object of the engine fields that differ.")
+	}
+	d := &decoder{}
+	spec, _ := d.engine(mergePatch(base, patch), fmt.Sprintf("cylinders[%d].differences", i))
+	if d.err != nil {
+		return setting.EngineSpec{}, d.err
+	}
+	return spec, nil
+}
+
+// angles converts marks of one cylinder to crank angles.
+type angles struct {
+	s        *Session
+	cyl      int
+	c        *Cylinder
+	info     specInfo
+	markSig  float64 // one mark's error in degrees
+	geomBack float64 // back dead centre from the geometry, degrees
+}
+
+func (s *Session) angles(cyl int) (*angles, error) {
+	spec, err := s.CylinderEngine(cyl)
+	if err != nil {
+		return nil, err
+	}
+	a := &angles{s: s, cyl: cyl, c: &s.Cylinders[cyl], info: infoOf(spec), geomBack: 180}
+	a.markSig = math.Abs(s.Measuring.MarkError.Degrees(s.Measuring.WheelDiameterMM))
+	if a.info.haveEngine {
+		a.geomBack = a.info.engine.BackDeadCentre()
+	}
+	return a, nil
+}
+
+// deadCentre returns the bracketed dead centre of end in degrees of the
+// datum scale, preferring one found turning in dir.
+func (a *angles) deadCentre(end End, dir Direction) (float64, bool) {
+	var found *DeadCentre
+	for i := range a.c.DeadCentres {
+		dc := &a.c.DeadCentres[i]
+		if dc.End == end && (found == nil || dc.Direction == dir) {
+			found = dc
+		}
+	}
+	if found == nil {
+		return 0, false
+	}
+	return found.Mark(a.s.Measuring.WheelDiameterMM).Degrees(a.s.Measuring.WheelDiameterMM), true
+}
+
+// crank converts a mark taken turning in dir to the crank angle from front
+// dead centre, with its error. Without a bracketed front dead centre the
+// datum itself is taken as front dead centre.
+func (a *angles) crank(m Mark, dir Direction) (deg, sigma float64) {
+	fdc, ok := a.deadCentre(Front, dir)
+	sigma = a.markSig
+	if ok {
+		sigma = a.markSig * math.Sqrt(1.5) // the mark, and the midpoint of two marks
+	}
+	return wrap(m.Degrees(a.s.Measuring.WheelDiameterMM)-fdc, 360), sigma
+}
+
+// atDeadCentre returns the crank angle of a dead centre, with its error.
+func (a *angles) atDeadCentre(end End, dir Direction) (deg, sigma float64) {
+	if end == Front {
+		return 0, a.markSig * math.Sqrt(1.5)
+	}
+	bdc, okB := a.deadCentre(Back, dir)
+	fdc, okF := a.deadCentre(Front, dir)
+	if okB && okF {
+		return wrap(bdc-fdc, 360), a.markSig * math.Sqrt(1.5)
+	}
+	if okB { // datum taken as front dead centre
+		return wrap(bdc, 360), a.markSig * math.Sqrt(1.5)
+	}
+	return a.geomBack, a.markSig * math.Sqrt(1.5)
+}
+
+// crosshead converts a crosshead travel from end's dead-centre position to
+// the crank angle at which it is reached, running in dir.
+func (a *angles) crosshead(end End, dir Direction, travel float64) (deg, sigma float64, err error) {
+	if !a.info.haveEngine {
+		return 0, 0, userError("engine", "The engine's crank geometry is needed to turn a crosshead position into a crank angle.")
+	}
+	e := a.info.engine
+	back := e.BackDeadCentre()
+	stroke := e.Stroke()
+	if !(travel > 0 && travel < stroke) {
+		return 0, 0, userError("crosshead_mm", fmt.Sprintf("The crosshead travel %s mm must lie between zero and the stroke (%s mm).", fmtNum(travel), fmtNum(stroke)))
+	}
+	// The front-end stroke runs from front dead centre to back dead centre
+	// in the running direction; the back-end stroke the other half turn.
+	var lo, hi float64
+	var target float64
+	front := e.CrossheadU(0)
+	rear := e.CrossheadU(back)
+	switch {
+	case end == Front && dir == Forward:
+		lo, hi, target = 0, back, front-travel
+	case end == Front && dir == Backward:
+		lo, hi, target = 360, back, front-travel
+	case end == Back && dir == Forward:
+		lo, hi, target = back, 360, rear+travel
+	default:
+		lo, hi, target = back, 0, rear+travel
+	}
+	// Bisection: f changes sign once between lo and hi (the crosshead moves
+	// one way through a stroke).
+	f := func(t float64) float64 { return e.CrossheadU(t) - target }
+	flo := f(lo)
+	for range 60 {
+		mid := (lo + hi) / 2
+		fm := f(mid)
+		if (fm < 0) == (flo < 0) {
+			lo, flo = mid, fm
+		} else {
+			hi = mid
+		}
+	}
+	deg = wrap((lo+hi)/2, 360)
+	// Error: the crosshead reading's error through the slope, plus the
+	// bracket of front dead centre the crank angle is counted from.
+	const h = 0.01
+	slope := math.Abs(e.CrossheadU(deg+h)-e.CrossheadU(deg-h)) / (2 * h) // mm per degree
+	sigma = math.Min(30, CrossheadErrorMM/math.Max(slope, 1e-9))
+	return deg, sigma, nil
+}
+
+// Observations returns every reading of cylinder cyl, all rounds, as
+// observations in file order: port marks (or laps) first in each round,
+// then dead-centre readings, sweeps, cut-offs and feeler openings.
+func (s *Session) Observations(cyl int) ([]Observation, error) {
+	a, err := s.angles(cyl)
+	if err != nil {
+		return nil, err
+	}
+	sign := 1.0
+	if s.Measuring.GaugeIncreases == Back {
+		sign = -1
+	}
+	gsig := s.Measuring.GaugeResolutionMM / math.Sqrt(12)
+	sense := 1.0 // valve displacement that opens the front port to steam
+	if a.info.admission == setting.External {
+		sense = -1
+	}
+	var out []Observation
+	for ri, r := range a.c.Rounds {
+		path := fmt.Sprintf("cylinders[%d].rounds[%d]", cyl, ri)
+		base := Observation{Cylinder: cyl, Round: ri, GaugeSigmaMM: gsig}
+		marks, haveMarks := portMarks(r, sign, sense)
+		if haveMarks {
+			field := path + ".port_marks"
+			if r.PortMarks == nil {
+				field = path + ".laps"
+			}
+			for k, end := range []End{Front, Back} {
+				o := base
+				o.Kind, o.End, o.Field = PortMarkKind, end, field
+				o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, marks[k], sign*marks[k]
+				o.Label = string(end) + " port mark"
+				out = append(out, o)
+			}
+		}
+		for i, d := range r.DeadCentreReadings {
+			o := base
+			o.Kind, o.End, o.Field = AtDeadCentre, d.End, fmt.Sprintf("%s.dead_centre_readings[%d]", path, i)
+			o.setReverser(d.Reverser, d.Direction, a.info)
+			o.HasCrank = true
+			o.CrankDeg, o.CrankSigmaDeg = a.atDeadCentre(d.End, d.Direction)
+			o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, sign*d.GaugeMM, d.GaugeMM
+			o.Label = fmt.Sprintf("%s dead centre, %s", d.End, o.setting())
+			out = append(out, o)
+		}
+		for i, w := range r.Sweeps {
+			for j, g := range w.Readings {
+				o := base
+				o.Kind, o.Field = InSweep, fmt.Sprintf("%s.sweeps[%d].readings[%d]", path, i, j)
+				o.setReverser(w.Reverser, w.Direction, a.info)
+				o.HasCrank = true
+				o.CrankDeg, o.CrankSigmaDeg = a.crank(g.At, w.Direction)
+				o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, sign*g.GaugeMM, g.GaugeMM
+				o.Label = fmt.Sprintf("sweep at %s, %s", markWords(g.At), o.setting())
+				out = append(out, o)
+			}
+		}
+		for i, c := range r.CutOffs {
+			o := base
+			o.Kind, o.End, o.Field = CutOffKind, c.End, fmt.Sprintf("%s.cut_offs[%d]", path, i)
+			o.setReverser(c.Reverser, c.Direction, a.info)
+			o.HasCrank = true
+			where := ""
+			if c.At.Scale != "" {
+				o.CrankDeg, o.CrankSigmaDeg = a.crank(c.At, c.Direction)
+				where = markWords(c.At)
+			} else {
+				var err error
+				o.CrankDeg, o.CrankSigmaDeg, err = a.crosshead(c.End, c.Direction, c.CrossheadMM)
+				if err != nil {
+					return nil, userError(o.Field+".crosshead_mm", messageOf(err))
+				}
+				where = "crosshead " + fmtNum(c.CrossheadMM) + " mm"
+			}
+			if haveMarks {
+				k := 0
+				if c.End == Back {
+					k = 1
+				}
+				o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, marks[k], sign*marks[k]
+			}
+			o.Label = fmt.Sprintf("%s cut-off at %s, %s", c.End, where, o.setting())
+			out = append(out, o)
+		}
+		for i, f := range r.FeelerOpenings {
+			o := base
+			o.Kind, o.End, o.Field = FeelerKind, f.Port, fmt.Sprintf("%s.feeler_openings[%d]", path, i)
+			o.setReverser(f.Reverser, f.Direction, a.info)
+			o.HasCrank = true
+			where := ""
+			if f.DeadCentre != "" {
+				o.CrankDeg, o.CrankSigmaDeg = a.atDeadCentre(f.DeadCentre, f.Direction)
+				where = string(f.DeadCentre) + " dead centre"
+			} else {
+				o.CrankDeg, o.CrankSigmaDeg = a.crank(f.At, f.Direction)
+				where = markWords(f.At)
+			}
+			o.GaugeSigmaMM = 0.01 // a feeler set steps in 0.01 mm or half a thou
+			o.OpeningMM = f.OpeningMM
+			o.Label = fmt.Sprintf("%s port opening at %s, %s", f.Port, where, o.setting())
+			out = append(out, o)
+		}
+	}
+	return out, nil
+}
+
+// portMarks returns a round's steam edges as normalised gauge readings,
+// front then back, from port marks or from laps.
+func portMarks(r Round, sign, sense float64) ([2]float64, bool) {
+	switch {
+	case r.PortMarks != nil:
+		return [2]float64{sign * r.PortMarks.FrontGaugeMM, sign * r.PortMarks.BackGaugeMM}, true
+	case r.Laps != nil:
+		c := sign * r.Laps.CentreGaugeMM
+		// The front steam edge is reached when sense*x = lap; the back one
+		// when -sense*x = lap (see setting.Admission).
+		return [2]float64{c + sense*r.Laps.FrontMM, c - sense*r.Laps.BackMM}, true
+	}
+	return [2]float64{}, false
+}
+
+// setReverser fills the reverser fields of an observation.
+func (o *Observation) setReverser(r ReverserPosition, d Direction, info specInfo) {
+	o.Direction = d
+	if r.Notch != "" {
+		o.Notch = r.Notch
+		o.Reverser = info.notches[r.Notch]
+		return
+	}
+	o.Reverser = r.Value
+}
+
+// setting describes the reverser and, when it is not the gear's own
+// running direction, the way the wheel was turned.
+func (o *Observation) setting() string {
+	w := o.Notch
+	if w == "" {
+		w = "reverser " + fmtNum(float64(o.Reverser))
+	}
+	natural := Forward
+	if o.Reverser < 0 {
+		natural = Backward
+	}
+	if o.Reverser == 0 || o.Direction != natural {
+		w += ", turned " + string(o.Direction)
+	}
+	return w
+}
+
+// markWords names a mark: "tyre 40.1 mm" or "45 deg".
+func markWords(m Mark) string {
+	if m.Scale == TyreMM {
+		return "tyre " + fmtNum(math.Round(m.Value*100)/100) + " mm"
+	}
+	return fmtNum(math.Round(m.Value*100)/100) + " deg"
+}
+
+// encodeTree writes an engine spec as a tree (for merging).
+func encodeTree(spec setting.EngineSpec) (*node, error) {
+	raw, err := encodeEngine(spec)
+	if err != nil {
+		return nil, err
+	}
+	return parseCompact(bytes.TrimSpace(raw))
+}

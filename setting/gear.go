@@ -22,3 +22,13 @@ type Gear interface {
 	// *Error naming the link and the crank angle.
 	Valve(e Engine, thetaDeg float64, r Reverser) (float64, error)
 }
+
+// PosedGear is a Gear that also gives the solved position of every joint,
+// for drawing the motion. Pose and Valve share one solution of the linkage,
+// so the drawing always shows the motion the events were found from.
+type PosedGear interface {
+	Gear
+	// Pose returns every joint and link at crank angle thetaDeg with the
+	// reverser at r, in the cylinder-line frame (mm); errors as Valve.
+	Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error)
+}

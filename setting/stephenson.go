@@ -39,11 +39,12 @@ func (l ExpansionLink) pin(side float64) Point {
 // r*ArmSwing degrees; +1 must bring the die block to the forward rod's end
 // of the link.
 //
-// Assembly: the link hangs with its rods running forward from the axle and
-// the lifting link on the side of the arm pin (above or below) that the
-// suspension pin has in mid gear with the link upright at the guide line;
-// each call solves the link's three loop equations by Newton's method from
-// that upright position, so no state is carried between calls.
+// Assembly: the link hangs with its rods running forward from the axle,
+// tilted less than about 64 degrees, and the lifting link runs from the arm
+// pin toward the side of the weighshaft the link is on (down when the
+// weighshaft is above the link); each call solves the link's three loop
+// equations by Newton's method from the upright position, so no state is
+// carried between calls.
 type Stephenson struct {
 	Forward      Eccentric     `json:"forward"`   // the eccentric and rod for forward running
 	Backward     Eccentric     `json:"backward"`  // the eccentric and rod for back running
@@ -91,14 +92,16 @@ type stephensonPose struct {
 	crank, fwdSheave, backSheave Point
 	fwdPin, backPin, suspension  Point
 	armPin, centre, die          Point
-	angle                        float64 // link rotation, radians anticlockwise from upright
+	sin, cos                     float64 // of the link's tilt anticlockwise from upright
 }
 
 // forwardSide returns +1 when the forward rod works the upper end of the
-// link, -1 the lower.
-func (g Stephenson) forwardSide(e Engine) float64 {
-	phi := crankRotation(e, 180) + g.Forward.sheaveAngle(g.sense(), true)
-	s := sign(onAxle(g.Forward.Throw, phi).W)
+// link, -1 the lower. With the crank on the far dead centre (about 180
+// degrees) a sheave set sense*90 + advance ahead of the crank stands at
+// W = throw*sense*cos(advance), so the forward sheave is above for external
+// admission (sense +1) and below for internal; open rods keep that side.
+func (g Stephenson) forwardSide() float64 {
+	s := g.sense()
 	if g.Crossed {
 		s = -s
 	}
@@ -115,105 +118,119 @@ func (g Stephenson) armPin(r Reverser) Point {
 	return g.Weighshaft.Add(Point{g.ReverseArm, 0}.Rotate(a))
 }
 
-// solve places every joint at crank angle thetaDeg.
-func (g Stephenson) solve(e Engine, thetaDeg float64, r Reverser) (stephensonPose, error) {
+// hang returns -1 when the lifting link runs down from the arm pin to the
+// link (the link hangs below the weighshaft), +1 when it runs up.
+func (g Stephenson) hang() float64 {
+	return sign(g.Guide + g.Link.Suspension.W - g.Weighshaft.W)
+}
+
+// solve places every joint at crank angle thetaDeg (the crank pin only when
+// withCrank: Valve does not need it).
+func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank bool) (stephensonPose, error) {
 	var p stephensonPose
 	if err := checkReverser(r); err != nil {
 		return p, err
 	}
 	phi := crankRotation(e, thetaDeg)
 	s := g.sense()
-	p.crank = onAxle(e.CrankRadius, phi)
+	if withCrank {
+		p.crank = onAxle(e.CrankRadius, phi)
+	}
 	p.fwdSheave = onAxle(g.Forward.Throw, phi+g.Forward.sheaveAngle(s, true))
 	p.backSheave = onAxle(g.Backward.Throw, phi+g.Backward.sheaveAngle(s, false))
 	p.armPin = g.armPin(r)
 
-	fs := g.forwardSide(e)
+	fs := g.forwardSide()
 	fLocal, bLocal, sLocal := g.Link.pin(fs), g.Link.pin(-fs), g.Link.Suspension
-	// Hang: the lifting link leaves the arm pin upward (+1) or downward (-1)
-	// as in mid gear with the link upright at the guide line.
-	hang := sign(g.Guide + sLocal.W - g.armPin(0).W)
+	hang := g.hang()
 
 	// Starting point: upright link whose suspension pin hangs straight from
-	// the arm pin, rod pins where rods of their length reach at that height.
+	// the arm pin, rod pins where rods of their length reach at that height,
+	// tilted to meet both.
 	centre := Point{0, p.armPin.W + hang*g.LiftingLink - sLocal.W}
 	reach := func(sheave Point, rod float64, local Point) float64 {
 		dw := centre.W + local.W - sheave.W
 		return sheave.U + math.Sqrt(math.Max(rod*rod-dw*dw, 0)) - local.U
 	}
 	uf, ub := reach(p.fwdSheave, g.Forward.Rod, fLocal), reach(p.backSheave, g.Backward.Rod, bLocal)
-	centre.U = (uf + ub) / 2
-	alpha := (uf - ub) / (bLocal.W - fLocal.W) // small-angle tilt that places both pins
-	centre.U += alpha * (fLocal.W + bLocal.W) / 2
-	// Newton's method on the three loop equations |pin - anchor|^2 = len^2.
+	sa := (uf - ub) / (bLocal.W - fLocal.W) // sine of the tilt that places both pins
+	centre.U = (uf+ub)/2 + sa*(fLocal.W+bLocal.W)/2
+	// Newton's method on the three loop equations (|pin - anchor|^2 -
+	// length^2) / (2 length) = 0 in the link centre and the sine of its tilt.
 	ok := false
-	for it := 0; it < 30; it++ {
-		sn, cs := math.Sincos(alpha)
-		rot := func(q Point) Point { return Point{q.U*cs - q.W*sn, q.U*sn + q.W*cs} }
-		var f [3]float64
-		var jac [3][3]float64
-		eq := func(i int, local, anchor Point, length float64) {
-			rq := rot(local)
-			d := centre.Add(rq).Sub(anchor)
-			f[i] = (d.Dot(d) - length*length) / (2 * length)
-			jac[i] = [3]float64{d.U / length, d.W / length, d.Dot(rq.Left()) / length}
+	var ca float64
+	for it := 0; it < 20; it++ {
+		if !(math.Abs(sa) < 0.9) {
+			break
 		}
-		eq(0, fLocal, p.fwdSheave, g.Forward.Rod)
-		eq(1, bLocal, p.backSheave, g.Backward.Rod)
-		eq(2, sLocal, p.armPin, g.LiftingLink)
-		dx, solved := solve3(jac, f)
+		ca = math.Sqrt(1 - sa*sa)
+		r0, f0 := loopRow(centre, ca, sa, fLocal, p.fwdSheave, g.Forward.Rod)
+		r1, f1 := loopRow(centre, ca, sa, bLocal, p.backSheave, g.Backward.Rod)
+		r2, f2 := loopRow(centre, ca, sa, sLocal, p.armPin, g.LiftingLink)
+		dx, solved := solve3([3][3]float64{r0, r1, r2}, [3]float64{f0, f1, f2})
 		if !solved {
 			break
 		}
 		centre.U -= dx[0]
 		centre.W -= dx[1]
-		alpha -= dx[2]
-		if math.Abs(dx[0])+math.Abs(dx[1])+math.Abs(dx[2])*g.Link.Radius < 1e-10 {
-			ok = true
+		sa -= dx[2]
+		if math.Abs(dx[0])+math.Abs(dx[1])+math.Abs(dx[2])*g.Link.Radius < newtonStep {
+			ok = math.Abs(sa) < 0.9
+			ca = math.Sqrt(1 - sa*sa)
 			break
 		}
 	}
-	rot := func(q Point) Point { return centre.Add(q.Rotate(alpha)) }
-	p.centre, p.angle = centre, alpha
-	p.fwdPin, p.backPin, p.suspension = rot(fLocal), rot(bLocal), rot(sLocal)
-	if !ok || !p.fwdPin.Finite() || math.Abs(alpha) > math.Pi/3 ||
-		p.fwdPin.U < p.fwdSheave.U || p.backPin.U < p.backSheave.U || (p.suspension.W-p.armPin.W)*hang < 0 {
+	place := func(q Point) Point { return centre.Add(Point{q.U*ca - q.W*sa, q.U*sa + q.W*ca}) }
+	p.centre, p.sin, p.cos = centre, sa, ca
+	p.fwdPin, p.backPin, p.suspension = place(fLocal), place(bLocal), place(sLocal)
+	if !ok || !p.fwdPin.Finite() || p.fwdPin.U < p.fwdSheave.U || p.backPin.U < p.backSheave.U || (p.suspension.W-p.armPin.W)*hang < 0 {
 		return p, closeError("lifting link length", "The eccentric rods and lifting link cannot hold the expansion link", thetaDeg)
 	}
 	var found bool
-	p.die, found = circleLine(rot(Point{-g.Link.Radius, 0}), g.Link.Radius, Point{0, g.Guide}, Point{1, 0}, 1)
+	p.die, found = circleLine(place(Point{-g.Link.Radius, 0}), g.Link.Radius, Point{0, g.Guide}, Point{1, 0}, 1)
 	if !found {
 		return p, closeError("valve guide height", "The expansion link does not reach the valve rod's guide line", thetaDeg)
 	}
 	return p, nil
 }
 
-// solve3 solves the 3x3 system a x = b by Cramer's rule.
+// loopRow returns one loop equation of the link, (|pin - anchor|^2 -
+// length^2) / (2 length), and its derivatives in the link centre's U and W
+// and the sine of its tilt, for a pin at local in the link's frame.
+func loopRow(centre Point, ca, sa float64, local, anchor Point, length float64) ([3]float64, float64) {
+	rq := Point{local.U*ca - local.W*sa, local.U*sa + local.W*ca}
+	d := centre.Add(rq).Sub(anchor)
+	k := 1 / length
+	return [3]float64{d.U * k, d.W * k, d.Dot(rq.Left()) * k / ca}, (d.Dot(d) - length*length) * k / 2
+}
+
+// solve3 solves the 3x3 system a x = b by cofactors.
 func solve3(a [3][3]float64, b [3]float64) ([3]float64, bool) {
-	det := func(m [3][3]float64) float64 {
-		return m[0][0]*(m[1][1]*m[2][2]-m[1][2]*m[2][1]) -
-			m[0][1]*(m[1][0]*m[2][2]-m[1][2]*m[2][0]) +
-			m[0][2]*(m[1][0]*m[2][1]-m[1][1]*m[2][0])
-	}
-	d := det(a)
-	if d == 0 || !finite(d) {
+	c00 := a[1][1]*a[2][2] - a[1][2]*a[2][1]
+	c01 := a[1][2]*a[2][0] - a[1][0]*a[2][2]
+	c02 := a[1][0]*a[2][1] - a[1][1]*a[2][0]
+	det := a[0][0]*c00 + a[0][1]*c01 + a[0][2]*c02
+	if det == 0 || !finite(det) {
 		return [3]float64{}, false
 	}
-	var x [3]float64
-	for c := 0; c < 3; c++ {
-		m := a
-		for r := 0; r < 3; r++ {
-			m[r][c] = b[r]
-		}
-		x[c] = det(m) / d
-	}
-	return x, true
+	c10 := a[0][2]*a[2][1] - a[0][1]*a[2][2]
+	c11 := a[0][0]*a[2][2] - a[0][2]*a[2][0]
+	c12 := a[0][1]*a[2][0] - a[0][0]*a[2][1]
+	c20 := a[0][1]*a[1][2] - a[0][2]*a[1][1]
+	c21 := a[0][2]*a[1][0] - a[0][0]*a[1][2]
+	c22 := a[0][0]*a[1][1] - a[0][1]*a[1][0]
+	k := 1 / det
+	return [3]float64{
+		(c00*b[0] + c10*b[1] + c20*b[2]) * k,
+		(c01*b[0] + c11*b[1] + c21*b[2]) * k,
+		(c02*b[0] + c12*b[1] + c22*b[2]) * k,
+	}, true
 }
 
 // Valve returns the valve displacement (mm, positive forward) at crank angle
 // thetaDeg with the reverser at r.
 func (g Stephenson) Valve(e Engine, thetaDeg float64, r Reverser) (float64, error) {
-	p, err := g.solve(e, thetaDeg, r)
+	p, err := g.solve(e, thetaDeg, r, false)
 	if err != nil {
 		return 0, err
 	}
@@ -222,7 +239,7 @@ func (g Stephenson) Valve(e Engine, thetaDeg float64, r Reverser) (float64, erro
 
 // Pose returns every joint of the gear at crank angle thetaDeg.
 func (g Stephenson) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) {
-	p, err := g.solve(e, thetaDeg, r)
+	p, err := g.solve(e, thetaDeg, r, true)
 	if err != nil {
 		return Pose{}, err
 	}
@@ -238,7 +255,7 @@ func (g Stephenson) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) {
 	b.bar("forward eccentric rod", fs, fp)
 	b.bar("backward eccentric rod", bs, bp)
 	lower, upper, radius := bp, fp, g.Link.Radius
-	if p.fwdPin.Sub(p.backPin).Dot(Point{0, 1}.Rotate(p.angle)) < 0 {
+	if p.fwdPin.Sub(p.backPin).Dot(Point{-p.sin, p.cos}) < 0 {
 		lower, upper = fp, bp
 	}
 	b.arc("expansion link", lower, upper, radius)

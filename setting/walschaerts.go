@@ -132,77 +132,81 @@ func (g Walschaerts) Validate(e Engine) error {
 
 // walschaertsPose is the solved linkage.
 type walschaertsPose struct {
-	crank, returnPin, foot, die, slotCentre Point
-	radiusPin, valvePin, unionPin           Point
-	crosshead, crossheadArm                 Point
+	crank, returnPin, foot, die   Point
+	radiusPin, valvePin, unionPin Point
+	crosshead, crossheadArm       Point
+	linkCos, linkSin              float64 // the link's turn from mid swing, anticlockwise
 }
 
 // solve places every joint at crank angle thetaDeg.
-func (g Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaertsPose, error) {
+func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaertsPose, error) {
 	var p walschaertsPose
 	if err := checkReverser(r); err != nil {
 		return p, err
 	}
 	phi := crankRotation(e, thetaDeg)
 	p.crank = onAxle(e.CrankRadius, phi)
-	p.returnPin = p.crank.Add(onAxle(g.ReturnCrank, phi+g.ReturnAngle*math.Pi/180))
-	p.crosshead = crossheadPin(e, phi)
+	p.returnPin = p.crank.Add(onAxle(g.ReturnCrank, phi+g.ReturnAngle*(math.Pi/180)))
+	// The slider-crank closes with the crosshead on the line W = Offset.
+	dw := e.Offset - p.crank.W
+	p.crosshead = Point{p.crank.U + math.Sqrt(e.RodLength*e.RodLength-dw*dw), e.Offset}
 	p.crossheadArm = p.crosshead.Add(g.CrossheadArm)
 
-	// Link: foot by circle intersection, then the link's turn from mid swing.
-	midFoot := g.Trunnion.Add(g.LinkFoot)
+	// Link: foot by circle intersection, then the link's turn from mid
+	// swing as a cosine and sine, from the foot's two positions.
+	footLen2 := g.LinkFoot.Dot(g.LinkFoot)
 	var ok bool
-	p.foot, ok = circles(p.returnPin, g.EccentricRod, g.Trunnion, g.LinkFoot.Len(), sideOf(Point{}, g.Trunnion, midFoot))
+	p.foot, ok = circles(p.returnPin, g.EccentricRod, g.Trunnion, math.Sqrt(footLen2), sideOf(Point{}, g.Trunnion, g.Trunnion.Add(g.LinkFoot)))
 	if !ok {
 		return p, closeError("eccentric rod length", "The eccentric rod cannot reach the link foot", thetaDeg)
 	}
-	turn := g.LinkFoot.Cross(p.foot.Sub(g.Trunnion))
-	cosTurn := g.LinkFoot.Dot(p.foot.Sub(g.Trunnion))
-	gamma := math.Atan2(turn, cosTurn)
-	p.slotCentre = g.Trunnion.Add(Point{g.LinkRadius, 0}.Rotate(gamma))
+	f := p.foot.Sub(g.Trunnion)
+	p.linkCos, p.linkSin = g.LinkFoot.Dot(f)/footLen2, g.LinkFoot.Cross(f)/footLen2
 	p.die = g.slotPoint(p, float64(r)*g.FullGearDie)
 
-	// Lever: unknowns valve-pin U and lever angle b (0 hanging straight
-	// down, positive with its foot swung forward).
+	// Lever: unknowns the valve-pin U (v) and the sine t of the lever's
+	// angle from hanging straight down (positive with its foot forward).
 	a, k := g.Lever.ValvePin, g.Lever.UnionPin-g.Lever.ValvePin
-	// Start: radius rod and union link square to the lever, from their design
-	// heights.
+	// Start: radius rod and union link at the heights their pins have with
+	// the lever hanging straight.
 	aW, uW := g.Guide+a, g.Guide-k
 	ahead := sign(g.ValveCentreU - g.Trunnion.U)
-	aU := p.die.U + ahead*math.Sqrt(math.Max(g.RadiusRod*g.RadiusRod-sq(aW-p.die.W), 0))
 	uSide := g.unionSide(e)
+	aU := p.die.U + ahead*math.Sqrt(math.Max(g.RadiusRod*g.RadiusRod-sq(aW-p.die.W), 0))
 	uU := p.crossheadArm.U + uSide*math.Sqrt(math.Max(g.UnionLink*g.UnionLink-sq(uW-p.crossheadArm.W), 0))
-	sb := (uU - aU) / g.Lever.UnionPin
-	b := math.Asin(math.Max(-0.9, math.Min(0.9, sb)))
-	v := aU + sb*a
+	t := (uU - aU) / g.Lever.UnionPin
+	v := aU + t*a
 	ok = false
-	var fr, fu float64
-	for it := 0; it < 30; it++ {
-		sb, cb := math.Sincos(b)
-		ap := Point{v - a*sb, g.Guide + a*cb}
-		up := Point{v + k*sb, g.Guide - k*cb}
-		dr, du := ap.Sub(p.die), up.Sub(p.crossheadArm)
-		fr = (dr.Dot(dr) - g.RadiusRod*g.RadiusRod) / (2 * g.RadiusRod)
-		fu = (du.Dot(du) - g.UnionLink*g.UnionLink) / (2 * g.UnionLink)
-		j11, j12 := dr.U/g.RadiusRod, dr.Dot(Point{-a * cb, -a * sb})/g.RadiusRod
-		j21, j22 := du.U/g.UnionLink, du.Dot(Point{k * cb, k * sb})/g.UnionLink
+	var fr, fu, ct float64
+	kr, ku := 1/g.RadiusRod, 1/g.UnionLink
+	for it := 0; it < 20; it++ {
+		if !(math.Abs(t) < 0.95) {
+			break
+		}
+		ct = math.Sqrt(1 - t*t)
+		dr := Point{v - a*t - p.die.U, g.Guide + a*ct - p.die.W}
+		du := Point{v + k*t - p.crossheadArm.U, g.Guide - k*ct - p.crossheadArm.W}
+		fr = (dr.Dot(dr) - g.RadiusRod*g.RadiusRod) * kr / 2
+		fu = (du.Dot(du) - g.UnionLink*g.UnionLink) * ku / 2
+		j11, j12 := dr.U*kr, (-a*dr.U-a*t/ct*dr.W)*kr
+		j21, j22 := du.U*ku, (k*du.U+k*t/ct*du.W)*ku
 		det := j11*j22 - j12*j21
 		if det == 0 || !finite(det) {
 			break
 		}
-		dv, db := (fr*j22-fu*j12)/det, (j11*fu-j21*fr)/det
+		dv, dt := (fr*j22-fu*j12)/det, (j11*fu-j21*fr)/det
 		v -= dv
-		b -= db
-		if math.Abs(dv)+math.Abs(db)*g.Lever.UnionPin < 1e-10 {
-			ok = true
+		t -= dt
+		if math.Abs(dv)+math.Abs(dt)*g.Lever.UnionPin < newtonStep {
+			ok = math.Abs(t) < 0.95
+			ct = math.Sqrt(1 - t*t)
 			break
 		}
 	}
-	sb, cb := math.Sincos(b)
 	p.valvePin = Point{v, g.Guide}
-	p.radiusPin = Point{v - a*sb, g.Guide + a*cb}
-	p.unionPin = Point{v + k*sb, g.Guide - k*cb}
-	if !ok || cb <= 0 || !finite(v) || (p.radiusPin.U-p.die.U)*ahead < 0 || (p.unionPin.U-p.crossheadArm.U)*uSide < 0 {
+	p.radiusPin = Point{v - a*t, g.Guide + a*ct}
+	p.unionPin = Point{v + k*t, g.Guide - k*ct}
+	if !ok || !finite(v) || (p.radiusPin.U-p.die.U)*ahead < 0 || (p.unionPin.U-p.crossheadArm.U)*uSide < 0 {
 		if math.Abs(fu) > math.Abs(fr) {
 			return p, closeError("union link length", "The union link cannot reach the combination lever", thetaDeg)
 		}
@@ -311,7 +315,11 @@ func (g Walschaerts) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) 
 
 // slotPoint returns the point s mm along the slot's centre line from the
 // trunnion, positive above it at mid swing, with the link where p has it.
-func (g Walschaerts) slotPoint(p walschaertsPose, s float64) Point {
-	back := g.Trunnion.Sub(p.slotCentre)
-	return p.slotCentre.Add(back.Rotate(-s / g.LinkRadius))
+// At mid swing the slot's centre of curvature lies LinkRadius ahead of the
+// trunnion, so the point is (R(1 - cos(s/R)), R sin(s/R)) from the trunnion,
+// turned with the link.
+func (g *Walschaerts) slotPoint(p walschaertsPose, s float64) Point {
+	sn, cs := math.Sincos(s / g.LinkRadius)
+	q := Point{g.LinkRadius * (1 - cs), g.LinkRadius * sn}
+	return g.Trunnion.Add(Point{q.U*p.linkCos - q.W*p.linkSin, q.U*p.linkSin + q.W*p.linkCos})
 }

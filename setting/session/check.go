@@ -207,16 +207,27 @@ func roundEdges(obs []Observation, ri int) ([2]float64, bool) {
 }
 
 // lead returns the lead of a dead-centre observation given the round's
-// steam edges: how far the port is open to steam, negative when closed.
+// steam edges.
 func (a *angles) lead(o Observation, edges [2]float64) float64 {
-	s := 1.0 // internal admission: the front port opens as the valve moves forward
-	if a.info.admission == setting.External {
-		s = -1
+	return Lead(a.info.admission, o.End, o.GaugeMM, edges[endIndex(o.End)])
+}
+
+// Lead returns the lead at one end: how far that end's port is open to
+// steam (mm; negative when still closed) with the crank on that end's dead
+// centre, from the gauge reading there and that end's port mark, both
+// normalised to grow as the valve moves toward the front cover. With
+// external admission the front port opens as the valve moves back, so the
+// front lead is (port mark - reading) and the back lead (reading - port
+// mark); internal admission is the other way round (see setting.Admission).
+func Lead(admission setting.Admission, end End, gaugeAtDeadCentreMM, portMarkMM float64) float64 {
+	d := gaugeAtDeadCentreMM - portMarkMM
+	if admission == setting.External {
+		d = -d
 	}
-	if o.End == Back {
-		return -s * (o.GaugeMM - edges[1])
+	if end == Back {
+		d = -d
 	}
-	return s * (o.GaugeMM - edges[0])
+	return d
 }
 
 // Readiness returns what stops or weakens a plan for cylinder cyl, judged

@@ -20,7 +20,7 @@ const MMPerInch = 25.4
 func ParseLength(text string, unit Unit) (float64, error) {
 	s := strings.TrimSpace(text)
 	bad := func(why string) (float64, error) {
-		return 0, userError("length", fmt.Sprintf("%q is not a length: %s Write it as 0.13 mm, 0.005 in, 5 thou or 1/16 in.", text, why))
+		return 0, userError("length", fmt.Sprintf("The entry %q is not a length: %s Write it as 0.13 mm, 0.005 in, 5 thou or 1/16 in.", text, why))
 	}
 	if s == "" {
 		return bad("it is empty.")

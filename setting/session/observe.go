@@ -367,7 +367,15 @@ func (o *Observation) setReverser(r ReverserPosition, d Direction, info specInfo
 // running direction, the way the wheel was turned.
 func (o *Observation) setting() string {
 	w := o.Notch
-	if w == "" {
+	switch {
+	case w != "":
+	case o.Reverser == 1:
+		w = FullForward
+	case o.Reverser == 0:
+		w = MidGear
+	case o.Reverser == -1:
+		w = FullBack
+	default:
 		w = "reverser " + fmtNum(float64(o.Reverser))
 	}
 	natural := Forward

@@ -1,0 +1,165 @@
+package session
+
+import (
+	"strings"
+	"testing"
+)
+
+func TestCheckWarnings(t *testing.T) {
+	cases := []struct {
+		name, from, to, field, says string
+	}{
+		{"negative lead", `"gauge_mm": 1.8}`, `"gauge_mm": 2.1}`, "cylinders[0].rounds[0].dead_centre_readings[0]", "negative lead"},
+		{"large lead", `"gauge_mm": 1.8}`, `"gauge_mm": 1.4}`, "cylinders[0].rounds[0].dead_centre_readings[0]", "outside the usual 0.1 to 0.4 mm"},
+		{"small wheel", `"wheel_diameter_mm": 115`, `"wheel_diameter_mm": 20`, "measuring.wheel_diameter_mm", "unusual"},
+		{"coarse gauge", `"gauge_resolution_mm": 0.01`, `"gauge_resolution_mm": 0.1`, "measuring.gauge_resolution_mm", "0.01 mm"},
+		{"rough marks", `"mark_error_tyre_mm": 0.5`, `"mark_error_tyre_mm": 5`, "measuring.mark_error_tyre_mm", "rough"},
+		{"marks close", `[350.1, 10.3]`, `[0.1, 1.0]`, "cylinders[0].dead_centres[0]", "only 0.9 degrees apart"},
+		{"marks far", `[350.1, 10.3]`, `[10.3, 350.1]`, "cylinders[0].dead_centres[0]", "Check their order"},
+		{"dead centres disagree with geometry", `[160.2, 200.4]`, `[200.2, 240.4]`, "cylinders[0].dead_centres", "geometry puts them 180.0 degrees apart"},
+		{"dates out of order", `"date": "2026-11-29"`, `"date": "2026-11-27"`, "cylinders[0].rounds[1].date", "oldest first"},
+		{"change beyond limits", `"change_mm": -0.025`, `"change_mm": -5`, "cylinders[0].rounds[1].adjustments_before[0]", "outside the adjustment's limits"},
+		{"marks apart", `"back_gauge_mm": 8.0`, `"back_gauge_mm": 12.0`, "cylinders[0].rounds[0].port_marks", "laps add up to 6 mm"},
+		{"early cut-off", `"crosshead_mm": 44.5`, `"crosshead_mm": 20`, "cylinders[0].rounds[0].cut_offs[0]", "at 33 % of the stroke"},
+		{"feeler wider than port", `"opening_mm": 0.2`, `"opening_mm": 3.5`, "cylinders[0].rounds[1].feeler_openings[0].opening_mm", "wider than the port"},
+		{"odd thread", `"pitch_mm": 0.5`, `"pitch_mm": 10`, "adjustments[0].thread", "unusual"},
+	}
+	base := mustDecode(t, testJSON)
+	if w := base.Check(); len(w) != 0 {
+		t.Fatalf("the test session gives warnings: %v", w)
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			if !strings.Contains(testJSON, c.from) {
+				t.Fatalf("test session has no %q", c.from)
+			}
+			s := mustDecode(t, strings.Replace(testJSON, c.from, c.to, 1))
+			ws := s.Check()
+			for _, w := range ws {
+				if w.Field == c.field && strings.Contains(w.Message, c.says) {
+					fullSentence(t, w.Message)
+					return
+				}
+			}
+			t.Errorf("no warning on %s saying %q; got %v", c.field, c.says, ws)
+		})
+	}
+}
+
+func TestReadiness(t *testing.T) {
+	firstRound := func(s *Session) { s.Cylinders[0].Rounds = s.Cylinders[0].Rounds[:1] }
+	r0 := "cylinders[0].rounds[0]"
+	cases := []struct {
+		name     string
+		edit     func(s *Session)
+		field    string
+		blocking bool
+		says     string
+	}{
+		{"no rounds", func(s *Session) { s.Cylinders[0].Rounds = nil }, "cylinders[0].rounds", true, "no readings for the left cylinder"},
+		{"port marks wrong way", func(s *Session) {
+			firstRound(s)
+			s.Cylinders[0].Rounds[0].PortMarks = &PortMarks{FrontGaugeMM: 8, BackGaugeMM: 2}
+		}, r0 + ".port_marks", true, "wrong way round for external admission"},
+		{"port marks wrong way with the gauge reversed", func(s *Session) {
+			firstRound(s)
+			s.Measuring.GaugeIncreases = Back
+		}, r0 + ".port_marks", true, "wrong way round"},
+		{"port marks identical", func(s *Session) {
+			firstRound(s)
+			s.Cylinders[0].Rounds[0].PortMarks = &PortMarks{FrontGaugeMM: 5, BackGaugeMM: 5}
+		}, r0 + ".port_marks", true, "the same reading"},
+		{"port marks missing", func(s *Session) {
+			firstRound(s)
+			s.Cylinders[0].Rounds[0].PortMarks = nil
+		}, r0 + ".port_marks", true, "missing"},
+		{"cut-offs without port marks", func(s *Session) {
+			firstRound(s)
+			s.Cylinders[0].Rounds[0].PortMarks = nil
+		}, r0 + ".cut_offs", false, "need the port marks"},
+		{"earlier port marks", func(s *Session) {
+			r := &s.Cylinders[0].Rounds[1]
+			r.Laps, r.AdjustmentsBefore = nil, nil
+		}, "cylinders[0].rounds[1]", false, "those of round 1 are used"},
+		{"earlier port marks after a spindle change", func(s *Session) {
+			r := &s.Cylinders[0].Rounds[1]
+			r.Laps, r.FeelerOpenings = nil, nil
+		}, "cylinders[0].rounds[1].port_marks", true, "missing"},
+		{"sweep all the same", func(s *Session) {
+			firstRound(s)
+			for i := range s.Cylinders[0].Rounds[0].Sweeps[0].Readings {
+				s.Cylinders[0].Rounds[0].Sweeps[0].Readings[i].GaugeMM = 4.2
+			}
+		}, r0 + ".sweeps[0]", true, "All 6 readings of this sweep are 4.2 mm"},
+		{"short sweep", func(s *Session) {
+			firstRound(s)
+			w := &s.Cylinders[0].Rounds[0].Sweeps[0]
+			w.Readings = w.Readings[:3]
+		}, r0 + ".sweeps[0]", false, "only 3 readings"},
+		{"sweep with a gap", firstRound, r0 + ".sweeps[0]", false, "gap of 210 degrees"},
+		{"sweep reading twice", func(s *Session) {
+			firstRound(s)
+			w := &s.Cylinders[0].Rounds[0].Sweeps[0]
+			w.Readings[1].At = w.Readings[0].At
+		}, r0 + ".sweeps[0]", false, "same place"},
+		{"front dead centre only", func(s *Session) {
+			firstRound(s)
+			r := &s.Cylinders[0].Rounds[0]
+			r.DeadCentreReadings = r.DeadCentreReadings[:1]
+		}, r0 + ".dead_centre_readings[0]", false, "Only the front dead centre was read in full forward"},
+		{"same at both dead centres", func(s *Session) {
+			firstRound(s)
+			s.Cylinders[0].Rounds[0].DeadCentreReadings[1].GaugeMM = 1.8
+		}, r0 + ".dead_centre_readings[1]", true, "read the same at both dead centres in full forward (1.8 mm)"},
+		{"dead centre read twice, differently", func(s *Session) {
+			firstRound(s)
+			r := &s.Cylinders[0].Rounds[0]
+			again := r.DeadCentreReadings[0]
+			again.GaugeMM = 1.95
+			r.DeadCentreReadings = append(r.DeadCentreReadings, again)
+		}, r0 + ".dead_centre_readings[2]", false, "read 2 times, from 1.8 to 1.95 mm"},
+		{"identical bracketing marks", func(s *Session) {
+			s.Cylinders[0].DeadCentres[1].Second = s.Cylinders[0].DeadCentres[1].First
+		}, "cylinders[0].dead_centres[1]", true, "are the same (160.2)"},
+		{"front dead centre not bracketed", func(s *Session) {
+			firstRound(s)
+			s.Cylinders[0].DeadCentres = s.Cylinders[0].DeadCentres[1:]
+		}, "cylinders[0].dead_centres", false, "not been found by bracketing"},
+		{"nothing at crank positions", func(s *Session) {
+			firstRound(s)
+			r := &s.Cylinders[0].Rounds[0]
+			r.DeadCentreReadings, r.Sweeps, r.CutOffs = nil, nil, nil
+		}, r0, true, "no readings at crank positions"},
+		{"cut-offs alone", func(s *Session) {
+			firstRound(s)
+			r := &s.Cylinders[0].Rounds[0]
+			r.DeadCentreReadings, r.Sweeps = nil, nil
+		}, r0, true, "no gauge readings at dead centres and no sweep"},
+		{"no such cylinder", func(s *Session) {}, "cylinders", true, "no cylinder 7"},
+	}
+	base := mustDecode(t, testJSON)
+	if ps := base.Readiness(0); len(ps) != 0 {
+		t.Fatalf("the test session's left cylinder has problems: %v", ps)
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			s := mustDecode(t, testJSON)
+			c.edit(s)
+			cyl := 0
+			if c.name == "no such cylinder" {
+				cyl = 7
+			}
+			ps := s.Readiness(cyl)
+			for _, p := range ps {
+				if p.Field == c.field && strings.Contains(p.Message, c.says) {
+					if p.Blocking != c.blocking {
+						t.Errorf("blocking = %v, want %v", p.Blocking, c.blocking)
+					}
+					fullSentence(t, p.Message)
+					return
+				}
+			}
+			t.Errorf("no problem on %s saying %q; got %v", c.field, c.says, ps)
+		})
+	}
+}

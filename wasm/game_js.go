@@ -135,8 +135,8 @@ func (g *game) publish() {
 	}
 	g.published, g.publishedAck = g.app.screen, g.app.ack
 	g.window.Set("evenbeatState", g.app.screen.String())
-	r := g.app.ack
-	g.window.Set("evenbeatAck", map[string]any{"x": r.Min.X, "y": r.Min.Y, "w": r.W(), "h": r.H()})
+	g.window.Set("evenbeatAck", jsRect(g.app.ack))
+	g.window.Set("evenbeatBox", jsRect(g.app.content()))
 }
 
 // Draw draws the app when it changed; otherwise the last frame stays (the
@@ -148,11 +148,19 @@ func (g *game) Draw(screen *ebiten.Image) {
 	g.canvas.Begin(screen, g.scale)
 	g.app.Draw(g.canvas)
 	g.app.dirty = false
+	// For tests and the page: what the last drawn frame shows.
+	g.window.Set("evenbeatDrawn", g.app.screen.String())
 	if !g.drawn {
 		g.drawn = true
 		g.window.Set("evenbeatFirstFrame", g.window.Get("performance").Call("now"))
+		g.window.Set("evenbeatFirstScreen", g.app.screen.String())
 		if el := g.window.Get("document").Call("getElementById", "loading"); el.Truthy() {
 			el.Get("style").Set("display", "none")
 		}
 	}
+}
+
+// jsRect is r as a plain object {x, y, w, h} in CSS px.
+func jsRect(r render.Rect) map[string]any {
+	return map[string]any{"x": r.Min.X, "y": r.Min.Y, "w": r.W(), "h": r.H()}
 }

@@ -1,0 +1,202 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"fmt"
+	"image"
+	"image/color"
+	"image/png"
+	"os"
+	"path/filepath"
+	"testing"
+	"time"
+
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/input"
+	"github.com/chromedp/chromedp"
+)
+
+// chromiumPath is Debian's Chromium, which bash .ci/test installs.
+const chromiumPath = "/usr/bin/chromium"
+
+// Phone emulated in the browser tests: CSS px and device pixel ratio.
+const (
+	phoneW, phoneH = 390, 844
+	phoneScale     = 3
+)
+
+// needChromium skips when Chromium is missing on a developer machine and
+// fails under CI, where bash .ci/test must have installed it.
+func needChromium(t testing.TB) {
+	t.Helper()
+	if _, err := os.Stat(chromiumPath); err == nil {
+		return
+	}
+	msg := chromiumPath + " is missing; `bash .ci/test` installs it (apt-get install -y chromium)"
+	if os.Getenv("CI") == "true" {
+		t.Fatal(msg)
+	}
+	t.Skip(msg)
+}
+
+// startServer builds the site and serves it on a free loopback port.
+func startServer(t testing.TB) *Main {
+	t.Helper()
+	m := &Main{Addr: "127.0.0.1:0", Src: "."}
+	if testing.Verbose() {
+		m.Log = os.Stderr
+	}
+	if err := m.Run(); err != nil {
+		t.Fatal(err)
+	}
+	t.Cleanup(func() { m.Close() })
+	return m
+}
+
+// newBrowser starts headless Chromium with a fresh profile in profile
+// (flags from the measured browser notes: SwiftShader WebGL, nothing that
+// reaches beyond loopback) and returns a tab context. The browser is closed
+// gracefully at cleanup.
+func newBrowser(t testing.TB, profile string) context.Context {
+	t.Helper()
+	opts := []chromedp.ExecAllocatorOption{
+		chromedp.ExecPath(chromiumPath),
+		chromedp.Headless,
+		chromedp.NoSandbox,
+		chromedp.NoFirstRun,
+		chromedp.NoDefaultBrowserCheck,
+		chromedp.UserDataDir(profile),
+		chromedp.Flag("disable-quic", true),
+		chromedp.Flag("disable-background-networking", true),
+		chromedp.Flag("disable-component-update", true),
+		chromedp.Flag("disable-sync", true),
+		chromedp.Flag("use-angle", "swiftshader"),
+		chromedp.Flag("enable-unsafe-swiftshader", true),
+	}
+	actx, acancel := chromedp.NewExecAllocator(context.Background(), opts...)
+	ctx, cancel := chromedp.NewContext(actx)
+	t.Cleanup(func() {
+		cctx, ccancel := context.WithTimeout(ctx, 10*time.Second)
+		defer ccancel()
+		chromedp.Cancel(cctx)
+		cancel()
+		acancel()
+	})
+	// The first Run starts the browser; it must not carry a timeout.
+	if err := chromedp.Do(ctx, chromedp.EmulateViewport(phoneW, phoneH,
+		chromedp.EmulateScale(phoneScale), chromedp.EmulateMobile, chromedp.EmulateTouch, chromedp.EmulatePortrait)); err != nil {
+		t.Fatalf("starting Chromium: %v", err)
+	}
+	return ctx
+}
+
+// within runs steps with a time limit, failing the test with what on error.
+func within(t testing.TB, ctx context.Context, d time.Duration, what string, steps ...chromedp.Action[chromedp.Void]) {
+	t.Helper()
+	tctx, cancel := context.WithTimeout(ctx, d)
+	defer cancel()
+	if err := chromedp.Do(tctx, steps...); err != nil {
+		t.Fatalf("%s: %v", what, err)
+	}
+}
+
+// waitFor polls a JavaScript condition until it holds.
+func waitFor(t testing.TB, ctx context.Context, d time.Duration, cond string) {
+	t.Helper()
+	within(t, ctx, d+5*time.Second, "waiting for "+cond,
+		chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+			_, err := chromedp.Poll[chromedp.Void](cond, chromedp.WithPollingTimeout(d), chromedp.WithPollingInterval(50*time.Millisecond))(ctx, tg)
+			return err
+		}))
+}
+
+// eval evaluates a JavaScript expression and decodes its value.
+func eval[T any](t testing.TB, ctx context.Context, expr string) T {
+	t.Helper()
+	tctx, cancel := context.WithTimeout(ctx, 10*time.Second)
+	defer cancel()
+	v, err := chromedp.Run(tctx, chromedp.Evaluate[T](expr))
+	if err != nil {
+		t.Fatalf("evaluating %s: %v", expr, err)
+	}
+	return v
+}
+
+// tap presses one finger at (x, y) CSS px, holds it for hold, and lifts it.
+func tap(t testing.TB, ctx context.Context, x, y float64, hold time.Duration) {
+	t.Helper()
+	within(t, ctx, 10*time.Second+hold, fmt.Sprintf("tapping at %.0f,%.0f", x, y),
+		chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+			_, err := cdp.Call(ctx, tg, input.DispatchTouchEvent, input.DispatchTouchEventParams{
+				Type: input.DispatchTouchEventTypeTouchStart, TouchPoints: []*input.TouchPoint{{X: x, Y: y}},
+			})
+			return err
+		}),
+		chromedp.Sleep(hold),
+		chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+			_, err := cdp.Call(ctx, tg, input.DispatchTouchEvent, input.DispatchTouchEventParams{
+				Type: input.DispatchTouchEventTypeTouchEnd, TouchPoints: []*input.TouchPoint{},
+			})
+			return err
+		}))
+}
+
+// screenshot captures the viewport at device resolution and keeps a copy in
+// $EVENBEAT_SHOTS (when set) or the test's temporary directory.
+func screenshot(t testing.TB, ctx context.Context, name string) image.Image {
+	t.Helper()
+	tctx, cancel := context.WithTimeout(ctx, 120*time.Second)
+	defer cancel()
+	start := time.Now()
+	buf, err := chromedp.Run(tctx, chromedp.CaptureScreenshot())
+	t.Logf("screenshot took %v", time.Since(start))
+	if err != nil {
+		t.Fatalf("screenshot %s: %v", name, err)
+	}
+	dir := os.Getenv("EVENBEAT_SHOTS")
+	if dir == "" {
+		dir = t.TempDir()
+	}
+	p := filepath.Join(dir, name+".png")
+	if err := os.WriteFile(p, buf, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(bytes.NewReader(buf))
+	if err != nil {
+		t.Fatalf("screenshot %s: %v", name, err)
+	}
+	if b := img.Bounds(); b.Dx() != phoneW*phoneScale || b.Dy() != phoneH*phoneScale {
+		t.Fatalf("screenshot %s is %v; want %dx%d device pixels", name, b, phoneW*phoneScale, phoneH*phoneScale)
+	}
+	t.Logf("screenshot %s: %s", name, p)
+	return img
+}
+
+// near reports whether c is within tol of want in every channel.
+func near(c color.Color, want color.RGBA, tol int) bool {
+	r, g, b, _ := c.RGBA()
+	d := func(a uint32, w uint8) bool {
+		v := int(a>>8) - int(w)
+		return v >= -tol && v <= tol
+	}
+	return d(r, want.R) && d(g, want.G) && d(b, want.B)
+}
+
+// count counts the pixels of img inside r (device pixels) that are near col.
+func count(img image.Image, r image.Rectangle, col color.RGBA, tol int) int {
+	n := 0
+	r = r.Intersect(img.Bounds())
+	for y := r.Min.Y; y < r.Max.Y; y++ {
+		for x := r.Min.X; x < r.Max.X; x++ {
+			if near(img.At(x, y), col, tol) {
+				n++
+			}
+		}
+	}
+	return n
+}
+
+func chromedpNavigate(url string) chromedp.Action[chromedp.Void] { return chromedp.Navigate(url) }
+
+func chromedpReload() chromedp.Action[chromedp.Void] { return chromedp.Reload() }

@@ -25,6 +25,18 @@ const (
 	Close                 // close the current sub-path
 )
 
+// NumPoints returns how many of a segment's Pts a kind uses: 1 for MoveTo
+// and LineTo, 3 for CubeTo, 0 for Close.
+func (k SegKind) NumPoints() int {
+	switch k {
+	case CubeTo:
+		return 3
+	case Close:
+		return 0
+	}
+	return 1
+}
+
 // Segment is one step of a Path.
 type Segment struct {
 	Kind SegKind

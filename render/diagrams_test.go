@@ -214,7 +214,7 @@ func TestIconGolden(t *testing.T) {
 			hw = op.Line.Width / 2
 		}
 		for _, seg := range op.Path {
-			for _, pt := range seg.Pts[:segPoints(seg.Kind)] {
+			for _, pt := range seg.Pts[:seg.Kind.NumPoints()] {
 				if d := math.Hypot(pt.X-ctr.X, pt.Y-ctr.Y) + hw; d > safe {
 					t.Fatalf("call %d reaches %.1f px from the centre, beyond the safe radius %.1f", i+1, d, safe)
 				}
@@ -222,16 +222,6 @@ func TestIconGolden(t *testing.T) {
 		}
 	}
 	golden(t, "icon_192", c.String())
-}
-
-func segPoints(k render.SegKind) int {
-	switch k {
-	case render.CubeTo:
-		return 3
-	case render.Close:
-		return 0
-	}
-	return 1
 }
 
 // render and setting must never pull in ebiten or syscall/js: they build

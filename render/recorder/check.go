@@ -25,14 +25,7 @@ func opBox(op Op) render.Rect {
 	}
 	b := render.Rect{Min: render.Point{X: math.Inf(1), Y: math.Inf(1)}, Max: render.Point{X: math.Inf(-1), Y: math.Inf(-1)}}
 	for _, s := range op.Path {
-		n := 1
-		switch s.Kind {
-		case render.Close:
-			n = 0
-		case render.CubeTo:
-			n = 3
-		}
-		for _, p := range s.Pts[:n] {
+		for _, p := range s.Pts[:s.Kind.NumPoints()] {
 			b = union(b, render.Rect{Min: p, Max: p})
 		}
 	}

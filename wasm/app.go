@@ -25,12 +25,11 @@ func (s screen) String() string {
 // margin is the space (logical units) between the screen edge and content.
 const margin = 16
 
-// demoEngine is the engine the skeleton draws.
-// TODO(skeleton): use setting's shared demo engine once it exists.
+// demoEngine is the engine the skeleton draws: the crank and cylinder of
+// setting's invented demo engine (Brackenfold, 5 in gauge; not a real
+// locomotive).
 func demoEngine() setting.Engine {
-	// Invented for Evenbeat, not a real locomotive: a 5 in gauge engine
-	// with 22 mm crank radius (44 mm stroke) and a 132 mm connecting rod.
-	return setting.Engine{CrankRadius: 22, RodLength: 132}
+	return setting.DemoStephenson().Engine
 }
 
 // app is the screens and their logic, free of ebiten and the browser so it

@@ -57,12 +57,10 @@ func devicePx(r render.Rect) image.Rectangle {
 	return image.Rect(int(math.Floor(r.Min.X*k)), int(math.Floor(r.Min.Y*k)), int(math.Ceil(r.Max.X*k)), int(math.Ceil(r.Max.Y*k)))
 }
 
-// browserDemoEngine is the engine the app draws.
-// TODO(skeleton): use setting's shared demo engine once it exists, in the
-// app and here.
+// browserDemoEngine is the engine the app draws: the crank and cylinder of
+// setting's invented demo engine.
 func browserDemoEngine() setting.Engine {
-	// Invented, as in the app: 22 mm crank radius, 132 mm connecting rod.
-	return setting.Engine{CrankRadius: 22, RodLength: 132}
+	return setting.DemoStephenson().Engine
 }
 
 // checkDiagram fails t unless shot shows the piston diagram.

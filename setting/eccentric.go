@@ -20,17 +20,17 @@ type Eccentric struct {
 	Rod     float64 `json:"rod"`     // mm, eccentric rod, sheave centre to the pin at its far end
 }
 
-// validate names the field at fault; name is how the user knows this
-// eccentric ("forward eccentric").
-func (x Eccentric) validate(name string) error {
-	if err := firstError(positive(name+" throw", x.Throw), positive(name+" rod length", x.Rod)); err != nil {
+// validate names the field at fault as a key path under key ("forward");
+// words is how the user knows this eccentric ("forward eccentric").
+func (x Eccentric) validate(key, words string) error {
+	if err := firstError(positive(key+".throw", words+" throw", x.Throw), positive(key+".rod", words+" rod length", x.Rod)); err != nil {
 		return err
 	}
 	if !(math.Abs(x.Advance) < 90) {
-		return &Error{name + " advance", fmt.Sprintf("The %s angle of advance must lie between -90 and 90 degrees (got %g).", name, x.Advance)}
+		return &Error{key + ".advance", fmt.Sprintf("The %s angle of advance must lie between -90 and 90 degrees (got %g).", words, x.Advance)}
 	}
 	if x.Rod <= x.Throw {
-		return &Error{name + " rod length", fmt.Sprintf("The %s rod %g mm is not longer than its throw %g mm; it must be much longer.", name, x.Rod, x.Throw)}
+		return &Error{key + ".rod", fmt.Sprintf("The %s rod %g mm is not longer than its throw %g mm; it must be much longer.", words, x.Rod, x.Throw)}
 	}
 	return nil
 }
@@ -68,13 +68,13 @@ func (k Rocker) Ratio() float64 { return math.Abs(k.ValveArm / k.DriveArm) }
 func (k Rocker) validate() error {
 	switch {
 	case !(k.DriveArm != 0) || !finite(k.DriveArm):
-		return &Error{"rocker drive arm", fmt.Sprintf("The rocker drive arm must be a non-zero length in mm (got %g).", k.DriveArm)}
+		return &Error{"rocker.drive_arm", fmt.Sprintf("The rocker drive arm must be a non-zero length in mm (got %g).", k.DriveArm)}
 	case !(k.ValveArm != 0) || !finite(k.ValveArm):
-		return &Error{"rocker valve arm", fmt.Sprintf("The rocker valve arm must be a non-zero length in mm (got %g).", k.ValveArm)}
+		return &Error{"rocker.valve_arm", fmt.Sprintf("The rocker valve arm must be a non-zero length in mm (got %g).", k.ValveArm)}
 	case !(k.ValveRod >= 0) || !finite(k.ValveRod):
-		return &Error{"rocker valve rod", fmt.Sprintf("The valve rod from the rocker must be a length of 0 mm or more (got %g).", k.ValveRod)}
+		return &Error{"rocker.valve_rod", fmt.Sprintf("The valve rod from the rocker must be a length of 0 mm or more (got %g).", k.ValveRod)}
 	case !k.Pivot.Finite():
-		return &Error{"rocker pivot", "The rocker pivot position must be given in mm."}
+		return &Error{"rocker.pivot", "The rocker pivot position must be given in mm."}
 	}
 	return nil
 }
@@ -112,8 +112,8 @@ func (g SingleEccentric) Kind() string {
 
 // Validate checks every dimension and that the linkage closes all round.
 func (g SingleEccentric) Validate(e Engine) error {
-	if err := firstError(e.Validate(), checkAdmission(g.Admission), g.Eccentric.validate("eccentric"),
-		finiteField("valve guide height", g.Guide), finiteField("valve central position", g.ValveCentreU)); err != nil {
+	if err := firstError(within("engine", e.Validate()), checkAdmission(g.Admission), g.Eccentric.validate("eccentric", "eccentric"),
+		finiteField("guide", "valve guide height", g.Guide), finiteField("valve_centre_u", "valve central position", g.ValveCentreU)); err != nil {
 		return err
 	}
 	if g.Rocker != nil {
@@ -152,7 +152,7 @@ func (g SingleEccentric) solve(e Engine, thetaDeg float64, r Reverser) (singlePo
 		var ok bool
 		p.drive, ok = circleLine(p.sheave, g.Eccentric.Rod, guide0, along, sign(g.ValveCentreU))
 		if !ok {
-			return p, closeError("eccentric rod length", "The eccentric rod cannot reach the valve-spindle guide line", thetaDeg)
+			return p, closeError("eccentric.rod", "The eccentric rod cannot reach the valve-spindle guide line", thetaDeg)
 		}
 		p.arm, p.spindle = p.drive, p.drive
 		return p, nil
@@ -161,7 +161,7 @@ func (g SingleEccentric) solve(e Engine, thetaDeg float64, r Reverser) (singlePo
 	var ok bool
 	p.drive, ok = circles(p.sheave, g.Eccentric.Rod, k.Pivot, math.Abs(k.DriveArm), sideOf(Point{}, k.Pivot, mid))
 	if !ok {
-		return p, closeError("eccentric rod length", "The eccentric rod cannot reach the rocker drive arm", thetaDeg)
+		return p, closeError("eccentric.rod", "The eccentric rod cannot reach the rocker drive arm", thetaDeg)
 	}
 	p.arm = k.Pivot.Add(p.drive.Sub(k.Pivot).Scale(k.ValveArm / k.DriveArm))
 	if k.ValveRod == 0 {
@@ -171,7 +171,7 @@ func (g SingleEccentric) solve(e Engine, thetaDeg float64, r Reverser) (singlePo
 	armMid := k.Pivot.Add(Point{0, k.ValveArm})
 	p.spindle, ok = circleLine(p.arm, k.ValveRod, guide0, along, sign(g.ValveCentreU-armMid.U))
 	if !ok {
-		return p, closeError("rocker valve rod", "The valve rod from the rocker cannot reach the valve-spindle guide line", thetaDeg)
+		return p, closeError("rocker.valve_rod", "The valve rod from the rocker cannot reach the valve-spindle guide line", thetaDeg)
 	}
 	return p, nil
 }

@@ -174,7 +174,8 @@ func (b *poseBuilder) arc(name string, from, to int, radius float64) {
 	b.p.Bars = append(b.p.Bars, Bar{Name: name, From: from, To: to, Radius: radius})
 }
 
-// closeError is the error for a linkage that cannot close at an angle.
+// closeError is the error for a linkage that cannot close at an angle;
+// field is the key path of the link named in what.
 func closeError(field, what string, thetaDeg float64) *Error {
 	return &Error{field, fmt.Sprintf("%s at crank angle %.0f deg.", what, thetaDeg)}
 }
@@ -187,19 +188,20 @@ func checkReverser(r Reverser) error {
 	return nil
 }
 
-// positive returns an *Error naming field unless v is a finite positive
-// length.
-func positive(field string, v float64) error {
+// positive returns an *Error naming field (a key path) unless v is a
+// finite positive length; words name it in the message.
+func positive(field, words string, v float64) error {
 	if !(v > 0) || math.IsInf(v, 0) {
-		return &Error{field, fmt.Sprintf("The %s must be a positive length in mm (got %g).", field, v)}
+		return &Error{field, fmt.Sprintf("The %s must be a positive length in mm (got %g).", words, v)}
 	}
 	return nil
 }
 
-// finiteField returns an *Error naming field unless v is finite.
-func finiteField(field string, v float64) error {
+// finiteField returns an *Error naming field (a key path) unless v is
+// finite; words name it in the message.
+func finiteField(field, words string, v float64) error {
 	if !finite(v) {
-		return &Error{field, fmt.Sprintf("The %s must be a number (got %g).", field, v)}
+		return &Error{field, fmt.Sprintf("The %s must be a number (got %g).", words, v)}
 	}
 	return nil
 }

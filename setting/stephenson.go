@@ -66,23 +66,24 @@ func (g Stephenson) Kind() string { return "Stephenson" }
 // Validate checks every dimension and that the linkage closes all round.
 func (g Stephenson) Validate(e Engine) error {
 	l := g.Link
-	err := firstError(e.Validate(), checkAdmission(g.Admission), g.Forward.validate("forward eccentric"), g.Backward.validate("backward eccentric"),
-		positive("link radius", l.Radius), positive("link pin spacing", l.PinSpacing),
-		positive("reverse arm length", g.ReverseArm), positive("lifting link length", g.LiftingLink),
-		finiteField("reverse arm mid-gear angle", g.MidArmAngle), finiteField("reverse arm swing", g.ArmSwing),
-		finiteField("valve guide height", g.Guide), finiteField("valve central position", g.ValveCentreU))
+	err := firstError(within("engine", e.Validate()), checkAdmission(g.Admission),
+		g.Forward.validate("forward", "forward eccentric"), g.Backward.validate("backward", "backward eccentric"),
+		positive("link.radius", "link radius", l.Radius), positive("link.pin_spacing", "link pin spacing", l.PinSpacing),
+		positive("reverse_arm", "reverse arm length", g.ReverseArm), positive("lifting_link", "lifting link length", g.LiftingLink),
+		finiteField("mid_arm_angle", "reverse arm mid-gear angle", g.MidArmAngle), finiteField("arm_swing", "reverse arm swing", g.ArmSwing),
+		finiteField("guide", "valve guide height", g.Guide), finiteField("valve_centre_u", "valve central position", g.ValveCentreU))
 	if err != nil {
 		return err
 	}
 	switch {
 	case l.PinSpacing >= 2*l.Radius:
-		return &Error{"link pin spacing", fmt.Sprintf("The link pin spacing %g mm must be less than twice the link radius %g mm.", l.PinSpacing, l.Radius)}
+		return &Error{"link.pin_spacing", fmt.Sprintf("The link pin spacing %g mm must be less than twice the link radius %g mm.", l.PinSpacing, l.Radius)}
 	case !l.Suspension.Finite():
-		return &Error{"link suspension pin", "The link suspension pin position must be given in mm."}
+		return &Error{"link.suspension", "The link suspension pin position must be given in mm."}
 	case !g.Weighshaft.Finite():
-		return &Error{"weighshaft position", "The weighshaft position must be given in mm."}
+		return &Error{"weighshaft", "The weighshaft position must be given in mm."}
 	case !(g.ValveCentreU > 0):
-		return &Error{"valve central position", fmt.Sprintf("The die block must lie ahead of the axle (valve central position %g mm must be positive).", g.ValveCentreU)}
+		return &Error{"valve_centre_u", fmt.Sprintf("The die block must lie ahead of the axle (valve central position %g mm must be positive).", g.ValveCentreU)}
 	}
 	return sweepCheck(e, g.Valve)
 }
@@ -184,12 +185,12 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 	p.centre, p.sin, p.cos = centre, sa, ca
 	p.fwdPin, p.backPin, p.suspension = place(fLocal), place(bLocal), place(sLocal)
 	if !ok || !p.fwdPin.Finite() || p.fwdPin.U < p.fwdSheave.U || p.backPin.U < p.backSheave.U || (p.suspension.W-p.armPin.W)*hang < 0 {
-		return p, closeError("lifting link length", "The eccentric rods and lifting link cannot hold the expansion link", thetaDeg)
+		return p, closeError("lifting_link", "The eccentric rods and lifting link cannot hold the expansion link", thetaDeg)
 	}
 	var found bool
 	p.die, found = circleLine(place(Point{-g.Link.Radius, 0}), g.Link.Radius, Point{0, g.Guide}, Point{1, 0}, 1)
 	if !found {
-		return p, closeError("valve guide height", "The expansion link does not reach the valve rod's guide line", thetaDeg)
+		return p, closeError("guide", "The expansion link does not reach the valve rod's guide line", thetaDeg)
 	}
 	return p, nil
 }

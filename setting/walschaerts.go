@@ -35,15 +35,15 @@ func (c CombinationLever) Inside() bool { return c.ValvePin > 0 }
 // at each dead centre from the crosshead's motion: (lap + lead) / crank
 // radius. All lengths in the same unit.
 func LeverRatio(lap, lead, crankRadius float64) (float64, error) {
-	if err := positive("crank radius", crankRadius); err != nil {
+	if err := positive("crank_radius", "crank radius", crankRadius); err != nil {
 		return 0, err
 	}
 	if !finite(lap) || !finite(lead) || !(lap+lead > 0) {
-		return 0, &Error{"lap", fmt.Sprintf("Lap + lead must be a positive length (got %g + %g).", lap, lead)}
+		return 0, &Error{"steam_lap", fmt.Sprintf("Lap + lead must be a positive length (got %g + %g).", lap, lead)}
 	}
 	q := (lap + lead) / crankRadius
 	if q >= 1 {
-		return 0, &Error{"lap", fmt.Sprintf("Lap + lead (%g) must be less than the crank radius (%g).", lap+lead, crankRadius)}
+		return 0, &Error{"steam_lap", fmt.Sprintf("Lap + lead (%g) must be less than the crank radius (%g).", lap+lead, crankRadius)}
 	}
 	return q, nil
 }
@@ -56,7 +56,7 @@ func DesignLever(lap, lead, crankRadius, unionPin float64, insideAdmission bool)
 	if err != nil {
 		return CombinationLever{}, err
 	}
-	if err := positive("union-link pin distance", unionPin); err != nil {
+	if err := positive("union_pin", "distance from the radius-rod pin to the union-link pin", unionPin); err != nil {
 		return CombinationLever{}, err
 	}
 	if !insideAdmission {
@@ -107,25 +107,28 @@ func (g Walschaerts) Kind() string { return "Walschaerts" }
 
 // Validate checks every dimension and that the linkage closes all round.
 func (g Walschaerts) Validate(e Engine) error {
-	err := firstError(e.Validate(), positive("return crank radius", g.ReturnCrank), finiteField("return crank angle", g.ReturnAngle),
-		positive("eccentric rod length", g.EccentricRod), positive("link radius", g.LinkRadius),
-		finiteField("full-gear die position", g.FullGearDie), positive("radius rod length", g.RadiusRod),
-		positive("combination lever union-pin distance", g.Lever.UnionPin), finiteField("combination lever valve-pin distance", g.Lever.ValvePin),
-		positive("union link length", g.UnionLink), finiteField("valve guide height", g.Guide), finiteField("valve central position", g.ValveCentreU))
+	err := firstError(within("engine", e.Validate()),
+		positive("return_crank", "return crank radius", g.ReturnCrank), finiteField("return_angle", "return crank angle", g.ReturnAngle),
+		positive("eccentric_rod", "eccentric rod length", g.EccentricRod), positive("link_radius", "link radius", g.LinkRadius),
+		finiteField("full_gear_die", "full-gear die position", g.FullGearDie), positive("radius_rod", "radius rod length", g.RadiusRod),
+		positive("lever.union_pin", "combination lever's union-pin distance", g.Lever.UnionPin),
+		finiteField("lever.valve_pin", "combination lever's valve-pin distance", g.Lever.ValvePin),
+		positive("union_link", "union link length", g.UnionLink),
+		finiteField("guide", "valve guide height", g.Guide), finiteField("valve_centre_u", "valve central position", g.ValveCentreU))
 	if err != nil {
 		return err
 	}
 	switch {
 	case !g.Trunnion.Finite():
-		return &Error{"link trunnion position", "The link trunnion position must be given in mm."}
+		return &Error{"trunnion", "The link trunnion position must be given in mm."}
 	case !g.LinkFoot.Finite() || g.LinkFoot.Len() == 0:
-		return &Error{"link foot position", "The link foot must be a distance from the trunnion, given in mm."}
+		return &Error{"link_foot", "The link foot must be a distance from the trunnion, given in mm."}
 	case !g.CrossheadArm.Finite():
-		return &Error{"crosshead arm", "The crosshead arm position must be given in mm."}
+		return &Error{"crosshead_arm", "The crosshead arm position must be given in mm."}
 	case g.Lever.ValvePin == 0 || g.Lever.ValvePin >= g.Lever.UnionPin:
-		return &Error{"combination lever valve-pin distance", fmt.Sprintf("The valve pin must lie between the radius-rod pin and the union-link pin (internal admission) or beyond the radius-rod pin (external admission); got %g mm with the union pin at %g mm.", g.Lever.ValvePin, g.Lever.UnionPin)}
+		return &Error{"lever.valve_pin", fmt.Sprintf("The valve pin must lie between the radius-rod pin and the union-link pin (internal admission) or beyond the radius-rod pin (external admission); got %g mm with the union pin at %g mm.", g.Lever.ValvePin, g.Lever.UnionPin)}
 	case math.Abs(g.FullGearDie) >= g.LinkRadius:
-		return &Error{"full-gear die position", fmt.Sprintf("The full-gear die position %g mm must be well inside the link radius %g mm.", g.FullGearDie, g.LinkRadius)}
+		return &Error{"full_gear_die", fmt.Sprintf("The full-gear die position %g mm must be well inside the link radius %g mm.", g.FullGearDie, g.LinkRadius)}
 	}
 	return sweepCheck(e, g.Valve)
 }
@@ -158,7 +161,7 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 	var ok bool
 	p.foot, ok = circles(p.returnPin, g.EccentricRod, g.Trunnion, math.Sqrt(footLen2), sideOf(Point{}, g.Trunnion, g.Trunnion.Add(g.LinkFoot)))
 	if !ok {
-		return p, closeError("eccentric rod length", "The eccentric rod cannot reach the link foot", thetaDeg)
+		return p, closeError("eccentric_rod", "The eccentric rod cannot reach the link foot", thetaDeg)
 	}
 	f := p.foot.Sub(g.Trunnion)
 	p.linkCos, p.linkSin = g.LinkFoot.Dot(f)/footLen2, g.LinkFoot.Cross(f)/footLen2
@@ -208,9 +211,9 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 	p.unionPin = Point{v + k*t, g.Guide - k*ct}
 	if !ok || !finite(v) || (p.radiusPin.U-p.die.U)*ahead < 0 || (p.unionPin.U-p.crossheadArm.U)*uSide < 0 {
 		if math.Abs(fu) > math.Abs(fr) {
-			return p, closeError("union link length", "The union link cannot reach the combination lever", thetaDeg)
+			return p, closeError("union_link", "The union link cannot reach the combination lever", thetaDeg)
 		}
-		return p, closeError("radius rod length", "The radius rod cannot reach the combination lever", thetaDeg)
+		return p, closeError("radius_rod", "The radius rod cannot reach the combination lever", thetaDeg)
 	}
 	return p, nil
 }
@@ -225,7 +228,7 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 // a return crank whose pin stands a quarter turn from the crank as seen from
 // the axle).
 func (g Walschaerts) CentreLink(e Engine) (Walschaerts, error) {
-	if err := firstError(e.Validate(), positive("return crank radius", g.ReturnCrank), finiteField("return crank angle", g.ReturnAngle)); err != nil {
+	if err := firstError(within("engine", e.Validate()), positive("return_crank", "return crank radius", g.ReturnCrank), finiteField("return_angle", "return crank angle", g.ReturnAngle)); err != nil {
 		return g, err
 	}
 	foot := g.Trunnion.Add(g.LinkFoot)
@@ -253,7 +256,7 @@ func (g Walschaerts) CentreLink(e Engine) (Walschaerts, error) {
 			return g, nil
 		}
 	}
-	return g, &Error{"return crank angle", "No return crank angle puts the link at the middle of its swing at both dead centres; check the trunnion, link foot and return crank radius."}
+	return g, &Error{"return_angle", "No return crank angle puts the link at the middle of its swing at both dead centres; check the trunnion, link foot and return crank radius."}
 }
 
 // unionSide returns +1 when the lever's foot lies ahead of the crosshead arm

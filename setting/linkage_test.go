@@ -1,0 +1,135 @@
+package setting
+
+import (
+	"errors"
+	"math"
+	"strings"
+	"testing"
+)
+
+func nearPt(p, q Point, tol float64) bool { return p.Sub(q).Len() <= tol }
+
+func TestCirclesPicksTheSide(t *testing.T) {
+	// 3-4-5 triangles: circles of radius 5 about (0,0) and (8,0) meet at (4, +-3).
+	for _, c := range []struct {
+		name string
+		side float64
+		want Point
+	}{{"left of c1->c2", 1, Point{4, 3}}, {"right of c1->c2", -1, Point{4, -3}}} {
+		got, ok := circles(Point{}, 5, Point{8, 0}, 5, c.side)
+		if !ok || !nearPt(got, c.want, 1e-12) {
+			t.Errorf("%s: got %v %v, want %v", c.name, got, ok, c.want)
+		}
+	}
+	// Unequal radii, reversed order: circle 5 about (8,0) and 3 about (4,0)
+	// meet at (4, +-3)... only if 4^2+3^2 = 5^2 from (8,0): yes.
+	got, ok := circles(Point{8, 0}, 5, Point{4, 0}, 3, 1)
+	if !ok || !nearPt(got, Point{4, -3}, 1e-12) {
+		t.Errorf("reversed: got %v %v, want (4,-3)", got, ok)
+	}
+	if _, ok := circles(Point{}, 1, Point{5, 0}, 1, 1); ok {
+		t.Error("circles 5 apart with radii 1 met")
+	}
+	if _, ok := circles(Point{}, 1, Point{}, 1, 1); ok {
+		t.Error("concentric circles met")
+	}
+	// Touching circles meet once, at the touching point, on either side.
+	got, ok = circles(Point{}, 2, Point{5, 0}, 3, -1)
+	if !ok || !nearPt(got, Point{2, 0}, 1e-7) {
+		t.Errorf("touching: got %v %v, want (2,0)", got, ok)
+	}
+}
+
+func TestCircleLineAndNearSide(t *testing.T) {
+	for _, c := range []struct {
+		side float64
+		want Point
+	}{{1, Point{4, 3}}, {-1, Point{-4, 3}}} {
+		got, ok := circleLine(Point{}, 5, Point{-10, 3}, Point{1, 0}, c.side)
+		if !ok || !nearPt(got, c.want, 1e-12) {
+			t.Errorf("side %v: got %v %v, want %v", c.side, got, ok, c.want)
+		}
+	}
+	if _, ok := circleLine(Point{}, 2, Point{0, 3}, Point{1, 0}, 1); ok {
+		t.Error("line 3 from the centre cut a circle of radius 2")
+	}
+	got, ok := circlesNear(Point{}, 5, Point{8, 0}, 5, Point{3.5, -2})
+	if !ok || !nearPt(got, Point{4, -3}, 1e-12) {
+		t.Errorf("circlesNear: got %v, want (4,-3)", got)
+	}
+}
+
+func TestPointAlgebra(t *testing.T) {
+	p := Point{3, 4}
+	if p.Len() != 5 || p.Dot(Point{1, 1}) != 7 || p.Cross(Point{1, 0}) != -4 {
+		t.Errorf("Len, Dot or Cross wrong for %v", p)
+	}
+	if q := (Point{1, 0}).Rotate(math.Pi / 2); !nearPt(q, Point{0, 1}, 1e-15) {
+		t.Errorf("quarter turn of +U gave %v, want +W", q)
+	}
+	if q := p.Left(); q != (Point{-4, 3}) {
+		t.Errorf("Left(%v) = %v", p, q)
+	}
+	if (Point{math.NaN(), 0}).Finite() || !p.Finite() {
+		t.Error("Finite wrong")
+	}
+}
+
+// The gears' crank position must agree with Engine's own, offset cylinder
+// or not.
+func TestCrankRotationMatchesEngine(t *testing.T) {
+	for _, e := range []Engine{{CrankRadius: 22, RodLength: 132}, {CrankRadius: 22, RodLength: 132, Offset: 15}, {CrankRadius: 50, RodLength: 180, Offset: -40}} {
+		for th := 0.0; th < 360; th += 17 {
+			u, w := e.CrankPin(th)
+			if got := onAxle(e.CrankRadius, crankRotation(e, th)); !nearPt(got, Point{u, w}, 1e-9) {
+				t.Errorf("%+v at %v deg: gear crank pin %v, engine %v", e, th, got, Point{u, w})
+			}
+		}
+	}
+}
+
+// wantFieldError checks that err is an *Error naming field, and that its
+// message contains every fragment.
+func wantFieldError(t *testing.T, name string, err error, field string, fragments ...string) {
+	t.Helper()
+	var fe *Error
+	if !errors.As(err, &fe) {
+		t.Errorf("%s: got %v, want an *Error naming %q", name, err, field)
+		return
+	}
+	if fe.Field != field {
+		t.Errorf("%s: field %q, want %q (%s)", name, fe.Field, field, fe.Message)
+	}
+	for _, f := range fragments {
+		if !strings.Contains(fe.Message, f) {
+			t.Errorf("%s: message %q lacks %q", name, fe.Message, f)
+		}
+	}
+}
+
+// checkPose checks that every bar of a pose keeps its design length
+// wherever the gear is solved, i.e. the linkage really closed.
+func checkPose(t *testing.T, g PosedGear, e Engine, lengths map[string]float64) {
+	t.Helper()
+	for _, r := range []Reverser{1, 0.3, 0, -0.6, -1} {
+		for th := 0.0; th < 360; th += 23 {
+			p, err := g.Pose(e, th, r)
+			if err != nil {
+				t.Fatalf("%s pose at %v deg, reverser %v: %v", g.Kind(), th, r, err)
+			}
+			v, err := g.Valve(e, th, r)
+			if err != nil || v != p.Valve {
+				t.Errorf("%s at %v deg: Valve %v (%v), Pose.Valve %v", g.Kind(), th, v, err, p.Valve)
+			}
+			for _, b := range p.Bars {
+				want, ok := lengths[b.Name]
+				if !ok {
+					continue
+				}
+				if got := p.Joints[b.From].At.Sub(p.Joints[b.To].At).Len(); math.Abs(got-want) > 1e-6 {
+					t.Errorf("%s at %v deg, reverser %v: %s is %.9f mm, want %.9f", g.Kind(), th, r, b.Name, got, want)
+				}
+			}
+		}
+	}
+}

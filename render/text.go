@@ -97,18 +97,50 @@ func TextWidth(text string, size float64, bold bool) float64 {
 		size = DefaultTextSize
 	}
 	f := gofonts.Get(bold)
+	return toSize(measure(f, text).units, f, size)
+}
+
+// run is the measure of a string in font units, with its first and last
+// glyphs so that runs can be joined with the kerning between them.
+type run struct {
+	units       fixed.Int26_6
+	first, last truetype.Index
+	empty       bool
+}
+
+// measure returns the advance of text in font units (a 26.6 value whose
+// integer count is font units: the scale passed to the font is one em).
+func measure(f *truetype.Font, text string) run {
 	upe := fixed.Int26_6(f.FUnitsPerEm())
-	var units fixed.Int26_6
-	prev, first := truetype.Index(0), true
-	for _, r := range text {
-		i := f.Index(r)
-		if !first {
-			units += f.Kern(upe, prev, i)
+	r := run{empty: true}
+	for _, ch := range text {
+		i := f.Index(ch)
+		if r.empty {
+			r.first, r.empty = i, false
+		} else {
+			r.units += f.Kern(upe, r.last, i)
 		}
-		units += f.HMetric(upe, i).AdvanceWidth
-		prev, first = i, false
+		r.units += f.HMetric(upe, i).AdvanceWidth
+		r.last = i
 	}
-	return float64(units) * size / float64(upe)
+	return r
+}
+
+// joinRuns returns the measure of a followed by b.
+func joinRuns(f *truetype.Font, a, b run) run {
+	switch {
+	case a.empty:
+		return b
+	case b.empty:
+		return a
+	}
+	upe := fixed.Int26_6(f.FUnitsPerEm())
+	return run{units: a.units + f.Kern(upe, a.last, b.first) + b.units, first: a.first, last: b.last}
+}
+
+// toSize converts font units to the units of an em size.
+func toSize(units fixed.Int26_6, f *truetype.Font, size float64) float64 {
+	return float64(units) * size / float64(f.FUnitsPerEm())
 }
 
 // TextOrigin returns the baseline-left point from which a backend draws
@@ -150,8 +182,14 @@ func TextBox(at Point, text string, s TextStyle) Rect {
 // breaking at spaces. A newline starts a new paragraph; an empty paragraph
 // gives an empty line. A word wider than width on its own is broken between
 // letters, so no line is ever wider than width (unless width is narrower
-// than one letter, when each letter takes its own line).
+// than one letter, when each letter takes its own line). Widths are those
+// of TextWidth, kerning included.
 func Wrap(text string, width, size float64, bold bool) []string {
+	if !(size > 0) || math.IsInf(size, 0) {
+		size = DefaultTextSize
+	}
+	f := gofonts.Get(bold)
+	space := measure(f, " ")
 	var lines []string
 	for _, para := range strings.Split(text, "\n") {
 		words := strings.FieldsFunc(para, unicode.IsSpace)
@@ -159,27 +197,29 @@ func Wrap(text string, width, size float64, bold bool) []string {
 			lines = append(lines, "")
 			continue
 		}
-		line := ""
+		var line []string
+		var lineRun run
 		for _, w := range words {
-			try := w
-			if line != "" {
-				try = line + " " + w
+			wr := measure(f, w)
+			try := wr
+			if len(line) > 0 {
+				try = joinRuns(f, joinRuns(f, lineRun, space), wr)
 			}
-			if TextWidth(try, size, bold) <= width {
-				line = try
+			if toSize(try.units, f, size) <= width {
+				line, lineRun = append(line, w), try
 				continue
 			}
-			if line != "" {
-				lines = append(lines, line)
+			if len(line) > 0 {
+				lines = append(lines, strings.Join(line, " "))
 			}
-			line = w
-			for TextWidth(line, size, bold) > width {
-				head, tail := splitToWidth(line, width, size, bold)
+			for toSize(wr.units, f, size) > width {
+				head, tail := splitToWidth(w, width, size, bold)
 				lines = append(lines, head)
-				line = tail
+				w, wr = tail, measure(f, tail)
 			}
+			line, lineRun = []string{w}, wr
 		}
-		lines = append(lines, line)
+		lines = append(lines, strings.Join(line, " "))
 	}
 	return lines
 }

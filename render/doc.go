@@ -28,6 +28,11 @@
 // and layout checks) and render/raster (*image.RGBA and PNG). The browser's
 // ebiten backend lives with the app.
 //
+// Text is the Go font family (render/font/LICENSE) rasterised with
+// Freetype-Go, used under the FreeType License (render/font/FTL.txt):
+// portions of this software are copyright 2010 The FreeType Project
+// (www.freetype.org). All rights reserved.
+//
 // Imports: setting, golang.org/x/image and github.com/golang/freetype, and
 // the standard library. Never ebiten or syscall/js: render must build and
 // test natively with no display.

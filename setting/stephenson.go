@@ -29,11 +29,11 @@ func (l ExpansionLink) pin(side float64) Point {
 // a straight guide on the line W = Guide.
 //
 // Rods: the trade calls them open when, with the crank on the dead centre
-// farthest from the link (back dead centre for a link ahead of the axle),
-// so that both sheaves lie between the axle and the link, the eccentric rods
+// where both sheaves lie between the axle and the link, the eccentric rods
 // do not cross. The forward rod is pinned to whichever end of the link makes
 // that true (or untrue, when Crossed). With this reading open rods give more
-// lead toward mid gear, as Zeuner's analysis and the tests say.
+// lead toward mid gear, as Zeuner's analysis and the tests say, for either
+// admission.
 //
 // Reverser: the reverse arm stands at MidArmAngle in mid gear and turns by
 // r*ArmSwing degrees; +1 must bring the die block to the forward rod's end
@@ -97,16 +97,17 @@ type stephensonPose struct {
 }
 
 // forwardSide returns +1 when the forward rod works the upper end of the
-// link, -1 the lower. With the crank on the far dead centre (about 180
-// degrees) a sheave set sense*90 + advance ahead of the crank stands at
-// W = throw*sense*cos(advance), so the forward sheave is above for external
-// admission (sense +1) and below for internal; open rods keep that side.
+// link, -1 the lower. On the dead centre where both sheaves face the link
+// (the far one for external admission, whose sheaves lead the crank by
+// 90 + advance; the near one for internal admission, whose sheaves trail it
+// by 90 - advance) the forward sheave stands above the axle at
+// W = throw*cos(advance) either way, so open rods take the forward rod to the
+// upper end.
 func (g Stephenson) forwardSide() float64 {
-	s := g.sense()
 	if g.Crossed {
-		s = -s
+		return -1
 	}
-	return s
+	return 1
 }
 
 func (g Stephenson) sense() float64 {
@@ -191,6 +192,11 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 	p.die, found = circleLine(place(Point{-g.Link.Radius, 0}), g.Link.Radius, Point{0, g.Guide}, Point{1, 0}, 1)
 	if !found {
 		return p, closeError("guide", "The expansion link does not reach the valve rod's guide line", thetaDeg)
+	}
+	// The die must stay on the slot: no further from the link's middle than
+	// the rod pins by more than a fifth of their spacing.
+	if along := p.die.Sub(centre).Dot(Point{-sa, ca}); math.Abs(along) > 0.7*g.Link.PinSpacing {
+		return p, closeError("arm_swing", fmt.Sprintf("The die block runs off the end of the expansion link (%.1f mm from its middle, the rod pins %.1f mm)", math.Abs(along), g.Link.PinSpacing/2), thetaDeg)
 	}
 	return p, nil
 }

@@ -1,0 +1,190 @@
+package setting
+
+import (
+	"fmt"
+	"math"
+	"testing"
+)
+
+// zeunerGear is a Stephenson gear laid out for the textbook analysis: equal
+// eccentrics and rods of length l, a link curved to radius l, hung by its
+// middle from a long lifting link that is upright in mid gear, and a reverse
+// arm that lowers or raises the link by half the pin spacing in full gear.
+func zeunerGear(throw, advance, l, c float64, crossed bool, a Admission) Stephenson {
+	const arm, lift, guide = 60.0, 300.0, 0.0
+	g := Stephenson{
+		Forward:      Eccentric{Throw: throw, Advance: advance, Rod: l},
+		Backward:     Eccentric{Throw: throw, Advance: advance, Rod: l},
+		Crossed:      crossed,
+		Admission:    a,
+		Link:         ExpansionLink{Radius: l, PinSpacing: 2 * c},
+		Weighshaft:   Point{l - arm, guide + lift},
+		ReverseArm:   arm,
+		LiftingLink:  lift,
+		Guide:        guide,
+		ValveCentreU: l,
+	}
+	// Full forward brings the forward rod's end of the link to the die.
+	g.ArmSwing = -g.forwardSide() * math.Asin(c/arm) * 180 / math.Pi
+	return g
+}
+
+// deadCentreOpening is the mean over the two dead centres of the valve's
+// displacement toward opening its port to steam: lead + lap, whatever the
+// spindle length.
+func deadCentreOpening(t *testing.T, e Engine, g Stephenson, r Reverser) float64 {
+	t.Helper()
+	s := g.Admission.sense()
+	v0, err0 := g.Valve(e, 0, r)
+	vb, errb := g.Valve(e, e.BackDeadCentre(), r)
+	if err0 != nil || errb != nil {
+		t.Fatal(err0, errb)
+	}
+	return (s*v0 - s*vb) / 2
+}
+
+// Zeuner's approximation for the Stephenson link motion (G. Zeuner,
+// Treatise on Valve-Gears, 1869, the chapter on the link motion): with the
+// link curved to the rod length l and the die u from the link's middle, the
+// valve stands r sin(delta) + r cos(delta) (c^2 - u^2)/(c l) from central at
+// dead centre, c being half the pin spacing; so from full gear (u = c) to mid
+// gear (u = 0) the lead grows by r cos(delta) c / l with open rods and, the
+// sign turned, falls by as much with crossed rods. For long rods (l = 600,
+// c = 18, r = 5: 0.136 mm) the exact linkage must agree within 5 %, for
+// either admission; with the demo's short rods the sign must still hold.
+func TestStephensonLeadAcrossGearFollowsZeuner(t *testing.T) {
+	e := Engine{CrankRadius: 22, RodLength: 132}
+	const throw, advance, c = 5.0, 25.0, 18.0
+	for _, tc := range []struct {
+		l       float64
+		crossed bool
+		adm     Admission
+		tol     float64 // fraction of the predicted change
+	}{
+		{600, false, External, 0.05},
+		{600, true, External, 0.05},
+		{600, false, Internal, 0.05},
+		{600, true, Internal, 0.05},
+		{130, false, External, 0.5},
+		{130, true, External, 0.5},
+	} {
+		name := fmt.Sprintf("rods %g mm, crossed %v, %v admission", tc.l, tc.crossed, tc.adm)
+		g := zeunerGear(throw, advance, tc.l, c, tc.crossed, tc.adm)
+		if err := g.Validate(e); err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		want := throw * math.Cos(advance*math.Pi/180) * c / tc.l
+		if tc.crossed {
+			want = -want
+		}
+		full, half, mid := deadCentreOpening(t, e, g, 1), deadCentreOpening(t, e, g, 0.5), deadCentreOpening(t, e, g, 0)
+		t.Logf("%s: lead change full to mid gear %.4f mm, Zeuner %.4f", name, mid-full, want)
+		if got := mid - full; math.Abs(got-want) > tc.tol*math.Abs(want) {
+			t.Errorf("%s: lead change full to mid gear %.4f mm, Zeuner %.4f", name, got, want)
+		}
+		if (half-full)*want <= 0 || (mid-half)*want <= 0 {
+			t.Errorf("%s: lead not monotonic toward mid gear: %.4f, %.4f, %.4f", name, full, half, mid)
+		}
+		back := deadCentreOpening(t, e, g, -1)
+		if math.Abs(back-full) > 0.02*math.Abs(want) {
+			t.Errorf("%s: full back %.4f and full forward %.4f differ with equal eccentrics", name, back, full)
+		}
+	}
+}
+
+// Full forward drives the engine forward and full back drives it backward:
+// cut-off in the working range only when the gear and the running direction
+// agree (common practice, no source).
+func TestStephensonReverserDirection(t *testing.T) {
+	e := Engine{CrankRadius: 22, RodLength: 132}
+	for _, crossed := range []bool{false, true} {
+		for _, adm := range []Admission{External, Internal} {
+			g := zeunerGear(5, 25, 130, 18, crossed, adm)
+			v := lapValve(5*math.Sin(25*math.Pi/180)-0.2, adm)
+			for _, c := range []struct {
+				r    Reverser
+				dir  Direction
+				good bool
+			}{{1, Forward, true}, {-1, Backward, true}, {1, Backward, false}, {-1, Forward, false}} {
+				cut := eventsOf(t, e, v, g, c.r, c.dir).Front.CutOff.StrokePercent
+				if works := cut > 55 && cut < 95; works != c.good {
+					t.Errorf("crossed %v, %v, reverser %v running %v: cut-off %.1f %%", crossed, adm, c.r, c.dir, cut)
+				}
+			}
+		}
+	}
+}
+
+func TestStephensonPoseKeepsLengths(t *testing.T) {
+	s := DemoStephenson()
+	g := *s.Gear.Stephenson
+	checkPose(t, g, s.Engine, map[string]float64{
+		"crank":                  s.Engine.CrankRadius,
+		"forward eccentric":      g.Forward.Throw,
+		"backward eccentric":     g.Backward.Throw,
+		"forward eccentric rod":  g.Forward.Rod,
+		"backward eccentric rod": g.Backward.Rod,
+		"reverse arm":            g.ReverseArm,
+		"lifting link":           g.LiftingLink,
+	})
+	p, err := g.Pose(s.Engine, 40, 0.4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	f, _ := p.Joint("forward rod pin")
+	b, _ := p.Joint("backward rod pin")
+	if d := f.Sub(b).Len(); math.Abs(d-g.Link.PinSpacing) > 1e-9 {
+		t.Errorf("pin spacing %.9f, want %g", d, g.Link.PinSpacing)
+	}
+	// The die lies on the link's arc: radius from the centre of curvature.
+	die, _ := p.Joint("die block")
+	mid, _ := p.Joint("link middle")
+	centre := mid.Add(f.Sub(b).Scale(1 / g.Link.PinSpacing).Rotate(math.Pi / 2).Scale(g.Link.Radius))
+	if d := die.Sub(centre).Len(); math.Abs(d-g.Link.Radius) > 1e-9 {
+		t.Errorf("die %.9f mm from the link's centre of curvature, want %g", d, g.Link.Radius)
+	}
+}
+
+func TestStephensonErrorsNameTheField(t *testing.T) {
+	s := DemoStephenson()
+	e, good := s.Engine, *s.Gear.Stephenson
+	for _, c := range []struct {
+		name, field string
+		change      func(*Stephenson)
+	}{
+		{"no forward throw", "forward.throw", func(g *Stephenson) { g.Forward.Throw = 0 }},
+		{"backward rod shorter than throw", "backward.rod", func(g *Stephenson) { g.Backward.Rod = 3 }},
+		{"advance NaN", "backward.advance", func(g *Stephenson) { g.Backward.Advance = math.NaN() }},
+		{"link radius zero", "link.radius", func(g *Stephenson) { g.Link.Radius = 0 }},
+		{"pins wider than the link's circle", "link.pin_spacing", func(g *Stephenson) { g.Link.PinSpacing = 300 }},
+		{"reverse arm negative", "reverse_arm", func(g *Stephenson) { g.ReverseArm = -30 }},
+		{"lifting link NaN", "lifting_link", func(g *Stephenson) { g.LiftingLink = math.NaN() }},
+		{"arm swing infinite", "arm_swing", func(g *Stephenson) { g.ArmSwing = math.Inf(-1) }},
+		{"admission unset", "admission", func(g *Stephenson) { g.Admission = 0 }},
+		{"weighshaft NaN", "weighshaft", func(g *Stephenson) { g.Weighshaft.U = math.NaN() }},
+		{"die behind the axle", "valve_centre_u", func(g *Stephenson) { g.ValveCentreU = -5 }},
+		{"lifting link far too long", "lifting_link", func(g *Stephenson) { g.LiftingLink = 400 }},
+	} {
+		g := good
+		c.change(&g)
+		wantFieldError(t, c.name, g.Validate(e), c.field)
+	}
+	g := good
+	g.LiftingLink = 400
+	_, err := g.Valve(e, 212, 0)
+	wantFieldError(t, "long lifting link, Valve", err, "lifting_link", "cannot hold the expansion link", "crank angle 212 deg")
+	g = good
+	g.Link.Radius, g.Guide = 20, 30
+	_, err = g.Valve(e, 30, 0)
+	wantFieldError(t, "guide beyond the link", err, "guide", "crank angle 30 deg")
+	g = good
+	g.ArmSwing = -80
+	wantFieldError(t, "reverser swings the die off the link", g.Validate(e), "arm_swing", "runs off the end")
+}
+
+// BenchmarkStephensonValve is one Valve evaluation of the demo Stephenson
+// gear (goal: about 250 ns or less).
+func BenchmarkStephensonValve(b *testing.B) {
+	s := DemoStephenson()
+	benchValve(b, s.Engine, *s.Gear.Stephenson)
+}

@@ -127,7 +127,7 @@ func PistonCurve(c Canvas, e setting.Engine, box Rect, th Theme) {
 	sub := fmt.Sprintf("Crank radius %s mm, connecting rod %s mm, stroke %s mm. Back dead centre at %s°.",
 		mm(e.CrankRadius), mm(e.RodLength), mm(crank.Stroke()), deg(bdc))
 	at90 := 100 * crank.PistonFraction(90)
-	caption := fmt.Sprintf("At 90° the piston has gone %s %% of its stroke, not 50 %%: the rod's angle puts it ahead of the pure cosine in the first half turn and behind it in the second.", pct(at90))
+	caption := fmt.Sprintf("At 90° the piston has gone %s %% of its stroke, not 50 %%: the slant of the connecting rod holds it nearer the back end than a pure cosine would.", pct(at90))
 	l := LayoutPiston(box, title, sub, caption)
 
 	ink := TextStyle{Color: th.Ink, Size: BodySize}

@@ -113,20 +113,22 @@ func Events(e Engine, v Valve, motion Motion, dir Direction) (EventSet, error) {
 }
 
 const (
-	gridStart   = 120   // first grid, steps per turn
-	gridMax     = 3840  // finest grid
-	rootTol     = 1e-9  // degrees
-	touchTol    = 1e-9  // mm: a dip past an edge by less than this opens nothing
-	bulgeSafety = 4.0   // bound on the curve's bulge, in multiples of the second-difference estimate
-	resolvedAt  = 0.01  // largest second difference, as a fraction of the range, of a resolved grid
-	sameAngle   = 1e-7  // degrees: crossings this close pair off as a touch
-	minTolDeg   = 1e-10 // absolute tolerance of the minimiser, degrees
+	gridStart   = 120  // first grid, steps per turn
+	gridMax     = 3840 // finest grid
+	rootTol     = 1e-9 // degrees
+	touchTol    = 1e-9 // mm: a dip past an edge by less than this opens nothing
+	bulgeSafety = 4.0  // bound on the curve's bulge, in multiples of the second-difference estimate
+	resolvedAt  = 0.01 // largest second difference, as a fraction of the range, of a resolved grid
+	sameAngle   = 1e-7 // degrees: crossings this close pair off as a touch
+	minTolDeg   = 1e-6 // tolerance of the minimiser, degrees: the extreme's value is then exact to ~1e-16 of the travel
 )
 
 // crossing is where an edge function changes sign.
 type crossing struct {
 	theta  float64 // degrees in [0, 360]
 	rising bool    // closed -> open with increasing theta
+	lo, hi float64 // the grid step it was found in
+	double bool    // one of a close pair found at a dip past the edge
 }
 
 // edgeCrossings is the result for one port edge: its crossings in
@@ -149,6 +151,10 @@ type analysis struct {
 // sampler holds the motion's samples and lazily refined step extremes.
 type sampler struct {
 	motion Motion
+	// rootTol and minTol are the tolerances in degrees of roots and
+	// extremes: tight on the motion, looser on an interpolant whose
+	// crossings are polished afterwards.
+	rootTol, minTol float64
 	n      int
 	h      float64   // step, degrees
 	x      []float64 // x[i] at theta i*h, i < n
@@ -176,22 +182,26 @@ func (s *sampler) at(i int) float64 {
 	return s.x[((i%s.n)+s.n)%s.n]
 }
 
-// sample fills the grid, refining it until the curve is resolved.
+// sample fills the grid, refining it until the curve is resolved. A grid
+// already in s.x (equally spaced from theta 0) is the start; otherwise
+// gridStart points.
 func (s *sampler) sample() error {
-	s.n = gridStart
-	s.x = make([]float64, s.n)
-	for i := range s.x {
-		x, err := s.eval(float64(i) * 360 / float64(s.n))
-		if err != nil {
-			return err
+	if s.x == nil {
+		s.x = make([]float64, gridStart)
+		for i := range s.x {
+			x, err := s.eval(float64(i) * 360 / float64(len(s.x)))
+			if err != nil {
+				return err
+			}
+			s.x[i] = x
 		}
-		s.x[i] = x
 	}
+	s.n = len(s.x)
 	for {
 		lo, hi, d2 := math.Inf(1), math.Inf(-1), 0.0
 		for i, x := range s.x {
 			lo, hi = math.Min(lo, x), math.Max(hi, x)
-			d2 = math.Max(d2, math.Abs(s.at(i+1)-2*x+s.at(i-1)))
+			d2 = math.Max(d2, secondDiff(s.x, i))
 		}
 		if d2 <= resolvedAt*(hi-lo) || s.n >= gridMax {
 			break
@@ -212,20 +222,33 @@ func (s *sampler) sample() error {
 	s.lo = make([]extreme, s.n)
 	s.hi = make([]extreme, s.n)
 	scale := 0.0
-	for _, x := range s.x {
+	d2 := make([]float64, s.n)
+	for i, x := range s.x {
 		scale = math.Max(scale, math.Abs(x))
+		d2[i] = secondDiff(s.x, i)
 	}
 	for i := range s.x {
-		d := 0.0
-		for j := i - 1; j <= i+2; j++ {
-			d = math.Max(d, math.Abs(s.at(j+1)-2*s.at(j)+s.at(j-1)))
-		}
+		// the second differences at the step's ends and their neighbours
+		d := math.Max(math.Max(d2[(i+s.n-1)%s.n], d2[i]), math.Max(d2[(i+1)%s.n], d2[(i+2)%s.n]))
 		// a curve with |x''| <= M departs from its chord over a step h by at
 		// most M h^2 / 8, and M h^2 is what the second difference measures.
 		s.bulge[i] = bulgeSafety*d/8 + 1e-12*(1+scale)
 		s.lo[i], s.hi[i] = extreme{x: math.NaN()}, extreme{x: math.NaN()}
 	}
 	return nil
+}
+
+// secondDiff returns |x[i+1] - 2 x[i] + x[i-1]|, round the turn.
+func secondDiff(x []float64, i int) float64 {
+	n := len(x)
+	prev, next := i-1, i+1
+	if prev < 0 {
+		prev = n - 1
+	}
+	if next == n {
+		next = 0
+	}
+	return math.Abs(x[next] - 2*x[i] + x[prev])
 }
 
 // stepExtreme returns the smallest (sign +1) or largest (sign -1) value of
@@ -243,7 +266,7 @@ func (s *sampler) stepExtreme(i int, sign float64) (theta, x float64, err error)
 		x, err := s.eval(t)
 		return sign * x, err
 	}
-	t, fx, err := brentMin(f, t0, t0+s.h)
+	t, fx, err := brentMin(f, t0, t0+s.h, s.minTol)
 	if err != nil {
 		return 0, 0, err
 	}
@@ -258,6 +281,14 @@ func (s *sampler) stepExtreme(i int, sign float64) (theta, x float64, err error)
 }
 
 // analyse samples the motion and finds every edge crossing.
+//
+// A smooth curve is sampled at spectralStart points, doubled until its
+// trigonometric interpolant is resolved (see spectrum); the edge search
+// then runs on the interpolant, which is cheap, and each crossing is
+// polished on the motion itself by Newton's method with the interpolant's
+// slope (safeguarded: a step leaving the crossing's grid step falls back
+// to Brent's method on the motion). A curve whose spectrum does not settle
+// by spectralMax points (a kink, a jump, noise) is searched directly.
 func analyse(c Crank, v Valve, motion Motion) (*analysis, error) {
 	if err := v.Validate(); err != nil {
 		return nil, within("valve", err)
@@ -265,13 +296,26 @@ func analyse(c Crank, v Valve, motion Motion) (*analysis, error) {
 	if motion == nil {
 		return nil, &Error{"motion", "No valve motion was given."}
 	}
-	s := &sampler{motion: motion}
+	truth := &sampler{motion: motion, rootTol: rootTol, minTol: minTolDeg}
+	sp, samples, err := truth.spectrum()
+	if err != nil {
+		return nil, err
+	}
+	s := truth
+	if sp != nil {
+		// the interpolant passes through the samples: they start its grid
+		s = &sampler{x: append([]float64(nil), samples...), rootTol: 1e-7, minTol: 1e-4,
+			motion: func(t float64) (float64, error) { return sp.at(t), nil }}
+	}
 	if err := s.sample(); err != nil {
 		return nil, err
 	}
 	a := &analysis{crank: c, valve: v}
-	var err error
-	if a.vmin, a.vmax, err = s.extremes(); err != nil {
+	tlo, thi, err := s.extremes()
+	if err != nil {
+		return nil, err
+	}
+	if a.vmin, a.vmax, err = truth.extremesAt(tlo, thi, samples); err != nil {
 		return nil, err
 	}
 	sense := v.Admission.sense()
@@ -287,9 +331,17 @@ func analyse(c Crank, v Valve, motion Motion) (*analysis, error) {
 		if a.exhaust[end], err = s.crossings(-k*sense, p.ExhaustLap); err != nil {
 			return nil, err
 		}
-		x := s.x[0]
+		if sp != nil {
+			if err = truth.polish(sp, k*sense, p.SteamLap, a.steam[end].crossings); err != nil {
+				return nil, err
+			}
+			if err = truth.polish(sp, -k*sense, p.ExhaustLap, a.exhaust[end].crossings); err != nil {
+				return nil, err
+			}
+		}
+		x := samples[0]
 		if end == Back {
-			if x, err = s.eval(c.bdc); err != nil {
+			if x, err = truth.eval(c.bdc); err != nil {
 				return nil, err
 			}
 		}
@@ -298,9 +350,201 @@ func analyse(c Crank, v Valve, motion Motion) (*analysis, error) {
 	return a, nil
 }
 
-// extremes returns the curve's smallest and largest values over the turn,
-// refined around the extreme samples.
-func (s *sampler) extremes() (lo, hi float64, err error) {
+// extremesAt returns the motion's smallest and largest values: the least
+// and greatest of its samples and of its values at the angles tlo and thi.
+func (s *sampler) extremesAt(tlo, thi float64, samples []float64) (lo, hi float64, err error) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for _, x := range samples {
+		lo, hi = math.Min(lo, x), math.Max(hi, x)
+	}
+	for _, t := range [2]float64{tlo, thi} {
+		x, err := s.eval(t)
+		if err != nil {
+			return 0, 0, err
+		}
+		lo, hi = math.Min(lo, x), math.Max(hi, x)
+	}
+	return lo, hi, nil
+}
+
+// polish moves each crossing of the edge function k*x - lap found on the
+// interpolant onto the motion itself. A crossing of a close pair (a dip
+// past the edge) is left where the interpolant put it: there the slope is
+// too small for Newton's method, and the interpolant is resolved.
+func (s *sampler) polish(sp *spectrum, k, lap float64, cs []crossing) error {
+	g := func(t float64) (float64, error) {
+		x, err := s.eval(t)
+		return k*x - lap, err
+	}
+	for i := range cs {
+		c := &cs[i]
+		if c.double {
+			continue
+		}
+		t := c.theta
+		ok := false
+		for range 4 {
+			gt, err := g(t)
+			if err != nil {
+				return err
+			}
+			_, dx := sp.value(t)
+			if gt == 0 {
+				ok = true
+				break
+			}
+			if dx == 0 {
+				break
+			}
+			step := gt / (k * dx)
+			if t-step < c.lo || t-step > c.hi {
+				break
+			}
+			t -= step
+			// Newton's method converges quadratically: from within 1e-6
+			// degrees one step leaves an error far below rootTol.
+			if math.Abs(step) < 1e-6 {
+				ok = true
+				break
+			}
+		}
+		if ok {
+			c.theta = t
+			continue
+		}
+		glo, err := g(c.lo)
+		if err != nil {
+			return err
+		}
+		ghi, err := g(c.hi)
+		if err != nil {
+			return err
+		}
+		if (glo > 0) != (ghi > 0) {
+			if c.theta, err = brentRoot(g, c.lo, c.hi, glo, ghi, s.rootTol); err != nil {
+				return err
+			}
+		}
+	}
+	return nil
+}
+
+const (
+	spectralStart = 40   // first number of samples for the interpolant
+	spectralMax   = 320  // most samples before searching the motion directly
+	spectralTail  = 1e-6 // resolved: the top quarter of the spectrum holds less than this share of it
+)
+
+// spectrum is the trigonometric interpolant of n equally spaced samples:
+// x(t) = a[0] + sum over k = 1..n/2 of a[k] cos kt + b[k] sin kt.
+type spectrum struct {
+	a, b []float64
+}
+
+// at returns the interpolant at theta degrees.
+func (sp *spectrum) at(theta float64) float64 {
+	s, c := math.Sincos(theta * (math.Pi / 180))
+	ck, sk := c, s
+	x := sp.a[0]
+	for k := 1; k < len(sp.a); k++ {
+		x += sp.a[k]*ck + sp.b[k]*sk
+		ck, sk = ck*c-sk*s, sk*c+ck*s
+	}
+	return x
+}
+
+// value returns the interpolant and its slope (mm per degree) at theta
+// degrees.
+func (sp *spectrum) value(theta float64) (x, dx float64) {
+	s, c := math.Sincos(theta * (math.Pi / 180))
+	ck, sk := c, s
+	x = sp.a[0]
+	for k := 1; k < len(sp.a); k++ {
+		x += sp.a[k]*ck + sp.b[k]*sk
+		dx += float64(k) * (sp.b[k]*ck - sp.a[k]*sk)
+		ck, sk = ck*c-sk*s, sk*c+ck*s
+	}
+	return x, dx * (math.Pi / 180)
+}
+
+// fitSpectrum returns the interpolant of samples (len n, even) at
+// theta = 360 j / n, and whether it is resolved: whether the top quarter of
+// its harmonics carries less than spectralTail of the whole, which a smooth
+// curve's quickly falling spectrum does and a kinked one's does not.
+func fitSpectrum(x []float64) (*spectrum, bool) {
+	n := len(x)
+	h := n / 2
+	cs, sn := make([]float64, n), make([]float64, n)
+	for m := range n {
+		sn[m], cs[m] = math.Sincos(2 * math.Pi * float64(m) / float64(n))
+	}
+	sp := &spectrum{a: make([]float64, h+1), b: make([]float64, h+1)}
+	for _, v := range x {
+		sp.a[0] += v
+	}
+	sp.a[0] /= float64(n)
+	var total, tail float64
+	for k := 1; k <= h; k++ {
+		var a, b float64
+		m := 0
+		for _, v := range x {
+			a += v * cs[m]
+			b += v * sn[m]
+			if m += k; m >= n {
+				m -= n
+			}
+		}
+		w := 2 / float64(n)
+		if k == h {
+			w, b = 1/float64(n), 0
+		}
+		sp.a[k], sp.b[k] = a*w, b*w
+		c := math.Hypot(sp.a[k], sp.b[k])
+		total += c
+		if 4*k > n {
+			tail += c
+		}
+	}
+	return sp, tail <= spectralTail*total+1e-12*(1+math.Abs(sp.a[0]))
+}
+
+// spectrum samples the motion at spectralStart points, doubling until the
+// interpolant is resolved. It returns the interpolant, or nil when the
+// curve is not smooth enough, and the samples (the first at theta 0).
+func (s *sampler) spectrum() (*spectrum, []float64, error) {
+	x := make([]float64, spectralStart)
+	for i := range x {
+		v, err := s.eval(float64(i) * 360 / float64(len(x)))
+		if err != nil {
+			return nil, nil, err
+		}
+		x[i] = v
+	}
+	for {
+		sp, ok := fitSpectrum(x)
+		if ok {
+			return sp, x, nil
+		}
+		if len(x) >= spectralMax {
+			return nil, x, nil
+		}
+		finer := make([]float64, 2*len(x))
+		for i, v := range x {
+			finer[2*i] = v
+			m, err := s.eval((float64(i) + 0.5) * 360 / float64(len(x)))
+			if err != nil {
+				return nil, nil, err
+			}
+			finer[2*i+1] = m
+		}
+		x = finer
+	}
+}
+
+// extremes returns the angles of the curve's smallest and largest values
+// over the turn, refined over the two steps either side of the extreme
+// samples.
+func (s *sampler) extremes() (tlo, thi float64, err error) {
 	ilo, ihi := 0, 0
 	for i, x := range s.x {
 		if x < s.x[ilo] {
@@ -310,22 +554,25 @@ func (s *sampler) extremes() (lo, hi float64, err error) {
 			ihi = i
 		}
 	}
-	lo, hi = s.x[ilo], s.x[ihi]
-	for _, i := range [2]int{ilo - 1, ilo} {
-		_, x, err := s.stepExtreme((i+s.n)%s.n, 1)
+	var out [2]float64
+	for j, ex := range [2]struct {
+		i    int
+		sign float64
+	}{{ilo, 1}, {ihi, -1}} {
+		t := float64(ex.i) * s.h
+		out[j] = t
+		tm, fx, err := brentMin(func(t float64) (float64, error) {
+			x, err := s.eval(t)
+			return ex.sign * x, err
+		}, t-s.h, t+s.h, s.minTol)
 		if err != nil {
 			return 0, 0, err
 		}
-		lo = math.Min(lo, x)
-	}
-	for _, i := range [2]int{ihi - 1, ihi} {
-		_, x, err := s.stepExtreme((i+s.n)%s.n, -1)
-		if err != nil {
-			return 0, 0, err
+		if fx < ex.sign*s.x[ex.i] {
+			out[j] = mod360(tm)
 		}
-		hi = math.Max(hi, x)
 	}
-	return lo, hi, nil
+	return out[0], out[1], nil
 }
 
 // crossings finds where the edge function g = k*x - lap changes sign (k is
@@ -341,11 +588,11 @@ func (s *sampler) crossings(k, lap float64) (edgeCrossings, error) {
 		g0, g1 := k*s.at(i)-lap, k*s.at(i+1)-lap
 		open0, open1 := g0 > 0, g1 > 0
 		if open0 != open1 {
-			t, err := brentRoot(g, t0, t1, g0, g1)
+			t, err := brentRoot(g, t0, t1, g0, g1, s.rootTol)
 			if err != nil {
 				return edgeCrossings{}, err
 			}
-			out = append(out, crossing{t, open1})
+			out = append(out, crossing{theta: t, rising: open1, lo: t0, hi: t1})
 			continue
 		}
 		if math.Min(math.Abs(g0), math.Abs(g1)) > s.bulge[i] {
@@ -365,15 +612,15 @@ func (s *sampler) crossings(k, lap float64) (edgeCrossings, error) {
 		if (open0 && gm >= -touchTol) || (!open0 && gm <= touchTol) || tm <= t0 || tm >= t1 {
 			continue // a touch, or no turn inside the step
 		}
-		ta, err := brentRoot(g, t0, tm, g0, gm)
+		ta, err := brentRoot(g, t0, tm, g0, gm, s.rootTol)
 		if err != nil {
 			return edgeCrossings{}, err
 		}
-		tb, err := brentRoot(g, tm, t1, gm, g1)
+		tb, err := brentRoot(g, tm, t1, gm, g1, s.rootTol)
 		if err != nil {
 			return edgeCrossings{}, err
 		}
-		out = append(out, crossing{ta, !open0}, crossing{tb, open0})
+		out = append(out, crossing{ta, !open0, t0, tm, true}, crossing{tb, open0, tm, t1, true})
 	}
 	out = pairOffTouches(out)
 	return edgeCrossings{crossings: out, allOpen: len(out) == 0 && s.x[0]*k-lap > 0}, nil
@@ -540,7 +787,7 @@ func (a *analysis) extremeToward(end CylinderEnd, steam bool) float64 {
 // brentRoot finds a root of f in [a, b] given f(a) = fa and f(b) = fb of
 // opposite sign (Brent's method: inverse quadratic interpolation and
 // secant steps safeguarded by bisection), to rootTol degrees.
-func brentRoot(f func(float64) (float64, error), a, b, fa, fb float64) (float64, error) {
+func brentRoot(f func(float64) (float64, error), a, b, fa, fb, rootTol float64) (float64, error) {
 	lo, hi := a, b
 	if fa == 0 {
 		return a, nil
@@ -604,7 +851,7 @@ func brentRoot(f func(float64) (float64, error), a, b, fa, fb float64) (float64,
 
 // brentMin finds the minimum of f on [a, b] (Brent's minimiser: golden
 // section with parabolic steps).
-func brentMin(f func(float64) (float64, error), a, b float64) (xmin, fmin float64, err error) {
+func brentMin(f func(float64) (float64, error), a, b, tol float64) (xmin, fmin float64, err error) {
 	const cgold = 0.3819660112501051
 	x := a + cgold*(b-a)
 	w, v := x, x
@@ -616,7 +863,7 @@ func brentMin(f func(float64) (float64, error), a, b float64) (xmin, fmin float6
 	var d, e float64
 	for iter := 0; iter < 100; iter++ {
 		xm := 0.5 * (a + b)
-		tol1 := 1e-12*math.Abs(x) + minTolDeg
+		tol1 := tol
 		tol2 := 2 * tol1
 		if math.Abs(x-xm) <= tol2-0.5*(b-a) {
 			break

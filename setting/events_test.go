@@ -96,7 +96,7 @@ func TestBackwardMirrorsForward(t *testing.T) {
 		f, b := fw.End(end), bw.End(end)
 		for _, p := range [][3]any{{"admission", f.Admission, b.Admission}, {"cut-off", f.CutOff, b.CutOff}, {"release", f.Release, b.Release}, {"compression", f.Compression, b.Compression}} {
 			near(t, fmt.Sprintf("%s %s %%", end, p[0]), p[2].(Event).StrokePercent, p[1].(Event).StrokePercent, 1e-7)
-			near(t, fmt.Sprintf("%s %s mirrored angle", end, p[0]), mod360(p[1].(Event).CrankDeg+p[2].(Event).CrankDeg), 0, 1e-7)
+			near(t, fmt.Sprintf("%s %s mirrored angle", end, p[0]), wrap180(p[1].(Event).CrankDeg+p[2].(Event).CrankDeg), 0, 1e-7)
 		}
 		near(t, end.String()+" lead angle", b.LeadAngle, f.LeadAngle, 1e-7)
 		near(t, end.String()+" lead", b.Lead, f.Lead, 1e-12)
@@ -176,6 +176,50 @@ func TestEventsAgainstBruteForce(t *testing.T) {
 			}
 			for i := range got {
 				near(t, fmt.Sprintf("lap %g %s crossing %d", lap, end, i), got[i].theta, want[i], 1e-6)
+			}
+		}
+	}
+}
+
+// A curve with kinks (a clipped, rectified wave) has a spectrum that never
+// settles, so it is searched directly; the crossings still agree with a
+// brute-force scan.
+func TestKinkedCurveSearchedDirectly(t *testing.T) {
+	e := Engine{CrankRadius: 30, RodLength: 150}
+	motion := func(t float64) (float64, error) {
+		x := 8*sinDeg(t+20) + 2*math.Abs(sinDeg(1.5*t))
+		return math.Max(-6.5, math.Min(7.2, x)), nil
+	}
+	samples := make([]float64, spectralMax)
+	for i := range samples {
+		samples[i], _ = motion(float64(i) * 360 / spectralMax)
+	}
+	if _, ok := fitSpectrum(samples); ok {
+		t.Fatal("the kinked curve's spectrum counts as resolved; the test no longer reaches the direct search")
+	}
+	for _, lap := range []float64{3, 5.5, 7.1} {
+		v := slideValve(Internal, lap, 6.4, 30)
+		a, err := analyse(e.prepare(), v, motion)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, end := range []CylinderEnd{Front, Back} {
+			for _, edge := range []struct {
+				name string
+				got  []crossing
+				g    func(CylinderEnd, float64) float64
+			}{{"steam", a.steam[end].crossings, v.SteamEdge}, {"exhaust", a.exhaust[end].crossings, v.ExhaustEdge}} {
+				want := bruteCrossings(func(t float64) float64 {
+					x, _ := motion(t)
+					return edge.g(end, x)
+				})
+				if len(edge.got) != len(want) {
+					t.Errorf("lap %g %s %s: %d crossings, brute force %d", lap, end, edge.name, len(edge.got), len(want))
+					continue
+				}
+				for i := range want {
+					near(t, fmt.Sprintf("lap %g %s %s crossing %d", lap, end, edge.name, i), edge.got[i].theta, want[i], 1e-6)
+				}
 			}
 		}
 	}

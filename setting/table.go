@@ -76,9 +76,11 @@ func RunningDirections(r Reverser) []Direction {
 // against its gear can be seen too. The valve curve of a notch is found
 // once and serves every direction.
 //
-// Errors: the engine, valve and gear are validated first (fields under
-// "engine", "valve", "gear"); a linkage that cannot close in a notch gives
-// the gear's error with the notch named.
+// Errors: the engine and valve are validated first (fields under "engine"
+// and "valve"); a linkage that cannot close in a notch gives the gear's
+// error with the notch named. The gear's own dimensions are not checked
+// here, to keep the table fast for fitting: check them once with
+// Gear.Validate (EngineSpec.Validate and DecodeEngineSpec do).
 func Table(e Engine, v Valve, g Gear, notches []Notch, dirs []Direction) (EventTable, error) {
 	c, err := e.Prepare()
 	if err != nil {
@@ -86,9 +88,6 @@ func Table(e Engine, v Valve, g Gear, notches []Notch, dirs []Direction) (EventT
 	}
 	if g == nil {
 		return EventTable{}, &Error{"gear", "No valve gear was given."}
-	}
-	if err := g.Validate(e); err != nil {
-		return EventTable{}, within("gear", err)
 	}
 	for _, d := range dirs {
 		if err := d.validate(); err != nil {

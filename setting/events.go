@@ -155,11 +155,11 @@ type sampler struct {
 	// extremes: tight on the motion, looser on an interpolant whose
 	// crossings are polished afterwards.
 	rootTol, minTol float64
-	n      int
-	h      float64   // step, degrees
-	x      []float64 // x[i] at theta i*h, i < n
-	bulge  []float64 // bound on the curve's departure from the chord in step i
-	lo, hi []extreme // refined min and max of the curve in step i (NaN: not yet)
+	n               int
+	h               float64   // step, degrees
+	x               []float64 // x[i] at theta i*h, i < n
+	bulge           []float64 // bound on the curve's departure from the chord in step i
+	lo, hi          []extreme // refined min and max of the curve in step i (NaN: not yet)
 }
 
 // extreme is a refined extreme of the curve within one step.

@@ -1,0 +1,216 @@
+package plan
+
+import (
+	"fmt"
+	"math"
+
+	"evenbeat/setting"
+	"evenbeat/setting/session"
+)
+
+// Deviations are the as-built departures of one cylinder's gear from its
+// drawing, the quantities the fit finds. Signs follow the adjustment kinds
+// of package session, so a plan's change is added to the deviation it
+// corrects:
+//
+//   - GaugeZeroMM: the gauge reading (normalised to grow as the valve moves
+//     toward the front cover) with the valve spindle where the drawing puts
+//     it for a central valve. It has no effect on the valve, only on readings.
+//   - ValveOffsetMM: the valve's place on its spindle, + = toward the front
+//     cover. Any error that moves the valve the same way in every gear
+//     position (spindle or valve-rod length) shows here.
+//   - DeadCentreDeg: the error of the marked front dead centre: the true
+//     crank angle is the marked one plus this, in the forward running
+//     direction.
+//   - EccentricDeg: angle of advance of the forward (index 0) and backward
+//     (index 1) eccentric, + = more advance (turned ahead in the running
+//     direction it drives). A single-eccentric gear uses index 0.
+//   - EccentricRodMM: eccentric rod lengths, forward (0) and backward (1),
+//     + = longer. Single eccentric and Walschaerts use index 0.
+//   - ReturnCrankDeg: Walschaerts return crank, + = turned in the forward
+//     running direction.
+//   - RadiusRodMM: Walschaerts radius rod, + = longer.
+type Deviations struct {
+	GaugeZeroMM    float64    `json:"gauge_zero_mm"`
+	ValveOffsetMM  float64    `json:"valve_offset_mm"`
+	DeadCentreDeg  float64    `json:"dead_centre_deg"`
+	EccentricDeg   [2]float64 `json:"eccentric_deg"`
+	EccentricRodMM [2]float64 `json:"eccentric_rod_mm"`
+	ReturnCrankDeg float64    `json:"return_crank_deg"`
+	RadiusRodMM    float64    `json:"radius_rod_mm"`
+}
+
+// param indexes the deviations as a vector.
+type param int
+
+const (
+	pGaugeZero param = iota
+	pValveOffset
+	pDeadCentre
+	pEccFwd
+	pEccBack
+	pRodFwd
+	pRodBack
+	pReturnCrank
+	pRadiusRod
+	numParams
+)
+
+// paramNames are the deviations in words, for messages.
+var paramNames = [numParams]string{
+	"gauge zero", "valve position on its spindle", "front dead-centre mark",
+	"forward eccentric angle", "backward eccentric angle",
+	"forward eccentric rod length", "backward eccentric rod length",
+	"return crank angle", "radius rod length",
+}
+
+func (d Deviations) vec() [numParams]float64 {
+	return [numParams]float64{d.GaugeZeroMM, d.ValveOffsetMM, d.DeadCentreDeg,
+		d.EccentricDeg[0], d.EccentricDeg[1], d.EccentricRodMM[0], d.EccentricRodMM[1],
+		d.ReturnCrankDeg, d.RadiusRodMM}
+}
+
+func devOf(v [numParams]float64) Deviations {
+	return Deviations{v[pGaugeZero], v[pValveOffset], v[pDeadCentre],
+		[2]float64{v[pEccFwd], v[pEccBack]}, [2]float64{v[pRodFwd], v[pRodBack]},
+		v[pReturnCrank], v[pRadiusRod]}
+}
+
+// Model is one cylinder as built: the engine as drawn and its deviations.
+type Model struct {
+	Spec setting.EngineSpec
+	Dev  Deviations
+}
+
+// gearParams returns the deviations of the gear's own dimensions a gear of
+// this kind has.
+func gearParams(kind string) []param {
+	switch kind {
+	case setting.KindStephenson:
+		return []param{pEccFwd, pEccBack, pRodFwd, pRodBack}
+	case setting.KindWalschaerts:
+		return []param{pReturnCrank, pRodFwd, pRadiusRod}
+	default:
+		return []param{pEccFwd, pRodFwd}
+	}
+}
+
+// Gear returns the gear with the deviations of its dimensions applied (the
+// valve offset, gauge zero and dead-centre error are applied by Motion and
+// Predict).
+func (m Model) Gear() (setting.Gear, error) {
+	d := m.Dev
+	g := m.Spec.Gear
+	switch g.Kind {
+	case setting.KindSingleEccentric:
+		if g.SingleEccentric == nil {
+			break
+		}
+		s := *g.SingleEccentric
+		s.Eccentric.Advance += d.EccentricDeg[0]
+		s.Eccentric.Rod += d.EccentricRodMM[0]
+		return s, nil
+	case setting.KindStephenson:
+		if g.Stephenson == nil {
+			break
+		}
+		s := *g.Stephenson
+		s.Forward.Advance += d.EccentricDeg[0]
+		s.Backward.Advance += d.EccentricDeg[1]
+		s.Forward.Rod += d.EccentricRodMM[0]
+		s.Backward.Rod += d.EccentricRodMM[1]
+		return s, nil
+	case setting.KindWalschaerts:
+		if g.Walschaerts == nil {
+			break
+		}
+		s := *g.Walschaerts
+		s.ReturnAngle += d.ReturnCrankDeg
+		s.EccentricRod += d.EccentricRodMM[0]
+		s.RadiusRod += d.RadiusRodMM
+		return s, nil
+	}
+	return nil, &setting.Error{Field: "engine.gear", Message: fmt.Sprintf("The gear kind %q cannot be planned yet; the planner knows single-eccentric, Stephenson and Walschaerts gears.", g.Kind)}
+}
+
+// Motion returns the valve displacement (mm, + toward the front cover) of
+// the as-built gear with the reverser at r, as a function of the true crank
+// angle (degrees from front dead centre, forward running).
+func (m Model) Motion(r setting.Reverser) (setting.Motion, error) {
+	g, err := m.Gear()
+	if err != nil {
+		return nil, err
+	}
+	e, off := m.Spec.Engine, m.Dev.ValveOffsetMM
+	return func(th float64) (float64, error) {
+		x, err := g.Valve(e, th, r)
+		return x + off, err
+	}, nil
+}
+
+// edgeX returns the valve displacement at which end's steam edge is
+// line-on-line with its port edge.
+func edgeX(v setting.Valve, end setting.CylinderEnd) float64 {
+	e0 := v.SteamEdge(end, 0)
+	k := v.SteamEdge(end, 1) - e0
+	return -e0 / k
+}
+
+// cylEnd converts a session end.
+func cylEnd(e session.End) setting.CylinderEnd {
+	if e == session.Back {
+		return setting.Back
+	}
+	return setting.Front
+}
+
+// Predict returns what the model says observation o should have read, in
+// the observation's own terms (see Target): a gauge reading in mm
+// (normalised, growing toward the front cover) for port marks, dead-centre
+// and sweep readings; the steam edge's passage in mm (zero when the reading
+// is right) for a cut-off; the port opening in mm for a feeler reading.
+func (m Model) Predict(o session.Observation) (float64, error) {
+	g, err := m.Gear()
+	if err != nil {
+		return 0, err
+	}
+	return predict(m.Spec, g, m.Dev.vec(), o)
+}
+
+// Target returns the value Predict is compared with for observation o.
+func Target(o session.Observation) float64 {
+	switch o.Kind {
+	case session.CutOffKind:
+		return 0
+	case session.FeelerKind:
+		return o.OpeningMM
+	}
+	return o.GaugeMM
+}
+
+// predict is Predict with the gear already built.
+func predict(spec setting.EngineSpec, g setting.Gear, p [numParams]float64, o session.Observation) (float64, error) {
+	if o.Kind == session.PortMarkKind {
+		return p[pGaugeZero] - p[pValveOffset] + edgeX(spec.Valve, cylEnd(o.End)), nil
+	}
+	x, err := g.Valve(spec.Engine, o.CrankDeg+p[pDeadCentre], o.Reverser)
+	if err != nil {
+		return 0, err
+	}
+	switch o.Kind {
+	case session.CutOffKind:
+		return spec.Valve.SteamEdge(cylEnd(o.End), x+p[pValveOffset]), nil
+	case session.FeelerKind:
+		return spec.Valve.SteamEdge(cylEnd(o.End), x+p[pValveOffset]), nil
+	}
+	return x + p[pGaugeZero], nil
+}
+
+// wrap360 reduces an angle to [0, 360).
+func wrap360(t float64) float64 {
+	t = math.Mod(t, 360)
+	if t < 0 {
+		t += 360
+	}
+	return t
+}

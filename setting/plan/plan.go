@@ -1,0 +1,616 @@
+package plan
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"evenbeat/setting"
+	"evenbeat/setting/session"
+)
+
+// EndState is one end's events in one reverser position, with one
+// standard deviation of each from the readings' errors.
+type EndState struct {
+	LeadMM           float64 `json:"lead_mm"`
+	LeadSigmaMM      float64 `json:"lead_sigma_mm"`
+	CutOffPercent    float64 `json:"cut_off_percent"` // % of the stroke from this end
+	CutOffSigmaPct   float64 `json:"cut_off_sigma_percent"`
+	ReleasePercent   float64 `json:"release_percent"`
+	CompressionPct   float64 `json:"compression_percent"`
+	MaxOpeningMM     float64 `json:"max_opening_mm"`
+	NeverOpens       bool    `json:"never_opens,omitempty"`
+	NeverCloses      bool    `json:"never_closes,omitempty"`
+	AdmissionBeforeD float64 `json:"admission_before_deg"` // crank degrees before dead centre the port opens
+}
+
+// PositionState is the events of both ends in one reverser position,
+// running one way.
+type PositionState struct {
+	Notch     string            `json:"notch"`
+	Reverser  float64           `json:"reverser"`
+	Direction setting.Direction `json:"-"`
+	Running   string            `json:"direction"` // "forward" or "backward"
+	Front     EndState          `json:"front"`
+	Back      EndState          `json:"back"`
+}
+
+// Step is one adjustment of a plan, in the order a setter makes them.
+type Step struct {
+	// Part names what is changed ("backward eccentric rod").
+	Part      string                 `json:"part"`
+	Kind      session.AdjustmentKind `json:"kind"`
+	Eccentric session.Eccentric      `json:"eccentric,omitempty"`
+	// Unit is "mm" or "deg".
+	Unit string `json:"unit"`
+	// Sign says what a positive amount means.
+	Sign string `json:"sign"`
+	// IdealAmount is the change the solver found; Amount is it rounded to
+	// what hands can do (see the rounding rules in the package doc), both
+	// signed by Sign. SigmaAmount is one standard deviation of the ideal
+	// change from the readings' errors.
+	IdealAmount float64 `json:"ideal_amount"`
+	Amount      float64 `json:"amount"`
+	SigmaAmount float64 `json:"sigma_amount"`
+	// Turns and Flats are the rounded change on the thread (whole turns
+	// and the flats beyond them); zero for angular kinds.
+	Turns int `json:"turns,omitempty"`
+	Flats int `json:"flats,omitempty"`
+	// RimMM is the rounded change measured round the sheave rim (angular
+	// eccentric changes with a sheave diameter).
+	RimMM float64 `json:"rim_mm,omitempty"`
+	// AtLimit is true when the change stops at the profile's limit.
+	AtLimit bool `json:"at_limit,omitempty"`
+	// Words is the step in workshop words.
+	Words string `json:"words"`
+}
+
+// Alternative is a plan made with another priority: its steps and what the
+// engine would do after them.
+type Alternative struct {
+	Priority Priority        `json:"priority"`
+	Steps    []Step          `json:"steps"`
+	After    []PositionState `json:"after"`
+}
+
+// Plan is what to change, with today's events and those predicted after
+// the rounded changes.
+type Plan struct {
+	Engine   string   `json:"engine"`
+	Cylinder string   `json:"cylinder"`
+	Priority Priority `json:"priority"`
+	// Steps are the rounded changes in working order; empty when nothing
+	// the engine allows would make it better.
+	Steps []Step `json:"steps"`
+	// Now are the events as the readings show them; After those predicted
+	// after the rounded steps.
+	Now   []PositionState `json:"now"`
+	After []PositionState `json:"after"`
+	// Other is the plan made with the other priority, for the setter to
+	// compare (angularity makes them differ).
+	Other *Alternative `json:"other,omitempty"`
+	// Notes are sentences for the setter: angularity, readings to recheck,
+	// what the readings could not decide and which reading to take next.
+	Notes []string `json:"notes"`
+	// Recheck are readings far from the rest.
+	Recheck []Residual `json:"recheck"`
+	// NextReading says which reading would help most, or is empty.
+	NextReading string `json:"next_reading,omitempty"`
+	// FitRMSMM is the root-mean-square residual of the fit.
+	FitRMSMM float64 `json:"fit_rms_mm"`
+	// Deviations are the fitted as-built deviations.
+	Deviations Deviations `json:"deviations"`
+	// Cautions are the safety cautions printed with every plan.
+	Cautions []string `json:"cautions"`
+
+	fit *Fit
+}
+
+// Make fits cylinder opt.Cylinder of a session and plans its adjustments.
+// Errors are *setting.Error sentences: too few readings, identical
+// readings, readings that contradict one another, a profile with nothing
+// to adjust.
+func Make(s *session.Session, opt Options) (*Plan, error) {
+	if s == nil {
+		return nil, &setting.Error{Field: "session", Message: "There is no session."}
+	}
+	if opt.Cylinder < 0 || opt.Cylinder >= len(s.Cylinders) {
+		return nil, &setting.Error{Field: "cylinders", Message: fmt.Sprintf("There is no cylinder %d; the session has %d.", opt.Cylinder, len(s.Cylinders))}
+	}
+	fit, err := FitSession(s, opt.Cylinder, opt.Fit)
+	if err != nil {
+		return nil, err
+	}
+	p, err := FromFit(fit, s.Adjustments, opt)
+	if err != nil {
+		return nil, err
+	}
+	p.Cylinder = s.Cylinders[opt.Cylinder].Name
+	return p, nil
+}
+
+// FromFit plans the adjustments for a fitted cylinder.
+func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
+	spec := fit.Model.Spec
+	switch opt.Priority {
+	case "":
+		opt.Priority = EqualLeads
+	case EqualLeads, EqualCutOffs, Balanced:
+	default:
+		return nil, &setting.Error{Field: "priority", Message: fmt.Sprintf("The priority %q is not known; choose leads, cut-offs or balanced.", opt.Priority)}
+	}
+	if opt.TargetLeadMM != nil && !finite(*opt.TargetLeadMM) {
+		return nil, &setting.Error{Field: "target_lead", Message: "The target lead must be a length in mm."}
+	}
+	crank, err := spec.Engine.Prepare()
+	if err != nil {
+		return nil, err
+	}
+	ks, notes := knobsOf(spec, adjs)
+	if len(ks) == 0 {
+		return nil, &setting.Error{Field: "adjustments", Message: "The engine's profile allows no adjustment the planner can use: list at least the valve on its spindle."}
+	}
+	ps := positions(spec, opt)
+	ev := &evaluator{spec: spec, crank: crank, ps: ps}
+	p := fit.Model.Dev.vec()
+	canLead := false
+	for _, k := range ks {
+		if k.p == pEccFwd || k.p == pEccBack {
+			canLead = true
+		}
+	}
+	running := runningIndex(spec, ps, opt)
+	design, full, err := designLeads(ev, ps)
+	if err != nil {
+		return nil, err
+	}
+	plan := &Plan{Engine: spec.Name, Priority: opt.Priority, fit: fit, FitRMSMM: fit.RMSMM, Deviations: fit.Model.Dev, Recheck: fit.Recheck, Cautions: setting.Cautions()}
+	if plan.Recheck == nil {
+		plan.Recheck = []Residual{}
+	}
+	if opt.TargetLeadMM != nil && !canLead {
+		notes = append(notes, "The lead cannot be brought to the target: only an eccentric's angle changes the lead, and the profile allows none; the plan shares the lead between the ends.")
+	}
+	plan.Notes = append(plan.Notes, fit.RecheckMessages(session.UnitMM)...)
+	plan.Notes = append(plan.Notes, notes...)
+
+	main, err := ev.plan(p, ks, objective{prio: opt.Priority, weight: opt.Weight, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit)
+	if err != nil {
+		return nil, err
+	}
+	plan.Steps, plan.Now, plan.After = main.steps, main.now, main.after
+	other := EqualCutOffs
+	if opt.Priority == EqualCutOffs {
+		other = EqualLeads
+	}
+	alt, err := ev.plan(p, ks, objective{prio: other, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit)
+	if err == nil {
+		plan.Other = &Alternative{Priority: other, Steps: alt.steps, After: alt.after}
+		plan.Notes = append(plan.Notes, angularityNote(main, alt, opt.Priority, running))
+	}
+	if len(plan.Steps) == 0 {
+		plan.Notes = append(plan.Notes, "Nothing to change: no change the engine allows, in steps hands can make, would make it better by this priority.")
+	}
+	if next := nextReading(fit, ev, main); next != "" {
+		plan.NextReading = next
+		plan.Notes = append(plan.Notes, next)
+	}
+	for _, u := range fit.Undecided {
+		if u == paramNames[pDeadCentre] {
+			continue
+		}
+		plan.Notes = append(plan.Notes, fmt.Sprintf("The readings cannot tell the %s apart from other errors that act alike; the plan does not depend on it, but the fitted value is only a guess.", u))
+	}
+	for i := range plan.Steps {
+		plan.Steps[i].Words = stepWords(plan.Steps[i], session.UnitMM)
+	}
+	if plan.Other != nil {
+		for i := range plan.Other.Steps {
+			plan.Other.Steps[i].Words = stepWords(plan.Other.Steps[i], session.UnitMM)
+		}
+	}
+	if plan.Notes == nil {
+		plan.Notes = []string{}
+	}
+	return plan, nil
+}
+
+// designLeads returns the drawing's mean lead in each position and which
+// positions are full gear.
+func designLeads(ev *evaluator, ps []position) ([]float64, []bool, error) {
+	qs, err := ev.events([numParams]float64{}, false)
+	if err != nil {
+		return nil, nil, &setting.Error{Field: "engine.gear", Message: "The events of the gear as drawn cannot be found: " + err.Error()}
+	}
+	design := make([]float64, len(qs))
+	full := make([]bool, len(qs))
+	anyFull := false
+	for i, q := range qs {
+		design[i] = (q.lead[0] + q.lead[1]) / 2
+		full[i] = math.Abs(float64(ps[i].notch.Reverser)) == 1
+		anyFull = anyFull || full[i]
+	}
+	if !anyFull {
+		full = nil
+	}
+	return design, full, nil
+}
+
+// planned is one solved plan.
+type planned struct {
+	steps      []Step
+	now, after []PositionState
+	qNow, qAft []quantities
+	prio       Priority
+}
+
+// plan solves, rounds and describes one priority.
+func (ev *evaluator) plan(p [numParams]float64, ks []knob, obj objective, canLead bool, fit *Fit) (*planned, error) {
+	ts := obj.terms(len(ev.ps), canLead)
+	ideal, _, err := ev.optimise(p, ks, ts)
+	if err != nil {
+		return nil, &setting.Error{Field: "engine.gear", Message: "The events cannot be found for the fitted gear: " + err.Error()}
+	}
+	rounded, qAft, err := ev.roundPlan(p, ks, ts, ideal)
+	if err != nil {
+		return nil, err
+	}
+	qNow, err := ev.events(p, true)
+	if err != nil {
+		return nil, err
+	}
+	// Uncertainty: the ideal change's sensitivity to the fitted
+	// deviations, -(A^T A + R)^-1 A^T B, through the fit's covariance.
+	sig := ev.stepSigmas(ks, ts, qNow, fit)
+	out := &planned{prio: obj.prio, qNow: qNow, qAft: qAft}
+	out.now = ev.states(qNow, fit)
+	qAftG := qAft
+	if q2, err := ev.events(applyKnobs(p, ks, rounded), true); err == nil {
+		qAftG = q2
+	}
+	out.after = ev.states(qAftG, fit)
+	for _, i := range workOrder(ev.spec.Gear.Kind, ks) {
+		if rounded[i] == 0 {
+			continue
+		}
+		k := ks[i]
+		st := Step{Part: partName(k.adj, ev.spec.Gear.Kind), Kind: k.adj.Kind, Eccentric: k.adj.Eccentric,
+			Unit: "mm", Sign: signWords(k.adj.Kind, ev.spec.Gear.Kind), IdealAmount: clean(ideal[i]), Amount: clean(rounded[i]), SigmaAmount: clean(sig[i])}
+		if k.adj.Kind.Angular() {
+			st.Unit = "deg"
+			if k.adj.Kind == session.EccentricAngle && k.adj.SheaveDiameterMM > 0 {
+				st.RimMM = clean(rounded[i] * math.Pi / 180 * k.adj.SheaveDiameterMM / 2)
+			}
+		} else {
+			flats := int(math.Round(math.Abs(rounded[i]) / k.step))
+			f := k.adj.Thread.FlatsPerTurn
+			if f <= 0 {
+				f = defaultFlats
+			}
+			if k.adj.Thread.Pitch() > 0 {
+				st.Turns, st.Flats = flats/f, flats%f
+			}
+		}
+		st.AtLimit = rounded[i] <= k.adj.Min+1e-9 || rounded[i] >= k.adj.Max-1e-9
+		out.steps = append(out.steps, st)
+	}
+	if out.steps == nil {
+		out.steps = []Step{}
+	}
+	return out, nil
+}
+
+func applyKnobs(p [numParams]float64, ks []knob, a []float64) [numParams]float64 {
+	for i, k := range ks {
+		p[k.p] += a[i]
+	}
+	return p
+}
+
+// clean turns -0 and non-finite values into 0.
+func clean(x float64) float64 {
+	if !finite(x) || x == 0 {
+		return 0
+	}
+	return x
+}
+
+// stepSigmas returns one standard deviation of each knob's ideal change.
+func (ev *evaluator) stepSigmas(ks []knob, ts []term, q []quantities, fit *Fit) []float64 {
+	n := len(ks)
+	out := make([]float64, n)
+	if fit == nil || fit.cov.n == 0 {
+		return out
+	}
+	A := newSym(n)
+	for _, t := range ts {
+		for i := range ks {
+			for j := range ks {
+				A.add(i, j, t.grad(q, ks[i].p)*t.grad(q, ks[j].p))
+			}
+		}
+	}
+	for i, k := range ks {
+		A.add(i, i, sq(1e-3/k.scale)+1e-12)
+	}
+	Ainv, ok := A.inverse()
+	if !ok {
+		return out
+	}
+	m := len(fit.idx)
+	// S[i][c] = d a_i / d p_c
+	for i := range ks {
+		g := make([]float64, m)
+		for c, pj := range fit.idx {
+			s := 0.0
+			for _, t := range ts {
+				bt := t.grad(q, pj)
+				if bt == 0 {
+					continue
+				}
+				at := 0.0
+				for j := range ks {
+					at += Ainv.at(i, j) * t.grad(q, ks[j].p)
+				}
+				s -= at * bt
+			}
+			g[c] = s
+		}
+		out[i] = math.Sqrt(math.Max(0, fit.cov.quad(g)))
+	}
+	return out
+}
+
+// states turns quantities into reported events with their errors.
+func (ev *evaluator) states(qs []quantities, fit *Fit) []PositionState {
+	out := make([]PositionState, len(qs))
+	for i, q := range qs {
+		pos := ev.ps[i]
+		st := PositionState{Notch: pos.notch.Name, Reverser: float64(pos.notch.Reverser), Direction: pos.dir, Running: pos.dir.String()}
+		for k := 0; k < 2; k++ {
+			e := q.ev.Front
+			if k == 1 {
+				e = q.ev.Back
+			}
+			es := EndState{LeadMM: clean(e.Lead), CutOffPercent: clean(e.CutOff.StrokePercent), ReleasePercent: clean(e.Release.StrokePercent),
+				CompressionPct: clean(e.Compression.StrokePercent), MaxOpeningMM: clean(e.MaxOpening), NeverOpens: e.NeverOpens, NeverCloses: e.NeverCloses,
+				AdmissionBeforeD: clean(e.LeadAngle)}
+			if fit != nil && fit.cov.n > 0 {
+				es.LeadSigmaMM = clean(sdOf(fit, q.grad[k]))
+				if q.cutOK {
+					es.CutOffSigmaPct = clean(sdOf(fit, q.grad[2+k]))
+				}
+			}
+			if k == 0 {
+				st.Front = es
+			} else {
+				st.Back = es
+			}
+		}
+		out[i] = st
+	}
+	return out
+}
+
+// sdOf returns the standard deviation of a linear function of the
+// deviations with gradient g, through the fit's covariance.
+func sdOf(fit *Fit, g [numParams]float64) float64 {
+	v := make([]float64, len(fit.idx))
+	for c, j := range fit.idx {
+		v[c] = g[j]
+	}
+	return math.Sqrt(math.Max(0, fit.cov.quad(v)))
+}
+
+// workOrder returns the knobs in the order a setter works: the gear's own
+// order (see the package doc), then any others.
+func workOrder(kind string, ks []knob) []int {
+	rank := func(k knob) int {
+		var order []param
+		switch kind {
+		case setting.KindStephenson:
+			// Forward gear first: its eccentric, then the spindle; then
+			// back gear by its rod (and eccentric).
+			order = []param{pEccFwd, pValveOffset, pRodFwd, pEccBack, pRodBack}
+		case setting.KindWalschaerts:
+			// Link swing first (return crank, eccentric rod), then the
+			// radius rod, then share the lead with the spindle.
+			order = []param{pReturnCrank, pRodFwd, pRadiusRod, pValveOffset}
+		default:
+			order = []param{pEccFwd, pValveOffset, pRodFwd}
+		}
+		for i, p := range order {
+			if p == k.p {
+				return i
+			}
+		}
+		return len(order)
+	}
+	idx := make([]int, len(ks))
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.SliceStable(idx, func(a, b int) bool { return rank(ks[idx[a]]) < rank(ks[idx[b]]) })
+	return idx
+}
+
+// partName names the part an adjustment changes.
+func partName(a session.Adjustment, kind string) string {
+	ecc := ""
+	if kind == setting.KindStephenson && a.Eccentric != "" {
+		ecc = string(a.Eccentric) + " "
+	}
+	switch a.Kind {
+	case session.ValveOnSpindle:
+		return "valve on its spindle"
+	case session.EccentricAngle:
+		return ecc + "eccentric sheave"
+	case session.EccentricRodLength:
+		return ecc + "eccentric rod"
+	case session.ReturnCrankAngle:
+		return "return crank"
+	case session.RadiusRodLength:
+		return "radius rod"
+	case session.LiftingLinkLength:
+		return "lifting link"
+	}
+	return string(a.Kind)
+}
+
+// signWords says what a positive change of a kind means.
+func signWords(k session.AdjustmentKind, kind string) string {
+	switch k {
+	case session.ValveOnSpindle:
+		return "+ = valve moved toward the front cover"
+	case session.EccentricAngle:
+		return "+ = eccentric advanced (turned ahead in the running direction it drives)"
+	case session.ReturnCrankAngle:
+		return "+ = return crank turned in the forward running direction"
+	}
+	return "+ = lengthened"
+}
+
+// stepWords writes a step the way a setter does it.
+func stepWords(s Step, unit session.Unit) string {
+	amt := math.Abs(s.Amount)
+	var b strings.Builder
+	switch s.Kind {
+	case session.ValveOnSpindle:
+		way := "toward the front cover"
+		if s.Amount < 0 {
+			way = "toward the back (crank) end"
+		}
+		fmt.Fprintf(&b, "Move the valve %s %s on its spindle", length(amt, unit), way)
+	case session.EccentricAngle:
+		way := "Advance"
+		if s.Amount < 0 {
+			way = "Retard"
+		}
+		dir := "the running direction it drives"
+		if s.Eccentric == session.BackwardEccentric {
+			dir = "the backward running direction"
+		} else if s.Eccentric == session.ForwardEccentric {
+			dir = "the forward running direction"
+		}
+		turn := "ahead in"
+		if s.Amount < 0 {
+			turn = "back against"
+		}
+		fmt.Fprintf(&b, "%s the %s %.2f deg", way, s.Part, amt)
+		if s.RimMM != 0 {
+			fmt.Fprintf(&b, ": turn it %s round the rim, %s %s", length(math.Abs(s.RimMM), unit), turn, dir)
+		} else {
+			fmt.Fprintf(&b, ": turn it %s %s", turn, dir)
+		}
+	case session.ReturnCrankAngle:
+		turn := "in the forward running direction"
+		if s.Amount < 0 {
+			turn = "against the forward running direction"
+		}
+		fmt.Fprintf(&b, "Turn the return crank %.2f deg %s", amt, turn)
+	default:
+		way := "Lengthen"
+		if s.Amount < 0 {
+			way = "Shorten"
+		}
+		fmt.Fprintf(&b, "%s the %s %s", way, s.Part, length(amt, unit))
+	}
+	if s.Turns != 0 || s.Flats != 0 {
+		b.WriteString(": ")
+		b.WriteString(turnsWords(s.Turns, s.Flats))
+	}
+	if s.SigmaAmount > 0 {
+		if s.Unit == "deg" {
+			fmt.Fprintf(&b, " (+/- %.2f deg)", math.Max(s.SigmaAmount, 0.01))
+		} else {
+			fmt.Fprintf(&b, " (+/- %s)", fineLength(s.SigmaAmount, unit))
+		}
+	}
+	if s.AtLimit {
+		b.WriteString(", as far as the profile allows")
+	}
+	b.WriteString(".")
+	return b.String()
+}
+
+// length shows a length in the display unit: mm to the hundredth, or
+// inches to the thou.
+func length(mm float64, unit session.Unit) string {
+	if unit == session.UnitInch {
+		return fmt.Sprintf("%.3f in", mm/session.MMPerInch)
+	}
+	return fmt.Sprintf("%.2f mm", mm)
+}
+
+// fineLength shows a small length one place finer than length.
+func fineLength(mm float64, unit session.Unit) string {
+	if unit == session.UnitInch {
+		return fmt.Sprintf("%.4f in", math.Max(mm/session.MMPerInch, 0.0001))
+	}
+	return fmt.Sprintf("%.3f mm", math.Max(mm, 0.001))
+}
+
+func turnsWords(turns, flats int) string {
+	var parts []string
+	switch turns {
+	case 0:
+	case 1:
+		parts = append(parts, "1 turn")
+	default:
+		parts = append(parts, fmt.Sprintf("%d turns", turns))
+	}
+	switch flats {
+	case 0:
+	case 1:
+		parts = append(parts, "1 flat")
+	default:
+		parts = append(parts, fmt.Sprintf("%d flats", flats))
+	}
+	return strings.Join(parts, " and ") + " of the thread"
+}
+
+// angularityNote tells the setter what the other quantity becomes.
+func angularityNote(main, alt *planned, prio Priority, running int) string {
+	lead, cut := main, alt
+	if prio == EqualCutOffs {
+		lead, cut = alt, main
+	}
+	ra := running
+	if ra >= len(lead.after) {
+		ra = 0
+	}
+	la, ca := lead.after[ra], cut.after[ra]
+	return fmt.Sprintf("Equal leads and equal cut-offs cannot both be had: the connecting rod's angularity puts them apart. In %s, equal leads leave the cut-offs at %.1f %% front and %.1f %% back; equal cut-offs (%.1f %% and %.1f %%) need leads of %.2f mm front and %.2f mm back. The plan shown first is the one chosen (%s); the other is given beside it.",
+		la.Notch, la.Front.CutOffPercent, la.Back.CutOffPercent, ca.Front.CutOffPercent, ca.Back.CutOffPercent, ca.Front.LeadMM, ca.Back.LeadMM, prio)
+}
+
+// nextReading names the reading that would help most when the readings
+// leave an event or a step uncertain.
+func nextReading(fit *Fit, ev *evaluator, p *planned) string {
+	worst, wi := 0.0, -1
+	for i, st := range p.now {
+		for _, e := range []EndState{st.Front, st.Back} {
+			if r := e.LeadSigmaMM / 0.05; r > worst {
+				worst, wi = r, i
+			}
+			if r := e.CutOffSigmaPct / 1.0; r > worst {
+				worst, wi = r, i
+			}
+		}
+	}
+	if worst < 1 || wi < 0 {
+		return ""
+	}
+	pos := ev.ps[wi]
+	have := 0
+	for i, o := range fit.obs {
+		if fit.used[i] && o.HasCrank && math.Abs(float64(o.Reverser-pos.notch.Reverser)) < 1e-6 {
+			have++
+		}
+	}
+	if have < 4 {
+		return fmt.Sprintf("Take a sweep in %s (a gauge reading every 15 to 30 degrees round a turn): the readings leave its events uncertain.", pos.notch.Name)
+	}
+	return fmt.Sprintf("Bracket the dead centres again and take a second sweep in %s: the readings there scatter too much to pin its events down.", pos.notch.Name)
+}

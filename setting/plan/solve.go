@@ -1,0 +1,581 @@
+package plan
+
+import (
+	"fmt"
+	"math"
+
+	"evenbeat/setting"
+	"evenbeat/setting/session"
+)
+
+// Priority is what the plan makes equal, front against back. Connecting-rod
+// angularity makes equal leads and equal cut-offs impossible at once, so
+// the setter chooses.
+type Priority string
+
+// The priorities.
+const (
+	// EqualLeads makes the leads equal in every planned reverser position.
+	EqualLeads Priority = "leads"
+	// EqualCutOffs makes the cut-offs equal in the running notch.
+	EqualCutOffs Priority = "cut-offs"
+	// Balanced weighs lead differences (per 0.05 mm) against cut-off
+	// differences (per 1 % of stroke) by Options.Weight.
+	Balanced Priority = "balanced"
+)
+
+// Options are the setter's choices for a plan. The zero value plans equal
+// leads in full forward gear, the running notches and full back gear.
+type Options struct {
+	Priority Priority
+	// Weight is the share of the balance given to leads (0 to 1) when
+	// Priority is Balanced; 0 means one half.
+	Weight float64
+	// Positions are the reverser positions the plan equalises; empty means
+	// full forward, the engine's running notches and full back gear (a
+	// fixed single eccentric has only the one).
+	Positions []setting.Notch
+	// RunningNotch names the notch whose cut-offs EqualCutOffs equalises;
+	// empty means the engine's first running notch, or full forward.
+	RunningNotch string
+	// TargetLeadMM, when set, is the lead wanted at both ends; only gears
+	// whose eccentric angles may be changed can meet it.
+	TargetLeadMM *float64
+	// Fit tunes the fit.
+	Fit FitOptions
+	// Cylinder is the index of the cylinder to plan.
+	Cylinder int
+}
+
+// position is a reverser position run one way.
+type position struct {
+	notch setting.Notch
+	dir   setting.Direction
+}
+
+func (p position) name() string { return p.notch.Name }
+
+// positions returns the reverser positions a plan works on.
+func positions(spec setting.EngineSpec, opt Options) []position {
+	ns := opt.Positions
+	if len(ns) == 0 {
+		ns = []setting.Notch{{Name: session.FullForward, Reverser: 1}}
+		ns = append(ns, spec.Notches...)
+		ns = append(ns, setting.Notch{Name: session.FullBack, Reverser: -1})
+	}
+	if spec.Gear.Kind == setting.KindSingleEccentric && spec.Gear.SingleEccentric != nil {
+		// A fixed eccentric ignores the reverser; a slip eccentric has its
+		// two positions.
+		f := []position{{setting.Notch{Name: session.FullForward, Reverser: 1}, setting.Forward}}
+		if spec.Gear.SingleEccentric.Slip {
+			f = append(f, position{setting.Notch{Name: session.FullBack, Reverser: -1}, setting.Backward})
+		}
+		return f
+	}
+	var out []position
+	for _, n := range ns {
+		for _, d := range setting.RunningDirections(n.Reverser) {
+			out = append(out, position{n, d})
+		}
+	}
+	return out
+}
+
+// runningIndex returns the index in ps of the running notch.
+func runningIndex(spec setting.EngineSpec, ps []position, opt Options) int {
+	name := opt.RunningNotch
+	if name == "" && len(spec.Notches) > 0 {
+		name = spec.Notches[0].Name
+	}
+	for i, p := range ps {
+		if p.notch.Name == name {
+			return i
+		}
+	}
+	return 0
+}
+
+// knob is one allowed adjustment: the session's description and the
+// deviation it changes.
+type knob struct {
+	adj   session.Adjustment
+	p     param
+	step  float64 // the smallest change hands can make, in the knob's unit
+	scale float64 // a typical change, for regularisation
+}
+
+// knobsOf maps a session's adjustments to deviations; adjustments the
+// model does not cover are returned as notes.
+func knobsOf(spec setting.EngineSpec, adjs []session.Adjustment) ([]knob, []string) {
+	var ks []knob
+	var notes []string
+	k := math.Max(1, spec.Engine.CrankRadius/25)
+	kind := spec.Gear.Kind
+	for _, a := range adjs {
+		kb := knob{adj: a, p: -1}
+		back := a.Eccentric == session.BackwardEccentric
+		switch a.Kind {
+		case session.ValveOnSpindle:
+			kb.p = pValveOffset
+		case session.EccentricAngle:
+			if kind == setting.KindStephenson || kind == setting.KindSingleEccentric {
+				kb.p = pEccFwd
+				if back && kind == setting.KindStephenson {
+					kb.p = pEccBack
+				}
+			}
+		case session.EccentricRodLength:
+			if kind != setting.KindStephenson || !back {
+				kb.p = pRodFwd
+			} else {
+				kb.p = pRodBack
+			}
+		case session.ReturnCrankAngle:
+			if kind == setting.KindWalschaerts {
+				kb.p = pReturnCrank
+			}
+		case session.RadiusRodLength:
+			if kind == setting.KindWalschaerts {
+				kb.p = pRadiusRod
+			}
+		}
+		if kb.p < 0 {
+			notes = append(notes, fmt.Sprintf("The %s cannot be planned yet: the model does not cover it, so it is left as it is.", partName(a, kind)))
+			continue
+		}
+		kb.step = handStep(a)
+		kb.scale = 1 * k
+		if a.Kind.Angular() {
+			kb.scale = 1
+		}
+		ks = append(ks, kb)
+	}
+	return ks, notes
+}
+
+// Rounding: what hands can do. A length made on a thread moves in steps
+// of one flat (pitch / flats per turn; 6 flats when not given). A length
+// with no thread given moves in 0.05 mm steps (a shim or a careful file).
+// An eccentric sheave moves in steps of 0.5 mm round its rim (what can be
+// marked and seen against a scribed line); without a sheave diameter, and
+// for a return crank, in steps of 0.25 degree.
+const (
+	rimStepMM      = 0.5
+	bareStepMM     = 0.05
+	bareAngleStep  = 0.25
+	defaultFlats   = 6
+	rimAngleMinDeg = 0.01
+)
+
+// handStep returns the smallest change of an adjustment hands can make.
+func handStep(a session.Adjustment) float64 {
+	if a.Kind.Angular() {
+		if a.Kind == session.EccentricAngle && a.SheaveDiameterMM > 0 {
+			return math.Max(rimAngleMinDeg, rimStepMM/(a.SheaveDiameterMM/2)*180/math.Pi)
+		}
+		return bareAngleStep
+	}
+	p := a.Thread.Pitch()
+	if !(p > 0) || !finite(p) {
+		return bareStepMM
+	}
+	f := a.Thread.FlatsPerTurn
+	if f <= 0 {
+		f = defaultFlats
+	}
+	return p / float64(f)
+}
+
+// evaluator works out events and their gradients on a model.
+type evaluator struct {
+	spec  setting.EngineSpec
+	crank setting.Crank
+	ps    []position
+}
+
+// quantities are the four numbers a plan balances per position.
+type quantities struct {
+	ev        setting.EventSet
+	lead      [2]float64 // front, back, mm
+	cut       [2]float64 // front, back, % of stroke
+	cutOK     bool
+	grad      [4][numParams]float64 // d(lead f, lead b, cut f, cut b)/d(param)
+	cutTheta  [2]float64
+	leadTheta [2]float64
+}
+
+// events computes the events of every position at p.
+func (ev *evaluator) events(p [numParams]float64, withGrad bool) ([]quantities, error) {
+	m := Model{ev.spec, devOf(p)}
+	g, err := m.Gear()
+	if err != nil {
+		return nil, err
+	}
+	out := make([]quantities, len(ev.ps))
+	for i, pos := range ev.ps {
+		r := pos.notch.Reverser
+		motion := func(th float64) (float64, error) {
+			x, err := g.Valve(ev.spec.Engine, th, r)
+			return x + p[pValveOffset], err
+		}
+		set, err := setting.Events(ev.spec.Engine, ev.spec.Valve, motion, pos.dir)
+		if err != nil {
+			return nil, fmt.Errorf("%s: %w", pos.name(), err)
+		}
+		q := quantities{ev: set}
+		q.lead = [2]float64{set.Front.Lead, set.Back.Lead}
+		q.cut = [2]float64{cutPercent(set.Front), cutPercent(set.Back)}
+		q.cutOK = !set.Front.NeverOpens && !set.Front.NeverCloses && !set.Back.NeverOpens && !set.Back.NeverCloses
+		q.leadTheta = [2]float64{0, ev.crank.BackDeadCentre()}
+		q.cutTheta = [2]float64{set.Front.CutOff.CrankDeg, set.Back.CutOff.CrankDeg}
+		if withGrad {
+			if err := ev.gradients(p, r, &q); err != nil {
+				return nil, err
+			}
+		}
+		out[i] = q
+	}
+	return out, nil
+}
+
+// cutPercent is an end's cut-off in % of stroke: 0 when the port never
+// opens, 100 when it never closes, so that a plan cannot make cut-offs
+// "equal" by shutting a port.
+func cutPercent(e setting.EndEvents) float64 {
+	switch {
+	case e.NeverOpens:
+		return 0
+	case e.NeverCloses:
+		return 100
+	}
+	return e.CutOff.StrokePercent
+}
+
+// gradParams are the deviations that change events (the gauge zero and the
+// dead-centre mark only change readings).
+var gradParams = []param{pValveOffset, pEccFwd, pEccBack, pRodFwd, pRodBack, pReturnCrank, pRadiusRod}
+
+// gradients fills q.grad by the implicit-function rule: a lead moves with
+// the valve at dead centre; a cut-off's crank angle moves by
+// -(dx/dp)/(dx/dtheta) at the cut-off.
+func (ev *evaluator) gradients(p [numParams]float64, r setting.Reverser, q *quantities) error {
+	e := ev.spec.Engine
+	base, err := Model{ev.spec, devOf(p)}.Gear()
+	if err != nil {
+		return err
+	}
+	thetas := [4]float64{q.leadTheta[0], q.leadTheta[1], q.cutTheta[0], q.cutTheta[1]}
+	var x0 [4]float64
+	for k, th := range thetas {
+		if x0[k], err = base.Valve(e, th, r); err != nil {
+			return err
+		}
+	}
+	var slope [2]float64 // dx/dtheta at the cut-offs, mm per degree
+	var dpct [2]float64  // d(percent)/dtheta at the cut-offs
+	const ht = 1e-3
+	for k := 0; k < 2; k++ {
+		a, err1 := base.Valve(e, thetas[2+k]+ht, r)
+		b, err2 := base.Valve(e, thetas[2+k]-ht, r)
+		if err := linkageError(err1, err2); err != nil {
+			return err
+		}
+		slope[k] = (a - b) / (2 * ht)
+		end := setting.CylinderEnd(k)
+		dpct[k] = 100 * (ev.crank.TravelFrom(end, thetas[2+k]+ht) - ev.crank.TravelFrom(end, thetas[2+k]-ht)) / (2 * ht)
+	}
+	var kEdge [2]float64
+	for k := 0; k < 2; k++ {
+		end := setting.CylinderEnd(k)
+		kEdge[k] = ev.spec.Valve.SteamEdge(end, 1) - ev.spec.Valve.SteamEdge(end, 0)
+	}
+	for _, j := range gradParams {
+		var dx [4]float64
+		if j == pValveOffset {
+			dx = [4]float64{1, 1, 1, 1}
+		} else {
+			qp := p
+			h := stepOf(j)
+			qp[j] += h
+			g, err := Model{ev.spec, devOf(qp)}.Gear()
+			if err != nil {
+				return err
+			}
+			for k, th := range thetas {
+				x, err := g.Valve(e, th, r)
+				if err != nil {
+					return err
+				}
+				dx[k] = (x - x0[k]) / h
+			}
+		}
+		q.grad[0][j] = kEdge[0] * dx[0]
+		q.grad[1][j] = kEdge[1] * dx[1]
+		for k := 0; k < 2; k++ {
+			if q.cutOK && slope[k] != 0 {
+				q.grad[2+k][j] = -dx[2+k] / slope[k] * dpct[k]
+			}
+		}
+	}
+	return nil
+}
+
+// objective is what the solver drives to zero: weighted terms per
+// position.
+type objective struct {
+	prio    Priority
+	weight  float64
+	running int
+	target  *float64
+	// design is the drawing's mean lead per position, which the plan
+	// keeps where the knobs leave a choice (weakly, below equality).
+	design []float64
+	full   []bool // positions in full gear, where a target lead applies
+}
+
+// term is one weighted residual: coefficients on the four quantities of a
+// position, plus a constant.
+type term struct {
+	pos   int
+	coef  [4]float64
+	c     float64
+	scale float64 // divides the residual
+	w     float64 // multiplies it
+	what  string
+}
+
+func (o objective) terms(n int, canLead bool) []term {
+	var ts []term
+	wl, wc := 1.0, 1e-2
+	sl, sc := 0.01, 1.0
+	switch o.prio {
+	case EqualCutOffs:
+		wl, wc = 1e-2, 1
+		sl, sc = 0.05, 0.1
+	case Balanced:
+		w := o.weight
+		if !(w > 0 && w < 1) {
+			w = 0.5
+		}
+		wl, wc = math.Sqrt(w), math.Sqrt(1-w)
+		sl, sc = 0.05, 1
+	}
+	for i := 0; i < n; i++ {
+		ts = append(ts, term{pos: i, coef: [4]float64{1, -1, 0, 0}, scale: sl, w: wl, what: "lead"})
+		cw := wc
+		if o.prio == EqualCutOffs && i != o.running {
+			cw = 1e-2
+		}
+		ts = append(ts, term{pos: i, coef: [4]float64{0, 0, 1, -1}, scale: sc, w: cw, what: "cut"})
+		switch {
+		case o.target != nil && canLead && (o.full == nil || o.full[i]):
+			ts = append(ts, term{pos: i, coef: [4]float64{0.5, 0.5, 0, 0}, c: -*o.target, scale: sl, w: 1, what: "target"})
+		case i < len(o.design):
+			ts = append(ts, term{pos: i, coef: [4]float64{0.5, 0.5, 0, 0}, c: -o.design[i], scale: 0.05, w: 0.2, what: "design"})
+		}
+	}
+	return ts
+}
+
+// value returns a term's weighted residual.
+func (t term) value(q []quantities) float64 {
+	v := [4]float64{q[t.pos].lead[0], q[t.pos].lead[1], q[t.pos].cut[0], q[t.pos].cut[1]}
+	s := t.c
+	for k := range v {
+		s += t.coef[k] * v[k]
+	}
+	return t.w * s / t.scale
+}
+
+// grad returns a term's gradient with respect to parameter j.
+func (t term) grad(q []quantities, j param) float64 {
+	if t.what == "cut" && !q[t.pos].cutOK {
+		return 0
+	}
+	s := 0.0
+	for k := range t.coef {
+		s += t.coef[k] * q[t.pos].grad[k][j]
+	}
+	return t.w * s / t.scale
+}
+
+func sumSquares(ts []term, q []quantities) float64 {
+	s := 0.0
+	for _, t := range ts {
+		s += sq(t.value(q))
+	}
+	return s
+}
+
+// optimise finds the changes of the knobs (in their units) that minimise
+// the objective from parameters p, within the knobs' limits, by bounded
+// Gauss-Newton on the events' implicit-function gradients.
+func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term) ([]float64, []quantities, error) {
+	n := len(ks)
+	a := make([]float64, n)
+	apply := func(a []float64) [numParams]float64 {
+		q := p
+		for i, k := range ks {
+			q[k.p] += a[i]
+		}
+		return q
+	}
+	qs, err := ev.events(p, true)
+	if err != nil {
+		return nil, nil, err
+	}
+	if n == 0 {
+		return a, qs, nil
+	}
+	const reg = 1e-3
+	cost := func(a []float64, qs []quantities) float64 {
+		c := sumSquares(ts, qs)
+		for i, k := range ks {
+			c += sq(reg * a[i] / k.scale)
+		}
+		return c
+	}
+	c := cost(a, qs)
+	free := make([]bool, n)
+	for it := 0; it < 12; it++ {
+		for i, k := range ks {
+			free[i] = true
+			if (a[i] <= k.adj.Min && k.adj.Min < 0) || (a[i] >= k.adj.Max && k.adj.Max > 0) {
+				// stays on its bound unless the gradient pulls it inward
+				free[i] = false
+			}
+			if k.adj.Min == 0 && k.adj.Max == 0 {
+				free[i] = false
+			}
+		}
+		A := newSym(n)
+		g := make([]float64, n)
+		for _, t := range ts {
+			v := t.value(qs)
+			row := make([]float64, n)
+			for i, k := range ks {
+				row[i] = t.grad(qs, k.p)
+			}
+			for i := 0; i < n; i++ {
+				g[i] -= row[i] * v
+				for j := 0; j < n; j++ {
+					A.add(i, j, row[i]*row[j])
+				}
+			}
+		}
+		for i, k := range ks {
+			A.add(i, i, sq(reg/k.scale)+1e-12)
+			g[i] -= sq(reg/k.scale) * a[i]
+		}
+		// Release a bound whose gradient pulls inward.
+		for i, k := range ks {
+			if !free[i] && ((a[i] >= k.adj.Max && g[i] < 0) || (a[i] <= k.adj.Min && g[i] > 0)) && !(k.adj.Min == 0 && k.adj.Max == 0) {
+				free[i] = true
+			}
+		}
+		for i := range ks {
+			if !free[i] {
+				for j := 0; j < n; j++ {
+					A.a[i*n+j], A.a[j*n+i] = 0, 0
+				}
+				A.a[i*n+i], g[i] = 1, 0
+			}
+		}
+		d, ok := A.solve(g)
+		if !ok {
+			break
+		}
+		improved := false
+		for tries := 0; tries < 8; tries++ {
+			b := make([]float64, n)
+			for i, k := range ks {
+				b[i] = math.Max(k.adj.Min, math.Min(k.adj.Max, a[i]+d[i]))
+			}
+			q2, err := ev.events(apply(b), true)
+			if err == nil {
+				if c2 := cost(b, q2); c2 < c {
+					small := true
+					for i, k := range ks {
+						if math.Abs(b[i]-a[i]) > 1e-4*k.step {
+							small = false
+						}
+					}
+					a, qs, c = b, q2, c2
+					improved = true
+					if small {
+						return a, qs, nil
+					}
+					break
+				}
+			}
+			for i := range d {
+				d[i] /= 2
+			}
+		}
+		if !improved {
+			break
+		}
+	}
+	return a, qs, nil
+}
+
+// roundPlan rounds the ideal changes to what hands can do: each knob to a
+// whole number of its steps, trying the nearest step either side of each
+// (all combinations for up to five knobs) and keeping the combination whose
+// exact events score best; no change at all is among the candidates, so
+// the rounded plan never leaves the engine worse than it is by the plan's
+// own measure.
+func (ev *evaluator) roundPlan(p [numParams]float64, ks []knob, ts []term, ideal []float64) ([]float64, []quantities, error) {
+	n := len(ks)
+	apply := func(a []float64) [numParams]float64 {
+		q := p
+		for i, k := range ks {
+			q[k.p] += a[i]
+		}
+		return q
+	}
+	lo := make([]float64, n)
+	for i, k := range ks {
+		lo[i] = math.Floor(ideal[i]/k.step) * k.step
+	}
+	var best []float64
+	var bestQ []quantities
+	bestC := math.Inf(1)
+	try := func(a []float64) {
+		for i, k := range ks {
+			if a[i] < k.adj.Min-1e-9 || a[i] > k.adj.Max+1e-9 {
+				return
+			}
+		}
+		qs, err := ev.events(apply(a), false)
+		if err != nil {
+			return
+		}
+		if c := sumSquares(ts, qs); c < bestC-1e-12 {
+			bestC, best, bestQ = c, append([]float64(nil), a...), qs
+		}
+	}
+	try(make([]float64, n)) // no change
+	m := n
+	if m > 5 {
+		m = 5
+	}
+	for mask := 0; mask < 1<<m; mask++ {
+		a := make([]float64, n)
+		for i, k := range ks {
+			if i < m {
+				a[i] = lo[i] + float64((mask>>i)&1)*k.step
+			} else {
+				a[i] = math.Round(ideal[i]/k.step) * k.step
+			}
+			if math.Abs(a[i]) < 1e-12 {
+				a[i] = 0
+			}
+		}
+		try(a)
+	}
+	if best == nil {
+		return nil, nil, &setting.Error{Field: "adjustments", Message: "No rounded plan could be evaluated: the gear cannot close with the changes proposed."}
+	}
+	return best, bestQ, nil
+}

@@ -61,6 +61,9 @@ func (p *Path) CubeTo(c1, c2, pt Point) {
 func (p *Path) Close() { *p = append(*p, Segment{Kind: Close}) }
 
 // LineStyle says how to stroke a path. Zero values: black, 1 unit wide, solid.
+// Colours here and in FillStyle and TextStyle are alpha-premultiplied, as
+// color.RGBA always is. Outline turns a stroke into the outline every
+// backend fills.
 type LineStyle struct {
 	Color  color.RGBA
 	Width  float64   // logical units; 0 means 1
@@ -114,6 +117,9 @@ type Canvas interface {
 	Fill(p Path, s FillStyle)
 	// Stroke draws the outline of p.
 	Stroke(p Path, s LineStyle)
-	// Text draws one line of text anchored at at.
+	// Text draws one line of text anchored at at with the style's
+	// alignment: TextOrigin gives the baseline-left point to draw from and
+	// TextBox the box it covers, in the one embedded font. A newline is not
+	// a line break; Wrap splits paragraphs into lines.
 	Text(at Point, text string, s TextStyle)
 }

@@ -146,17 +146,24 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 	fLocal, bLocal, sLocal := g.Link.pin(fs), g.Link.pin(-fs), g.Link.Suspension
 	hang := g.hang()
 
-	// Starting point: upright link whose suspension pin hangs straight from
-	// the arm pin, rod pins where rods of their length reach at that height,
-	// tilted to meet both.
-	centre := Point{0, p.armPin.W + hang*g.LiftingLink - sLocal.W}
-	reach := func(sheave Point, rod float64, local Point) float64 {
-		dw := centre.W + local.W - sheave.W
-		return sheave.U + math.Sqrt(math.Max(rod*rod-dw*dw, 0)) - local.U
+	// Starting point: the suspension pin hangs straight below (or above) the
+	// arm pin, the rod pins stand where rods of their length reach at their
+	// heights, the link tilted to meet both; then once more with the lifting
+	// link's true slant. This leaves Newton's method two steps.
+	reach := func(sheave Point, rod float64, pinW float64) float64 {
+		dw := pinW - sheave.W
+		return sheave.U + math.Sqrt(math.Max(rod*rod-dw*dw, 0))
 	}
-	uf, ub := reach(p.fwdSheave, g.Forward.Rod, fLocal), reach(p.backSheave, g.Backward.Rod, bLocal)
-	sa := (uf - ub) / (bLocal.W - fLocal.W) // sine of the tilt that places both pins
-	centre.U = (uf+ub)/2 + sa*(fLocal.W+bLocal.W)/2
+	centre := Point{0, p.armPin.W + hang*g.LiftingLink - sLocal.W}
+	var sa float64
+	for pass := 0; pass < 2; pass++ {
+		uf := reach(p.fwdSheave, g.Forward.Rod, centre.W+fLocal.W) - fLocal.U
+		ub := reach(p.backSheave, g.Backward.Rod, centre.W+bLocal.W) - bLocal.U
+		sa = (uf - ub) / (bLocal.W - fLocal.W) // sine of the tilt that places both pins
+		centre.U = (uf+ub)/2 + sa*(fLocal.W+bLocal.W)/2
+		su := centre.U + sLocal.U - sa*sLocal.W - p.armPin.U
+		centre.W = p.armPin.W + hang*math.Sqrt(math.Max(g.LiftingLink*g.LiftingLink-su*su, 0)) - sLocal.W - sa*sLocal.U
+	}
 	// Newton's method on the three loop equations (|pin - anchor|^2 -
 	// length^2) / (2 length) = 0 in the link centre and the sine of its tilt.
 	ok := false

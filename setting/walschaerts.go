@@ -170,17 +170,22 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 	// Lever: unknowns the valve-pin U (v) and the sine t of the lever's
 	// angle from hanging straight down (positive with its foot forward).
 	a, k := g.Lever.ValvePin, g.Lever.UnionPin-g.Lever.ValvePin
-	// Start: radius rod and union link at the heights their pins have with
-	// the lever hanging straight.
-	aW, uW := g.Guide+a, g.Guide-k
+	// Start: the lever hanging straight, the radius rod and union link
+	// reaching its pins at their heights; then once more at the lever's
+	// slant. This leaves Newton's method two steps.
 	ahead := sign(g.ValveCentreU - g.Trunnion.U)
 	uSide := g.unionSide(e)
-	aU := p.die.U + ahead*math.Sqrt(math.Max(g.RadiusRod*g.RadiusRod-sq(aW-p.die.W), 0))
-	uU := p.crossheadArm.U + uSide*math.Sqrt(math.Max(g.UnionLink*g.UnionLink-sq(uW-p.crossheadArm.W), 0))
-	t := (uU - aU) / g.Lever.UnionPin
-	v := aU + t*a
+	var t, v float64
+	for pass, ct := 0, 1.0; pass < 2; pass++ {
+		aW, uW := g.Guide+a*ct, g.Guide-k*ct
+		aU := p.die.U + ahead*math.Sqrt(math.Max(g.RadiusRod*g.RadiusRod-sq(aW-p.die.W), 0))
+		uU := p.crossheadArm.U + uSide*math.Sqrt(math.Max(g.UnionLink*g.UnionLink-sq(uW-p.crossheadArm.W), 0))
+		t = math.Max(-0.9, math.Min(0.9, (uU-aU)/g.Lever.UnionPin))
+		v = aU + t*a
+		ct = math.Sqrt(1 - t*t)
+	}
 	ok = false
-	var fr, fu, ct float64
+	var ct float64
 	kr, ku := 1/g.RadiusRod, 1/g.UnionLink
 	for it := 0; it < 20; it++ {
 		if !(math.Abs(t) < 0.95) {
@@ -189,8 +194,8 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 		ct = math.Sqrt(1 - t*t)
 		dr := Point{v - a*t - p.die.U, g.Guide + a*ct - p.die.W}
 		du := Point{v + k*t - p.crossheadArm.U, g.Guide - k*ct - p.crossheadArm.W}
-		fr = (dr.Dot(dr) - g.RadiusRod*g.RadiusRod) * kr / 2
-		fu = (du.Dot(du) - g.UnionLink*g.UnionLink) * ku / 2
+		fr := (dr.Dot(dr) - g.RadiusRod*g.RadiusRod) * kr / 2
+		fu := (du.Dot(du) - g.UnionLink*g.UnionLink) * ku / 2
 		j11, j12 := dr.U*kr, (-a*dr.U-a*t/ct*dr.W)*kr
 		j21, j22 := du.U*ku, (k*du.U+k*t/ct*du.W)*ku
 		det := j11*j22 - j12*j21
@@ -210,7 +215,11 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 	p.radiusPin = Point{v - a*t, g.Guide + a*ct}
 	p.unionPin = Point{v + k*t, g.Guide - k*ct}
 	if !ok || !finite(v) || (p.radiusPin.U-p.die.U)*ahead < 0 || (p.unionPin.U-p.crossheadArm.U)*uSide < 0 {
-		if math.Abs(fu) > math.Abs(fr) {
+		// Name the link whose length is further from what the lever needs
+		// hanging straight with the valve central.
+		needR := Point{g.ValveCentreU, g.Guide + a}.Sub(p.die).Len()
+		needU := Point{g.ValveCentreU, g.Guide - k}.Sub(p.crossheadArm).Len()
+		if math.Abs(needU-g.UnionLink)/g.UnionLink > math.Abs(needR-g.RadiusRod)/g.RadiusRod {
 			return p, closeError("union_link", "The union link cannot reach the combination lever", thetaDeg)
 		}
 		return p, closeError("radius_rod", "The radius rod cannot reach the combination lever", thetaDeg)

@@ -224,7 +224,7 @@ func TestWalschaertsErrorsNameTheField(t *testing.T) {
 		{"crosshead arm infinite", "crosshead_arm", func(g *Walschaerts) { g.CrossheadArm.U = math.Inf(1) }, nil},
 		{"eccentric rod too short", "eccentric_rod", func(g *Walschaerts) { g.EccentricRod = 10 },
 			[]string{"The eccentric rod cannot reach the link foot at crank angle"}},
-		{"radius rod too short", "radius_rod", func(g *Walschaerts) { g.RadiusRod = 60 },
+		{"radius rod too short", "radius_rod", func(g *Walschaerts) { g.RadiusRod = 30 },
 			[]string{"The radius rod cannot reach the combination lever at crank angle"}},
 		{"union link too short", "union_link", func(g *Walschaerts) { g.UnionLink = 5 },
 			[]string{"The union link cannot reach the combination lever at crank angle"}},
@@ -238,7 +238,7 @@ func TestWalschaertsErrorsNameTheField(t *testing.T) {
 		wantFieldError(t, c.name, g.Validate(en), c.field, c.fragments...)
 	}
 	g := good
-	g.RadiusRod = 60
+	g.RadiusRod = 30
 	_, err := g.Valve(e, 330, 1)
 	wantFieldError(t, "short radius rod, Valve", err, "radius_rod", fmt.Sprintf("crank angle %d deg", 330))
 }

@@ -127,16 +127,16 @@ func inNotch(n Notch, err error) error {
 
 // Format writes the table as aligned text, one line per end:
 //
-//	position      run       end    lead mm  adm deg  cut-off %  release %  compr %  open mm
-//	full forward  forward   front    0.25     1.6      76.4       95.1      9.3    3.20
-//	                        back     0.25     1.6      71.0       ...
+//	position      run      end    lead mm  adm deg  cut-off %  release %  compr %  open mm
+//	full forward  forward  front     0.31      3.2       80.3       94.6      8.1     3.00
+//	                       back      0.19      1.9       73.4       91.9      5.4     3.00
 //
 // "adm deg" is how far before its dead centre the port opens (LeadAngle);
 // percentages are of the stroke from that end (see Event); "open mm" is the
 // largest steam opening. A port that never opens or never closes says so.
 func (t EventTable) Format(w io.Writer) error {
-	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintln(tw, "position\trun\tend\tlead mm\tadm deg\tcut-off %\trelease %\tcompr %\topen mm\t")
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "position\trun\tend\tlead mm\tadm deg\tcut-off %\trelease %\tcompr %\topen mm")
 	for _, row := range t.Rows {
 		for _, end := range [2]CylinderEnd{Front, Back} {
 			pos, run := "", ""
@@ -144,10 +144,10 @@ func (t EventTable) Format(w io.Writer) error {
 				pos, run = row.Notch.Name, row.Events.Direction.String()
 			}
 			ev := row.Events.End(end)
-			fmt.Fprintf(tw, "%s\t%s\t%s\t%.2f\t%s\t%s\t%s\t%s\t%.2f\t\n", pos, run, end, ev.Lead,
-				steamCell(ev, fmt.Sprintf("%.1f", ev.LeadAngle)),
-				steamCell(ev, fmt.Sprintf("%.1f", ev.CutOff.StrokePercent)),
-				exhaustCell(ev, ev.Release), exhaustCell(ev, ev.Compression), ev.MaxOpening)
+			fmt.Fprintf(tw, "%s\t%s\t%s\t%7.2f\t%s\t%s\t%s\t%s\t%7.2f\n", pos, run, end, ev.Lead,
+				steamCell(ev, fmt.Sprintf("%7.1f", ev.LeadAngle)),
+				steamCell(ev, fmt.Sprintf("%9.1f", ev.CutOff.StrokePercent)),
+				exhaustCell(ev, ev.Release, 9), exhaustCell(ev, ev.Compression, 7), ev.MaxOpening)
 		}
 	}
 	return tw.Flush()
@@ -171,13 +171,14 @@ func steamCell(ev EndEvents, s string) string {
 	return s
 }
 
-// exhaustCell shows an exhaust event's percentage, or why there is none.
-func exhaustCell(ev EndEvents, e Event) string {
+// exhaustCell shows an exhaust event's percentage right-aligned in width,
+// or why there is none.
+func exhaustCell(ev EndEvents, e Event, width int) string {
 	switch {
 	case ev.ExhaustNeverOpens:
 		return "never opens"
 	case ev.ExhaustNeverCloses:
 		return "never closes"
 	}
-	return fmt.Sprintf("%.1f", e.StrokePercent)
+	return fmt.Sprintf("%*.1f", width, e.StrokePercent)
 }

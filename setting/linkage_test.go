@@ -133,3 +133,20 @@ func checkPose(t *testing.T, g PosedGear, e Engine, lengths map[string]float64) 
 		}
 	}
 }
+
+// checkReverserDirection checks that full forward gear drives the engine
+// forward and full back gear backward: cut-off in the working range (55-95
+// %) only when gear and running direction agree.
+func checkReverserDirection(t *testing.T, name string, e Engine, v Valve, g Gear) {
+	t.Helper()
+	for _, c := range []struct {
+		r    Reverser
+		dir  Direction
+		good bool
+	}{{1, Forward, true}, {-1, Backward, true}, {1, Backward, false}, {-1, Forward, false}} {
+		cut := eventsOf(t, e, v, g, c.r, c.dir).Front.CutOff.StrokePercent
+		if works := cut > 55 && cut < 95; works != c.good {
+			t.Errorf("%s, reverser %v running %v: cut-off %.1f %%", name, c.r, c.dir, cut)
+		}
+	}
+}

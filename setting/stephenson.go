@@ -173,9 +173,10 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 			break
 		}
 		ca = math.Sqrt(1 - sa*sa)
-		r0, f0 := loopRow(centre, ca, sa, fLocal, p.fwdSheave, g.Forward.Rod)
-		r1, f1 := loopRow(centre, ca, sa, bLocal, p.backSheave, g.Backward.Rod)
-		r2, f2 := loopRow(centre, ca, sa, sLocal, p.armPin, g.LiftingLink)
+		ica := 1 / ca
+		r0, f0 := loopRow(centre, ca, sa, ica, fLocal, p.fwdSheave, g.Forward.Rod)
+		r1, f1 := loopRow(centre, ca, sa, ica, bLocal, p.backSheave, g.Backward.Rod)
+		r2, f2 := loopRow(centre, ca, sa, ica, sLocal, p.armPin, g.LiftingLink)
 		dx, solved := solve3([3][3]float64{r0, r1, r2}, [3]float64{f0, f1, f2})
 		if !solved {
 			break
@@ -209,13 +210,13 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 }
 
 // loopRow returns one loop equation of the link, (|pin - anchor|^2 -
-// length^2) / (2 length), and its derivatives in the link centre's U and W
-// and the sine of its tilt, for a pin at local in the link's frame.
-func loopRow(centre Point, ca, sa float64, local, anchor Point, length float64) ([3]float64, float64) {
+// length^2) / 2, and its derivatives in the link centre's U and W and the
+// sine sa of its tilt (ca its cosine, ica = 1/ca), for a pin at local in the
+// link's frame.
+func loopRow(centre Point, ca, sa, ica float64, local, anchor Point, length float64) ([3]float64, float64) {
 	rq := Point{local.U*ca - local.W*sa, local.U*sa + local.W*ca}
 	d := centre.Add(rq).Sub(anchor)
-	k := 1 / length
-	return [3]float64{d.U * k, d.W * k, d.Dot(rq.Left()) * k / ca}, (d.Dot(d) - length*length) * k / 2
+	return [3]float64{d.U, d.W, d.Dot(rq.Left()) * ica}, (d.Dot(d) - length*length) / 2
 }
 
 // solve3 solves the 3x3 system a x = b by cofactors.

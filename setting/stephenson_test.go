@@ -102,16 +102,7 @@ func TestStephensonReverserDirection(t *testing.T) {
 		for _, adm := range []Admission{External, Internal} {
 			g := zeunerGear(5, 25, 130, 18, crossed, adm)
 			v := lapValve(5*math.Sin(25*math.Pi/180)-0.2, adm)
-			for _, c := range []struct {
-				r    Reverser
-				dir  Direction
-				good bool
-			}{{1, Forward, true}, {-1, Backward, true}, {1, Backward, false}, {-1, Forward, false}} {
-				cut := eventsOf(t, e, v, g, c.r, c.dir).Front.CutOff.StrokePercent
-				if works := cut > 55 && cut < 95; works != c.good {
-					t.Errorf("crossed %v, %v, reverser %v running %v: cut-off %.1f %%", crossed, adm, c.r, c.dir, cut)
-				}
-			}
+			checkReverserDirection(t, fmt.Sprintf("crossed %v, %v", crossed, adm), e, v, g)
 		}
 	}
 }

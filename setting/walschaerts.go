@@ -84,8 +84,13 @@ func DesignLever(lap, lead, crankRadius, unionPin float64, insideAdmission bool)
 // with the radius rod running forward from the die and the union link on
 // the side of the crosshead arm the lever has in the design. Each call
 // solves the link foot by circle intersection and the lever by Newton's
-// method on its two loop equations, started from the infinite-rod position,
-// so no state is carried between calls.
+// method on its two loop equations, started from the lever hanging straight
+// and corrected once for its slant, so no state is carried between calls.
+//
+// Which sign of FullGearDie runs the engine forward depends on the return
+// crank's side and on the valve pin's side of the lever (the lever turns
+// the link's motion round for external admission); a wrong sign shows as
+// full forward gear cutting off far outside 70-90 % running forward.
 type Walschaerts struct {
 	ReturnCrank  float64          `json:"return_crank"`   // mm, crank-pin centre to return-crank pin
 	ReturnAngle  float64          `json:"return_angle"`   // degrees, direction of the return crank (crank pin to its pin) ahead of the main crank, forward running sense; see CentreLink
@@ -231,7 +236,7 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 // set so the link stands at the middle of its swing (its foot at
 // Trunnion + LinkFoot) at both dead centres: then moving the reverser with the
 // engine on either dead centre does not move the valve (common practice, no
-// source: the setter's test quoted in the package notes). It keeps the
+// source: the setter's dead-centre test). It keeps the
 // return crank radius and searches the angle by Newton's method from g's
 // ReturnAngle, so give a value on the intended side (about +-150 degrees for
 // a return crank whose pin stands a quarter turn from the crank as seen from

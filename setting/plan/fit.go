@@ -377,6 +377,9 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 	if err := pb.finish(f, p, res); err != nil {
 		return nil, err
 	}
+	if err := f.contradiction(pb); err != nil {
+		return nil, err
+	}
 	return f, nil
 }
 
@@ -618,6 +621,33 @@ func (pb *problem) finish(f *Fit, p [numParams]float64, res float64) error {
 	f.Sigma = devOf(sv)
 	f.obs = pb.obs
 	return nil
+}
+
+// contradiction refuses a fit that cannot follow the readings: most of
+// them lie many times farther from it than the gauge and the marks could
+// explain.
+func (f *Fit) contradiction(pb *problem) error {
+	var u []float64
+	for i, r := range f.Residuals {
+		if r.Used {
+			u = append(u, math.Abs(r.ResidualMM)/pb.sig[i])
+		}
+	}
+	if len(u) < 4 {
+		return nil
+	}
+	sort.Float64s(u)
+	scale := 1.4826 * u[len(u)/2]
+	if scale < 10 || f.RMSMM < 5*f.resMM {
+		return nil
+	}
+	worst := append([]Residual(nil), f.Residuals...)
+	sort.SliceStable(worst, func(a, b int) bool { return math.Abs(worst[a].ResidualMM) > math.Abs(worst[b].ResidualMM) })
+	var names []string
+	for i := 0; i < len(worst) && i < 3; i++ {
+		names = append(names, fmt.Sprintf("%s (%.2f mm off)", worst[i].Label, math.Abs(worst[i].ResidualMM)))
+	}
+	return &setting.Error{Field: "readings", Message: fmt.Sprintf("The readings contradict one another (or the engine's dimensions): no setting of the gear follows them closer than %.2f mm, where the gauge reads to %.2f mm. Farthest off: %s. Check that the gauge was not knocked, that the marks are numbered the way the wheel turns, and the gear's dimensions; then take the round again.", f.RMSMM, f.resMM, strings.Join(names, "; "))}
 }
 
 // RecheckMessages returns one sentence per reading to recheck:

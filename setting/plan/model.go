@@ -26,7 +26,7 @@ import (
 //     (index 1) eccentric, + = more advance (turned ahead in the running
 //     direction it drives). A single-eccentric gear uses index 0.
 //   - EccentricRodMM: eccentric rod lengths, forward (0) and backward (1),
-//     + = longer. Single eccentric and Walschaerts use index 0.
+//   - = longer. Single eccentric and Walschaerts use index 0.
 //   - ReturnCrankDeg: Walschaerts return crank, + = turned in the forward
 //     running direction.
 //   - RadiusRodMM: Walschaerts radius rod, + = longer.

@@ -213,28 +213,3 @@ func injected(kind string) Deviations {
 	return d
 }
 
-func TestScratchPlan(t *testing.T) {
-	for _, kind := range []string{setting.KindSingleEccentric, setting.KindStephenson, setting.KindWalschaerts} {
-		sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
-		sim.dev.GaugeZeroMM = 5
-		ses := sim.session(t, 15, testAdjustments(kind))
-		p, err := Make(ses, Options{})
-		if err != nil {
-			t.Fatal(kind, err)
-		}
-		t.Logf("%s fit dev %+v rms %.4f", kind, p.Deviations, p.FitRMSMM)
-		for _, st := range p.Steps {
-			t.Log(st.Words, st.IdealAmount)
-		}
-		for _, n := range p.Notes {
-			t.Log(n)
-		}
-		for i, st := range p.Now {
-			t.Logf("%s now F %.3f±%.3f B %.3f | cut %.1f %.1f  after F %.3f B %.3f cut %.1f %.1f", st.Notch, st.Front.LeadMM, st.Front.LeadSigmaMM, st.Back.LeadMM, st.Front.CutOffPercent, st.Back.CutOffPercent,
-				p.After[i].Front.LeadMM, p.After[i].Back.LeadMM, p.After[i].Front.CutOffPercent, p.After[i].Back.CutOffPercent)
-		}
-		for _, set := range sim.after(t, p.Steps).events(t) {
-			t.Logf("true after: F %.3f B %.3f cut %.1f %.1f", set.Front.Lead, set.Back.Lead, set.Front.CutOff.StrokePercent, set.Back.CutOff.StrokePercent)
-		}
-	}
-}

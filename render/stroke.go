@@ -38,8 +38,15 @@ func Outline(p Path, s LineStyle) Path {
 		hw = 0.5
 	}
 	dashes := cleanDashes(s.Dashes)
-	var out Path
-	for _, sp := range flatten(p) {
+	subs := flatten(p)
+	// About 5 segments per quad and 4 per join; dashes add caps, and
+	// append grows the rest.
+	n := 0
+	for _, sp := range subs {
+		n += 10*len(sp.pts) + 16
+	}
+	out := make(Path, 0, n)
+	for _, sp := range subs {
 		if dashes == nil {
 			strokePolyline(&out, sp.pts, sp.closed, hw)
 			continue
@@ -239,12 +246,6 @@ func (k stroker) polyline(pts []Point, closed bool) {
 	segs := n - 1
 	if closed {
 		segs = n
-	}
-	// About 5 segments per quad and 4 per join.
-	if need := len(*k.out) + 10*segs + 16; cap(*k.out) < need {
-		grown := make(Path, len(*k.out), need)
-		copy(grown, *k.out)
-		*k.out = grown
 	}
 	hw := k.hw
 	var first, prev Point // unit directions of the first and previous segments

@@ -212,4 +212,3 @@ func injected(kind string) Deviations {
 	}
 	return d
 }
-

@@ -9,6 +9,7 @@ import (
 	"image/png"
 	"os"
 	"path/filepath"
+	"sync"
 	"testing"
 	"time"
 
@@ -56,9 +57,9 @@ func startServer(t testing.TB) *Main {
 
 // newBrowser starts headless Chromium with a fresh profile in profile
 // (flags from the measured browser notes: SwiftShader WebGL, nothing that
-// reaches beyond loopback) and returns a tab context. The browser is closed
-// gracefully at cleanup.
-func newBrowser(t testing.TB, profile string) context.Context {
+// reaches beyond loopback) and returns a tab context and a function that
+// closes the browser gracefully (also called at cleanup).
+func newBrowser(t testing.TB, profile string) (context.Context, func()) {
 	t.Helper()
 	opts := []chromedp.ExecAllocatorOption{
 		chromedp.ExecPath(chromiumPath),
@@ -76,19 +77,23 @@ func newBrowser(t testing.TB, profile string) context.Context {
 	}
 	actx, acancel := chromedp.NewExecAllocator(context.Background(), opts...)
 	ctx, cancel := chromedp.NewContext(actx)
-	t.Cleanup(func() {
-		cctx, ccancel := context.WithTimeout(ctx, 10*time.Second)
-		defer ccancel()
-		chromedp.Cancel(cctx)
-		cancel()
-		acancel()
-	})
+	var once sync.Once
+	closeBrowser := func() {
+		once.Do(func() {
+			cctx, ccancel := context.WithTimeout(ctx, 10*time.Second)
+			defer ccancel()
+			chromedp.Cancel(cctx)
+			cancel()
+			acancel()
+		})
+	}
+	t.Cleanup(closeBrowser)
 	// The first Run starts the browser; it must not carry a timeout.
 	if err := chromedp.Do(ctx, chromedp.EmulateViewport(phoneW, phoneH,
 		chromedp.EmulateScale(phoneScale), chromedp.EmulateMobile, chromedp.EmulateTouch, chromedp.EmulatePortrait)); err != nil {
 		t.Fatalf("starting Chromium: %v", err)
 	}
-	return ctx
+	return ctx, closeBrowser
 }
 
 // within runs steps with a time limit, failing the test with what on error.
@@ -104,17 +109,28 @@ func within(t testing.TB, ctx context.Context, d time.Duration, what string, ste
 // waitFor polls a JavaScript condition until it holds.
 func waitFor(t testing.TB, ctx context.Context, d time.Duration, cond string) {
 	t.Helper()
-	within(t, ctx, d+5*time.Second, "waiting for "+cond,
-		chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
-			_, err := chromedp.Poll[chromedp.Void](cond, chromedp.WithPollingTimeout(d), chromedp.WithPollingInterval(50*time.Millisecond))(ctx, tg)
-			return err
-		}))
+	waitValue[chromedp.Void](t, ctx, d, cond)
+}
+
+// waitValue polls a JavaScript expression until it is truthy and returns
+// its value.
+func waitValue[T any](t testing.TB, ctx context.Context, d time.Duration, expr string) T {
+	t.Helper()
+	start := time.Now()
+	tctx, cancel := context.WithTimeout(ctx, d+5*time.Second)
+	defer cancel()
+	v, err := chromedp.Run(tctx, chromedp.Poll[T](expr, chromedp.WithPollingTimeout(d), chromedp.WithPollingInterval(50*time.Millisecond)))
+	if err != nil {
+		t.Fatalf("waiting for %s: %v", expr, err)
+	}
+	t.Logf("%s after %v", expr, time.Since(start).Round(time.Millisecond))
+	return v
 }
 
 // eval evaluates a JavaScript expression and decodes its value.
 func eval[T any](t testing.TB, ctx context.Context, expr string) T {
 	t.Helper()
-	tctx, cancel := context.WithTimeout(ctx, 10*time.Second)
+	tctx, cancel := context.WithTimeout(ctx, 30*time.Second)
 	defer cancel()
 	v, err := chromedp.Run(tctx, chromedp.Evaluate[T](expr))
 	if err != nil {

@@ -121,9 +121,9 @@ func TestPhone(t *testing.T) {
 	}
 	needChromium(t)
 	m := startServer(t)
-	ctx := newBrowser(t, t.TempDir())
+	ctx, _ := newBrowser(t, t.TempDir())
 
-	within(t, ctx, 30*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
+	within(t, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
 	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "cautions"`)
 	if got := eval[float64](t, ctx, "window.devicePixelRatio"); got != phoneScale {
 		t.Fatalf("devicePixelRatio = %v; want %d", got, phoneScale)
@@ -166,7 +166,7 @@ func TestPhone(t *testing.T) {
 		res.Body.Close()
 		t.Fatal("the server still answers after Close")
 	}
-	within(t, ctx, 30*time.Second, "reloading with the server stopped", chromedpReload())
+	within(t, ctx, 90*time.Second, "reloading with the server stopped", chromedpReload())
 	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "diagram"`)
 	if first := eval[string](t, ctx, "window.evenbeatFirstScreen"); first != "diagram" {
 		t.Errorf("after the reload the first frame showed %q; want the diagram (acknowledgement lost?)", first)

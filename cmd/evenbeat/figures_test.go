@@ -1,0 +1,61 @@
+package main
+
+import (
+	"bytes"
+	"os/exec"
+	"testing"
+	"time"
+)
+
+// BenchmarkFirstFrame prints the figures of the browser app: main.wasm raw,
+// gzip -9 (what the server sends) and brotli -q 11 (when the brotli command
+// is installed), and the time from navigation to the first drawn frame in
+// headless Chromium as a 3x phone: cold (fresh profile, from the server)
+// and warm (a reload served by the service worker). Run it with
+//
+//	go test -run '^$' -bench FirstFrame -benchtime 3x ./cmd/evenbeat
+//
+// The numbers depend on the machine; nothing here asserts a time.
+func BenchmarkFirstFrame(b *testing.B) {
+	needChromium(b)
+	m := startServer(b)
+	bundle, err := m.Bundle()
+	if err != nil {
+		b.Fatal(err)
+	}
+	wasm := bundle.Assets["main.wasm"]
+	const mb = 1e6
+	b.ReportMetric(float64(len(wasm.Data))/mb, "wasm-MB")
+	b.ReportMetric(float64(len(wasm.Gzip))/mb, "gzip9-MB")
+	if br, err := brotli(wasm.Data); err == nil {
+		b.ReportMetric(float64(len(br))/mb, "brotli11-MB")
+	} else {
+		b.Logf("brotli: n/a (%v)", err)
+	}
+
+	var cold, warm time.Duration
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		ctx, closeBrowser := newBrowser(b, b.TempDir())
+		within(b, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
+		cold += time.Duration(waitValue[float64](b, ctx, 90*time.Second, "window.evenbeatFirstFrame") * float64(time.Millisecond))
+		waitFor(b, ctx, 60*time.Second, `navigator.serviceWorker.controller !== null`)
+		within(b, ctx, 90*time.Second, "reloading", chromedpReload())
+		warm += time.Duration(waitValue[float64](b, ctx, 90*time.Second, "window.evenbeatFirstFrame") * float64(time.Millisecond))
+		closeBrowser()
+	}
+	b.StopTimer()
+	b.ReportMetric(float64(cold.Milliseconds())/float64(b.N), "ms-first-frame-cold")
+	b.ReportMetric(float64(warm.Milliseconds())/float64(b.N), "ms-first-frame-warm")
+}
+
+// brotli compresses data with the brotli command at its best quality.
+func brotli(data []byte) ([]byte, error) {
+	path, err := exec.LookPath("brotli")
+	if err != nil {
+		return nil, err
+	}
+	cmd := exec.Command(path, "-q", "11", "-c")
+	cmd.Stdin = bytes.NewReader(data)
+	return cmd.Output()
+}

@@ -123,6 +123,27 @@ func crankRotation(e Engine, thetaDeg float64) float64 {
 	return e.prepare().rotation(thetaDeg)
 }
 
+// rootPos returns the square root of x, or 0 for negative x: a reach that
+// falls short is taken as square, for starting points only. (math.Max is
+// slower: it handles NaN and signed zeros.)
+func rootPos(x float64) float64 {
+	if x < 0 {
+		return 0
+	}
+	return math.Sqrt(x)
+}
+
+// clamp returns x limited to [-lim, lim].
+func clamp(x, lim float64) float64 {
+	if x > lim {
+		return lim
+	}
+	if x < -lim {
+		return -lim
+	}
+	return x
+}
+
 // finite reports whether x is neither NaN nor infinite.
 func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
 

@@ -152,7 +152,7 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 	// link's true slant. This leaves Newton's method two steps.
 	reach := func(sheave Point, rod float64, pinW float64) float64 {
 		dw := pinW - sheave.W
-		return sheave.U + math.Sqrt(math.Max(rod*rod-dw*dw, 0))
+		return sheave.U + rootPos(rod*rod-dw*dw)
 	}
 	centre := Point{0, p.armPin.W + hang*g.LiftingLink - sLocal.W}
 	var sa float64
@@ -162,7 +162,7 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 		sa = (uf - ub) / (bLocal.W - fLocal.W) // sine of the tilt that places both pins
 		centre.U = (uf+ub)/2 + sa*(fLocal.W+bLocal.W)/2
 		su := centre.U + sLocal.U - sa*sLocal.W - p.armPin.U
-		centre.W = p.armPin.W + hang*math.Sqrt(math.Max(g.LiftingLink*g.LiftingLink-su*su, 0)) - sLocal.W - sa*sLocal.U
+		centre.W = p.armPin.W + hang*rootPos(g.LiftingLink*g.LiftingLink-su*su) - sLocal.W - sa*sLocal.U
 	}
 	// Newton's method on the three loop equations (|pin - anchor|^2 -
 	// length^2) / (2 length) = 0 in the link centre and the sine of its tilt.
@@ -177,7 +177,7 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 		r0, f0 := loopRow(centre, ca, sa, ica, fLocal, p.fwdSheave, g.Forward.Rod)
 		r1, f1 := loopRow(centre, ca, sa, ica, bLocal, p.backSheave, g.Backward.Rod)
 		r2, f2 := loopRow(centre, ca, sa, ica, sLocal, p.armPin, g.LiftingLink)
-		dx, solved := solve3([3][3]float64{r0, r1, r2}, [3]float64{f0, f1, f2})
+		dx, solved := solve3(&[3][3]float64{r0, r1, r2}, &[3]float64{f0, f1, f2})
 		if !solved {
 			break
 		}
@@ -220,12 +220,12 @@ func loopRow(centre Point, ca, sa, ica float64, local, anchor Point, length floa
 }
 
 // solve3 solves the 3x3 system a x = b by cofactors.
-func solve3(a [3][3]float64, b [3]float64) ([3]float64, bool) {
+func solve3(a *[3][3]float64, b *[3]float64) ([3]float64, bool) {
 	c00 := a[1][1]*a[2][2] - a[1][2]*a[2][1]
 	c01 := a[1][2]*a[2][0] - a[1][0]*a[2][2]
 	c02 := a[1][0]*a[2][1] - a[1][1]*a[2][0]
 	det := a[0][0]*c00 + a[0][1]*c01 + a[0][2]*c02
-	if det == 0 || !finite(det) {
+	if !(math.Abs(det) > 0 && math.Abs(det) < math.MaxFloat64) {
 		return [3]float64{}, false
 	}
 	c10 := a[0][2]*a[2][1] - a[0][1]*a[2][2]

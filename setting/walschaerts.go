@@ -183,9 +183,9 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 	var t, v float64
 	for pass, ct := 0, 1.0; pass < 2; pass++ {
 		aW, uW := g.Guide+a*ct, g.Guide-k*ct
-		aU := p.die.U + ahead*math.Sqrt(math.Max(g.RadiusRod*g.RadiusRod-sq(aW-p.die.W), 0))
-		uU := p.crossheadArm.U + uSide*math.Sqrt(math.Max(g.UnionLink*g.UnionLink-sq(uW-p.crossheadArm.W), 0))
-		t = math.Max(-0.9, math.Min(0.9, (uU-aU)/g.Lever.UnionPin))
+		aU := p.die.U + ahead*rootPos(g.RadiusRod*g.RadiusRod-sq(aW-p.die.W))
+		uU := p.crossheadArm.U + uSide*rootPos(g.UnionLink*g.UnionLink-sq(uW-p.crossheadArm.W))
+		t = clamp((uU-aU)/g.Lever.UnionPin, 0.9)
 		v = aU + t*a
 		ct = math.Sqrt(1 - t*t)
 	}
@@ -263,7 +263,7 @@ func (g Walschaerts) CentreLink(e Engine) (Walschaerts, error) {
 			break
 		}
 		step := fr / d
-		rho -= math.Max(-10, math.Min(10, step))
+		rho -= clamp(step, 10)
 		if math.Abs(step) < 1e-12 {
 			g.ReturnAngle = math.Mod(rho+540, 360) - 180
 			g.EccentricRod = pin(0, rho).Sub(foot).Len()

@@ -168,11 +168,15 @@ type sampler struct {
 	// extremes: tight on the motion, looser on an interpolant whose
 	// crossings are polished afterwards.
 	rootTol, minTol float64
-	n               int
-	h               float64   // step, degrees
-	x               []float64 // x[i] at theta i*h, i < n
-	bulge           []float64 // bound on the curve's departure from the chord in step i
-	lo, hi          []extreme // refined min and max of the curve in step i (NaN: not yet)
+	// sp, when not nil, is the curve itself: its slope and curvature are
+	// known, so roots and extremes are found by Newton's method and the
+	// bulge bound is exact.
+	sp     *spectrum
+	n      int
+	h      float64   // step, degrees
+	x      []float64 // x[i] at theta i*h, i < n
+	bulge  []float64 // bound on the curve's departure from the chord in step i
+	lo, hi []extreme // refined min and max of the curve in step i (NaN: not yet)
 }
 
 // extreme is a refined extreme of the curve within one step.
@@ -210,7 +214,7 @@ func (s *sampler) sample() error {
 		}
 	}
 	s.n = len(s.x)
-	for {
+	for s.sp == nil {
 		lo, hi, d2 := math.Inf(1), math.Inf(-1), 0.0
 		for i, x := range s.x {
 			lo, hi = math.Min(lo, x), math.Max(hi, x)
@@ -234,7 +238,10 @@ func (s *sampler) sample() error {
 	s.bulge = make([]float64, s.n)
 	s.lo = make([]extreme, s.n)
 	s.hi = make([]extreme, s.n)
-	scale := 0.0
+	scale, spBulge := 0.0, 0.0
+	if s.sp != nil {
+		spBulge = s.sp.bulge(s.h)
+	}
 	d2 := make([]float64, s.n)
 	for i, x := range s.x {
 		scale = math.Max(scale, math.Abs(x))
@@ -246,6 +253,9 @@ func (s *sampler) sample() error {
 		// a curve with |x''| <= M departs from its chord over a step h by at
 		// most M h^2 / 8, and M h^2 is what the second difference measures.
 		s.bulge[i] = bulgeSafety*d/8 + 1e-12*(1+scale)
+		if s.sp != nil {
+			s.bulge[i] = spBulge
+		}
 		s.lo[i], s.hi[i] = extreme{x: math.NaN()}, extreme{x: math.NaN()}
 	}
 	return nil
@@ -275,11 +285,13 @@ func (s *sampler) stepExtreme(i int, sign float64) (theta, x float64, err error)
 		return c.theta, c.x, nil
 	}
 	t0 := float64(i) * s.h
-	f := func(t float64) (float64, error) {
-		x, err := s.eval(t)
-		return sign * x, err
+	start := t0 + s.h/2
+	if sign*s.at(i+1) < sign*s.at(i) {
+		start = t0 + s.h
+	} else if sign*s.at(i+1) > sign*s.at(i) {
+		start = t0
 	}
-	t, fx, err := brentMin(f, t0, t0+s.h, s.minTol)
+	t, fx, err := s.extremeIn(t0, t0+s.h, start, sign)
 	if err != nil {
 		return 0, 0, err
 	}
@@ -317,7 +329,7 @@ func analyse(c Crank, v Valve, motion Motion) (*analysis, error) {
 	s := truth
 	if sp != nil {
 		// the interpolant passes through the samples: they start its grid
-		s = &sampler{x: append([]float64(nil), samples...), rootTol: 1e-7, minTol: 1e-4,
+		s = &sampler{x: samples, sp: sp, rootTol: 1e-7, minTol: 1e-4,
 			motion: func(t float64) (float64, error) { return sp.at(t), nil }}
 	}
 	if err := s.sample(); err != nil {
@@ -401,7 +413,7 @@ func (s *sampler) polish(sp *spectrum, k, lap float64, cs []crossing) error {
 			if err != nil {
 				return err
 			}
-			_, dx := sp.value(t)
+			_, dx, _ := sp.value3(t)
 			if gt == 0 {
 				ok = true
 				break
@@ -466,18 +478,35 @@ func (sp *spectrum) at(theta float64) float64 {
 	return x
 }
 
-// value returns the interpolant and its slope (mm per degree) at theta
-// degrees.
-func (sp *spectrum) value(theta float64) (x, dx float64) {
+// value3 returns the interpolant, its slope (per degree) and its
+// curvature (per degree squared) at theta degrees.
+func (sp *spectrum) value3(theta float64) (x, dx, ddx float64) {
 	s, c := math.Sincos(theta * (math.Pi / 180))
 	ck, sk := c, s
 	x = sp.a[0]
 	for k := 1; k < len(sp.a); k++ {
+		fk := float64(k)
 		x += sp.a[k]*ck + sp.b[k]*sk
-		dx += float64(k) * (sp.b[k]*ck - sp.a[k]*sk)
+		dx += fk * (sp.b[k]*ck - sp.a[k]*sk)
+		ddx -= fk * fk * (sp.a[k]*ck + sp.b[k]*sk)
 		ck, sk = ck*c-sk*s, sk*c+ck*s
 	}
-	return x, dx * (math.Pi / 180)
+	const r = math.Pi / 180
+	return x, dx * r, ddx * r * r
+}
+
+// bulge bounds how far the interpolant departs from its chord over a step
+// of h degrees: M h^2 / 8 with M = sum of k^2 |c_k|, a bound on its
+// curvature; plus a rounding allowance.
+func (sp *spectrum) bulge(h float64) float64 {
+	var m, size float64
+	for k := 1; k < len(sp.a); k++ {
+		c := math.Hypot(sp.a[k], sp.b[k])
+		m += float64(k*k) * c
+		size += c
+	}
+	const r = math.Pi / 180
+	return m*r*r*h*h/8 + 1e-12*(1+math.Abs(sp.a[0])+size)
 }
 
 // fitSpectrum returns the interpolant of samples (len n, even) at
@@ -574,10 +603,7 @@ func (s *sampler) extremes() (tlo, thi float64, err error) {
 	}{{ilo, 1}, {ihi, -1}} {
 		t := float64(ex.i) * s.h
 		out[j] = t
-		tm, fx, err := brentMin(func(t float64) (float64, error) {
-			x, err := s.eval(t)
-			return ex.sign * x, err
-		}, t-s.h, t+s.h, s.minTol)
+		tm, fx, err := s.extremeIn(t-s.h, t+s.h, t, ex.sign)
 		if err != nil {
 			return 0, 0, err
 		}
@@ -601,7 +627,7 @@ func (s *sampler) crossings(k, lap float64) (edgeCrossings, error) {
 		g0, g1 := k*s.at(i)-lap, k*s.at(i+1)-lap
 		open0, open1 := g0 > 0, g1 > 0
 		if open0 != open1 {
-			t, err := brentRoot(g, t0, t1, g0, g1, s.rootTol)
+			t, err := s.root(g, k, lap, t0, t1, g0, g1)
 			if err != nil {
 				return edgeCrossings{}, err
 			}
@@ -625,11 +651,11 @@ func (s *sampler) crossings(k, lap float64) (edgeCrossings, error) {
 		if (open0 && gm >= -touchTol) || (!open0 && gm <= touchTol) || tm <= t0 || tm >= t1 {
 			continue // a touch, or no turn inside the step
 		}
-		ta, err := brentRoot(g, t0, tm, g0, gm, s.rootTol)
+		ta, err := s.root(g, k, lap, t0, tm, g0, gm)
 		if err != nil {
 			return edgeCrossings{}, err
 		}
-		tb, err := brentRoot(g, tm, t1, gm, g1, s.rootTol)
+		tb, err := s.root(g, k, lap, tm, t1, gm, g1)
 		if err != nil {
 			return edgeCrossings{}, err
 		}
@@ -637,6 +663,66 @@ func (s *sampler) crossings(k, lap float64) (edgeCrossings, error) {
 	}
 	out = pairOffTouches(out)
 	return edgeCrossings{crossings: out, allOpen: len(out) == 0 && s.x[0]*k-lap > 0}, nil
+}
+
+// root finds the crossing of the edge function g = k*x - lap in [a, b],
+// where g(a) = ga and g(b) = gb lie on opposite sides of the edge: by
+// Newton's method on an interpolant (bracketed: a step leaving the bracket
+// bisects instead), by Brent's method on a motion.
+func (s *sampler) root(g func(float64) (float64, error), k, lap, a, b, ga, gb float64) (float64, error) {
+	if s.sp == nil {
+		return brentRoot(g, a, b, ga, gb, s.rootTol)
+	}
+	if ga == 0 {
+		return a, nil
+	}
+	t := a + (b-a)*ga/(ga-gb) // the chord's crossing
+	for range 60 {
+		x, dx, _ := s.sp.value3(t)
+		gt := k*x - lap
+		if gt == 0 {
+			return t, nil
+		}
+		if (gt > 0) == (ga > 0) {
+			a = t
+		} else {
+			b = t
+		}
+		next := t - gt/(k*dx)
+		if !(next > a && next < b) {
+			next = (a + b) / 2
+		}
+		if math.Abs(next-t) < s.rootTol || b-a < s.rootTol {
+			return next, nil
+		}
+		t = next
+	}
+	return t, nil
+}
+
+// extremeIn finds the smallest value of sign*x in [a, b] near start and
+// returns its angle and sign*x there: by Newton's method on the slope of an
+// interpolant where the curve is convex that way, else by Brent's
+// minimiser.
+func (s *sampler) extremeIn(a, b, start, sign float64) (theta, fx float64, err error) {
+	if s.sp != nil {
+		t := start
+		for range 30 {
+			_, dx, ddx := s.sp.value3(t)
+			if !(sign*ddx > 0) {
+				break // not convex here: leave it to the minimiser
+			}
+			next := math.Max(a, math.Min(b, t-dx/ddx))
+			if math.Abs(next-t) < s.minTol*1e-3 {
+				return next, sign * s.sp.at(next), nil
+			}
+			t = next
+		}
+	}
+	return brentMin(func(t float64) (float64, error) {
+		x, err := s.eval(t)
+		return sign * x, err
+	}, a, b, s.minTol)
 }
 
 // pairOffTouches removes neighbouring crossings (round the turn) that are

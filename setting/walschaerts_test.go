@@ -240,3 +240,31 @@ func BenchmarkWalschaertsValve(b *testing.B) {
 	s := DemoWalschaerts()
 	benchValve(b, s.Engine, *s.Gear.Walschaerts)
 }
+
+// Proportion a combination lever for a valve with 1 in lap and 1/4 in lead
+// on a 12 in crank (Ludy 1920, p. 88): the valve pin goes 0.1042 of the
+// way from the radius-rod pin to the union-link pin, beyond the radius-rod
+// pin for external admission.
+func ExampleDesignLever() {
+	l, err := DesignLever(1, 0.25, 12, 30, false)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("ratio %.4f, valve pin %.3f in, inside admission %v\n", l.Ratio(), l.ValvePin, l.Inside())
+	// Output: ratio 0.1042, valve pin -3.125 in, inside admission false
+}
+
+// Solve the demo Walschaerts gear at one crank angle and read its joints,
+// as a diagram of the motion does.
+func ExampleWalschaerts_Pose() {
+	s := DemoWalschaerts()
+	p, err := s.Gear.Walschaerts.Pose(s.Engine, 90, 1)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	die, _ := p.Joint("die block")
+	fmt.Printf("%d joints, %d links; die at (%.1f, %.1f) mm; valve %+.2f mm\n", len(p.Joints), len(p.Bars), die.U, die.W, p.Valve)
+	// Output: 13 joints, 10 links; die at (67.2, 54.6) mm; valve +3.84 mm
+}

@@ -136,89 +136,29 @@ func PistonCurve(c Canvas, e setting.Engine, box Rect, th Theme) {
 	drawLines(c, Point{l.Inner.Min.X, l.SubY}, l.Sub, muted)
 	c.Text(Point{l.Inner.Min.X, l.YLabelY}, "piston, % of stroke", TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
 
-	xs := Scale{Min: 0, Max: 360, A: l.Plot.Min.X, B: l.Plot.Max.X}
-	ys := Scale{Min: 0, Max: 100, A: l.Plot.Max.Y, B: l.Plot.Min.Y}
-
-	// Grid and ticks.
-	var grid, ticks Path
-	for _, v := range AngleTicks(0, 360, 4) {
-		x := xs.At(v)
-		grid.MoveTo(Point{x, l.Plot.Min.Y})
-		grid.LineTo(Point{x, l.Plot.Max.Y})
-		ticks.MoveTo(Point{x, l.Plot.Max.Y})
-		ticks.LineTo(Point{x, l.Plot.Max.Y + tickLen})
-		c.Text(Point{x, l.XTicksY}, FormatTick(v), TextStyle{Color: th.Ink, Size: BodySize, HAlign: Center, VAlign: Top})
-	}
-	for _, v := range Ticks(0, 100, 4) {
-		y := ys.At(v)
-		grid.MoveTo(Point{l.Plot.Min.X, y})
-		grid.LineTo(Point{l.Plot.Max.X, y})
-		ticks.MoveTo(Point{l.Plot.Min.X - tickLen, y})
-		ticks.LineTo(Point{l.Plot.Min.X, y})
-		c.Text(Point{l.Plot.Min.X - tickLen - 3, y}, FormatTick(v), TextStyle{Color: th.Ink, Size: BodySize, HAlign: Right, VAlign: Middle})
-	}
-	c.Stroke(grid, th.GridLine())
-	var axes Path
-	axes.MoveTo(l.Plot.Min)
-	axes.LineTo(Point{l.Plot.Min.X, l.Plot.Max.Y})
-	axes.LineTo(l.Plot.Max)
-	c.Stroke(axes, th.AxisLine())
-	c.Stroke(ticks, th.AxisLine())
+	ax := NewAxes(l.Plot, 0, 360, 0, 100, AngleTicks(0, 360, 4), Ticks(0, 100, 4))
+	ax.Draw(c, l.XTicksY, th)
 	c.Text(Point{(l.Plot.Min.X + l.Plot.Max.X) / 2, l.XLabelY}, "crank angle, degrees", TextStyle{Color: th.Muted, Size: BodySize, HAlign: Center, VAlign: Top})
 
 	// Curves: the infinitely long rod first, so the real one lies on top.
-	c.Stroke(curve(xs, ys, func(th float64) float64 { return 50 * (1 - math.Cos(th*math.Pi/180)) }), th.CompareLine())
-	c.Stroke(curve(xs, ys, func(th float64) float64 { return 100 * crank.PistonFraction(th) }), th.CurveLine())
+	c.Stroke(ax.Curve(0, 360, pistonStep, func(a float64) float64 { return 50 * (1 - math.Cos(a*math.Pi/180)) }), th.CompareLine())
+	c.Stroke(ax.Curve(0, 360, pistonStep, func(a float64) float64 { return 100 * crank.PistonFraction(a) }), th.CurveLine())
 
 	// Dead centres: front at 0 and 360, back at its own angle.
-	bx := xs.At(bdc)
-	var guide Path
-	guide.MoveTo(Point{bx, l.Plot.Min.Y})
-	guide.LineTo(Point{bx, l.Plot.Max.Y})
-	c.Stroke(guide, LineStyle{Color: th.Back, Width: 1, Dashes: []float64{3, 3}})
-	th.FrontMark(c, Point{xs.At(0), ys.At(0)})
-	th.FrontMark(c, Point{xs.At(360), ys.At(0)})
-	th.BackMark(c, Point{bx, ys.At(100)})
+	c.Stroke(ax.VLine(bdc), LineStyle{Color: th.Back, Width: 1, Dashes: []float64{3, 3}})
+	th.FrontMark(c, ax.At(0, 0))
+	th.FrontMark(c, ax.At(360, 0))
+	th.BackMark(c, ax.At(bdc, 100))
 
-	// Legend.
-	x0 := l.Legend.X
-	tx := x0 + legendLineW + 10
-	y := l.Legend.Y + legendRow/2
-	sample := func(s LineStyle) {
-		var p Path
-		p.MoveTo(Point{x0, y})
-		p.LineTo(Point{x0 + legendLineW, y})
-		c.Stroke(p, s)
-	}
-	label := func(s string) {
-		c.Text(Point{tx, y}, s, TextStyle{Color: th.Ink, Size: BodySize, VAlign: Middle})
-		y += legendRow
-	}
-	sample(th.CurveLine())
-	label("connecting rod " + mm(e.RodLength) + " mm")
-	sample(th.CompareLine())
-	label("infinitely long rod (pure cosine)")
-	th.FrontMark(c, Point{x0 + legendLineW/2, y})
-	label("front dead centre, 0°")
-	th.BackMark(c, Point{x0 + legendLineW/2, y})
-	label("back dead centre, " + deg(bdc) + "°")
+	curveLine, compareLine := th.CurveLine(), th.CompareLine()
+	DrawLegend(c, l.Legend, []LegendEntry{
+		{Line: &curveLine, Label: "connecting rod " + mm(e.RodLength) + " mm"},
+		{Line: &compareLine, Label: "infinitely long rod (pure cosine)"},
+		{Mark: th.FrontMark, Label: "front dead centre, 0°"},
+		{Mark: th.BackMark, Label: "back dead centre, " + deg(bdc) + "°"},
+	}, th)
 
 	drawLines(c, Point{l.CaptionX, l.CaptionY}, l.Caption, ink)
-}
-
-// curve samples f (per cent of stroke against crank angle in degrees)
-// every pistonStep degrees from 0 to 360 as a polyline.
-func curve(xs, ys Scale, f func(float64) float64) Path {
-	var p Path
-	for a := 0; a <= 360; a += pistonStep {
-		pt := Point{xs.At(float64(a)), ys.At(f(float64(a)))}
-		if a == 0 {
-			p.MoveTo(pt)
-		} else {
-			p.LineTo(pt)
-		}
-	}
-	return p
 }
 
 // drawLines draws lines of text downward from top-left at, one line step

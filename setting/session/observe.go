@@ -231,6 +231,33 @@ func (a *angles) crosshead(end End, dir Direction, travel float64) (deg, sigma f
 	return deg, sigma, nil
 }
 
+// CrankAngle returns the crank angle of a mark on cylinder cyl, in degrees
+// from front dead centre in the forward running direction, [0, 360), with
+// its error (one standard deviation, degrees), using the dead centre found
+// turning in dir where there is one. Without a bracketed front dead centre
+// the datum is taken as front dead centre.
+func (s *Session) CrankAngle(cyl int, m Mark, dir Direction) (deg, sigmaDeg float64, err error) {
+	a, err := s.angles(cyl)
+	if err != nil {
+		return 0, 0, err
+	}
+	deg, sigmaDeg = a.crank(m, dir)
+	return deg, sigmaDeg, nil
+}
+
+// BackDeadCentre returns the crank angle of cylinder cyl's back dead centre
+// in degrees from front dead centre: from the bracketed dead centres found
+// turning in dir (or the other way) when both are there, else from the
+// engine's geometry.
+func (s *Session) BackDeadCentre(cyl int, dir Direction) (float64, error) {
+	a, err := s.angles(cyl)
+	if err != nil {
+		return 0, err
+	}
+	deg, _ := a.atDeadCentre(Back, dir)
+	return deg, nil
+}
+
 // Observations returns every reading of cylinder cyl, all rounds, as
 // observations in file order: port marks (or laps) first in each round,
 // then dead-centre readings, sweeps, cut-offs and feeler openings.

@@ -252,3 +252,47 @@ func TestCylinderEngineOutOfRange(t *testing.T) {
 		t.Error("no error for cylinder -1")
 	}
 }
+
+func TestCrankAngleAndBackDeadCentre(t *testing.T) {
+	s := mustDecode(t, testJSON)
+	perMM := 360 / (math.Pi * 115)
+	fdcMM := (350.1+10.3+math.Pi*115)/2 - math.Pi*115
+	deg, sigma, err := s.CrankAngle(0, Mark{TyreMM, 100}, Forward)
+	if err != nil || math.Abs(deg-(100-fdcMM)*perMM) > 1e-9 || sigma <= 0 {
+		t.Errorf("CrankAngle = %v, %v, %v", deg, sigma, err)
+	}
+	bdc, err := s.BackDeadCentre(0, Forward)
+	if want := ((160.2+200.4)/2 - fdcMM) * perMM; err != nil || math.Abs(bdc-want) > 1e-9 {
+		t.Errorf("BackDeadCentre = %v, want %v (%v)", bdc, want, err)
+	}
+	// The right cylinder has no brackets: the geometry's 180 degrees.
+	if bdc, err := s.BackDeadCentre(1, Forward); err != nil || math.Abs(bdc-180) > 1e-9 {
+		t.Errorf("BackDeadCentre from geometry = %v (%v)", bdc, err)
+	}
+}
+
+// Turning a change into what the hands do. Ahrons' eccentric rod change of
+// 1/16 in (published-checks C5; E. L. Ahrons, Steam Locomotive Construction
+// and Maintenance, c. 1921, p. 104) on a 40 TPI fork end (a common model
+// thread, common practice) is 2.5 turns: 5 half-turn steps.
+func TestThreadAndSheave(t *testing.T) {
+	fork := Thread{TPI: 40, FlatsPerTurn: 2}
+	if got := fork.Turns(-MMPerInch / 16); math.Abs(got+2.5) > 1e-12 {
+		t.Errorf("1/16 in at 40 TPI = %v turns, want -2.5", got)
+	}
+	if got := fork.Flats(-MMPerInch / 16); got != -5 {
+		t.Errorf("1/16 in at 40 TPI = %d half turns, want -5", got)
+	}
+	nut := Thread{PitchMM: 0.7, FlatsPerTurn: 6}
+	if got := nut.Step(); math.Abs(got-0.7/6) > 1e-15 {
+		t.Errorf("step %v", got)
+	}
+	if got := nut.Flats(0.3); got != 3 { // 0.3 / 0.1167 = 2.57 -> 3 flats
+		t.Errorf("0.3 mm = %d flats, want 3", got)
+	}
+	// Plain geometry: an arc of 1 degree on a 30 mm sheave is pi x 30 / 360.
+	sheave := Adjustment{Kind: EccentricAngle, SheaveDiameterMM: 30}
+	if got := sheave.RimMM(1); math.Abs(got-0.261799) > 1e-6 {
+		t.Errorf("1 degree on a 30 mm sheave = %v mm round the rim, want 0.2618", got)
+	}
+}

@@ -1,6 +1,8 @@
 package session
 
 import (
+	"math"
+
 	"evenbeat/setting"
 )
 
@@ -189,6 +191,32 @@ func (t Thread) Pitch() float64 {
 		return 25.4 / t.TPI
 	}
 	return t.PitchMM
+}
+
+// Turns returns how many turns of the thread move a part by mm (signed as
+// mm).
+func (t Thread) Turns(mm float64) float64 {
+	return mm / t.Pitch()
+}
+
+// Step returns the smallest change the thread can make, in mm: the pitch
+// over the flats per turn (0.7 mm / 6 = 0.117 mm for a hex nut on an M4
+// thread).
+func (t Thread) Step() float64 {
+	return t.Pitch() / float64(t.FlatsPerTurn)
+}
+
+// Flats returns mm as a whole number of flats (steps of Step), rounded to
+// the nearest, signed as mm.
+func (t Thread) Flats(mm float64) int {
+	return int(math.Round(mm / t.Step()))
+}
+
+// RimMM returns how far a mark on the rim of the eccentric sheave moves
+// when the sheave is turned deg degrees on the axle: the arc deg x pi x
+// SheaveDiameterMM / 360, signed as deg.
+func (a Adjustment) RimMM(deg float64) float64 {
+	return deg * math.Pi * a.SheaveDiameterMM / 360
 }
 
 // Cylinder is one cylinder: its dead centres and its rounds of readings.

@@ -1,0 +1,103 @@
+package session
+
+import (
+	"bytes"
+	"errors"
+	"math"
+	"reflect"
+	"strings"
+	"testing"
+
+	"evenbeat/setting"
+)
+
+// FuzzDecode: any input gives a session or a *setting.Error, never a panic;
+// an accepted session holds no NaN or Inf, writes and reads back exactly,
+// and its observations, warnings and readiness are computed without NaN,
+// Inf or panic. Run: go test -fuzz=FuzzDecode ./setting/session
+// (add -fuzzminimizetime=5s: each run decodes and validates a whole engine,
+// so minimising a large input for the default minute stalls the search).
+func FuzzDecode(f *testing.F) {
+	f.Add([]byte(testJSON))
+	f.Add([]byte(`{"format": "evenbeat-session", "version": 2}`))
+	f.Add([]byte(`{"format": "evenbeat-session", "version": 1e400}`))
+	f.Add([]byte(`{"format": "evenbeat-session", "version": 1, "cylinders": [{"name": "x"}]}`))
+	f.Add([]byte(strings.Replace(testJSON, `"gauge_mm": 6.9`, `"gauge_mm": 1e308`, 1)))
+	f.Add([]byte(strings.Replace(testJSON, `[350.1, 10.3]`, `[99999, -99999]`, 1)))
+	f.Add([]byte(strings.Replace(testJSON, `"wheel_diameter_mm": 115`, `"wheel_diameter_mm": 1e-300`, 1)))
+	f.Add([]byte(`[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[`))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		s, err := Decode(bytes.NewReader(data))
+		if err != nil {
+			var e *setting.Error
+			if !errors.As(err, &e) || e.Message == "" {
+				t.Fatalf("error %T %q is not a *setting.Error with a message", err, err)
+			}
+			if s != nil {
+				t.Fatal("a session came back with the error")
+			}
+			return
+		}
+		if path, ok := allFinite(reflect.ValueOf(s), ""); !ok {
+			t.Fatalf("accepted a NaN or Inf at %s", path)
+		}
+		var b bytes.Buffer
+		if err := Encode(&b, s); err != nil {
+			t.Fatalf("an accepted session cannot be written: %v", err)
+		}
+		again, err := Decode(bytes.NewReader(b.Bytes()))
+		if err != nil {
+			t.Fatalf("a written session cannot be read: %v\n%s", err, b.Bytes())
+		}
+		if !reflect.DeepEqual(s, again) {
+			t.Fatalf("decode(encode(s)) != s")
+		}
+		for ci := range s.Cylinders {
+			obs, err := s.Observations(ci)
+			if err != nil {
+				var e *setting.Error
+				if !errors.As(err, &e) {
+					t.Fatalf("observations error %T %v", err, err)
+				}
+			}
+			for _, o := range obs {
+				if path, ok := allFinite(reflect.ValueOf(o), "observation"); !ok {
+					t.Fatalf("NaN or Inf in %s of %s", path, o.Field)
+				}
+			}
+			_ = s.Readiness(ci)
+		}
+		for _, w := range s.Check() {
+			if strings.Contains(w.Message, "NaN") || strings.Contains(w.Message, "Inf") {
+				t.Fatalf("warning shows NaN or Inf: %s", w)
+			}
+		}
+	})
+}
+
+// allFinite walks v and reports the first float that is NaN or Inf.
+func allFinite(v reflect.Value, path string) (string, bool) {
+	switch v.Kind() {
+	case reflect.Float32, reflect.Float64:
+		f := v.Float()
+		return path, !math.IsNaN(f) && !math.IsInf(f, 0)
+	case reflect.Pointer, reflect.Interface:
+		if v.IsNil() {
+			return "", true
+		}
+		return allFinite(v.Elem(), path)
+	case reflect.Struct:
+		for i := range v.NumField() {
+			if p, ok := allFinite(v.Field(i), path+"."+v.Type().Field(i).Name); !ok {
+				return p, false
+			}
+		}
+	case reflect.Slice, reflect.Array:
+		for i := range v.Len() {
+			if p, ok := allFinite(v.Index(i), path+"[]"); !ok {
+				return p, false
+			}
+		}
+	}
+	return "", true
+}

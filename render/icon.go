@@ -41,8 +41,9 @@ func Icon(c Canvas, size float64) {
 	c.Stroke(spokes, LineStyle{Color: steel, Width: 0.018 * s})
 	c.Fill(Circle(ctr, 0.075*s), FillStyle{Color: steel})
 
-	// Crank: a web from the boss to the pin, up and to the left.
-	a := -135 * math.Pi / 180
+	// Crank: a web from the boss to the pin, down and to the left, clear of
+	// the curve.
+	a := 135 * math.Pi / 180
 	pin := Point{ctr.X + 0.17*s*math.Cos(a), ctr.Y + 0.17*s*math.Sin(a)}
 	var crank Path
 	crank.MoveTo(ctr)

@@ -255,6 +255,22 @@ func (c Crank) CrankAngleAt(fraction float64, end CylinderEnd, dir Direction) (f
 	return math.Max(from, math.Min(to, best)), nil
 }
 
+// CrankAngleAtCrosshead returns the crank angle (degrees, in [0, 360)) at
+// which the crosshead stands at u (mm along the cylinder line, as
+// CrossheadU) on the stroke leaving the given end's dead centre when
+// running in direction dir. A position more than a micrometre outside the
+// crosshead's travel is an error naming "crosshead".
+func (c Crank) CrankAngleAtCrosshead(u float64, end CylinderEnd, dir Direction) (float64, error) {
+	if !finiteNum(u) || u < c.backU-1e-3 || u > c.frontU+1e-3 {
+		return 0, &Error{"crosshead", fmt.Sprintf("The crosshead position %g mm lies outside its travel, %.3f to %.3f mm from the axle.", u, c.backU, c.frontU)}
+	}
+	f := (c.frontU - u) / c.stroke
+	if end == Back {
+		f = 1 - f
+	}
+	return c.CrankAngleAt(f, end, dir)
+}
+
 // CrankPin returns the crank-pin centre in the cylinder-line frame (mm) at
 // crank angle thetaDeg (degrees from front dead centre, forward running).
 // For many calls on one engine use Prepare.

@@ -96,6 +96,19 @@ func TestCrankAngleAtInvertsTravel(t *testing.T) {
 	if !(b < a) {
 		t.Errorf("running backward the front stroke should come at falling crank angles: 30 %% at %g, 60 %% at %g", a, b)
 	}
+	// by crosshead position: 40 % of the stroke from the back, running forward
+	u := c.DeadCentreU(Back) + 0.4*c.Stroke()
+	th, err := c.CrankAngleAtCrosshead(u, Back, Forward)
+	if err != nil {
+		t.Fatal(err)
+	}
+	near(t, "crosshead at the angle found", c.CrossheadU(th), u, 1e-9)
+	if th < c.BackDeadCentre() {
+		t.Errorf("running forward the back stroke follows back dead centre; got %g", th)
+	}
+	if _, err := c.CrankAngleAtCrosshead(c.DeadCentreU(Front)+1, Front, Forward); err == nil {
+		t.Error("a crosshead position beyond the travel was accepted")
+	}
 	if _, err := c.CrankAngleAt(math.NaN(), Front, Forward); err == nil {
 		t.Error("NaN fraction accepted")
 	}

@@ -315,6 +315,12 @@ func (s *sampler) stepExtreme(i int, sign float64) (theta, x float64, err error)
 // to Brent's method on the motion). A curve whose spectrum does not settle
 // by spectralMax points (a kink, a jump, noise) is searched directly.
 func analyse(c Crank, v Valve, motion Motion) (*analysis, error) {
+	return analyseBy(c, v, motion, true)
+}
+
+// analyseBy is analyse, with the interpolant only when spectral is true
+// (the tests compare the two searches).
+func analyseBy(c Crank, v Valve, motion Motion, spectral bool) (*analysis, error) {
 	if err := v.Validate(); err != nil {
 		return nil, within("valve", err)
 	}
@@ -325,6 +331,9 @@ func analyse(c Crank, v Valve, motion Motion) (*analysis, error) {
 	sp, samples, err := truth.spectrum()
 	if err != nil {
 		return nil, err
+	}
+	if !spectral {
+		sp = nil
 	}
 	s := truth
 	if sp != nil {

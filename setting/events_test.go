@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"os"
+	"path/filepath"
 	"reflect"
 	"strings"
 	"testing"
@@ -387,6 +389,64 @@ func checkFinite(t *testing.T, v reflect.Value, path string) {
 	case reflect.Struct:
 		for i := range v.NumField() {
 			checkFinite(t, v.Field(i), path+"."+v.Type().Field(i).Name)
+		}
+	}
+}
+
+// The search through the interpolant and the direct search on the curve
+// agree on real gear curves: the invented test engine, and the shared demo
+// engines when present.
+func TestSpectralAgreesWithDirectSearch(t *testing.T) {
+	specs := []EngineSpec{testSingle(t)}
+	files, _ := filepath.Glob(filepath.Join("..", "testdata", "engines", "*.json"))
+	for _, f := range files {
+		r, err := os.Open(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		spec, err := DecodeEngineSpec(r)
+		r.Close()
+		if err != nil {
+			t.Logf("%s does not load, so it is left out here: %v", f, err)
+			continue
+		}
+		specs = append(specs, spec)
+	}
+	for _, spec := range specs {
+		g, err := spec.Gear.Gear()
+		if err != nil {
+			t.Fatal(err)
+		}
+		c, _ := spec.Engine.Prepare()
+		for _, n := range ReverserPositions(9) {
+			m := func(th float64) (float64, error) { return g.Valve(spec.Engine, th, n.Reverser) }
+			fast, err := analyseBy(c, spec.Valve, m, true)
+			if err != nil {
+				t.Fatal(err)
+			}
+			slow, err := analyseBy(c, spec.Valve, m, false)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, dir := range []Direction{Forward, Backward} {
+				a, _ := fast.events(dir)
+				b, _ := slow.events(dir)
+				name := fmt.Sprintf("%s %s %s", spec.Name, n.Name, dir)
+				near(t, name+" valve min", a.ValveMin, b.ValveMin, 1e-9)
+				near(t, name+" valve max", a.ValveMax, b.ValveMax, 1e-9)
+				for _, end := range []CylinderEnd{Front, Back} {
+					x, y := a.End(end), b.End(end)
+					if x.NeverOpens != y.NeverOpens || x.SteamOpenings != y.SteamOpenings || x.ExhaustOpenings != y.ExhaustOpenings {
+						t.Errorf("%s %s: openings differ: %+v / %+v", name, end, x, y)
+						continue
+					}
+					for i, p := range [][2]Event{{x.Admission, y.Admission}, {x.CutOff, y.CutOff}, {x.Release, y.Release}, {x.Compression, y.Compression}} {
+						near(t, fmt.Sprintf("%s %s event %d", name, end, i), wrap180(p[0].CrankDeg-p[1].CrankDeg), 0, 1e-7)
+					}
+					near(t, name+" lead", x.Lead, y.Lead, 0)
+					near(t, name+" max opening", x.MaxOpening, y.MaxOpening, 1e-9)
+				}
+			}
 		}
 	}
 }

@@ -345,12 +345,13 @@ func TestEventsErrors(t *testing.T) {
 // FuzzEvents: any finite harmonic motion and laps give events without a
 // panic, NaN or Inf, and with angles and percentages in range.
 func FuzzEvents(f *testing.F) {
-	f.Add(10.0, 25.0, 1.0, 3.0, 0.5, 4.0, 0.0, 0.0, 0.0)
-	f.Add(0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
-	f.Add(5.0, 0.0, 5.0, 90.0, 5.0, 5.0, -5.0, 20.0, 1.0)
-	f.Add(1e6, 3.0, 1e5, 7.0, 33.0, 1e5, 2.0, -30.0, 100.0)
-	f.Fuzz(func(t *testing.T, a1, p1, a2, p2, a7, lap, exLap, offset, bias float64) {
-		for _, x := range []float64{a1, p1, a2, p2, a7, lap, exLap, offset, bias} {
+	f.Add(10.0, 25.0, 1.0, 3.0, 0.5, 4.0, 0.0, 0.0, 0.0, 0.0)
+	f.Add(0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
+	f.Add(5.0, 0.0, 5.0, 90.0, 5.0, 5.0, -5.0, 20.0, 1.0, 0.0)
+	f.Add(1e6, 3.0, 1e5, 7.0, 33.0, 1e5, 2.0, -30.0, 100.0, 0.0)
+	f.Add(8.0, 20.0, 0.0, 0.0, 0.0, 5.0, 1.0, 0.0, 0.0, 3.0)
+	f.Fuzz(func(t *testing.T, a1, p1, a2, p2, a7, lap, exLap, offset, bias, kink float64) {
+		for _, x := range []float64{a1, p1, a2, p2, a7, lap, exLap, offset, bias, kink} {
 			if !finiteNum(x) || math.Abs(x) > 1e9 {
 				return
 			}
@@ -358,7 +359,9 @@ func FuzzEvents(f *testing.F) {
 		e := Engine{CrankRadius: 30, RodLength: 180, Offset: math.Mod(offset, 140)}
 		v := Valve{Admission: Internal, Front: End{SteamLap: lap, ExhaustLap: exLap, PortWidth: 3}, Back: End{SteamLap: exLap, ExhaustLap: lap, PortWidth: 3}}
 		m := func(t float64) (float64, error) {
-			return a1*sinDeg(t+p1) + a2*sinDeg(2*t+p2) + a7*sinDeg(7*t) + bias, nil
+			// kink: a rectified term whose spectrum never settles, so that the
+			// direct search is fuzzed too
+			return a1*sinDeg(t+p1) + a2*sinDeg(2*t+p2) + a7*sinDeg(7*t) + bias + kink*math.Abs(sinDeg(t)), nil
 		}
 		for _, dir := range []Direction{Forward, Backward} {
 			s, err := Events(e, v, m, dir)

@@ -82,8 +82,12 @@ func CautionsHeight(width float64) float64 {
 // Cautions draws the first-run cautions card (setting.Cautions, wrapped to
 // the box) with a large acknowledge button at the bottom, and returns the
 // button's rectangle for hit testing (ButtonHeight tall, the card's inner
-// width).
+// width). A box that is empty or not finite draws nothing and returns the
+// zero Rect, which no tap falls in.
 func Cautions(c Canvas, box Rect, th Theme) (ack Rect) {
+	if !usable(box) {
+		return Rect{}
+	}
 	l := LayoutCautions(box, setting.Cautions())
 	c.Fill(RoundRect(box, cardRadius), FillStyle{Color: th.Surface})
 	// The border is stroked inside the box: half its width in from the edge.

@@ -242,3 +242,28 @@ func TestImportsStayNative(t *testing.T) {
 		}
 	}
 }
+
+// Boxes a caller should never pass draw nothing rather than NaN.
+func TestDiagramsIgnoreUnusableBoxes(t *testing.T) {
+	nan := math.NaN()
+	for _, box := range []render.Rect{
+		{},
+		{Min: render.Point{X: 100, Y: 100}, Max: render.Point{X: 50, Y: 300}},
+		{Max: render.Point{X: nan, Y: 300}},
+		{Max: render.Point{X: math.Inf(1), Y: 300}},
+	} {
+		c := recorder.New(390, 844)
+		render.PistonCurve(c, testEngine, box, render.Light())
+		ack := render.Cautions(c, box, render.Light())
+		if len(c.Ops()) != 0 || ack != (render.Rect{}) {
+			t.Errorf("box %v: drew %d calls, button %v; want nothing", box, len(c.Ops()), ack)
+		}
+	}
+	// Tiny but valid boxes overflow rather than produce NaN.
+	c := recorder.New(390, 844)
+	render.PistonCurve(c, testEngine, render.Rect{Max: render.Point{X: 5, Y: 5}}, render.Light())
+	render.Cautions(c, render.Rect{Max: render.Point{X: 5, Y: 5}}, render.Light())
+	if s := c.String(); strings.Contains(s, "NaN") || strings.Contains(s, "Inf") {
+		t.Error("NaN or Inf drawn for a tiny box")
+	}
+}

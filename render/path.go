@@ -100,3 +100,9 @@ func (r Rect) ContainsRect(s Rect) bool {
 func (r Rect) Overlaps(s Rect) bool {
 	return r.Min.X < s.Max.X && s.Min.X < r.Max.X && r.Min.Y < s.Max.Y && s.Min.Y < r.Max.Y
 }
+
+// usable reports whether a diagram can be laid out in r: finite corners and
+// a positive width and height. Diagrams given anything else draw nothing.
+func usable(r Rect) bool {
+	return finite(r.Min) && finite(r.Max) && r.W() > 0 && r.H() > 0
+}

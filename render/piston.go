@@ -110,9 +110,12 @@ func LayoutPiston(box Rect, title, sub, caption string) PistonLayout {
 // angularity shows, both dead centres marked (front: round marker, back:
 // square), axes with round ticks, and a title with the engine's figures.
 // An engine that fails Validate gets the card with the validation message
-// in place of the plot. The curves use setting.Engine.Prepare's exact
+// in place of the plot. A box that is empty or not finite draws nothing. The curves use setting.Engine.Prepare's exact
 // slider-crank.
 func PistonCurve(c Canvas, e setting.Engine, box Rect, th Theme) {
+	if !usable(box) {
+		return
+	}
 	c.Fill(RoundRect(box, cardRadius), FillStyle{Color: th.Surface})
 	const title = "Piston position against crank angle"
 	crank, err := e.Prepare()

@@ -214,6 +214,9 @@ func Wrap(text string, width, size float64, bold bool) []string {
 			}
 			for toSize(wr.units, f, size) > width {
 				head, tail := splitToWidth(w, width, size, bold)
+				if tail == "" {
+					break // one letter wider than width: it keeps its own line
+				}
 				lines = append(lines, head)
 				w, wr = tail, measure(f, tail)
 			}

@@ -114,6 +114,14 @@ func TestWrap(t *testing.T) {
 			t.Errorf("long word: line %q too wide", ln)
 		}
 	}
+	// Regression: a width narrower than one letter (a tiny box) once sliced
+	// past the end of a word; each letter now takes its own line.
+	if got := Wrap("ab c", -1, 14, false); strings.Join(got, "|") != "a|b|c" {
+		t.Errorf("negative width: got %q", got)
+	}
+	if got := Wrap("ab c", math.NaN(), 14, false); len(got) == 0 {
+		t.Errorf("NaN width: got %q", got)
+	}
 	if got := Wrap("", 100, 14, false); len(got) != 1 || got[0] != "" {
 		t.Errorf("empty text: got %q", got)
 	}

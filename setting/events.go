@@ -774,6 +774,21 @@ func (ec edgeCrossings) intervals() []interval {
 	return out
 }
 
+// period returns the number of open periods of an edge in a turn, whether
+// it never opens or never closes, and otherwise the time-ordered opening
+// and closing angles of the period chosen for theta (see choose).
+func (ec edgeCrossings) period(theta float64, dir Direction) (count int, never, always bool, opens, closes float64) {
+	if ec.allOpen {
+		return 1, false, true, 0, 0
+	}
+	ivs := ec.intervals()
+	if len(ivs) == 0 {
+		return 0, true, false, 0, 0
+	}
+	opens, closes = choose(ivs, theta, dir)
+	return len(ivs), false, false, opens, closes
+}
+
 // mod360 maps an angle into [0, 360).
 func mod360(t float64) float64 {
 	t = math.Mod(t, 360)
@@ -841,16 +856,9 @@ func (a *analysis) events(dir Direction) (EventSet, error) {
 		other := a.crank.DeadCentre(1 - end)
 		p := a.valve.End(end)
 
-		st := a.steam[end]
-		ivs := st.intervals()
-		ev.SteamOpenings = len(ivs)
-		switch {
-		case st.allOpen:
-			ev.NeverCloses, ev.SteamOpenings = true, 1
-		case len(ivs) == 0:
-			ev.NeverOpens = true
-		default:
-			opens, closes := choose(ivs, dc, dir)
+		var opens, closes float64
+		ev.SteamOpenings, ev.NeverOpens, ev.NeverCloses, opens, closes = a.steam[end].period(dc, dir)
+		if ev.SteamOpenings > 0 && !ev.NeverCloses {
 			ev.Admission, ev.CutOff = a.event(end, opens), a.event(end, closes)
 			ev.LeadAngle = wrap180(float64(dir) * (dc - opens))
 		}
@@ -858,17 +866,8 @@ func (a *analysis) events(dir Direction) (EventSet, error) {
 			ev.MaxOpening = p.clamp(a.valve.SteamEdge(end, a.extremeToward(end, true)))
 			ev.MaxOpeningArea = a.valve.PortArea(end, ev.MaxOpening)
 		}
-
-		ex := a.exhaust[end]
-		ivs = ex.intervals()
-		ev.ExhaustOpenings = len(ivs)
-		switch {
-		case ex.allOpen:
-			ev.ExhaustNeverCloses, ev.ExhaustOpenings = true, 1
-		case len(ivs) == 0:
-			ev.ExhaustNeverOpens = true
-		default:
-			opens, closes := choose(ivs, other, dir)
+		ev.ExhaustOpenings, ev.ExhaustNeverOpens, ev.ExhaustNeverCloses, opens, closes = a.exhaust[end].period(other, dir)
+		if ev.ExhaustOpenings > 0 && !ev.ExhaustNeverCloses {
 			ev.Release, ev.Compression = a.event(end, opens), a.event(end, closes)
 		}
 		if !ev.ExhaustNeverOpens {

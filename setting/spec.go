@@ -188,31 +188,38 @@ func (s EngineSpec) Validate() error {
 	if a, ok := gearAdmission(gear); ok && a != s.Valve.Admission {
 		return &Error{"gear." + key, fmt.Sprintf("The gear is laid out for %s admission but the valve has %s admission; they must agree.", a, s.Valve.Admission)}
 	}
-	names := map[string]bool{}
+	names := make([]string, len(s.Notches))
 	for i, n := range s.Notches {
-		path := fmt.Sprintf("notches[%d]", i)
-		switch {
-		case strings.TrimSpace(n.Name) == "":
-			return &Error{path + ".name", "Every notch needs a name."}
-		case names[n.Name]:
-			return &Error{path + ".name", fmt.Sprintf("Two notches are called %q; give each its own name.", n.Name)}
-		case !(n.Reverser >= -1 && n.Reverser <= 1):
-			return &Error{path + ".reverser", fmt.Sprintf("The notch %q must lie between -1 (full back) and +1 (full forward) (got %g).", n.Name, float64(n.Reverser))}
+		names[i] = n.Name
+		if !(n.Reverser >= -1 && n.Reverser <= 1) {
+			return &Error{fmt.Sprintf("notches[%d].reverser", i), fmt.Sprintf("The notch %q must lie between -1 (full back) and +1 (full forward) (got %g).", n.Name, float64(n.Reverser))}
 		}
-		names[n.Name] = true
 	}
-	names = map[string]bool{}
+	if err := checkNames("notches", "notch", names); err != nil {
+		return err
+	}
+	names = make([]string, len(s.Cylinders))
 	for i, c := range s.Cylinders {
-		path := fmt.Sprintf("cylinders[%d]", i)
-		switch {
-		case strings.TrimSpace(c.Name) == "":
-			return &Error{path + ".name", "Every cylinder needs a name (\"left\", \"right\")."}
-		case names[c.Name]:
-			return &Error{path + ".name", fmt.Sprintf("Two cylinders are called %q; give each its own name.", c.Name)}
-		case !(math.Abs(c.CrankAngle) <= 360):
-			return &Error{path + ".crank_angle", fmt.Sprintf("The crank angle of cylinder %q must lie between -360 and 360 degrees (got %g).", c.Name, c.CrankAngle)}
+		names[i] = c.Name
+		if !(math.Abs(c.CrankAngle) <= 360) {
+			return &Error{fmt.Sprintf("cylinders[%d].crank_angle", i), fmt.Sprintf("The crank angle of cylinder %q must lie between -360 and 360 degrees (got %g).", c.Name, c.CrankAngle)}
 		}
-		names[c.Name] = true
+	}
+	return checkNames("cylinders", "cylinder", names)
+}
+
+// checkNames checks that every entry of a list has a name of its own.
+func checkNames(list, what string, names []string) error {
+	seen := map[string]bool{}
+	for i, n := range names {
+		path := fmt.Sprintf("%s[%d].name", list, i)
+		if strings.TrimSpace(n) == "" {
+			return &Error{path, fmt.Sprintf("Every %s needs a name.", what)}
+		}
+		if seen[n] {
+			return &Error{path, fmt.Sprintf("Two entries of %s are called %q; give each its own name.", list, n)}
+		}
+		seen[n] = true
 	}
 	return nil
 }

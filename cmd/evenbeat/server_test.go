@@ -4,6 +4,8 @@ import (
 	"bytes"
 	"compress/gzip"
 	"encoding/json"
+	"fmt"
+	"image/color"
 	"io"
 	"net/http"
 	"net/http/httptest"
@@ -13,6 +15,7 @@ import (
 	"testing"
 	"testing/fstest"
 
+	"evenbeat/render"
 	"evenbeat/site"
 )
 
@@ -100,6 +103,16 @@ func TestRealSiteFiles(t *testing.T) {
 		if !strings.Contains(index, want) {
 			t.Errorf("index.html lacks %s", want)
 		}
+	}
+	// The page shows the theme's colours before the first frame.
+	hex := func(c color.RGBA) string { return fmt.Sprintf("#%02x%02x%02x", c.R, c.G, c.B) }
+	for _, want := range []string{hex(render.Light().Background), hex(render.Light().Ink), hex(render.Dark().Background), hex(render.Dark().Ink)} {
+		if !strings.Contains(index, want) {
+			t.Errorf("index.html lacks the theme colour %s", want)
+		}
+	}
+	if !strings.Contains(string(b.Assets["manifest.webmanifest"].Data), hex(render.Light().Background)) {
+		t.Error("the manifest's background is not the light theme's")
 	}
 	if strings.Contains(string(b.Assets["sw.js"].Data), `"./index.html"`) {
 		t.Error("sw.js caches ./index.html")

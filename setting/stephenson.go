@@ -194,7 +194,7 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 	p.centre, p.sin, p.cos = centre, sa, ca
 	p.fwdPin, p.backPin, p.suspension = place(fLocal), place(bLocal), place(sLocal)
 	if !ok || !p.fwdPin.Finite() || p.fwdPin.U < p.fwdSheave.U || p.backPin.U < p.backSheave.U || (p.suspension.W-p.armPin.W)*hang < 0 {
-		return p, closeError("lifting_link", "The eccentric rods and lifting link cannot hold the expansion link", thetaDeg)
+		return p, g.misfit(p, r, fLocal, bLocal, sLocal, thetaDeg)
 	}
 	var found bool
 	p.die, found = circleLine(place(Point{-g.Link.Radius, 0}), g.Link.Radius, Point{0, g.Guide}, Point{1, 0}, 1)
@@ -217,6 +217,32 @@ func loopRow(centre Point, ca, sa, ica float64, local, anchor Point, length floa
 	rq := Point{local.U*ca - local.W*sa, local.U*sa + local.W*ca}
 	d := centre.Add(rq).Sub(anchor)
 	return [3]float64{d.U, d.W, d.Dot(rq.Left()) * ica}, (d.Dot(d) - length*length) / 2
+}
+
+// misfit names the link that stops the expansion link being placed: of
+// the two eccentric rods and the lifting link, the one whose length is
+// furthest, as a fraction, from the distance it must span with the link
+// upright where the reverser wants it (its middle at the valve's central
+// position, the die at r times half the pin spacing toward the forward
+// rod's end).
+func (g *Stephenson) misfit(p stephensonPose, r Reverser, fLocal, bLocal, sLocal Point, thetaDeg float64) error {
+	centre := Point{g.ValveCentreU, g.Guide - float64(r)*fLocal.W}
+	links := []struct {
+		field, what string
+		length      float64
+		from, pin   Point
+	}{
+		{"forward.rod", "The forward eccentric rod cannot reach the expansion link", g.Forward.Rod, p.fwdSheave, fLocal},
+		{"backward.rod", "The backward eccentric rod cannot reach the expansion link", g.Backward.Rod, p.backSheave, bLocal},
+		{"lifting_link", "The lifting link cannot hold the expansion link where the eccentric rods put it", g.LiftingLink, p.armPin, sLocal},
+	}
+	worst, most := 0, -1.0
+	for i, l := range links {
+		if m := math.Abs(centre.Add(l.pin).Sub(l.from).Len()-l.length) / l.length; m > most {
+			worst, most = i, m
+		}
+	}
+	return closeError(links[worst].field, links[worst].what, thetaDeg)
 }
 
 // solve3 solves the 3x3 system a x = b by cofactors.

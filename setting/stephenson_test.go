@@ -156,6 +156,8 @@ func TestStephensonErrorsNameTheField(t *testing.T) {
 		{"weighshaft NaN", "weighshaft", func(g *Stephenson) { g.Weighshaft.U = math.NaN() }},
 		{"die behind the axle", "valve_centre_u", func(g *Stephenson) { g.ValveCentreU = -5 }},
 		{"lifting link far too long", "lifting_link", func(g *Stephenson) { g.LiftingLink = 400 }},
+		{"forward rod far too long", "forward.rod", func(g *Stephenson) { g.Forward.Rod = 250 }},
+		{"backward rod far too short", "backward.rod", func(g *Stephenson) { g.Backward.Rod = 40 }},
 	} {
 		g := good
 		c.change(&g)
@@ -164,7 +166,7 @@ func TestStephensonErrorsNameTheField(t *testing.T) {
 	g := good
 	g.LiftingLink = 400
 	_, err := g.Valve(e, 212, 0)
-	wantFieldError(t, "long lifting link, Valve", err, "lifting_link", "cannot hold the expansion link", "crank angle 212 deg")
+	wantFieldError(t, "long lifting link, Valve", err, "lifting_link", "The lifting link cannot hold the expansion link", "crank angle 212 deg")
 	g = good
 	g.Link.Radius, g.Guide = 20, 30
 	_, err = g.Valve(e, 30, 0)

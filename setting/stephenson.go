@@ -43,14 +43,18 @@ func (l ExpansionLink) pin(side float64) Point {
 // tilted less than about 64 degrees, and the lifting link runs from the arm
 // pin toward the side of the weighshaft the link is on (down when the
 // weighshaft is above the link); each call solves the link's three loop
-// equations by Newton's method from the upright position, so no state is
-// carried between calls.
+// equations by Newton's method from the link upright, corrected once for
+// the lifting link's slant, so no state is carried between calls. The die
+// must stay within a fifth of the pin spacing beyond the rod pins.
+//
+// The valve rod is driven direct (no rocker); a rocker gear would add it
+// as SingleEccentric does.
 type Stephenson struct {
-	Forward      Eccentric     `json:"forward"`   // the eccentric and rod for forward running
-	Backward     Eccentric     `json:"backward"`  // the eccentric and rod for back running
-	Crossed      bool          `json:"crossed"`   // rods crossed; false for open rods
-	Admission    Admission     `json:"admission"` // the valve's admission, which sets where the sheaves sit; must agree with the valve
-	Link         ExpansionLink `json:"link"`
+	Forward      Eccentric     `json:"forward"`        // the eccentric and rod for forward running
+	Backward     Eccentric     `json:"backward"`       // the eccentric and rod for back running
+	Crossed      bool          `json:"crossed"`        // rods crossed; false for open rods
+	Admission    Admission     `json:"admission"`      // the valve's admission, which sets where the sheaves sit; must agree with the valve
+	Link         ExpansionLink `json:"link"`           // the expansion link
 	Weighshaft   Point         `json:"weighshaft"`     // mm, weighshaft centre
 	ReverseArm   float64       `json:"reverse_arm"`    // mm, weighshaft centre to the lifting-link pin
 	MidArmAngle  float64       `json:"mid_arm_angle"`  // degrees anticlockwise from +U (forward) of the reverse arm in mid gear

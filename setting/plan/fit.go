@@ -476,10 +476,20 @@ func (pb *problem) solve(p0 [numParams]float64) ([numParams]float64, error) {
 			}
 			cq := pb.cost(q, trial)
 			if cq < c {
-				small := true
-				for a, j := range pb.idx {
-					if math.Abs(d[a]) > 1e-7*math.Max(1, pb.prior[j]) {
-						small = false
+				// Converged when the step is a thousandth of what the
+				// readings can tell, or the cost has stopped falling.
+				small := c-cq < 1e-6*c
+				for a := range pb.idx {
+					if math.Abs(d[a]) > 1e-3/math.Sqrt(A.at(a, a)) {
+						small = small || false
+					}
+				}
+				if !small {
+					small = true
+					for a := range pb.idx {
+						if math.Abs(d[a]) > 1e-3/math.Sqrt(A.at(a, a)) {
+							small = false
+						}
 					}
 				}
 				p, c = q, cq

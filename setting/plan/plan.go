@@ -152,7 +152,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 		return nil, &setting.Error{Field: "adjustments", Message: "The engine's profile allows no adjustment the planner can use: list at least the valve on its spindle."}
 	}
 	ps := positions(spec, opt)
-	ev := &evaluator{spec: spec, crank: crank, ps: ps}
+	ev := newEvaluator(spec, crank, ps)
 	p := fit.Model.Dev.vec()
 	canLead := false
 	for _, k := range ks {
@@ -219,15 +219,23 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 // designLeads returns the drawing's mean lead in each position and which
 // positions are full gear.
 func designLeads(ev *evaluator, ps []position) ([]float64, []bool, error) {
-	qs, err := ev.events([numParams]float64{}, false)
+	g, err := Model{Spec: ev.spec}.Gear()
 	if err != nil {
-		return nil, nil, &setting.Error{Field: "engine.gear", Message: "The events of the gear as drawn cannot be found: " + err.Error()}
+		return nil, nil, err
 	}
-	design := make([]float64, len(qs))
-	full := make([]bool, len(qs))
+	design := make([]float64, len(ps))
+	full := make([]bool, len(ps))
 	anyFull := false
-	for i, q := range qs {
-		design[i] = (q.lead[0] + q.lead[1]) / 2
+	for i := range ps {
+		var lead [2]float64
+		for k, th := range []float64{0, ev.crank.BackDeadCentre()} {
+			x, err := g.Valve(ev.spec.Engine, th, ps[i].notch.Reverser)
+			if err != nil {
+				return nil, nil, &setting.Error{Field: "engine.gear", Message: "The gear as drawn cannot close at a dead centre: " + err.Error()}
+			}
+			lead[k] = ev.spec.Valve.SteamEdge(setting.CylinderEnd(k), x)
+		}
+		design[i] = (lead[0] + lead[1]) / 2
 		full[i] = math.Abs(float64(ps[i].notch.Reverser)) == 1
 		anyFull = anyFull || full[i]
 	}
@@ -248,11 +256,11 @@ type planned struct {
 // plan solves, rounds and describes one priority.
 func (ev *evaluator) plan(p [numParams]float64, ks []knob, obj objective, canLead bool, fit *Fit) (*planned, error) {
 	ts := obj.terms(len(ev.ps), canLead)
-	ideal, _, err := ev.optimise(p, ks, ts)
+	ideal, qIdeal, err := ev.optimise(p, ks, ts)
 	if err != nil {
 		return nil, &setting.Error{Field: "engine.gear", Message: "The events cannot be found for the fitted gear: " + err.Error()}
 	}
-	rounded, qAft, err := ev.roundPlan(p, ks, ts, ideal)
+	rounded, qAft, err := ev.roundPlan(p, ks, ts, ideal, qIdeal)
 	if err != nil {
 		return nil, err
 	}

@@ -187,10 +187,215 @@ func handStep(a session.Adjustment) float64 {
 }
 
 // evaluator works out events and their gradients on a model.
+//
+// The optimiser and the rounding work on sampled curves (see curve): the
+// fitted gear's valve curve in each position and, per knob, the curve of
+// its effect, combined linearly; only the final prediction of the rounded
+// plan samples the linkage afresh.
 type evaluator struct {
 	spec  setting.EngineSpec
 	crank setting.Crank
 	ps    []position
+	tr    *trig
+	base  []curve   // per position, at the fitted deviations
+	sens  [][]curve // per position, per knob: d(curve)/d(knob); nil for the spindle
+	kEdge [2]float64
+}
+
+// newEvaluator prepares an evaluator for an engine and positions.
+func newEvaluator(spec setting.EngineSpec, crank setting.Crank, ps []position) *evaluator {
+	ev := &evaluator{spec: spec, crank: crank, ps: ps, tr: newTrig(curveSamples)}
+	for k := 0; k < 2; k++ {
+		end := setting.CylinderEnd(k)
+		ev.kEdge[k] = spec.Valve.SteamEdge(end, 1) - spec.Valve.SteamEdge(end, 0)
+	}
+	return ev
+}
+
+// curvesAt samples the valve curve (valve offset included) of every
+// position at deviations p.
+func (ev *evaluator) curvesAt(p [numParams]float64) ([]curve, error) {
+	g, err := Model{ev.spec, devOf(p)}.Gear()
+	if err != nil {
+		return nil, err
+	}
+	out := make([]curve, len(ev.ps))
+	for i, pos := range ev.ps {
+		r := pos.notch.Reverser
+		c, err := ev.tr.sample(func(th float64) (float64, error) {
+			x, err := g.Valve(ev.spec.Engine, th, r)
+			return x + p[pValveOffset], err
+		})
+		if err != nil {
+			return nil, fmt.Errorf("%s: %w", pos.name(), err)
+		}
+		out[i] = c
+	}
+	return out, nil
+}
+
+// setKnobs samples the curves at p and each knob's effect on them.
+func (ev *evaluator) setKnobs(p [numParams]float64, ks []knob) error {
+	base, err := ev.curvesAt(p)
+	if err != nil {
+		return err
+	}
+	ev.base = base
+	ev.sens = make([][]curve, len(ev.ps))
+	for i := range ev.ps {
+		ev.sens[i] = make([]curve, len(ks))
+	}
+	for k, kb := range ks {
+		if kb.p == pValveOffset {
+			continue
+		}
+		// A secant over a tenth of a typical change keeps the linear
+		// model good across the changes a plan makes.
+		h := 0.1 * kb.scale
+		q := p
+		q[kb.p] += h
+		cs, err := ev.curvesAt(q)
+		if err != nil {
+			q[kb.p] = p[kb.p] - h
+			if cs, err = ev.curvesAt(q); err != nil {
+				return err
+			}
+			h = -h
+		}
+		for i := range ev.ps {
+			d := make(curve, len(cs[i]))
+			for j := range d {
+				d[j] = (cs[i][j] - base[i][j]) / h
+			}
+			ev.sens[i][k] = d
+		}
+	}
+	return nil
+}
+
+// surrogate returns the curves with knob changes a.
+func (ev *evaluator) surrogate(ks []knob, a []float64) []curve {
+	out := make([]curve, len(ev.ps))
+	for i := range ev.ps {
+		shift := 0.0
+		for k, kb := range ks {
+			if kb.p == pValveOffset {
+				shift += a[k]
+			}
+		}
+		out[i] = combine(ev.base[i], ev.sens[i], a, shift)
+	}
+	return out
+}
+
+// quick updates leads and cut-offs for new curves from the events of
+// nearby curves prev: each lead is the steam edge at its dead centre, each
+// cut-off the root of the steam edge found by Newton's method from the old
+// cut-off angle. Where a cut-off is undefined or Newton's method fails it
+// falls back to the full event search.
+func (ev *evaluator) quick(cs []curve, prev []quantities, ks []knob) ([]quantities, error) {
+	out := make([]quantities, len(ev.ps))
+	for i := range ev.ps {
+		q := prev[i]
+		ok := q.cutOK
+		for k := 0; k < 2 && ok; k++ {
+			end := setting.CylinderEnd(k)
+			x, _ := cs[i].at(q.leadTheta[k])
+			q.lead[k] = ev.spec.Valve.SteamEdge(end, x)
+			th := q.cutTheta[k]
+			conv := false
+			for it := 0; it < 12; it++ {
+				x, dx := cs[i].at(th)
+				f := ev.spec.Valve.SteamEdge(end, x)
+				fd := ev.kEdge[k] * dx
+				if fd == 0 {
+					break
+				}
+				step := f / fd
+				if math.Abs(step) > 20 {
+					break
+				}
+				th -= step
+				if math.Abs(step) < 1e-9 {
+					conv = true
+					break
+				}
+			}
+			if !conv || math.Abs(th-q.cutTheta[k]) > 30 {
+				ok = false
+				break
+			}
+			q.cutTheta[k] = wrap360(th)
+			q.cut[k] = 100 * ev.crank.TravelFrom(end, q.cutTheta[k])
+		}
+		if !ok {
+			full, err := ev.eventsOf([]curve{cs[i]}, nil, i)
+			if err != nil {
+				return nil, err
+			}
+			q = full[0]
+		}
+		ev.knobGrad(&q, cs[i], i, ks)
+		out[i] = q
+	}
+	return out, nil
+}
+
+// eventsOf finds the events of every position on the given curves; with
+// ks it also fills the knobs' gradients from their effect curves.
+func (ev *evaluator) eventsOf(cs []curve, ks []knob, only ...int) ([]quantities, error) {
+	out := make([]quantities, len(cs))
+	for ci := range cs {
+		i := ci
+		if len(only) > 0 {
+			i = only[0]
+		}
+		pos := ev.ps[i]
+		set, err := setting.Events(ev.spec.Engine, ev.spec.Valve, cs[ci].motion(), pos.dir)
+		if err != nil {
+			return nil, fmt.Errorf("%s: %w", pos.name(), err)
+		}
+		q := quantities{ev: set}
+		q.lead = [2]float64{set.Front.Lead, set.Back.Lead}
+		q.cut = [2]float64{cutPercent(set.Front), cutPercent(set.Back)}
+		q.cutOK = !set.Front.NeverOpens && !set.Front.NeverCloses && !set.Back.NeverOpens && !set.Back.NeverCloses
+		q.leadTheta = [2]float64{0, ev.crank.BackDeadCentre()}
+		q.cutTheta = [2]float64{set.Front.CutOff.CrankDeg, set.Back.CutOff.CrankDeg}
+		ev.knobGrad(&q, cs[ci], i, ks)
+		out[ci] = q
+	}
+	return out, nil
+}
+
+// knobGrad fills the knobs' gradients of position i's quantities from
+// their effect curves.
+func (ev *evaluator) knobGrad(q *quantities, c curve, i int, ks []knob) {
+	if ks == nil {
+		return
+	}
+	var slope, dpct [2]float64
+	const ht = 1e-3
+	for k := 0; k < 2; k++ {
+		_, slope[k] = c.at(q.cutTheta[k])
+		end := setting.CylinderEnd(k)
+		dpct[k] = 100 * (ev.crank.TravelFrom(end, q.cutTheta[k]+ht) - ev.crank.TravelFrom(end, q.cutTheta[k]-ht)) / (2 * ht)
+	}
+	for kk, kb := range ks {
+		var dx [4]float64
+		if kb.p == pValveOffset {
+			dx = [4]float64{1, 1, 1, 1}
+		} else {
+			d := ev.sens[i][kk]
+			dx = [4]float64{d.value(q.leadTheta[0]), d.value(q.leadTheta[1]), d.value(q.cutTheta[0]), d.value(q.cutTheta[1])}
+		}
+		q.grad[0][kb.p] = ev.kEdge[0] * dx[0]
+		q.grad[1][kb.p] = ev.kEdge[1] * dx[1]
+		for k := 0; k < 2; k++ {
+			if q.cutOK && slope[k] != 0 {
+				q.grad[2+k][kb.p] = -dx[2+k] / slope[k] * dpct[k]
+			}
+		}
+	}
 }
 
 // quantities are the four numbers a plan balances per position.
@@ -205,35 +410,24 @@ type quantities struct {
 }
 
 // events computes the events of every position at p.
+// It samples the linkage afresh at p; with withGrad the gradients with
+// respect to every deviation come from the exact linkage at the event
+// angles.
 func (ev *evaluator) events(p [numParams]float64, withGrad bool) ([]quantities, error) {
-	m := Model{ev.spec, devOf(p)}
-	g, err := m.Gear()
+	cs, err := ev.curvesAt(p)
 	if err != nil {
 		return nil, err
 	}
-	out := make([]quantities, len(ev.ps))
-	for i, pos := range ev.ps {
-		r := pos.notch.Reverser
-		motion := func(th float64) (float64, error) {
-			x, err := g.Valve(ev.spec.Engine, th, r)
-			return x + p[pValveOffset], err
-		}
-		set, err := setting.Events(ev.spec.Engine, ev.spec.Valve, motion, pos.dir)
-		if err != nil {
-			return nil, fmt.Errorf("%s: %w", pos.name(), err)
-		}
-		q := quantities{ev: set}
-		q.lead = [2]float64{set.Front.Lead, set.Back.Lead}
-		q.cut = [2]float64{cutPercent(set.Front), cutPercent(set.Back)}
-		q.cutOK = !set.Front.NeverOpens && !set.Front.NeverCloses && !set.Back.NeverOpens && !set.Back.NeverCloses
-		q.leadTheta = [2]float64{0, ev.crank.BackDeadCentre()}
-		q.cutTheta = [2]float64{set.Front.CutOff.CrankDeg, set.Back.CutOff.CrankDeg}
-		if withGrad {
-			if err := ev.gradients(p, r, &q); err != nil {
+	out, err := ev.eventsOf(cs, nil)
+	if err != nil {
+		return nil, err
+	}
+	if withGrad {
+		for i := range out {
+			if err := ev.gradients(p, ev.ps[i].notch.Reverser, &out[i]); err != nil {
 				return nil, err
 			}
 		}
-		out[i] = q
 	}
 	return out, nil
 }
@@ -413,14 +607,10 @@ func sumSquares(ts []term, q []quantities) float64 {
 func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term) ([]float64, []quantities, error) {
 	n := len(ks)
 	a := make([]float64, n)
-	apply := func(a []float64) [numParams]float64 {
-		q := p
-		for i, k := range ks {
-			q[k.p] += a[i]
-		}
-		return q
+	if err := ev.setKnobs(p, ks); err != nil {
+		return nil, nil, err
 	}
-	qs, err := ev.events(p, true)
+	qs, err := ev.eventsOf(ev.base, ks)
 	if err != nil {
 		return nil, nil, err
 	}
@@ -491,7 +681,7 @@ func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term) ([]flo
 			for i, k := range ks {
 				b[i] = math.Max(k.adj.Min, math.Min(k.adj.Max, a[i]+d[i]))
 			}
-			q2, err := ev.events(apply(b), true)
+			q2, err := ev.quick(ev.surrogate(ks, b), qs, ks)
 			if err == nil {
 				if c2 := cost(b, q2); c2 < c {
 					small := true
@@ -525,15 +715,8 @@ func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term) ([]flo
 // exact events score best; no change at all is among the candidates, so
 // the rounded plan never leaves the engine worse than it is by the plan's
 // own measure.
-func (ev *evaluator) roundPlan(p [numParams]float64, ks []knob, ts []term, ideal []float64) ([]float64, []quantities, error) {
+func (ev *evaluator) roundPlan(p [numParams]float64, ks []knob, ts []term, ideal []float64, qIdeal []quantities) ([]float64, []quantities, error) {
 	n := len(ks)
-	apply := func(a []float64) [numParams]float64 {
-		q := p
-		for i, k := range ks {
-			q[k.p] += a[i]
-		}
-		return q
-	}
 	lo := make([]float64, n)
 	for i, k := range ks {
 		lo[i] = math.Floor(ideal[i]/k.step) * k.step
@@ -547,7 +730,7 @@ func (ev *evaluator) roundPlan(p [numParams]float64, ks []knob, ts []term, ideal
 				return
 			}
 		}
-		qs, err := ev.events(apply(a), false)
+		qs, err := ev.quick(ev.surrogate(ks, a), qIdeal, nil)
 		if err != nil {
 			return
 		}

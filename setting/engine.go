@@ -16,6 +16,10 @@ import (
 //
 // The JSON keys are the snake_case names below; lengths in mm, angles in
 // degrees.
+//
+// The geometry methods (CrankPin, CrossheadU, Stroke, ...) assume a valid
+// engine and work out the dead centres on every call, from a closed form;
+// Prepare validates once and returns a Crank that keeps them, for loops.
 type Engine struct {
 	CrankRadius float64 `json:"crank_radius"` // mm, axle centre to crank-pin centre
 	RodLength   float64 `json:"rod_length"`   // mm, connecting rod between centres

@@ -138,6 +138,9 @@ func (s *Session) checkCylinder(ci int) []Warning {
 			}
 		}
 		for _, o := range obs {
+			if o.Round == ri && o.HasCrank && (o.Reverser > 0 && o.Direction == Backward || o.Reverser < 0 && o.Direction == Forward) {
+				add(o.Field, "The reading at %s was taken turning the wheel against the running direction of that gear, so the backlash in the motion lies the other way; take it again turning %s if it disagrees with the rest.", o.Label, opposite(o.Direction))
+			}
 			if o.Round != ri || !o.HasCrank || math.Abs(float64(o.Reverser)) != 1 {
 				continue
 			}
@@ -469,4 +472,12 @@ func messageOf(err error) string {
 		return e.Message
 	}
 	return err.Error()
+}
+
+// opposite returns the other turning direction.
+func opposite(d Direction) Direction {
+	if d == Forward {
+		return Backward
+	}
+	return Forward
 }

@@ -22,6 +22,7 @@ func TestCheckWarnings(t *testing.T) {
 		{"marks apart", `"back_gauge_mm": 8.0`, `"back_gauge_mm": 12.0`, "cylinders[0].rounds[0].port_marks", "laps add up to 6 mm"},
 		{"early cut-off", `"crosshead_mm": 44.5`, `"crosshead_mm": 20`, "cylinders[0].rounds[0].cut_offs[0]", "at 33 % of the stroke"},
 		{"feeler wider than port", `"opening_mm": 0.2`, `"opening_mm": 3.5`, "cylinders[0].rounds[1].feeler_openings[0].opening_mm", "wider than the port"},
+		{"against the gear", `"reverser": "full forward", "direction": "forward", "gauge_mm": 1.8}`, `"reverser": "full forward", "direction": "backward", "gauge_mm": 1.8}`, "cylinders[0].rounds[0].dead_centre_readings[0]", "The reading at front dead centre, full forward, turned backward was taken turning the wheel against"},
 		{"odd thread", `"pitch_mm": 0.5`, `"pitch_mm": 10`, "adjustments[0].thread", "unusual"},
 	}
 	base := mustDecode(t, testJSON)

@@ -74,9 +74,9 @@ func checkHeader(root *node) error {
 // decoder turns the tree into a Session, keeping the first error.
 type decoder struct {
 	err *setting.Error
-	// known engine facts, once the engine object is read
-	notches map[string]setting.Reverser
-	info    specInfo
+	// info holds the engine's facts once the engine object is read (the
+	// cylinder's own, with its differences, while its rounds are read).
+	info specInfo
 }
 
 // fail records the first error.
@@ -335,7 +335,6 @@ func (d *decoder) session(root *node) *Session {
 	engine := o.field("engine", true, "the engine object: crank geometry, valve and ports, gear and notches")
 	if engine != nil {
 		s.Engine, d.info = d.engine(engine, "engine")
-		d.notches = d.info.notches
 	}
 	if m := o.field("measuring", true, "the measuring set-up: wheel diameter, gauge resolution and direction, mark error"); m != nil {
 		s.Measuring = d.measuring(m, "measuring")
@@ -661,12 +660,8 @@ func (d *decoder) reverser(o obj) ReverserPosition {
 	path := joinPath(o.path, "reverser")
 	switch v.kind {
 	case nodeString:
-		if _, ok := d.notches[v.text]; !ok {
-			names := make([]string, 0, len(d.notches))
-			for _, nm := range d.info.notchOrder {
-				names = append(names, nm)
-			}
-			d.fail(path, "The notch %q is not one of this engine's; use one of %s, or a number from -1 (full back) to 1 (full forward).", v.text, quoteList(names))
+		if _, ok := d.info.notches[v.text]; !ok {
+			d.fail(path, "The notch %q is not one of this engine's; use one of %s, or a number from -1 (full back) to 1 (full forward).", v.text, quoteList(d.info.notchOrder))
 			return ReverserPosition{}
 		}
 		return ReverserPosition{Notch: v.text}

@@ -54,7 +54,7 @@ func readTree(r io.Reader) (*node, []byte, error) {
 	}
 	dec := json.NewDecoder(bytes.NewReader(data))
 	dec.UseNumber()
-	n, err := readValue(dec, "")
+	n, err := readValue(dec, "", 0)
 	if err != nil {
 		return nil, nil, syntaxError(data, dec, err)
 	}
@@ -65,8 +65,19 @@ func readTree(r io.Reader) (*node, []byte, error) {
 	return n, data, nil
 }
 
+// maxDepth bounds how deeply lists and objects may nest: a session nests
+// about ten deep; a deeper file is not a session, and the bound keeps the
+// reader's recursion small.
+const maxDepth = 64
+
+// errTooDeep reports nesting beyond maxDepth.
+var errTooDeep = errors.New("lists and objects nested too deeply")
+
 // readValue reads one value from the token stream.
-func readValue(dec *json.Decoder, path string) (*node, error) {
+func readValue(dec *json.Decoder, path string, depth int) (*node, error) {
+	if depth > maxDepth {
+		return nil, errTooDeep
+	}
 	tok, err := dec.Token()
 	if err != nil {
 		if err == io.EOF {
@@ -88,7 +99,7 @@ func readValue(dec *json.Decoder, path string) (*node, error) {
 		case '[':
 			n := &node{kind: nodeArray}
 			for dec.More() {
-				e, err := readValue(dec, fmt.Sprintf("%s[%d]", path, len(n.elems)))
+				e, err := readValue(dec, fmt.Sprintf("%s[%d]", path, len(n.elems)), depth+1)
 				if err != nil {
 					return nil, err
 				}
@@ -113,7 +124,7 @@ func readValue(dec *json.Decoder, path string) (*node, error) {
 				if n.get(key) != nil {
 					return nil, &dupKeyError{path: p}
 				}
-				v, err := readValue(dec, p)
+				v, err := readValue(dec, p, depth+1)
 				if err != nil {
 					return nil, err
 				}
@@ -137,6 +148,10 @@ func (e *dupKeyError) Error() string { return "duplicate key " + e.path }
 // syntaxError turns a JSON reading error into a sentence with a line and
 // column.
 func syntaxError(data []byte, dec *json.Decoder, err error) error {
+	if errors.Is(err, errTooDeep) {
+		line, col := lineCol(data, dec.InputOffset())
+		return userError("", fmt.Sprintf("The file nests lists and objects more than %d deep (line %d, column %d); it is not a session file.", maxDepth, line, col))
+	}
 	var dup *dupKeyError
 	if errors.As(err, &dup) {
 		return userError(dup.path, "This field is written twice; keep one of them.")
@@ -214,8 +229,8 @@ func (n *node) describe() string {
 		return "the number " + n.text
 	case nodeString:
 		s := n.text
-		if len(s) > 40 {
-			s = s[:40] + "..."
+		if r := []rune(s); len(r) > 40 {
+			s = string(r[:40]) + "..."
 		}
 		return "the text " + strconv.Quote(s)
 	case nodeArray:
@@ -339,5 +354,5 @@ func mergePatch(target, patch *node) *node {
 func parseCompact(data []byte) (*node, error) {
 	dec := json.NewDecoder(bytes.NewReader(data))
 	dec.UseNumber()
-	return readValue(dec, "")
+	return readValue(dec, "", 0)
 }

@@ -32,6 +32,11 @@ const (
 // (common practice, from memory).
 const CrossheadErrorMM = 0.5
 
+// FeelerErrorMM is the error (one standard deviation) taken for a port
+// opening measured with feelers: the blades of a set step by 0.01 to
+// 0.05 mm (from memory).
+const FeelerErrorMM = 0.02
+
 // Observation is one reading in the form a fitter uses: where the crank was
 // (degrees from front dead centre, in the forward running direction), the
 // reverser position, and what was read, with its error estimates.
@@ -80,7 +85,8 @@ type Observation struct {
 	// RawGaugeMM is the reading as the gauge showed it.
 	RawGaugeMM float64
 	// GaugeSigmaMM is the gauge reading's error: resolution / sqrt(12),
-	// the error of rounding to the nearest division.
+	// the error of rounding to the nearest division. For a feeler opening
+	// it is the opening's error, FeelerErrorMM.
 	GaugeSigmaMM float64
 
 	// OpeningMM is the measured port opening (FeelerKind), negative when
@@ -258,6 +264,17 @@ func (s *Session) BackDeadCentre(cyl int, dir Direction) (float64, error) {
 	return deg, nil
 }
 
+// place returns the crank angle, its error and its name in words of a
+// reading taken on dead centre dc, or at mark m when dc is empty.
+func (a *angles) place(dc End, m Mark, dir Direction) (deg, sigma float64, words string) {
+	if dc != "" {
+		deg, sigma = a.atDeadCentre(dc, dir)
+		return deg, sigma, string(dc) + " dead centre"
+	}
+	deg, sigma = a.crank(m, dir)
+	return deg, sigma, markWords(m)
+}
+
 // Observations returns every reading of cylinder cyl, all rounds, as
 // observations in file order: port marks (or laps) first in each round,
 // then dead-centre readings, sweeps, cut-offs and feeler openings.
@@ -320,10 +337,9 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 			o.Kind, o.End, o.Field = CutOffKind, c.End, fmt.Sprintf("%s.cut_offs[%d]", path, i)
 			o.setReverser(c.Reverser, c.Direction, a.info)
 			o.HasCrank = true
-			where := ""
+			var where string
 			if c.At.Scale != "" {
-				o.CrankDeg, o.CrankSigmaDeg = a.crank(c.At, c.Direction)
-				where = markWords(c.At)
+				o.CrankDeg, o.CrankSigmaDeg, where = a.place("", c.At, c.Direction)
 			} else {
 				var err error
 				o.CrankDeg, o.CrankSigmaDeg, err = a.crosshead(c.End, c.Direction, c.CrossheadMM)
@@ -347,15 +363,9 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 			o.Kind, o.End, o.Field = FeelerKind, f.Port, fmt.Sprintf("%s.feeler_openings[%d]", path, i)
 			o.setReverser(f.Reverser, f.Direction, a.info)
 			o.HasCrank = true
-			where := ""
-			if f.DeadCentre != "" {
-				o.CrankDeg, o.CrankSigmaDeg = a.atDeadCentre(f.DeadCentre, f.Direction)
-				where = string(f.DeadCentre) + " dead centre"
-			} else {
-				o.CrankDeg, o.CrankSigmaDeg = a.crank(f.At, f.Direction)
-				where = markWords(f.At)
-			}
-			o.GaugeSigmaMM = 0.01 // a feeler set steps in 0.01 mm or half a thou
+			var where string
+			o.CrankDeg, o.CrankSigmaDeg, where = a.place(f.DeadCentre, f.At, f.Direction)
+			o.GaugeSigmaMM = FeelerErrorMM
 			o.OpeningMM = f.OpeningMM
 			o.Label = fmt.Sprintf("%s port opening at %s, %s", f.Port, where, o.setting())
 			out = append(out, o)

@@ -149,3 +149,15 @@ func fullSentence(t *testing.T, msg string) {
 		t.Errorf("not a full sentence: %q", msg)
 	}
 }
+
+// Regression: a file of many nested lists must be refused with a message,
+// not exhaust the reader's stack.
+func TestDeepNestingRefused(t *testing.T) {
+	for _, in := range []string{strings.Repeat("[", 100000), `{"format": "evenbeat-session", "version": 1, "note": ` + strings.Repeat(`{"a":`, 5000) + "1" + strings.Repeat("}", 5000) + "}"} {
+		_, err := Decode(strings.NewReader(in))
+		var e *setting.Error
+		if !errors.As(err, &e) || !strings.Contains(e.Message, "nests lists and objects more than 64 deep") {
+			t.Errorf("got %v", err)
+		}
+	}
+}

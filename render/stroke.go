@@ -150,9 +150,15 @@ func cubicAt(p0, c1, c2, p3 Point, t float64) Point {
 	return Point{a*p0.X + b*c1.X + c*c2.X + d*p3.X, a*p0.Y + b*c1.Y + c*c2.Y + d*p3.Y}
 }
 
+// minDashPeriod is the shortest dash pattern followed, in logical units: a
+// finer one cannot be seen at any phone scale, and would only multiply the
+// pieces.
+const minDashPeriod = 0.05
+
 // cleanDashes returns an even-length copy of a dash pattern (an odd one is
-// repeated, as SVG does), or nil when the pattern cannot be followed: empty,
-// a negative, NaN or infinite length, or a total of zero.
+// repeated, as SVG does), or nil (solid) when the pattern cannot be
+// followed: empty, a negative, NaN or infinite length, or a total under
+// minDashPeriod.
 func cleanDashes(d []float64) []float64 {
 	if len(d) == 0 {
 		return nil
@@ -164,7 +170,7 @@ func cleanDashes(d []float64) []float64 {
 		}
 		sum += v
 	}
-	if !(sum > 0) {
+	if !(sum >= minDashPeriod) {
 		return nil
 	}
 	out := append([]float64(nil), d...)

@@ -145,7 +145,7 @@ func TestOutlineDashes(t *testing.T) {
 }
 
 func TestOutlineBadDashesAreSolid(t *testing.T) {
-	for _, d := range [][]float64{{0, 0}, {-1, 5}, {math.NaN(), 2}, {math.Inf(1)}} {
+	for _, d := range [][]float64{{0, 0}, {-1, 5}, {math.NaN(), 2}, {math.Inf(1)}, {1e-9, 1e-9}} {
 		out := Outline(line(Point{0, 0}, Point{100, 0}), LineStyle{Width: 2, Dashes: d})
 		for x := 1.0; x < 100; x += 3 {
 			if !painted(out, Point{x, 0}) {

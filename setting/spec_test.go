@@ -94,3 +94,30 @@ func TestDecodeEngineSpecErrors(t *testing.T) {
 		})
 	}
 }
+
+// FuzzDecodeEngineSpec: any input gives a spec or an *Error, never a panic;
+// a spec that decodes writes and reads back unchanged.
+func FuzzDecodeEngineSpec(f *testing.F) {
+	f.Add(specJSON)
+	f.Add(`{}`)
+	f.Add(`{"name": "x", "invented": true, "engine": null, "notches": [null]}`)
+	f.Add(strings.Replace(specJSON, `"kind": "single-eccentric"`, `"kind": "walschaerts", "walschaerts": {}`, 1))
+	f.Fuzz(func(t *testing.T, in string) {
+		spec, err := DecodeEngineSpec(strings.NewReader(in))
+		if err != nil {
+			var e *Error
+			if !errors.As(err, &e) || e.Message == "" {
+				t.Fatalf("error %v is not an *Error with a message", err)
+			}
+			return
+		}
+		var buf bytes.Buffer
+		if err := spec.Encode(&buf); err != nil {
+			t.Fatalf("a decoded spec does not encode: %v", err)
+		}
+		again, err := DecodeEngineSpec(&buf)
+		if err != nil || !reflect.DeepEqual(spec, again) {
+			t.Fatalf("round trip: %v\n%+v\n%+v", err, spec, again)
+		}
+	})
+}

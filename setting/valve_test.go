@@ -132,3 +132,29 @@ func TestAdmissionText(t *testing.T) {
 		t.Error("the zero admission was written")
 	}
 }
+
+// The events of a piston valve with drilled ports give the open area of the
+// ring of holes at the largest opening, and the same events as a slot:
+// the port form changes the area, not the timing.
+func TestEventsWithDrilledPorts(t *testing.T) {
+	const d, n = 4.0, 10
+	e := Engine{CrankRadius: 30, RodLength: 180}
+	slot := Valve{Admission: Internal, LinerDiameter: 32,
+		Front: End{SteamLap: 3, PortWidth: d}, Back: End{SteamLap: 3, PortWidth: d}}
+	holes := slot
+	holes.Front, holes.Back = End{SteamLap: 3, Holes: n, HoleDiameter: d}, End{SteamLap: 3, Holes: n, HoleDiameter: d}
+	m := textbookMotion(5, 28, Internal) // opens 2 mm at most: half the holes' width
+	a, err := Events(e, slot, m, Forward)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := Events(e, holes, m, Forward)
+	if err != nil {
+		t.Fatal(err)
+	}
+	near(t, "cut-off, slot and holes", b.Front.CutOff.StrokePercent, a.Front.CutOff.StrokePercent, 0)
+	near(t, "max opening", b.Front.MaxOpening, 2, 1e-9)
+	near(t, "slot area at the largest opening", a.Front.MaxOpeningArea, 2*math.Pi*32, 1e-9)
+	// half-way across a round hole: half its area
+	near(t, "holes area at the largest opening", b.Front.MaxOpeningArea, n*math.Pi*d*d/8, 1e-9)
+}

@@ -97,8 +97,9 @@ func (s EventSet) ValveTravel() float64 { return s.ValveMax - s.ValveMin }
 // Newton's method with the interpolant's slope, which is safeguarded: a
 // step that leaves the crossing's grid step falls back to Brent's method
 // on the motion. A curve whose harmonics do not settle (a kink, a jump,
-// noise) is searched on the motion directly instead, on a grid of 120
-// steps doubled until its second differences are small.
+// noise) is searched on the motion directly instead, on the grid of the
+// samples already taken, doubled (up to 3840 steps) until its second
+// differences are small.
 //
 // The edge search: a sign change in a grid step is refined by Brent's
 // method. A step with no sign change whose ends lie closer to the edge than
@@ -336,7 +337,10 @@ func analyseBy(c Crank, v Valve, motion Motion, spectral bool) (*analysis, error
 		sp = nil
 	}
 	s := truth
-	if sp != nil {
+	if sp == nil {
+		// the samples already taken start the direct search's grid
+		truth.x = append([]float64(nil), samples...)
+	} else {
 		// the interpolant passes through the samples: they start its grid
 		s = &sampler{x: samples, sp: sp, rootTol: 1e-7, minTol: 1e-4,
 			motion: func(t float64) (float64, error) { return sp.at(t), nil }}

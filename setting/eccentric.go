@@ -140,7 +140,7 @@ func (g SingleEccentric) sense() float64 {
 // solve places every joint at crank angle thetaDeg.
 func (g SingleEccentric) solve(e Engine, thetaDeg float64, r Reverser) (singlePose, error) {
 	var p singlePose
-	if err := checkReverser(r); err != nil {
+	if err := checkCall(thetaDeg, r); err != nil {
 		return p, err
 	}
 	phi := crankRotation(e, thetaDeg)
@@ -183,12 +183,16 @@ func (g SingleEccentric) Valve(e Engine, thetaDeg float64, r Reverser) (float64,
 	if err != nil {
 		return 0, err
 	}
-	return p.spindle.U - g.ValveCentreU, nil
+	return valveResult(p.spindle.U-g.ValveCentreU, thetaDeg)
 }
 
 // Pose returns every joint of the gear at crank angle thetaDeg.
 func (g SingleEccentric) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) {
 	p, err := g.solve(e, thetaDeg, r)
+	if err != nil {
+		return Pose{}, err
+	}
+	valve, err := valveResult(p.spindle.U-g.ValveCentreU, thetaDeg)
 	if err != nil {
 		return Pose{}, err
 	}
@@ -208,7 +212,7 @@ func (g SingleEccentric) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, err
 			b.bar("valve rod", arm, b.joint("valve spindle pin", p.spindle))
 		}
 	}
-	b.p.Valve = p.spindle.U - g.ValveCentreU
+	b.p.Valve = valve
 	return b.p, nil
 }
 

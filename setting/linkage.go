@@ -201,12 +201,25 @@ func closeError(field, what string, thetaDeg float64) *Error {
 	return &Error{field, fmt.Sprintf("%s at crank angle %.0f deg.", what, thetaDeg)}
 }
 
-// checkReverser rejects reverser positions outside full back to full forward.
-func checkReverser(r Reverser) error {
+// checkCall rejects a crank angle that is not a number and reverser
+// positions outside full back to full forward.
+func checkCall(thetaDeg float64, r Reverser) error {
+	if !finite(thetaDeg) {
+		return &Error{"crank angle", fmt.Sprintf("The crank angle must be a number of degrees (got %g).", thetaDeg)}
+	}
 	if !(r >= -1 && r <= 1) {
 		return &Error{"reverser", fmt.Sprintf("The reverser position must lie between -1 (full back) and +1 (full forward) (got %g).", float64(r))}
 	}
 	return nil
+}
+
+// valveResult returns the valve displacement, or an error when unvalidated
+// dimensions (NaN, infinite) have made it no number: output is never NaN.
+func valveResult(v, thetaDeg float64) (float64, error) {
+	if !finite(v) {
+		return 0, &Error{"", fmt.Sprintf("The gear's dimensions give no valve position at crank angle %.0f deg; check them with Validate.", thetaDeg)}
+	}
+	return v, nil
 }
 
 // positive returns an *Error naming field (a key path) unless v is a

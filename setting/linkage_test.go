@@ -3,6 +3,8 @@ package setting
 import (
 	"errors"
 	"math"
+	"math/rand/v2"
+	"reflect"
 	"strings"
 	"testing"
 )
@@ -149,4 +151,115 @@ func checkReverserDirection(t *testing.T, name string, e Engine, v Valve, g Gear
 			t.Errorf("%s, reverser %v running %v: cut-off %.1f %%", name, c.r, c.dir, cut)
 		}
 	}
+}
+
+// demoGears returns the demo engines' gears with their engines.
+func demoGears(t testing.TB) ([]Engine, []PosedGear) {
+	var es []Engine
+	var gs []PosedGear
+	for _, s := range DemoEngines() {
+		g, err := s.Gear.Gear()
+		if err != nil {
+			t.Fatal(err)
+		}
+		es = append(es, s.Engine)
+		gs = append(gs, g.(PosedGear))
+	}
+	return es, gs
+}
+
+// Each Valve call stands alone: solving the angles in a scrambled order
+// gives exactly what solving them in turn gives.
+func TestValveIsStateless(t *testing.T) {
+	es, gs := demoGears(t)
+	for i, g := range gs {
+		var inTurn []float64
+		for th := 0; th < 360; th++ {
+			v, err := g.Valve(es[i], float64(th), 0.6)
+			if err != nil {
+				t.Fatal(err)
+			}
+			inTurn = append(inTurn, v)
+		}
+		for k := 0; k < 360; k++ {
+			th := (k * 137) % 360 // 137 and 360 are coprime: every angle once
+			v, _ := g.Valve(es[i], float64(th), 0.6)
+			if v != inTurn[th] {
+				t.Errorf("%s at %d deg: %v scrambled, %v in turn", g.Kind(), th, v, inTurn[th])
+			}
+		}
+	}
+}
+
+// Bad and odd dimensions never panic and never give NaN or infinity: every
+// call returns a finite displacement or an *Error (the rules' bad-input
+// contract). The gears' dimensions are scaled at random, each by 0 to 3
+// times, negated or made NaN or infinite, with a fixed seed; the crank
+// angle NaN must be refused too.
+func TestGearsNeverPanicOrGiveNaN(t *testing.T) {
+	es, gs := demoGears(t)
+	rng := rand.New(rand.NewPCG(1, 2))
+	for i, g := range gs {
+		for trial := 0; trial < 300; trial++ {
+			bad := scaleFloats(g, rng)
+			e := es[i]
+			if err := bad.Validate(e); err != nil {
+				var fe *Error
+				if !errors.As(err, &fe) || fe.Field == "" {
+					t.Fatalf("%s: Validate gave %v, not an *Error with a field", g.Kind(), err)
+				}
+			}
+			if _, err := bad.Valve(e, math.NaN(), 0); err == nil {
+				t.Fatalf("%s: a NaN crank angle gave no error", g.Kind())
+			}
+			for th := 0.0; th < 360; th += 45 {
+				for _, r := range []Reverser{1, 0, -1} {
+					v, err := bad.Valve(e, th, r)
+					var fe *Error
+					switch {
+					case err != nil && !errors.As(err, &fe):
+						t.Fatalf("%s: Valve error %v is not an *Error", g.Kind(), err)
+					case err == nil && !finite(v):
+						t.Fatalf("%s %+v: Valve gave %v at %v deg", g.Kind(), bad, v, th)
+					}
+					if p, err := bad.Pose(e, th, r); err == nil {
+						for _, j := range p.Joints {
+							if !j.At.Finite() {
+								t.Fatalf("%s %+v: joint %s at %v", g.Kind(), bad, j.Name, j.At)
+							}
+						}
+					}
+				}
+			}
+		}
+	}
+}
+
+// scaleFloats returns a copy of g with every float64 field scaled by a
+// random factor in [0, 3), negated, or set to NaN or infinity.
+func scaleFloats(g PosedGear, rng *rand.Rand) PosedGear {
+	v := reflect.New(reflect.TypeOf(g)).Elem()
+	v.Set(reflect.ValueOf(g))
+	var walk func(reflect.Value)
+	walk = func(f reflect.Value) {
+		switch f.Kind() {
+		case reflect.Float64:
+			switch rng.IntN(40) {
+			case 0, 1, 2, 3, 4:
+				f.SetFloat(f.Float() * 3 * rng.Float64())
+			case 5, 6, 7:
+				f.SetFloat(-f.Float())
+			case 8:
+				f.SetFloat(math.NaN())
+			case 9:
+				f.SetFloat(math.Inf(1))
+			}
+		case reflect.Struct:
+			for i := 0; i < f.NumField(); i++ {
+				walk(f.Field(i))
+			}
+		}
+	}
+	walk(v)
+	return v.Interface().(PosedGear)
 }

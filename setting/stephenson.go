@@ -134,7 +134,7 @@ func (g Stephenson) hang() float64 {
 // withCrank: Valve does not need it).
 func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank bool) (stephensonPose, error) {
 	var p stephensonPose
-	if err := checkReverser(r); err != nil {
+	if err := checkCall(thetaDeg, r); err != nil {
 		return p, err
 	}
 	phi := crankRotation(e, thetaDeg)
@@ -279,12 +279,16 @@ func (g Stephenson) Valve(e Engine, thetaDeg float64, r Reverser) (float64, erro
 	if err != nil {
 		return 0, err
 	}
-	return p.die.U - g.ValveCentreU, nil
+	return valveResult(p.die.U-g.ValveCentreU, thetaDeg)
 }
 
 // Pose returns every joint of the gear at crank angle thetaDeg.
 func (g Stephenson) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) {
 	p, err := g.solve(e, thetaDeg, r, true)
+	if err != nil {
+		return Pose{}, err
+	}
+	valve, err := valveResult(p.die.U-g.ValveCentreU, thetaDeg)
 	if err != nil {
 		return Pose{}, err
 	}
@@ -312,6 +316,6 @@ func (g Stephenson) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) {
 	b.bar("reverse arm", ws, ap)
 	b.bar("lifting link", ap, sp)
 	b.joint("die block", p.die)
-	b.p.Valve = p.die.U - g.ValveCentreU
+	b.p.Valve = valve
 	return b.p, nil
 }

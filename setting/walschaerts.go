@@ -149,7 +149,7 @@ type walschaertsPose struct {
 // solve places every joint at crank angle thetaDeg.
 func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaertsPose, error) {
 	var p walschaertsPose
-	if err := checkReverser(r); err != nil {
+	if err := checkCall(thetaDeg, r); err != nil {
 		return p, err
 	}
 	phi := crankRotation(e, thetaDeg)
@@ -288,12 +288,16 @@ func (g Walschaerts) Valve(e Engine, thetaDeg float64, r Reverser) (float64, err
 	if err != nil {
 		return 0, err
 	}
-	return p.valvePin.U - g.ValveCentreU, nil
+	return valveResult(p.valvePin.U-g.ValveCentreU, thetaDeg)
 }
 
 // Pose returns every joint of the gear at crank angle thetaDeg.
 func (g Walschaerts) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) {
 	p, err := g.solve(e, thetaDeg, r)
+	if err != nil {
+		return Pose{}, err
+	}
+	valve, err := valveResult(p.valvePin.U-g.ValveCentreU, thetaDeg)
 	if err != nil {
 		return Pose{}, err
 	}
@@ -326,7 +330,7 @@ func (g Walschaerts) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) 
 	b.bar("crosshead arm", ch, ca)
 	b.bar("union link", ca, up)
 	b.bar("connecting rod", cp, ch)
-	b.p.Valve = p.valvePin.U - g.ValveCentreU
+	b.p.Valve = valve
 	return b.p, nil
 }
 

@@ -110,10 +110,22 @@ func Cautions(c Canvas, box Rect, th Theme) (ack Rect) {
 		drawLines(c, Point{l.Inner.Min.X + bulletIndent, y}, lines, body)
 	}
 
-	c.Fill(RoundRect(l.Ack, 10), FillStyle{Color: th.Accent})
-	c.Text(Point{(l.Ack.Min.X + l.Ack.Max.X) / 2, (l.Ack.Min.Y + l.Ack.Max.Y) / 2}, AckLabel,
-		TextStyle{Color: th.OnAccent, Size: ButtonSize, Bold: true, HAlign: Center, VAlign: Middle})
+	Button(c, l.Ack, AckLabel, th)
 	return l.Ack
+}
+
+// Button draws a filled, rounded button over r with its label centred in
+// bold ButtonSize text, shrunk (down to 14) if the label would not fit the
+// width. The caller keeps r as the hit rectangle; make it at least 48 CSS
+// px tall (ButtonHeight is 56).
+func Button(c Canvas, r Rect, label string, th Theme) {
+	c.Fill(RoundRect(r, 10), FillStyle{Color: th.Accent})
+	size := float64(ButtonSize)
+	for size > BodySize && TextWidth(label, size, true) > r.W()-2*cardPad {
+		size--
+	}
+	c.Text(Point{(r.Min.X + r.Max.X) / 2, (r.Min.Y + r.Max.Y) / 2}, label,
+		TextStyle{Color: th.OnAccent, Size: size, Bold: true, HAlign: Center, VAlign: Middle})
 }
 
 // warningSign draws a filled triangle of side size with an exclamation

@@ -28,3 +28,25 @@ func TestAxesMapping(t *testing.T) {
 		t.Errorf("VLine(90) = %v", v)
 	}
 }
+
+func TestButtonLabelShrinksToFit(t *testing.T) {
+	th := Light()
+	var got []TextStyle
+	c := textSpy{texts: &got}
+	Button(c, Rect{Point{0, 0}, Point{300, 56}}, "I understand", th)
+	Button(c, Rect{Point{0, 0}, Point{120, 56}}, "Acknowledge all cautions", th)
+	if got[0].Size != ButtonSize {
+		t.Errorf("a short label keeps size %d, got %g", ButtonSize, got[0].Size)
+	}
+	if got[1].Size != BodySize {
+		t.Errorf("a label too long for the button shrinks to %d at most, got %g", BodySize, got[1].Size)
+	}
+}
+
+// textSpy is a Canvas that keeps only the text styles drawn.
+type textSpy struct{ texts *[]TextStyle }
+
+func (textSpy) Size() (w, h float64)                   { return 0, 0 }
+func (textSpy) Fill(Path, FillStyle)                   {}
+func (textSpy) Stroke(Path, LineStyle)                 {}
+func (s textSpy) Text(_ Point, _ string, st TextStyle) { *s.texts = append(*s.texts, st) }

@@ -6,7 +6,7 @@ import (
 	"evenbeat/setting"
 )
 
-// Cautions card sizes, in logical units.
+// Cautions card sizes (logical units) and texts.
 const (
 	// ButtonHeight is the height of a card's main button: above the 48 CSS
 	// px a finger needs.

@@ -19,10 +19,13 @@
 //     NewFace, TextWidth, TextOrigin, TextBox, Wrap.
 //   - Theme: Light and Dark palettes and the line and marker styles that
 //     tell the front and back ends apart by shape as well as colour.
+//   - Plot pieces shared by diagrams: Axes (scales, grid, ticks, sampled
+//     curves), DrawLegend, Button.
 //   - Diagrams, each a function of (canvas, model, box): PistonCurve,
 //     Cautions (returns its button's hit rectangle) and Icon; their layout
-//     maths (LayoutPiston, LayoutCautions, Ticks, Scale) are plain
-//     functions tested with numbers.
+//     maths (LayoutPiston, LayoutCautions, CautionsHeight, Ticks,
+//     AngleTicks, Scale) are plain functions tested with numbers, so an app
+//     can learn where a button is without drawing.
 //
 // Backends live in sub-packages: render/recorder (a text log for goldens
 // and layout checks) and render/raster (*image.RGBA and PNG). The browser's

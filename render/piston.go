@@ -11,9 +11,9 @@ import (
 // Text sizes of the diagrams, in logical units (CSS px). Nothing is drawn
 // below 14, the least a phone reader should be asked to read.
 const (
-	TitleSize   = 18
-	BodySize    = 14
-	ButtonSize  = 18
+	TitleSize   = 18 // card titles, bold
+	BodySize    = 14 // labels, ticks, captions
+	ButtonSize  = 18 // button labels, bold
 	cardPad     = 14 // inner padding of a card
 	cardRadius  = 12 // corner radius of a card
 	gap         = 8  // space between blocks

@@ -54,7 +54,7 @@ func readTree(r io.Reader) (*node, []byte, error) {
 	}
 	dec := json.NewDecoder(bytes.NewReader(data))
 	dec.UseNumber()
-	n, err := readValue(dec, "", 0)
+	n, err := readValue(dec, nil)
 	if err != nil {
 		return nil, nil, syntaxError(data, dec, err)
 	}
@@ -73,9 +73,29 @@ const maxDepth = 64
 // errTooDeep reports nesting beyond maxDepth.
 var errTooDeep = errors.New("lists and objects nested too deeply")
 
-// readValue reads one value from the token stream.
-func readValue(dec *json.Decoder, path string, depth int) (*node, error) {
-	if depth > maxDepth {
+// step is one step of the way to a value: an object key, or a list index
+// when key is empty. The path is only spelt out for a message.
+type step struct {
+	key   string
+	index int
+}
+
+// spell turns steps into a field name: "cylinders[1].name".
+func spell(steps []step) string {
+	path := ""
+	for _, s := range steps {
+		if s.key == "" {
+			path += "[" + strconv.Itoa(s.index) + "]"
+		} else {
+			path = joinPath(path, s.key)
+		}
+	}
+	return path
+}
+
+// readValue reads one value from the token stream; steps lead to it.
+func readValue(dec *json.Decoder, steps []step) (*node, error) {
+	if len(steps) > maxDepth {
 		return nil, errTooDeep
 	}
 	tok, err := dec.Token()
@@ -99,7 +119,7 @@ func readValue(dec *json.Decoder, path string, depth int) (*node, error) {
 		case '[':
 			n := &node{kind: nodeArray}
 			for dec.More() {
-				e, err := readValue(dec, fmt.Sprintf("%s[%d]", path, len(n.elems)), depth+1)
+				e, err := readValue(dec, append(steps, step{index: len(n.elems)}))
 				if err != nil {
 					return nil, err
 				}
@@ -120,11 +140,10 @@ func readValue(dec *json.Decoder, path string, depth int) (*node, error) {
 				if !ok {
 					return nil, errors.New("object key is not a string")
 				}
-				p := joinPath(path, key)
 				if n.get(key) != nil {
-					return nil, &dupKeyError{path: p}
+					return nil, &dupKeyError{path: spell(append(steps, step{key: key}))}
 				}
-				v, err := readValue(dec, p, depth+1)
+				v, err := readValue(dec, append(steps, step{key: key}))
 				if err != nil {
 					return nil, err
 				}
@@ -354,5 +373,5 @@ func mergePatch(target, patch *node) *node {
 func parseCompact(data []byte) (*node, error) {
 	dec := json.NewDecoder(bytes.NewReader(data))
 	dec.UseNumber()
-	return readValue(dec, "", 0)
+	return readValue(dec, nil)
 }

@@ -1,6 +1,8 @@
 package main
 
 import (
+	"math"
+
 	"evenbeat/render"
 	"evenbeat/setting"
 )
@@ -40,7 +42,9 @@ type app struct {
 	theme  render.Theme
 	screen screen
 	w, h   float64     // screen size in logical units
-	ack    render.Rect // the acknowledgement button of the cautions card
+	card   render.Rect // the cautions card, before scrolling: taller than the screen when it must be
+	ack    render.Rect // its acknowledgement button, before scrolling
+	scroll float64     // how far the cautions are scrolled up, 0 to maxScroll
 	dirty  bool
 }
 
@@ -65,16 +69,48 @@ func (a *app) Resize(w, h float64) {
 		return
 	}
 	a.w, a.h = w, h
+	// On a screen too short for the card at its smallest text, the card
+	// gets the height it needs and scrolls.
+	a.card = a.content()
+	if !render.LayoutCautions(a.card, setting.Cautions()).Fits {
+		a.card.Max.Y = a.card.Min.Y + render.CautionsHeight(a.card.W())
+	}
 	// The card's layout is a function of the box: lay it out on a canvas
 	// that draws nothing to learn where its button is.
-	a.ack = render.Cautions(measure{w, h}, a.content(), a.theme)
+	a.ack = render.Cautions(measure{w, h}, a.card, a.theme)
+	a.scroll = math.Min(a.scroll, a.maxScroll())
 	a.dirty = true
+}
+
+// maxScroll is how far the cautions can scroll: enough to show the card's
+// bottom edge and margin.
+func (a *app) maxScroll() float64 {
+	return math.Max(0, a.card.Max.Y+margin-a.h)
+}
+
+// AckButton returns the acknowledgement button where it is on the screen
+// now (scrolled).
+func (a *app) AckButton() render.Rect {
+	r := a.ack
+	r.Min.Y -= a.scroll
+	r.Max.Y -= a.scroll
+	return r
 }
 
 // Handle acts on one intent; it reports whether the user just acknowledged
 // the cautions (the caller saves that).
 func (a *app) Handle(in intent) (acknowledged bool) {
-	if in.Kind != intentTap || a.screen != screenCautions || !contains(a.ack, in.At) {
+	if a.screen != screenCautions {
+		return false
+	}
+	if in.Kind == intentScroll {
+		s := math.Max(0, math.Min(a.maxScroll(), a.scroll-in.Delta.Y))
+		if s != a.scroll {
+			a.scroll, a.dirty = s, true
+		}
+		return false
+	}
+	if in.Kind != intentTap || !contains(a.AckButton(), in.At) {
 		return false
 	}
 	a.screen = screenDiagram
@@ -93,10 +129,41 @@ func (a *app) Draw(c render.Canvas) {
 	c.Fill(bg, render.FillStyle{Color: a.theme.Background})
 	switch a.screen {
 	case screenCautions:
-		render.Cautions(c, a.content(), a.theme)
+		render.Cautions(shifted{c, -a.scroll}, a.card, a.theme)
 	case screenDiagram:
 		render.PistonCurve(c, a.engine, a.content(), a.theme)
 	}
+}
+
+// shifted draws on c moved down by dy logical units (up when negative).
+type shifted struct {
+	c  render.Canvas
+	dy float64
+}
+
+func (s shifted) Size() (w, h float64) { return s.c.Size() }
+
+func (s shifted) Fill(p render.Path, st render.FillStyle) { s.c.Fill(s.move(p), st) }
+
+func (s shifted) Stroke(p render.Path, st render.LineStyle) { s.c.Stroke(s.move(p), st) }
+
+func (s shifted) Text(at render.Point, text string, st render.TextStyle) {
+	at.Y += s.dy
+	s.c.Text(at, text, st)
+}
+
+func (s shifted) move(p render.Path) render.Path {
+	if s.dy == 0 {
+		return p
+	}
+	out := make(render.Path, len(p))
+	for i, seg := range p {
+		for j := range seg.Pts {
+			seg.Pts[j].Y += s.dy
+		}
+		out[i] = seg
+	}
+	return out
 }
 
 // measure is a Canvas that only has a size: drawing on it computes layout.

@@ -5,6 +5,7 @@ import (
 
 	"evenbeat/render"
 	"evenbeat/render/recorder"
+	"evenbeat/setting"
 )
 
 func TestCautionsThenDiagram(t *testing.T) {
@@ -61,5 +62,65 @@ func TestDrawScreens(t *testing.T) {
 		if !found {
 			t.Errorf("screen %v has no title %q", a.screen, titles[a.screen])
 		}
+	}
+}
+
+// TestCautionsScrollOnSmallPhone: on a 320x568 screen the card does not fit
+// even at its smallest text, so it takes the height it needs and scrolls;
+// the button is hit where it shows.
+func TestCautionsScrollOnSmallPhone(t *testing.T) {
+	a := newApp(demoEngine(), render.Light(), false)
+	a.Resize(320, 568)
+	max := a.maxScroll()
+	if max <= 0 {
+		t.Fatalf("maxScroll %v on a 320x568 screen; the card does not fit there and must scroll", max)
+	}
+	if l := render.LayoutCautions(a.card, setting.Cautions()); !l.Fits {
+		t.Fatalf("the scrolling card %+v still does not fit its text", a.card)
+	}
+	a.Handle(intent{Kind: intentScroll, Delta: render.Point{Y: 40}})
+	if a.scroll != 0 {
+		t.Errorf("scrolled to %v by pulling down at the top; want 0", a.scroll)
+	}
+	a.Handle(intent{Kind: intentScroll, Delta: render.Point{Y: -1000}})
+	if a.scroll != max {
+		t.Fatalf("scrolled to %v by a long push up; want the end, %v", a.scroll, max)
+	}
+	b := a.AckButton()
+	if b.Max.Y > a.h || b.Min.Y < 0 {
+		t.Fatalf("scrolled to the end, the button %+v is not fully on the %v-high screen", b, a.h)
+	}
+	mid := render.Point{X: (b.Min.X + b.Max.X) / 2, Y: (b.Min.Y + b.Max.Y) / 2}
+	if !a.Handle(intent{Kind: intentTap, At: mid}) {
+		t.Error("a tap on the scrolled button did not acknowledge")
+	}
+
+	// What is drawn is moved by the scroll: the card's top edge goes up.
+	rec := recorder.New(320, 568)
+	c := newApp(demoEngine(), render.Light(), false)
+	c.Resize(320, 568)
+	c.Handle(intent{Kind: intentScroll, Delta: render.Point{Y: -10}})
+	c.Draw(rec)
+	top := 1e9
+	for _, op := range rec.Ops()[1:] { // after the page fill
+		for _, seg := range op.Path {
+			if seg.Kind != render.Close {
+				top = min(top, seg.Pts[0].Y)
+			}
+		}
+	}
+	if top > margin-10+0.5 || top < margin-10-0.5 {
+		t.Errorf("scrolled by 10, the card's top is at %v; want %v", top, margin-10)
+	}
+}
+
+func TestResizeLaysOutAgain(t *testing.T) {
+	a := newApp(demoEngine(), render.Light(), false)
+	a.Resize(320, 568)
+	a.Handle(intent{Kind: intentScroll, Delta: render.Point{Y: -1000}})
+	a.dirty = false
+	a.Resize(390, 844) // turned or resized: now it fits
+	if a.scroll != 0 || !a.dirty || a.maxScroll() != 0 {
+		t.Errorf("after growing: scroll %v, dirty %v, maxScroll %v; want 0, true, 0", a.scroll, a.dirty, a.maxScroll())
 	}
 }

@@ -98,8 +98,9 @@ func (g *game) polled(dst []pointerEvent) []pointerEvent {
 			// A released touch has no position any more: use its last one.
 			dst = append(dst, pointerEvent{Kind: pointerUp, ID: int(id), At: g.held[id]})
 			delete(g.held, id)
-		} else {
-			g.held[id] = at(ebiten.TouchPosition(id))
+		} else if p := at(ebiten.TouchPosition(id)); p != g.held[id] {
+			g.held[id] = p
+			dst = append(dst, pointerEvent{Kind: pointerMove, ID: int(id), At: p})
 		}
 	}
 	const mouseID = -1
@@ -130,12 +131,13 @@ func (g *game) saveAck() {
 // publish tells the page (and tests) which screen shows and where the
 // acknowledgement button is, in CSS px.
 func (g *game) publish() {
-	if g.app.screen == g.published && g.app.ack == g.publishedAck {
+	ack := g.app.AckButton()
+	if g.app.screen == g.published && ack == g.publishedAck {
 		return
 	}
-	g.published, g.publishedAck = g.app.screen, g.app.ack
+	g.published, g.publishedAck = g.app.screen, ack
 	g.window.Set("evenbeatState", g.app.screen.String())
-	g.window.Set("evenbeatAck", jsRect(g.app.ack))
+	g.window.Set("evenbeatAck", jsRect(ack))
 	g.window.Set("evenbeatBox", jsRect(g.app.content()))
 }
 

@@ -12,6 +12,7 @@ type pointerKind uint8
 // Pointer event kinds.
 const (
 	pointerDown pointerKind = iota
+	pointerMove
 	pointerUp
 	pointerCancel
 )
@@ -29,39 +30,60 @@ type intentKind uint8
 
 // Intent kinds.
 const (
-	intentTap intentKind = iota // a short press and release in one place
+	intentTap    intentKind = iota // a short press and release in one place
+	intentScroll                   // a finger dragging the content by Delta
 )
 
 // intent is one user action for the screens to handle.
 type intent struct {
-	Kind intentKind
-	At   render.Point
+	Kind  intentKind
+	At    render.Point // where the finger is
+	Delta render.Point // for intentScroll: movement since the last intent
 }
 
 // tapSlop is how far (logical units) a finger may drift between press and
 // release and still count as a tap: about a third of a fingertip.
 const tapSlop = 16
 
-// tapper folds presses and releases into taps. Each pointer is followed by
-// its ID, so a second finger does not disturb the first; a tap is reported
-// at the release, where the finger was last seen, when it stayed near where
-// it went down.
+// tapper folds presses, moves and releases into taps and drags. Each
+// pointer is followed by its ID, so a second finger does not disturb the
+// first. A pointer that stays within tapSlop of where it went down makes a
+// tap at its release; once it goes further it drags (scroll intents) and
+// makes no tap.
 type tapper struct {
-	down map[int]render.Point
+	down map[int]*press
 }
 
-// Feed takes one event and returns a tap when the event completes one.
+// press is one pointer that is down.
+type press struct {
+	start, last render.Point
+	dragging    bool
+}
+
+// Feed takes one event and returns the intent it completes, if any.
 func (t *tapper) Feed(ev pointerEvent) (intent, bool) {
 	if t.down == nil {
-		t.down = map[int]render.Point{}
+		t.down = map[int]*press{}
 	}
+	p := t.down[ev.ID]
 	switch ev.Kind {
 	case pointerDown:
-		t.down[ev.ID] = ev.At
+		t.down[ev.ID] = &press{start: ev.At, last: ev.At}
+	case pointerMove:
+		if p == nil {
+			return intent{}, false // a hovering mouse
+		}
+		if !p.dragging && math.Hypot(ev.At.X-p.start.X, ev.At.Y-p.start.Y) > tapSlop {
+			p.dragging = true
+		}
+		if p.dragging {
+			d := render.Point{X: ev.At.X - p.last.X, Y: ev.At.Y - p.last.Y}
+			p.last = ev.At
+			return intent{Kind: intentScroll, At: ev.At, Delta: d}, true
+		}
 	case pointerUp:
-		start, ok := t.down[ev.ID]
 		delete(t.down, ev.ID)
-		if ok && math.Hypot(ev.At.X-start.X, ev.At.Y-start.Y) <= tapSlop {
+		if p != nil && !p.dragging && math.Hypot(ev.At.X-p.start.X, ev.At.Y-p.start.Y) <= tapSlop {
 			return intent{Kind: intentTap, At: ev.At}, true
 		}
 	case pointerCancel:

@@ -65,3 +65,29 @@ func TestQuickTapInOneFrame(t *testing.T) {
 		t.Errorf("%d taps from a press and release in one tick; want 1", n)
 	}
 }
+
+func TestDragScrollsAndIsNoTap(t *testing.T) {
+	var tp tapper
+	var got []intent
+	for _, ev := range []pointerEvent{
+		{pointerMove, 9, render.Point{X: 5, Y: 5}}, // hovering mouse: nothing
+		{pointerDown, 1, render.Point{X: 100, Y: 400}},
+		{pointerMove, 1, render.Point{X: 100, Y: 390}}, // within the slop: still a tap candidate
+		{pointerMove, 1, render.Point{X: 100, Y: 380}}, // beyond: a drag from the start
+		{pointerMove, 1, render.Point{X: 100, Y: 350}},
+		{pointerUp, 1, render.Point{X: 100, Y: 400}}, // back where it began: still no tap
+	} {
+		if in, ok := tp.Feed(ev); ok {
+			got = append(got, in)
+		}
+	}
+	want := []float64{-20, -30}
+	if len(got) != len(want) {
+		t.Fatalf("intents %+v; want two scrolls", got)
+	}
+	for i, in := range got {
+		if in.Kind != intentScroll || in.Delta.Y != want[i] {
+			t.Errorf("intent %d = %+v; want a scroll by %v", i, in, want[i])
+		}
+	}
+}

@@ -27,6 +27,7 @@ func newPointerQueue() *pointerQueue {
 	opts := map[string]any{"capture": true, "passive": true}
 	for name, kind := range map[string]pointerKind{
 		"pointerdown":   pointerDown,
+		"pointermove":   pointerMove,
 		"pointerup":     pointerUp,
 		"pointercancel": pointerCancel,
 	} {

@@ -154,6 +154,14 @@ func checkReadings(obs []session.Observation) error {
 
 // problem is a fit's internal state: the observations, weights and the
 // parameters fitted.
+//
+// Predictions come from sampled valve curves (see curve), one per reverser
+// position the readings were taken in: the curve at deviations p0 and, per
+// gear deviation, the curve of its effect, combined linearly. The fit
+// solves on that linear model, samples the linkage again at the answer,
+// and repeats until the answer stands still (see fitOuter), so the few
+// hundred linkage solutions are spent per round of that loop, not per
+// reading and per Jacobian column.
 type problem struct {
 	spec  setting.EngineSpec
 	obs   []session.Observation
@@ -162,23 +170,137 @@ type problem struct {
 	idx   []param
 	prior [numParams]float64
 	mean  [numParams]float64 // prior means
+
+	tr    *trig
+	revs  []setting.Reverser // the reverser positions of the readings
+	grp   []int              // per observation: index into revs, -1 for port marks
+	p0    [numParams]float64 // where base was sampled
+	base  []curve            // per position: gear valve curve at p0 (no valve offset)
+	sens  [][numParams]curve // per position, per gear deviation: effect curve
+	kEdge [2]float64
 }
 
-// eval returns the residuals (prediction - target) of the used
-// observations at p, or an error when the gear cannot close.
-func (pb *problem) eval(p [numParams]float64, out []float64) error {
-	g, err := Model{pb.spec, devOf(p)}.Gear()
+// newProblem groups the observations by reverser position.
+func newProblem(spec setting.EngineSpec, obs []session.Observation) *problem {
+	pb := &problem{spec: spec, obs: obs, use: make([]bool, len(obs)), sig: make([]float64, len(obs)), grp: make([]int, len(obs)), tr: newTrig(curveSamples)}
+	for k := 0; k < 2; k++ {
+		end := setting.CylinderEnd(k)
+		pb.kEdge[k] = spec.Valve.SteamEdge(end, 1) - spec.Valve.SteamEdge(end, 0)
+	}
+	for i, o := range obs {
+		pb.use[i] = true
+		pb.grp[i] = -1
+		if !o.HasCrank {
+			continue
+		}
+		for g, r := range pb.revs {
+			if r == o.Reverser {
+				pb.grp[i] = g
+			}
+		}
+		if pb.grp[i] < 0 {
+			pb.revs = append(pb.revs, o.Reverser)
+			pb.grp[i] = len(pb.revs) - 1
+		}
+	}
+	return pb
+}
+
+// sampleAt samples the gear curves at p, and the effect curves of the
+// fitted gear deviations when withSens.
+func (pb *problem) sampleAt(p [numParams]float64, withSens bool) error {
+	curves := func(p [numParams]float64) ([]curve, error) {
+		g, err := Model{pb.spec, devOf(p)}.Gear()
+		if err != nil {
+			return nil, err
+		}
+		out := make([]curve, len(pb.revs))
+		for k, r := range pb.revs {
+			c, err := pb.tr.sample(func(th float64) (float64, error) { return g.Valve(pb.spec.Engine, th, r) })
+			if err != nil {
+				return nil, err
+			}
+			out[k] = c
+		}
+		return out, nil
+	}
+	base, err := curves(p)
 	if err != nil {
 		return err
 	}
+	if withSens || pb.sens == nil {
+		pb.sens = make([][numParams]curve, len(pb.revs))
+		for _, j := range pb.idx {
+			if j == pGaugeZero || j == pValveOffset || j == pDeadCentre {
+				continue
+			}
+			h := stepOf(j)
+			q := p
+			q[j] += h
+			cs, err := curves(q)
+			if err != nil {
+				q[j] = p[j] - h
+				if cs, err = curves(q); err != nil {
+					return err
+				}
+				h = -h
+			}
+			for k := range pb.revs {
+				d := make(curve, len(base[k]))
+				for m := range d {
+					d[m] = (cs[k][m] - base[k][m]) / h
+				}
+				pb.sens[k][j] = d
+			}
+		}
+	}
+	pb.base, pb.p0 = base, p
+	return nil
+}
+
+// gear returns the linear model's gear valve displacement of observation
+// i at deviations p, and its derivatives: by the true crank angle (mm per
+// degree) and by each gear deviation.
+func (pb *problem) gear(i int, p [numParams]float64) (x, slope float64) {
+	g := pb.grp[i]
+	th := pb.obs[i].CrankDeg + p[pDeadCentre]
+	x, slope = pb.base[g].at(th)
+	for _, j := range pb.idx {
+		if d := pb.sens[g][j]; d != nil {
+			v, dv := d.at(th)
+			x += (p[j] - pb.p0[j]) * v
+			slope += (p[j] - pb.p0[j]) * dv
+		}
+	}
+	return x, slope
+}
+
+// predictS is the linear model's prediction of observation i (see
+// Predict for what each kind predicts).
+func (pb *problem) predictS(i int, p [numParams]float64) float64 {
+	o := pb.obs[i]
+	if o.Kind == session.PortMarkKind {
+		return p[pGaugeZero] - p[pValveOffset] + edgeX(pb.spec.Valve, cylEnd(o.End))
+	}
+	x, _ := pb.gear(i, p)
+	switch o.Kind {
+	case session.CutOffKind, session.FeelerKind:
+		return pb.spec.Valve.SteamEdge(cylEnd(o.End), x+p[pValveOffset])
+	}
+	return x + p[pGaugeZero]
+}
+
+// eval returns the residuals (prediction - target) of the used
+// observations at p.
+func (pb *problem) eval(p [numParams]float64, out []float64) error {
 	k := 0
 	for i, o := range pb.obs {
 		if !pb.use[i] {
 			continue
 		}
-		v, err := predict(pb.spec, g, p, o)
-		if err != nil {
-			return err
+		v := pb.predictS(i, p)
+		if !finite(v) {
+			return &setting.Error{Field: o.Field, Message: "The model gives no value for this reading."}
 		}
 		out[k] = v - Target(o)
 		k++
@@ -214,50 +336,46 @@ func (pb *problem) cost(p [numParams]float64, r []float64) float64 {
 
 func sq(x float64) float64 { return x * x }
 
-// step returns the finite-difference step of a parameter.
-func stepOf(j param) float64 {
-	switch j {
-	case pDeadCentre, pEccFwd, pEccBack, pReturnCrank:
-		return 1e-3
-	}
-	return 1e-3
-}
+// stepOf returns the finite-difference step of a deviation (degrees or
+// mm).
+func stepOf(j param) float64 { return 1e-3 }
 
-// jacobian fills J (rows: used observations, cols: idx) at p, whose
-// residuals are r0.
-func (pb *problem) jacobian(p [numParams]float64, r0 []float64) ([][]float64, error) {
-	n := len(r0)
+// jacobian returns the linear model's derivatives (columns: idx, rows:
+// used observations) at p.
+func (pb *problem) jacobian(p [numParams]float64, _ []float64) ([][]float64, error) {
+	n := pb.nUsed()
 	J := make([][]float64, len(pb.idx))
-	tmp := make([]float64, n)
-	for c, j := range pb.idx {
-		col := make([]float64, n)
-		switch j {
-		case pGaugeZero, pValveOffset:
-			// exact: both enter linearly (see predict)
-			k := 0
-			for i, o := range pb.obs {
-				if !pb.use[i] {
-					continue
+	for c := range J {
+		J[c] = make([]float64, n)
+	}
+	k := 0
+	for i, o := range pb.obs {
+		if !pb.use[i] {
+			continue
+		}
+		edge := 1.0 // d(prediction)/d(gear displacement)
+		if o.Kind == session.CutOffKind || o.Kind == session.FeelerKind {
+			edge = pb.kEdge[cylEnd(o.End)]
+		}
+		var slope float64
+		if o.HasCrank {
+			_, slope = pb.gear(i, p)
+		}
+		for c, j := range pb.idx {
+			switch j {
+			case pGaugeZero, pValveOffset:
+				J[c][k] = linearDerivative(pb.spec, o, j)
+			case pDeadCentre:
+				if o.HasCrank {
+					J[c][k] = edge * slope
 				}
-				col[k] = linearDerivative(pb.spec, o, j)
-				k++
-			}
-		default:
-			h := stepOf(j)
-			q := p
-			q[j] += h
-			if err := pb.eval(q, tmp); err != nil {
-				q[j] = p[j] - h
-				if err := pb.eval(q, tmp); err != nil {
-					return nil, err
+			default:
+				if o.HasCrank {
+					J[c][k] = edge * pb.sens[pb.grp[i]][j].value(o.CrankDeg+p[pDeadCentre])
 				}
-				h = -h
-			}
-			for k := range col {
-				col[k] = (tmp[k] - r0[k]) / h
 			}
 		}
-		J[c] = col
+		k++
 	}
 	return J, nil
 }
@@ -284,6 +402,100 @@ func linearDerivative(spec setting.EngineSpec, o session.Observation, j param) f
 	return 0
 }
 
+// normal returns the normal equations of a Gauss-Newton step at p:
+// (J^T W J + P) and -(J^T W r + P (p - mean)).
+func (pb *problem) normal(p [numParams]float64, r []float64) (sym, []float64) {
+	J, _ := pb.jacobian(p, r)
+	m := len(pb.idx)
+	A := newSym(m)
+	g := make([]float64, m)
+	w := make([]float64, 0, len(r))
+	for i := range pb.obs {
+		if pb.use[i] {
+			w = append(w, 1/sq(pb.sig[i]))
+		}
+	}
+	for a := 0; a < m; a++ {
+		for b := 0; b <= a; b++ {
+			s := 0.0
+			for k, wk := range w {
+				s += J[a][k] * J[b][k] * wk
+			}
+			A.a[a*m+b], A.a[b*m+a] = s, s
+		}
+		s := 0.0
+		for k, wk := range w {
+			s += J[a][k] * r[k] * wk
+		}
+		j := pb.idx[a]
+		A.add(a, a, 1/sq(pb.prior[j]))
+		g[a] = -(s + (p[j]-pb.mean[j])/sq(pb.prior[j]))
+	}
+	return A, g
+}
+
+// fitOuter minimises the weighted sum of squares with the priors by
+// Gauss-Newton steps, halved while they do not lower it (the
+// Levenberg-Marquardt safeguard in its simplest form): each step is solved
+// on the linear model, and the linkage is sampled again at its end, so
+// the model is exact where the step lands.
+func (pb *problem) fitOuter(p [numParams]float64) ([numParams]float64, error) {
+	if pb.p0 != p {
+		if err := pb.sampleAt(p, false); err != nil {
+			return p, err
+		}
+	}
+	n := pb.nUsed()
+	r := make([]float64, n)
+	if err := pb.eval(p, r); err != nil {
+		return p, err
+	}
+	c := pb.cost(p, r)
+	rq := make([]float64, n)
+	for round := 0; round < 12; round++ {
+		A, g := pb.normal(p, r)
+		d, ok := A.solve(g)
+		if !ok {
+			return p, &setting.Error{Field: "readings", Message: "The readings cannot fix the gear's state: take a sweep in full forward and in full back gear."}
+		}
+		step := 1.0
+		accepted := false
+		var q [numParams]float64
+		var cq float64
+		for tries := 0; tries < 8; tries++ {
+			q = p
+			for a, j := range pb.idx {
+				q[j] += step * d[a]
+			}
+			if err := pb.sampleAt(q, false); err == nil && pb.eval(q, rq) == nil {
+				if cq = pb.cost(q, rq); cq <= c*(1+1e-12) {
+					accepted = true
+					break
+				}
+			}
+			step /= 2
+		}
+		if !accepted {
+			if err := pb.sampleAt(p, false); err != nil {
+				return p, err
+			}
+			return p, nil
+		}
+		small := true
+		for a := range pb.idx {
+			if math.Abs(step*d[a]) > 1e-3/math.Sqrt(A.at(a, a)) {
+				small = false
+			}
+		}
+		p, c = q, cq
+		copy(r, rq)
+		if small {
+			break
+		}
+	}
+	return p, nil
+}
+
 // FitObservations fits the as-built deviations of an engine to one round's
 // observations by Levenberg-Marquardt: weighted least squares of
 // prediction minus reading, each weighted by its error
@@ -298,15 +510,10 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 	if err := checkReadings(obs); err != nil {
 		return nil, err
 	}
-	pb := &problem{spec: spec, obs: obs, use: make([]bool, len(obs)), sig: make([]float64, len(obs))}
-	nominal, err := Model{Spec: spec}.Gear()
-	if err != nil {
-		return nil, err
-	}
+	pb := newProblem(spec, obs)
 	res := 0.0
 	dcSig := 0.0
-	for i, o := range obs {
-		pb.use[i] = true
+	for _, o := range obs {
 		res = math.Max(res, o.GaugeSigmaMM*math.Sqrt(12))
 		if o.Kind == session.AtDeadCentre && o.End == session.Front {
 			dcSig = math.Max(dcSig, o.CrankSigmaDeg)
@@ -320,25 +527,22 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 	if !hasGaugeReadings(obs) {
 		pb.idx = pb.idx[1:] // the gauge zero means nothing without readings
 	}
-	// Weights from the drawing's valve slope at each reading.
+	if err := pb.sampleAt(pb.mean, true); err != nil {
+		return nil, &setting.Error{Field: "engine.gear", Message: "The gear as drawn cannot reach every crank angle of the readings: " + err.Error()}
+	}
+	// Weights from the drawing's valve slope at each reading, and a first
+	// gauge zero.
 	var zsum float64
 	var zn int
+	marks := hasPortMarks(obs)
 	for i, o := range obs {
 		s := math.Max(o.GaugeSigmaMM, 1e-4)
 		if o.HasCrank {
-			a, err1 := nominal.Valve(spec.Engine, o.CrankDeg+0.5, o.Reverser)
-			b, err2 := nominal.Valve(spec.Engine, o.CrankDeg-0.5, o.Reverser)
-			if err1 != nil || err2 != nil {
-				return nil, linkageError(err1, err2)
-			}
-			slope := math.Abs(a - b)
+			x, slope := pb.gear(i, pb.mean)
 			s = math.Hypot(s, slope*o.CrankSigmaDeg)
-			if o.Kind == session.AtDeadCentre || o.Kind == session.InSweep {
-				x, _ := nominal.Valve(spec.Engine, o.CrankDeg, o.Reverser)
-				if !hasPortMarks(obs) {
-					zsum += o.GaugeMM - x
-					zn++
-				}
+			if (o.Kind == session.AtDeadCentre || o.Kind == session.InSweep) && !marks {
+				zsum += o.GaugeMM - x
+				zn++
 			}
 		}
 		if o.Kind == session.PortMarkKind {
@@ -351,7 +555,7 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 		pb.mean[pGaugeZero] = zsum / float64(zn)
 	}
 	f := &Fit{obs: obs}
-	p, err := pb.solve(pb.mean)
+	p, err := pb.fitOuter(pb.mean)
 	if err != nil {
 		return nil, err
 	}
@@ -367,7 +571,7 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 				pb.use[worst] = true
 				break
 			}
-			q, err := pb.solve(p)
+			q, err := pb.fitOuter(p)
 			if err != nil {
 				return nil, err
 			}
@@ -408,106 +612,6 @@ func linkageError(errs ...error) error {
 		}
 	}
 	return nil
-}
-
-// solve runs Levenberg-Marquardt from p0.
-func (pb *problem) solve(p0 [numParams]float64) ([numParams]float64, error) {
-	n := pb.nUsed()
-	r := make([]float64, n)
-	p := p0
-	if err := pb.eval(p, r); err != nil {
-		return p, &setting.Error{Field: "engine.gear", Message: "The gear as drawn cannot reach every crank angle of the readings: " + err.Error()}
-	}
-	c := pb.cost(p, r)
-	lambda := 1e-3
-	m := len(pb.idx)
-	trial := make([]float64, n)
-	for it := 0; it < 30; it++ {
-		J, err := pb.jacobian(p, r)
-		if err != nil {
-			return p, err
-		}
-		// Normal equations, weighted: (J^T W J + P) d = -(J^T W r + P (p - mean)).
-		A := newSym(m)
-		g := make([]float64, m)
-		for a := 0; a < m; a++ {
-			for b := 0; b <= a; b++ {
-				s := 0.0
-				k := 0
-				for i := range pb.obs {
-					if pb.use[i] {
-						s += J[a][k] * J[b][k] / sq(pb.sig[i])
-						k++
-					}
-				}
-				A.a[a*m+b], A.a[b*m+a] = s, s
-			}
-			s := 0.0
-			k := 0
-			for i := range pb.obs {
-				if pb.use[i] {
-					s += J[a][k] * r[k] / sq(pb.sig[i])
-					k++
-				}
-			}
-			j := pb.idx[a]
-			A.add(a, a, 1/sq(pb.prior[j]))
-			g[a] = -(s + (p[j]-pb.mean[j])/sq(pb.prior[j]))
-		}
-		improved := false
-		for tries := 0; tries < 12; tries++ {
-			D := newSym(m)
-			copy(D.a, A.a)
-			for a := 0; a < m; a++ {
-				D.add(a, a, lambda*A.at(a, a))
-			}
-			d, ok := D.solve(g)
-			if !ok {
-				lambda *= 10
-				continue
-			}
-			q := p
-			for a, j := range pb.idx {
-				q[j] += d[a]
-			}
-			if err := pb.eval(q, trial); err != nil {
-				lambda *= 10
-				continue
-			}
-			cq := pb.cost(q, trial)
-			if cq < c {
-				// Converged when the step is a thousandth of what the
-				// readings can tell, or the cost has stopped falling.
-				small := c-cq < 1e-6*c
-				for a := range pb.idx {
-					if math.Abs(d[a]) > 1e-3/math.Sqrt(A.at(a, a)) {
-						small = small || false
-					}
-				}
-				if !small {
-					small = true
-					for a := range pb.idx {
-						if math.Abs(d[a]) > 1e-3/math.Sqrt(A.at(a, a)) {
-							small = false
-						}
-					}
-				}
-				p, c = q, cq
-				copy(r, trial)
-				lambda = math.Max(lambda/10, 1e-9)
-				improved = true
-				if small {
-					return p, nil
-				}
-				break
-			}
-			lambda *= 10
-		}
-		if !improved {
-			break
-		}
-	}
-	return p, nil
 }
 
 // outlier returns the used reading farthest from the fit when it lies more
@@ -554,18 +658,11 @@ func (pb *problem) finish(f *Fit, p [numParams]float64, res float64) error {
 	f.idx = pb.idx
 	f.used = append([]bool(nil), pb.use...)
 	f.resMM = res
-	g, err := f.Model.Gear()
-	if err != nil {
-		return err
-	}
 	var ss float64
 	var nu int
 	var chi float64
 	for i, o := range pb.obs {
-		v, err := predict(pb.spec, g, p, o)
-		if err != nil {
-			return err
-		}
+		v := pb.predictS(i, p)
 		rr := Target(o) - v
 		f.Residuals = append(f.Residuals, Residual{Label: o.Label, Field: o.Field, Kind: o.Kind, ResidualMM: rr, Used: pb.use[i]})
 		if pb.use[i] {
@@ -586,26 +683,8 @@ func (pb *problem) finish(f *Fit, p [numParams]float64, res float64) error {
 	if err := pb.eval(p, r); err != nil {
 		return err
 	}
-	J, err := pb.jacobian(p, r)
-	if err != nil {
-		return err
-	}
+	A, _ := pb.normal(p, r)
 	m := len(pb.idx)
-	A := newSym(m)
-	for a := 0; a < m; a++ {
-		for b := 0; b < m; b++ {
-			s := 0.0
-			k := 0
-			for i := range pb.obs {
-				if pb.use[i] {
-					s += J[a][k] * J[b][k] / sq(pb.sig[i])
-					k++
-				}
-			}
-			A.a[a*m+b] = s
-		}
-		A.add(a, a, 1/sq(pb.prior[pb.idx[a]]))
-	}
 	cov, ok := A.inverse()
 	if !ok {
 		return &setting.Error{Field: "readings", Message: "The readings cannot fix the gear's state: take a sweep in full forward and in full back gear."}

@@ -175,7 +175,19 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	plan.Notes = append(plan.Notes, fit.RecheckMessages(session.UnitMM)...)
 	plan.Notes = append(plan.Notes, notes...)
 
-	main, err := ev.plan(p, ks, objective{prio: opt.Priority, weight: opt.Weight, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit)
+	if err := ev.setKnobs(p, ks); err != nil {
+		return nil, &setting.Error{Field: "engine.gear", Message: "The fitted gear cannot close all round: " + err.Error()}
+	}
+	qNow, err := ev.eventsOf(ev.base, nil)
+	if err != nil {
+		return nil, &setting.Error{Field: "engine.gear", Message: "The events cannot be found for the fitted gear: " + err.Error()}
+	}
+	for i := range qNow {
+		if err := ev.gradients(p, ev.ps[i].notch.Reverser, &qNow[i]); err != nil {
+			return nil, err
+		}
+	}
+	main, err := ev.plan(p, ks, qNow, objective{prio: opt.Priority, weight: opt.Weight, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit)
 	if err != nil {
 		return nil, err
 	}
@@ -184,7 +196,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	if opt.Priority == EqualCutOffs {
 		other = EqualLeads
 	}
-	alt, err := ev.plan(p, ks, objective{prio: other, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit)
+	alt, err := ev.plan(p, ks, qNow, objective{prio: other, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit)
 	if err == nil {
 		plan.Other = &Alternative{Priority: other, Steps: alt.steps, After: alt.after}
 		plan.Notes = append(plan.Notes, angularityNote(main, alt, opt.Priority, running))
@@ -254,7 +266,7 @@ type planned struct {
 }
 
 // plan solves, rounds and describes one priority.
-func (ev *evaluator) plan(p [numParams]float64, ks []knob, obj objective, canLead bool, fit *Fit) (*planned, error) {
+func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, obj objective, canLead bool, fit *Fit) (*planned, error) {
 	ts := obj.terms(len(ev.ps), canLead)
 	ideal, qIdeal, err := ev.optimise(p, ks, ts)
 	if err != nil {
@@ -264,17 +276,18 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, obj objective, canLea
 	if err != nil {
 		return nil, err
 	}
-	qNow, err := ev.events(p, true)
-	if err != nil {
-		return nil, err
-	}
 	// Uncertainty: the ideal change's sensitivity to the fitted
 	// deviations, -(A^T A + R)^-1 A^T B, through the fit's covariance.
 	sig := ev.stepSigmas(ks, ts, qNow, fit)
 	out := &planned{prio: obj.prio, qNow: qNow, qAft: qAft}
 	out.now = ev.states(qNow, fit)
 	qAftG := qAft
-	if q2, err := ev.events(applyKnobs(p, ks, rounded), true); err == nil {
+	// The rounded plan's events from the linkage sampled afresh; their
+	// errors are today's (the plan adds none the readings can see).
+	if q2, err := ev.events(applyKnobs(p, ks, rounded), false); err == nil {
+		for i := range q2 {
+			q2[i].grad = qNow[i].grad
+		}
 		qAftG = q2
 	}
 	out.after = ev.states(qAftG, fit)

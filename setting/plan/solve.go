@@ -602,14 +602,11 @@ func sumSquares(ts []term, q []quantities) float64 {
 }
 
 // optimise finds the changes of the knobs (in their units) that minimise
-// the objective from parameters p, within the knobs' limits, by bounded
+// the objective from parameters p (whose curves setKnobs has sampled), within the knobs' limits, by bounded
 // Gauss-Newton on the events' implicit-function gradients.
 func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term) ([]float64, []quantities, error) {
 	n := len(ks)
 	a := make([]float64, n)
-	if err := ev.setKnobs(p, ks); err != nil {
-		return nil, nil, err
-	}
 	qs, err := ev.eventsOf(ev.base, ks)
 	if err != nil {
 		return nil, nil, err

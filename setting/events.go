@@ -88,11 +88,13 @@ func (s EventSet) ValveTravel() float64 { return s.ValveMax - s.ValveMin }
 //
 // Method. Every port edge is a straight function of the valve displacement
 // (see Admission), so all four edges are searched on one sampling of the
-// curve. The motion is sampled at 40 equally spaced crank angles, doubled
+// curve. The motion is sampled at 32 equally spaced crank angles, doubled
 // while the top quarter of the samples' trigonometric interpolant carries
-// more than a millionth of its harmonics (up to 320 samples): a smooth gear
-// curve's harmonics fall off fast, so 40 samples usually suffice and the
-// interpolant is then exact to rounding. The edge search runs on the
+// more than a millionth of its harmonics (up to 256 samples): a smooth gear
+// curve's harmonics fall off fast, so 32 samples usually suffice, and the
+// interpolant then follows the curve far closer than any dial gauge reads
+// (roots and extremes are taken on the curve itself). The edge search
+// runs on the
 // interpolant; each crossing is then polished on the motion itself by
 // Newton's method with the interpolant's slope, which is safeguarded: a
 // step that leaves the crossing's grid step falls back to Brent's method
@@ -468,8 +470,8 @@ func (s *sampler) polish(sp *spectrum, k, lap float64, cs []crossing) error {
 }
 
 const (
-	spectralStart = 40   // first number of samples for the interpolant
-	spectralMax   = 320  // most samples before searching the motion directly
+	spectralStart = 32   // first number of samples for the interpolant
+	spectralMax   = 256  // most samples before searching the motion directly
 	spectralTail  = 1e-6 // resolved: the top quarter of the spectrum holds less than this share of it
 )
 

@@ -94,21 +94,23 @@ func (s EventSet) ValveTravel() float64 { return s.ValveMax - s.ValveMin }
 // curve's harmonics fall off fast, so 32 samples usually suffice, and the
 // interpolant then follows the curve far closer than any dial gauge reads
 // (roots and extremes are taken on the curve itself). The edge search
-// runs on the
-// interpolant; each crossing is then polished on the motion itself by
-// Newton's method with the interpolant's slope, which is safeguarded: a
+// runs on the interpolant; each crossing is then polished on the motion
+// itself by Newton's method with the interpolant's slope, safeguarded: a
 // step that leaves the crossing's grid step falls back to Brent's method
 // on the motion. A curve whose harmonics do not settle (a kink, a jump,
 // noise) is searched on the motion directly instead, on the grid of the
 // samples already taken, doubled (up to 3840 steps) until its second
 // differences are small.
 //
-// The edge search: a sign change in a grid step is refined by Brent's
-// method. A step with no sign change whose ends lie closer to the edge than
-// the curve could bulge (four times the bulge its second differences imply)
-// is searched for its extreme by Brent's minimiser; a dip past the edge by
-// more than 1e-9 mm gives two crossings (the curve touches and leaves), a
-// smaller one is a touch that opens nothing.
+// The edge search, step by grid step: a sign change is refined (bracketed
+// Newton steps on the interpolant, Brent's method on the motion). A step
+// with no sign change whose ends lie closer to the edge than the curve
+// could bulge inside it is searched for its extreme; on the interpolant
+// the bulge bound is exact (its curvature is at most the sum of k^2 times
+// its harmonics), on the motion it is four times what the second
+// differences imply. A dip past the edge by more than 1e-9 mm gives two
+// crossings (the curve touches and leaves); a smaller one is a touch that
+// opens nothing.
 //
 // The motion's errors are returned as they are (a gear's *Error naming the
 // link and the crank angle); a NaN or infinite displacement is an *Error on

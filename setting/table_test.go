@@ -104,3 +104,35 @@ func TestReverserPositions(t *testing.T) {
 		t.Errorf("ReverserPositions(9) = %+v", got)
 	}
 }
+
+// failingGear works a plain sinusoid but cannot close in back gear.
+type failingGear struct{}
+
+func (failingGear) Kind() string            { return "test gear" }
+func (failingGear) Validate(e Engine) error { return nil }
+func (failingGear) Valve(e Engine, th float64, r Reverser) (float64, error) {
+	if r < 0 && th > 100 {
+		return 0, &Error{"test_rod", "The test rod cannot reach at crank angle 101 deg."}
+	}
+	return -6 * sinDeg(th+30), nil
+}
+
+func TestTableNamesTheNotchOfAGearError(t *testing.T) {
+	spec := testSingle(t)
+	_, err := Table(spec.Engine, spec.Valve, failingGear{}, []Notch{{"full forward", 1}, {"reverse running", -0.6}}, nil)
+	var e *Error
+	if !errors.As(err, &e) || e.Field != "test_rod" || !strings.Contains(e.Message, "reverse running") || !strings.Contains(e.Message, "cannot reach") {
+		t.Errorf("got %v, want the gear's error with the notch named", err)
+	}
+}
+
+func TestEncodeRefusesAnInvalidSpec(t *testing.T) {
+	spec := testSingle(t)
+	spec.Valve.Front.PortWidth = 0
+	var b strings.Builder
+	err := spec.Encode(&b)
+	var e *Error
+	if !errors.As(err, &e) || e.Field != "valve.front.port_width" || b.Len() != 0 {
+		t.Errorf("got %v and %d bytes written, want a valve.front.port_width error and nothing written", err, b.Len())
+	}
+}

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strings"
 	"time"
 
 	"evenbeat/setting"
@@ -107,6 +108,10 @@ func (s *Session) checkCylinder(ci int) []Warning {
 	if err != nil {
 		return w
 	}
+	leads, err := s.Leads(ci)
+	if err != nil {
+		return w
+	}
 	band := 1.0
 	if cr := a.info.engine.CrankRadius; cr > 2*typicalCrankMM {
 		band = cr / typicalCrankMM
@@ -127,36 +132,22 @@ func (s *Session) checkCylinder(ci int) []Warning {
 				}
 			}
 		}
-		edges, ok := roundEdges(obs, ri)
-		if !ok {
-			continue
-		}
-		if lf, lb := a.info.steamLap[0], a.info.steamLap[1]; lf+lb > 0 {
-			apart := math.Abs(edges[1] - edges[0])
-			if math.Abs(apart-(lf+lb)) > math.Max(0.5, 0.25*(lf+lb)) {
-				add(rp+".port_marks", "The port marks are %s mm apart, but the engine's steam laps add up to %s mm; check the marks or the laps.", fmtNum(round3(apart)), fmtNum(round3(lf+lb)))
+		if edges, ok := roundEdges(obs, ri); ok {
+			if lf, lb := a.info.steamLap[0], a.info.steamLap[1]; lf+lb > 0 {
+				apart := math.Abs(edges[1] - edges[0])
+				if math.Abs(apart-(lf+lb)) > math.Max(0.5, 0.25*(lf+lb)) {
+					add(rp+".port_marks", "The port marks are %s mm apart, but the engine's steam laps add up to %s mm; check the marks or the laps.", fmtNum(round3(apart)), fmtNum(round3(lf+lb)))
+				}
 			}
 		}
 		for _, o := range obs {
-			if o.Round == ri && o.HasCrank && (o.Reverser > 0 && o.Direction == Backward || o.Reverser < 0 && o.Direction == Forward) {
-				add(o.Field, "The reading at %s was taken turning the wheel against the running direction of that gear, so the backlash in the motion lies the other way; take it again turning %s if it disagrees with the rest.", o.Label, opposite(o.Direction))
-			}
-			if o.Round != ri || !o.HasCrank || math.Abs(float64(o.Reverser)) != 1 {
+			if o.Round != ri || !o.HasCrank {
 				continue
 			}
-			switch o.Kind {
-			case AtDeadCentre:
-				lead := a.lead(o, edges)
-				lo, hi := leadLowMM*band, leadHighMM*band
-				if lead < 0 {
-					add(o.Field, "The lead at %s is %s mm: the port is still closed at dead centre (negative lead).", o.Label, fmtNum(round3(lead)))
-				} else if lead < lo || lead > hi {
-					add(o.Field, "The lead at %s is %s mm, outside the usual %s to %s mm (common practice for this size of engine, from memory).", o.Label, fmtNum(round3(lead)), fmtNum(round3(lo)), fmtNum(round3(hi)))
-				}
-			case CutOffKind:
-				if !a.info.haveEngine {
-					continue
-				}
+			if o.Reverser > 0 && o.Direction == Backward || o.Reverser < 0 && o.Direction == Forward {
+				add(o.Field, "The reading at %s was taken turning the wheel against the running direction of that gear, so the backlash in the motion lies the other way; take it again turning %s if it disagrees with the rest.", o.Label, opposite(o.Direction))
+			}
+			if o.Kind == CutOffKind && a.info.haveEngine && math.Abs(float64(o.Reverser)) == 1 {
 				pct := 100 * a.info.engine.PistonFraction(o.CrankDeg)
 				if o.End == Back {
 					pct = 100 - pct
@@ -164,6 +155,17 @@ func (s *Session) checkCylinder(ci int) []Warning {
 				if pct < cutOffLow || pct > cutOffHigh {
 					add(o.Field, "The %s is at %.0f %% of the stroke; full-gear cut-off is usually 70 to 80 %% (common practice, from memory).", o.Label, pct)
 				}
+			}
+		}
+		for _, l := range leads {
+			if l.Round != ri || math.Abs(float64(l.Reverser)) != 1 {
+				continue
+			}
+			lo, hi := leadLowMM*band, leadHighMM*band
+			if l.LeadMM < 0 {
+				add(l.Field, "The lead at %s is %s mm: the port is still closed at dead centre (negative lead).", l.Label, fmtNum(round3(l.LeadMM)))
+			} else if l.LeadMM < lo || l.LeadMM > hi {
+				add(l.Field, "The lead at %s is %s mm, outside the usual %s to %s mm (common practice for this size of engine, from memory).", l.Label, fmtNum(round3(l.LeadMM)), fmtNum(round3(lo)), fmtNum(round3(hi)))
 			}
 		}
 		for i, f := range r.FeelerOpenings {
@@ -207,6 +209,92 @@ func roundEdges(obs []Observation, ri int) ([2]float64, bool) {
 		}
 	}
 	return e, n == 2
+}
+
+// steamEdges returns the steam edges (normalised gauge readings, front and
+// back) that hold in round ri of cylinder c: that round's port marks or
+// laps, or an earlier round's if the valve has not been moved on its spindle
+// since; from is the round they come from.
+func steamEdges(c *Cylinder, obs []Observation, ri int) (edges [2]float64, from int, ok bool) {
+	for k := ri; k >= 0; k-- {
+		if edges, ok = roundEdges(obs, k); ok {
+			return edges, k, true
+		}
+		for _, ch := range c.Rounds[k].AdjustmentsBefore {
+			if ch.Kind == ValveOnSpindle {
+				return edges, 0, false
+			}
+		}
+	}
+	return edges, 0, false
+}
+
+// LeadReading is a lead found straight from the readings, without a fit:
+// a dead-centre gauge reading against the port mark of its end, or a
+// feeler opening taken on a dead centre.
+type LeadReading struct {
+	Round     int
+	End       End // the dead centre and its port
+	Reverser  setting.Reverser
+	Notch     string
+	Direction Direction
+	// LeadMM is the lead: how far the port is open to steam at dead
+	// centre, negative when still closed.
+	LeadMM float64
+	// SigmaMM is its error from the gauge (or feeler) alone: a dead-centre
+	// reading's angle error adds to it, the more so the faster the valve
+	// moves there.
+	SigmaMM float64
+	Field   string // the reading's field
+	Label   string // "back dead centre, full forward"
+}
+
+// Leads returns the leads read straight from cylinder cyl's dead-centre
+// readings and feeler openings, in file order, round by round. Readings in
+// a round with no steam edges (see Readiness) give none.
+func (s *Session) Leads(cyl int) ([]LeadReading, error) {
+	a, err := s.angles(cyl)
+	if err != nil {
+		return nil, err
+	}
+	obs, err := s.Observations(cyl)
+	if err != nil {
+		return nil, err
+	}
+	var out []LeadReading
+	for _, o := range obs {
+		lr := LeadReading{Round: o.Round, End: o.End, Reverser: o.Reverser, Notch: o.Notch, Direction: o.Direction, Field: o.Field, Label: o.Label}
+		switch o.Kind {
+		case AtDeadCentre:
+			edges, _, ok := steamEdges(a.c, obs, o.Round)
+			if !ok {
+				continue
+			}
+			lr.LeadMM = a.lead(o, edges)
+			lr.SigmaMM = o.GaugeSigmaMM * math.Sqrt2 // the reading and the port mark
+		case FeelerKind:
+			// Only an opening taken on its own port's dead centre is a lead.
+			if f := feelerOf(a.c, o); f.DeadCentre == "" || f.DeadCentre != f.Port {
+				continue
+			}
+			lr.LeadMM, lr.SigmaMM = o.OpeningMM, o.GaugeSigmaMM
+		default:
+			continue
+		}
+		out = append(out, lr)
+	}
+	return out, nil
+}
+
+// feelerOf returns the feeler opening a FeelerKind observation came from:
+// the round's feeler openings appear in order among its observations.
+func feelerOf(c *Cylinder, o Observation) FeelerOpening {
+	for i, f := range c.Rounds[o.Round].FeelerOpenings {
+		if strings.HasSuffix(o.Field, fmt.Sprintf(".feeler_openings[%d]", i)) {
+			return f
+		}
+	}
+	return FeelerOpening{}
 }
 
 // lead returns the lead of a dead-centre observation given the round's
@@ -293,24 +381,9 @@ func (s *Session) Readiness(cyl int) []Problem {
 		}
 	}
 
-	// Steam edges: this round's, or an earlier round's if the valve has not
-	// been moved on its spindle since.
-	edges, haveEdges := roundEdges(obs, ri)
-	if !haveEdges {
-		for k := ri - 1; k >= 0 && !haveEdges; k-- {
-			moved := false
-			for j := k + 1; j <= ri; j++ {
-				for _, ch := range c.Rounds[j].AdjustmentsBefore {
-					moved = moved || ch.Kind == ValveOnSpindle
-				}
-			}
-			if moved {
-				break
-			}
-			if edges, haveEdges = roundEdges(obs, k); haveEdges {
-				add(false, rp, "This round has no port marks; those of round %d are used. That holds only if the gauge has not been moved or re-set since.", k+1)
-			}
-		}
+	edges, from, haveEdges := steamEdges(c, obs, ri)
+	if haveEdges && from != ri {
+		add(false, rp, "This round has no port marks; those of round %d are used. That holds only if the gauge has not been moved or re-set since.", from+1)
 	}
 	if !haveEdges && len(r.FeelerOpenings) == 0 {
 		add(true, rp+".port_marks", "The port marks are missing: without the gauge readings where each steam edge cracks, leads and cut-offs cannot be found. Find where each steam edge is line-on-line (or give the laps and the gauge reading at valve centre).")

@@ -188,3 +188,44 @@ func ExampleParseLength() {
 	// 1/16 = 1.5875 mm
 	// 0.13 mm = 0.1300 mm
 }
+
+// The leads read straight from the example: port mark against dead-centre
+// reading, worked by hand from the file (slide valves, external admission,
+// gauge growing toward the front: front lead = front mark - reading, back
+// lead = reading - back mark).
+func TestExampleLeads(t *testing.T) {
+	s, err := Decode(bytes.NewReader(readExample(t)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := [][]float64{
+		{
+			2.48 - 2.41, 7.62 - 7.28, // round 1, full forward
+			2.48 - 2.03, 8.12 - 7.28, // running notch
+			2.48 - 2.65, 7.85 - 7.28, // full back
+			2.60 - 2.41, 7.62 - 7.40, // round 2, after the spindle nut
+			2.60 - 2.65, 7.85 - 7.40,
+		},
+		{
+			(4.58 - 2.4) - 1.90, 7.10 - (4.58 + 2.4), // laps and centre reading
+			0.3, 0.1, // feelers on dead centre
+		},
+	}
+	for ci := range s.Cylinders {
+		leads, err := s.Leads(ci)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(leads) != len(want[ci]) {
+			t.Fatalf("cylinder %d: %d leads, want %d", ci, len(leads), len(want[ci]))
+		}
+		for i, l := range leads {
+			if math.Abs(l.LeadMM-want[ci][i]) > 1e-9 {
+				t.Errorf("%s (%s): lead %.3f, want %.3f", l.Label, l.Field, l.LeadMM, want[ci][i])
+			}
+			if !(l.SigmaMM > 0) {
+				t.Errorf("%s: no error estimate", l.Label)
+			}
+		}
+	}
+}

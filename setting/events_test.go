@@ -51,7 +51,9 @@ func TestInternalExternalMirror(t *testing.T) {
 // x(t + 180) = -x(t)) gives the same events at both ends but for the
 // angularity of the connecting rod: equal crank angles from each dead
 // centre, and with a finite rod the front stroke cuts off later (common
-// practice, no source; the size of the effect is published-checks C3).
+// practice, no source; the size of the effect is checked against C. A.
+// Purinton, "Lap and Lead in Slide Valves", The Live Steamer, 1950, in
+// TestPublishedPurintonTravel).
 func TestSymmetricEngineDiffersOnlyByAngularity(t *testing.T) {
 	motion := textbookMotion(6, 30, External)
 	v := slideValve(External, 3, 0, 3)

@@ -99,7 +99,8 @@ func advanceFor(r, lap, lead float64) float64 {
 	return math.Asin((lap+lead)/r) * 180 / math.Pi
 }
 
-// C2. John Bourne, "A Catechism of the Steam Engine", Q. 189-190 (Bourne's
+// C2. John Bourne, "A Catechism of the Steam Engine" (first published
+// 1847; year from memory, the edition not checked), Q. 189-190 (Bourne's
 // rule): lap = (travel/2) sqrt(1 - f) - lead/2, exact for zero lead with
 // infinite rods. The exact lap is found here by solving for the lap whose
 // events give the cut-off f.
@@ -174,15 +175,16 @@ func TestPublishedPurintonTravel(t *testing.T) {
 
 // C4 (the part that needs only the event code). L. V. Ludy, "Locomotive
 // Boilers and Engines", 1920, p. 88: the valve positions at the two dead
-// centres differ by 2 x (lap + lead), fixed by the combination lever, so the
-// lead is the same in every reverser position; C. H. Peabody, "Valve-Gears
-// for Steam-Engines", ch. IV: the crosshead motion acts as an eccentric of
-// 90 degrees advance and amplitude lap + lead, so the mid-gear travel is
-// 2 x (lap + lead). The motion here is built that way: the lever's share is
-// the exact crosshead displacement scaled to lap + lead at the dead centres,
-// the link's share a swing of amplitude proportional to the reverser that
-// is zero at both dead centres. The engine is offset, so the dead centres
-// are not 180 degrees apart.
+// centres differ by 2 x (lap + lead), fixed by the combination lever, so
+// the lead is the same in every reverser position; C. H. Peabody,
+// "Valve-Gears for Steam-Engines" (1892; year from memory), ch. IV: the
+// crosshead motion acts as an eccentric of 90 degrees advance and amplitude
+// lap + lead, so the mid-gear travel is 2 x (lap + lead). The motion here
+// is built that way: the lever's share is the exact crosshead displacement
+// scaled to lap + lead at the dead centres, the link's share a swing of
+// amplitude proportional to the reverser that is zero at both dead
+// centres. The engine is offset, so the dead centres are not 180 degrees
+// apart.
 func TestPublishedWalschaertsLeadFromCrosshead(t *testing.T) {
 	e := Engine{CrankRadius: 1.5 * inch, RodLength: 9 * inch, Offset: 0.3 * inch}
 	c, err := e.Prepare()

@@ -266,7 +266,7 @@ func (pb *problem) gear(i int, p [numParams]float64) (x, slope float64) {
 	th := pb.obs[i].CrankDeg + p[pDeadCentre]
 	x, slope = pb.base[g].at(th)
 	for _, j := range pb.idx {
-		if d := pb.sens[g][j]; d != nil {
+		if d := pb.sens[g][j]; d != nil && p[j] != pb.p0[j] {
 			v, dv := d.at(th)
 			x += (p[j] - pb.p0[j]) * v
 			slope += (p[j] - pb.p0[j]) * dv

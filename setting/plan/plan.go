@@ -118,6 +118,9 @@ func Make(s *session.Session, opt Options) (*Plan, error) {
 	if opt.Cylinder < 0 || opt.Cylinder >= len(s.Cylinders) {
 		return nil, &setting.Error{Field: "cylinders", Message: fmt.Sprintf("There is no cylinder %d; the session has %d.", opt.Cylinder, len(s.Cylinders))}
 	}
+	if opt.Unit == "" {
+		opt.Unit = s.DisplayUnit
+	}
 	fit, err := FitSession(s, opt.Cylinder, opt.Fit)
 	if err != nil {
 		return nil, err
@@ -172,7 +175,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	if opt.TargetLeadMM != nil && !canLead {
 		notes = append(notes, "The lead cannot be brought to the target: only an eccentric's angle changes the lead, and the profile allows none; the plan shares the lead between the ends.")
 	}
-	plan.Notes = append(plan.Notes, fit.RecheckMessages(session.UnitMM)...)
+	plan.Notes = append(plan.Notes, fit.RecheckMessages(opt.Unit)...)
 	plan.Notes = append(plan.Notes, notes...)
 
 	if err := ev.setKnobs(p, ks); err != nil {
@@ -199,7 +202,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	alt, err := ev.plan(p, ks, qNow, objective{prio: other, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit)
 	if err == nil {
 		plan.Other = &Alternative{Priority: other, Steps: alt.steps, After: alt.after}
-		plan.Notes = append(plan.Notes, angularityNote(main, alt, opt.Priority, running))
+		plan.Notes = append(plan.Notes, angularityNote(main, alt, opt.Priority, running, opt.Unit))
 	}
 	if len(plan.Steps) == 0 {
 		plan.Notes = append(plan.Notes, "Nothing to change: no change the engine allows, in steps hands can make, would make it better by this priority.")
@@ -592,7 +595,7 @@ func turnsWords(turns, flats int) string {
 }
 
 // angularityNote tells the setter what the other quantity becomes.
-func angularityNote(main, alt *planned, prio Priority, running int) string {
+func angularityNote(main, alt *planned, prio Priority, running int, unit session.Unit) string {
 	lead, cut := main, alt
 	if prio == EqualCutOffs {
 		lead, cut = alt, main
@@ -602,8 +605,8 @@ func angularityNote(main, alt *planned, prio Priority, running int) string {
 		ra = 0
 	}
 	la, ca := lead.after[ra], cut.after[ra]
-	return fmt.Sprintf("Equal leads and equal cut-offs cannot both be had: the connecting rod's angularity puts them apart. In %s, equal leads leave the cut-offs at %.1f %% front and %.1f %% back; equal cut-offs (%.1f %% and %.1f %%) need leads of %.2f mm front and %.2f mm back. The plan shown first is the one chosen (%s); the other is given beside it.",
-		la.Notch, la.Front.CutOffPercent, la.Back.CutOffPercent, ca.Front.CutOffPercent, ca.Back.CutOffPercent, ca.Front.LeadMM, ca.Back.LeadMM, prio)
+	return fmt.Sprintf("Equal leads and equal cut-offs cannot both be had: the connecting rod's angularity puts them apart. In %s, equal leads leave the cut-offs at %.1f %% front and %.1f %% back; equal cut-offs (%.1f %% and %.1f %%) need leads of %s front and %s back. The plan shown first is the one chosen (equal %s); the other is given beside it.",
+		la.Notch, la.Front.CutOffPercent, la.Back.CutOffPercent, ca.Front.CutOffPercent, ca.Back.CutOffPercent, length(ca.Front.LeadMM, unit), length(ca.Back.LeadMM, unit), prio)
 }
 
 // nextReading names the reading that would help most when the readings

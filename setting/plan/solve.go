@@ -45,6 +45,9 @@ type Options struct {
 	Fit FitOptions
 	// Cylinder is the index of the cylinder to plan.
 	Cylinder int
+	// Unit is the display unit of the notes' lengths; Make uses the
+	// session's when it is empty, FromFit mm.
+	Unit session.Unit
 }
 
 // position is a reverser position run one way.
@@ -565,7 +568,7 @@ func (o objective) terms(n int, canLead bool) []term {
 		case o.target != nil && canLead && (o.full == nil || o.full[i]):
 			ts = append(ts, term{pos: i, coef: [4]float64{0.5, 0.5, 0, 0}, c: -*o.target, scale: sl, w: 1, what: "target"})
 		case i < len(o.design):
-			ts = append(ts, term{pos: i, coef: [4]float64{0.5, 0.5, 0, 0}, c: -o.design[i], scale: 0.05, w: 0.2, what: "design"})
+			ts = append(ts, term{pos: i, coef: [4]float64{0.5, 0.5, 0, 0}, c: -o.design[i], scale: 0.05, w: 1, what: "design"})
 		}
 	}
 	return ts
@@ -753,6 +756,28 @@ func (ev *evaluator) roundPlan(p [numParams]float64, ks []knob, ts []term, ideal
 			}
 		}
 		try(a)
+	}
+	// Then a step either way on each knob while that helps: coarse steps
+	// on one knob can be made up by another.
+	for it := 0; it < 40 && best != nil; it++ {
+		improved := false
+		for i, k := range ks {
+			for _, dir := range []float64{-1, 1} {
+				a := append([]float64(nil), best...)
+				a[i] += dir * k.step
+				if math.Abs(a[i]) < 1e-12 {
+					a[i] = 0
+				}
+				before := bestC
+				try(a)
+				if bestC < before {
+					improved = true
+				}
+			}
+		}
+		if !improved {
+			break
+		}
 	}
 	if best == nil {
 		return nil, nil, &setting.Error{Field: "adjustments", Message: "No rounded plan could be evaluated: the gear cannot close with the changes proposed."}

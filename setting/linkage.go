@@ -44,10 +44,13 @@ func (p Point) Cross(q Point) float64 { return p.U*q.W - p.W*q.U }
 // Left returns p turned a quarter turn anticlockwise (from +U toward +W).
 func (p Point) Left() Point { return Point{-p.W, p.U} }
 
+// turn returns p turned anticlockwise by the angle of cosine c and sine s.
+func turn(p Point, c, s float64) Point { return Point{p.U*c - p.W*s, p.U*s + p.W*c} }
+
 // Rotate returns p turned anticlockwise (from +U toward +W) by rad radians.
 func (p Point) Rotate(rad float64) Point {
 	s, c := math.Sincos(rad)
-	return Point{p.U*c - p.W*s, p.U*s + p.W*c}
+	return turn(p, c, s)
 }
 
 // Finite reports whether both coordinates are finite numbers.
@@ -271,6 +274,10 @@ func sweepCheck(e Engine, valve func(Engine, float64, Reverser) (float64, error)
 // solutions), far below the events' 1e-9 mm touch tolerance, and saves the
 // last, confirming iteration.
 const newtonStep = 1e-4
+
+// startPasses is how many fixed-point passes refine a link's starting
+// position before Newton's method.
+const startPasses = 3
 
 // checkStepDeg is the crank-angle step of the closing check in Validate.
 const checkStepDeg = 10

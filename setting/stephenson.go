@@ -154,24 +154,26 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 	// arm pin, the rod pins stand where rods of their length reach at their
 	// heights, the link tilted to meet both; then once more with the lifting
 	// link's true slant. This leaves Newton's method two steps.
-	reach := func(sheave Point, rod float64, pinW float64) float64 {
+	reach := func(sheave Point, rod, pinW float64) float64 {
 		dw := pinW - sheave.W
 		return sheave.U + rootPos(rod*rod-dw*dw)
 	}
 	centre := Point{0, p.armPin.W + hang*g.LiftingLink - sLocal.W}
-	var sa float64
-	for pass := 0; pass < 2; pass++ {
-		uf := reach(p.fwdSheave, g.Forward.Rod, centre.W+fLocal.W) - fLocal.U
-		ub := reach(p.backSheave, g.Backward.Rod, centre.W+bLocal.W) - bLocal.U
-		sa = (uf - ub) / (bLocal.W - fLocal.W) // sine of the tilt that places both pins
-		centre.U = (uf+ub)/2 + sa*(fLocal.W+bLocal.W)/2
-		su := centre.U + sLocal.U - sa*sLocal.W - p.armPin.U
-		centre.W = p.armPin.W + hang*rootPos(g.LiftingLink*g.LiftingLink-su*su) - sLocal.W - sa*sLocal.U
+	sa, ca := 0.0, 1.0
+	for pass := 0; pass < startPasses; pass++ {
+		qf, qb := turn(fLocal, ca, sa), turn(bLocal, ca, sa)
+		pf := reach(p.fwdSheave, g.Forward.Rod, centre.W+qf.W)
+		pb := reach(p.backSheave, g.Backward.Rod, centre.W+qb.W)
+		sa = clamp((pf-pb-(fLocal.U-bLocal.U)*ca)/(bLocal.W-fLocal.W), 0.8) // the tilt that places both pins
+		ca = math.Sqrt(1 - sa*sa)
+		qf, qs := turn(fLocal, ca, sa), turn(sLocal, ca, sa)
+		centre.U = pf - qf.U
+		su := centre.U + qs.U - p.armPin.U
+		centre.W = p.armPin.W + hang*rootPos(g.LiftingLink*g.LiftingLink-su*su) - qs.W
 	}
 	// Newton's method on the three loop equations (|pin - anchor|^2 -
-	// length^2) / (2 length) = 0 in the link centre and the sine of its tilt.
+	// length^2) / 2 = 0 in the link centre and the sine of its tilt.
 	ok := false
-	var ca float64
 	for it := 0; it < 20; it++ {
 		if !(math.Abs(sa) < 0.9) {
 			break
@@ -194,7 +196,7 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 			break
 		}
 	}
-	place := func(q Point) Point { return centre.Add(Point{q.U*ca - q.W*sa, q.U*sa + q.W*ca}) }
+	place := func(q Point) Point { return centre.Add(turn(q, ca, sa)) }
 	p.centre, p.sin, p.cos = centre, sa, ca
 	p.fwdPin, p.backPin, p.suspension = place(fLocal), place(bLocal), place(sLocal)
 	if !ok || !p.fwdPin.Finite() || p.fwdPin.U < p.fwdSheave.U || p.backPin.U < p.backSheave.U || (p.suspension.W-p.armPin.W)*hang < 0 {
@@ -218,7 +220,7 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 // sine sa of its tilt (ca its cosine, ica = 1/ca), for a pin at local in the
 // link's frame.
 func loopRow(centre Point, ca, sa, ica float64, local, anchor Point, length float64) ([3]float64, float64) {
-	rq := Point{local.U*ca - local.W*sa, local.U*sa + local.W*ca}
+	rq := turn(local, ca, sa)
 	d := centre.Add(rq).Sub(anchor)
 	return [3]float64{d.U, d.W, d.Dot(rq.Left()) * ica}, (d.Dot(d) - length*length) / 2
 }

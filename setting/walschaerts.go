@@ -342,5 +342,5 @@ func (g Walschaerts) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) 
 func (g *Walschaerts) slotPoint(p walschaertsPose, s float64) Point {
 	sn, cs := math.Sincos(s / g.LinkRadius)
 	q := Point{g.LinkRadius * (1 - cs), g.LinkRadius * sn}
-	return g.Trunnion.Add(Point{q.U*p.linkCos - q.W*p.linkSin, q.U*p.linkSin + q.W*p.linkCos})
+	return g.Trunnion.Add(turn(q, p.linkCos, p.linkSin))
 }

@@ -121,3 +121,28 @@ func combine(base curve, d []curve, a []float64, shift float64) curve {
 func (c curve) motion() setting.Motion {
 	return func(th float64) (float64, error) { return c.value(th), nil }
 }
+
+// effect returns, per position, the curve of the effect of one unit of
+// deviation j: a difference over step h of the curves at p (base) and at p
+// moved by h (by -h when the linkage cannot close at +h).
+func effect(curves func([numParams]float64) ([]curve, error), p [numParams]float64, j param, h float64, base []curve) ([]curve, error) {
+	q := p
+	q[j] += h
+	cs, err := curves(q)
+	if err != nil {
+		q[j] = p[j] - h
+		if cs, err = curves(q); err != nil {
+			return nil, err
+		}
+		h = -h
+	}
+	out := make([]curve, len(cs))
+	for i := range cs {
+		d := make(curve, len(cs[i]))
+		for m := range d {
+			d[m] = (cs[i][m] - base[i][m]) / h
+		}
+		out[i] = d
+	}
+	return out, nil
+}

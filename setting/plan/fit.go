@@ -234,23 +234,12 @@ func (pb *problem) sampleAt(p [numParams]float64, withSens bool) error {
 			if j == pGaugeZero || j == pValveOffset || j == pDeadCentre {
 				continue
 			}
-			h := stepOf(j)
-			q := p
-			q[j] += h
-			cs, err := curves(q)
+			ds, err := effect(curves, p, j, stepOf(j), base)
 			if err != nil {
-				q[j] = p[j] - h
-				if cs, err = curves(q); err != nil {
-					return err
-				}
-				h = -h
+				return err
 			}
 			for k := range pb.revs {
-				d := make(curve, len(base[k]))
-				for m := range d {
-					d[m] = (cs[k][m] - base[k][m]) / h
-				}
-				pb.sens[k][j] = d
+				pb.sens[k][j] = ds[k]
 			}
 		}
 	}

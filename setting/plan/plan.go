@@ -577,21 +577,21 @@ func fineLength(mm float64, unit session.Unit) string {
 
 func turnsWords(turns, flats int) string {
 	var parts []string
-	switch turns {
-	case 0:
-	case 1:
-		parts = append(parts, "1 turn")
-	default:
-		parts = append(parts, fmt.Sprintf("%d turns", turns))
+	if turns > 0 {
+		parts = append(parts, count(turns, "turn"))
 	}
-	switch flats {
-	case 0:
-	case 1:
-		parts = append(parts, "1 flat")
-	default:
-		parts = append(parts, fmt.Sprintf("%d flats", flats))
+	if flats > 0 {
+		parts = append(parts, count(flats, "flat"))
 	}
 	return strings.Join(parts, " and ") + " of the thread"
+}
+
+// count writes "1 turn", "3 turns".
+func count(n int, word string) string {
+	if n == 1 {
+		return "1 " + word
+	}
+	return fmt.Sprintf("%d %ss", n, word)
 }
 
 // angularityNote tells the setter what the other quantity becomes.

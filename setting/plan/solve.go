@@ -255,22 +255,12 @@ func (ev *evaluator) setKnobs(p [numParams]float64, ks []knob) error {
 		// A secant over a tenth of a typical change keeps the linear
 		// model good across the changes a plan makes.
 		h := 0.1 * kb.scale
-		q := p
-		q[kb.p] += h
-		cs, err := ev.curvesAt(q)
+		ds, err := effect(ev.curvesAt, p, kb.p, h, base)
 		if err != nil {
-			q[kb.p] = p[kb.p] - h
-			if cs, err = ev.curvesAt(q); err != nil {
-				return err
-			}
-			h = -h
+			return err
 		}
 		for i := range ev.ps {
-			d := make(curve, len(cs[i]))
-			for j := range d {
-				d[j] = (cs[i][j] - base[i][j]) / h
-			}
-			ev.sens[i][k] = d
+			ev.sens[i][k] = ds[i]
 		}
 	}
 	return nil

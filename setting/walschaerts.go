@@ -176,12 +176,12 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 	// angle from hanging straight down (positive with its foot forward).
 	a, k := g.Lever.ValvePin, g.Lever.UnionPin-g.Lever.ValvePin
 	// Start: the lever hanging straight, the radius rod and union link
-	// reaching its pins at their heights; then once more at the lever's
-	// slant. This leaves Newton's method two steps.
+	// reaching its pins at their heights; then again at the lever's slant.
+	// This leaves Newton's method one to three steps.
 	ahead := sign(g.ValveCentreU - g.Trunnion.U)
 	uSide := g.unionSide(e)
 	var t, v float64
-	for pass, ct := 0, 1.0; pass < 2; pass++ {
+	for pass, ct := 0, 1.0; pass < startPasses; pass++ {
 		aW, uW := g.Guide+a*ct, g.Guide-k*ct
 		aU := p.die.U + ahead*rootPos(g.RadiusRod*g.RadiusRod-sq(aW-p.die.W))
 		uU := p.crossheadArm.U + uSide*rootPos(g.UnionLink*g.UnionLink-sq(uW-p.crossheadArm.W))

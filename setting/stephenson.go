@@ -43,8 +43,8 @@ func (l ExpansionLink) pin(side float64) Point {
 // tilted less than about 64 degrees, and the lifting link runs from the arm
 // pin toward the side of the weighshaft the link is on (down when the
 // weighshaft is above the link); each call solves the link's three loop
-// equations by Newton's method from the link upright, corrected once for
-// the lifting link's slant, so no state is carried between calls. The die
+// equations by Newton's method from a start found by a few fixed-point
+// passes from the link upright, so no state is carried between calls. The die
 // must stay within a fifth of the pin spacing beyond the rod pins.
 //
 // The valve rod is driven direct (no rocker); a rocker gear would add it
@@ -151,9 +151,10 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 	hang := g.hang()
 
 	// Starting point: the suspension pin hangs straight below (or above) the
-	// arm pin, the rod pins stand where rods of their length reach at their
-	// heights, the link tilted to meet both; then once more with the lifting
-	// link's true slant. This leaves Newton's method two steps.
+	// arm pin; then, startPasses times, the rod pins go where rods of their
+	// length reach at their heights, the link tilts to meet both, and the
+	// lifting link at its slant sets the height. This leaves Newton's method
+	// one or two steps.
 	reach := func(sheave Point, rod, pinW float64) float64 {
 		dw := pinW - sheave.W
 		return sheave.U + rootPos(rod*rod-dw*dw)

@@ -85,7 +85,8 @@ func DesignLever(lap, lead, crankRadius, unionPin float64, insideAdmission bool)
 // the side of the crosshead arm the lever has in the design. Each call
 // solves the link foot by circle intersection and the lever by Newton's
 // method on its two loop equations, started from the lever hanging straight
-// and corrected once for its slant, so no state is carried between calls.
+// and refined by a few fixed-point passes, so no state is carried between
+// calls.
 //
 // Which sign of FullGearDie runs the engine forward depends on the return
 // crank's side and on the valve pin's side of the lever (the lever turns

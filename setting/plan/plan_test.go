@@ -353,3 +353,61 @@ func TestRecheckNamesTheReading(t *testing.T) {
 		t.Errorf("message %q", msg)
 	}
 }
+
+// With readings in full forward only, full back gear is left to the
+// drawing: the plan says to take a sweep there.
+func TestNextReadingNamesThePosition(t *testing.T) {
+	kind := setting.KindStephenson
+	sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
+	s := sim.session(t, 0, testAdjustments(kind))
+	r := &s.Cylinders[0].Rounds[0]
+	r.DeadCentreReadings = r.DeadCentreReadings[:2] // full forward only
+	p, err := Make(s, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(p.NextReading, "sweep") || !strings.Contains(p.NextReading, "full back") && !strings.Contains(p.NextReading, "running") {
+		t.Errorf("next reading %q", p.NextReading)
+	}
+	// With sweeps everywhere nothing more is asked for.
+	full, err := Make(sim.session(t, 15, testAdjustments(kind)), Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if full.NextReading != "" {
+		t.Errorf("full session still asks: %q", full.NextReading)
+	}
+}
+
+// Balanced lies between the two priorities in the running notch, and a
+// target lead is met where an eccentric may be turned.
+func TestBalancedAndTarget(t *testing.T) {
+	kind := setting.KindStephenson
+	sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
+	s := sim.session(t, 15, testAdjustments(kind))
+	diffs := func(prio Priority) (lead, cut float64) {
+		p, err := Make(s, Options{Priority: prio, Weight: 0.5})
+		if err != nil {
+			t.Fatal(err)
+		}
+		a := p.After[1]
+		return math.Abs(a.Front.LeadMM - a.Back.LeadMM), math.Abs(a.Front.CutOffPercent - a.Back.CutOffPercent)
+	}
+	lL, cL := diffs(EqualLeads)
+	lC, cC := diffs(EqualCutOffs)
+	lB, cB := diffs(Balanced)
+	if !(lB <= lC+1e-6 && cB <= cL+1e-6) {
+		t.Errorf("balanced lead diff %.3f (leads %.3f, cut-offs %.3f), cut diff %.2f (leads %.2f, cut-offs %.2f)", lB, lL, lC, cB, cL, cC)
+	}
+	ks := setting.KindSingleEccentric
+	sim = simulated{spec: testSpec(t, ks), dev: injected(ks)}
+	target := 0.3
+	p, err := Make(sim.session(t, 15, testAdjustments(ks)), Options{TargetLeadMM: &target})
+	if err != nil {
+		t.Fatal(err)
+	}
+	set := sim.after(t, p.Steps).events(t)[0]
+	if m := (set.Front.Lead + set.Back.Lead) / 2; math.Abs(m-target) > 0.03 {
+		t.Errorf("mean lead %.3f after the plan, target %.3f", m, target)
+	}
+}

@@ -67,11 +67,11 @@ func (k Rocker) Ratio() float64 { return math.Abs(k.ValveArm / k.DriveArm) }
 
 func (k Rocker) validate() error {
 	switch {
-	case !(k.DriveArm != 0) || !finite(k.DriveArm):
+	case !(k.DriveArm != 0) || !finiteNum(k.DriveArm):
 		return &Error{"rocker.drive_arm", fmt.Sprintf("The rocker drive arm must be a non-zero length in mm (got %g).", k.DriveArm)}
-	case !(k.ValveArm != 0) || !finite(k.ValveArm):
+	case !(k.ValveArm != 0) || !finiteNum(k.ValveArm):
 		return &Error{"rocker.valve_arm", fmt.Sprintf("The rocker valve arm must be a non-zero length in mm (got %g).", k.ValveArm)}
-	case !(k.ValveRod >= 0) || !finite(k.ValveRod):
+	case !(k.ValveRod >= 0) || !finiteNum(k.ValveRod):
 		return &Error{"rocker.valve_rod", fmt.Sprintf("The valve rod from the rocker must be a length of 0 mm or more (got %g).", k.ValveRod)}
 	case !k.Pivot.Finite():
 		return &Error{"rocker.pivot", "The rocker pivot position must be given in mm."}

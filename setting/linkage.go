@@ -11,10 +11,13 @@ import (
 //
 // Assembly rule, used by every gear: a linkage that can close in two ways
 // (two circles meet twice, a circle cuts a line twice) is held on the branch
-// it has in its design position. Each gear stores, for each such joint, the
-// side on which the joint lies (Side +1 or -1) and passes it to the helpers
-// below, so every Valve call is solved afresh, with no memory of the last
-// angle, and always lands on the same branch.
+// it has in its design position. Each gear works out, for each such joint,
+// the side on which the joint lies in that position (+1 or -1, by a rule
+// stated in the gear's documentation) and passes it to the helpers below,
+// so every Valve call is solved afresh, with no memory of the last angle,
+// and always lands on the same branch. Joints closed by Newton's method
+// instead start from the design-like position and are checked to have
+// stayed on its side.
 
 // Point is a position or an offset in the cylinder-line frame, in mm.
 type Point struct {
@@ -54,7 +57,7 @@ func (p Point) Rotate(rad float64) Point {
 }
 
 // Finite reports whether both coordinates are finite numbers.
-func (p Point) Finite() bool { return finite(p.U) && finite(p.W) }
+func (p Point) Finite() bool { return finiteNum(p.U) && finiteNum(p.W) }
 
 // onAxle returns the centre of something carried on the crank axle at radius
 // r, set at rotation rad in the forward running direction from +U (the
@@ -83,14 +86,6 @@ func circles(c1 Point, r1 float64, c2 Point, r2 float64, side float64) (p Point,
 	}
 	h := side * math.Sqrt(h2)
 	return Point{c1.U + a*d.U - h*d.W, c1.W + a*d.W + h*d.U}, true
-}
-
-// circlesNear returns the meeting point of circle (c1, r1) and circle
-// (c2, r2) nearer to near (a joint's design position). ok is false when the
-// circles do not meet.
-func circlesNear(c1 Point, r1 float64, c2 Point, r2 float64, near Point) (p Point, ok bool) {
-	side := sideOf(c1, c2, near)
-	return circles(c1, r1, c2, r2, side)
 }
 
 // circleLine returns the point where circle (c, r) cuts the line through p0
@@ -146,9 +141,6 @@ func clamp(x, lim float64) float64 {
 	}
 	return x
 }
-
-// finite reports whether x is neither NaN nor infinite.
-func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
 
 // Joint is a named pin or point of a gear in one solved position.
 type Joint struct {
@@ -207,8 +199,8 @@ func closeError(field, what string, thetaDeg float64) *Error {
 // checkCall rejects a crank angle that is not a number and reverser
 // positions outside full back to full forward.
 func checkCall(thetaDeg float64, r Reverser) error {
-	if !finite(thetaDeg) {
-		return &Error{"crank angle", fmt.Sprintf("The crank angle must be a number of degrees (got %g).", thetaDeg)}
+	if !finiteNum(thetaDeg) {
+		return &Error{"crank_angle", fmt.Sprintf("The crank angle must be a number of degrees (got %g).", thetaDeg)}
 	}
 	if !(r >= -1 && r <= 1) {
 		return &Error{"reverser", fmt.Sprintf("The reverser position must lie between -1 (full back) and +1 (full forward) (got %g).", float64(r))}
@@ -219,7 +211,7 @@ func checkCall(thetaDeg float64, r Reverser) error {
 // valveResult returns the valve displacement, or an error when unvalidated
 // dimensions (NaN, infinite) have made it no number: output is never NaN.
 func valveResult(v, thetaDeg float64) (float64, error) {
-	if !finite(v) {
+	if !finiteNum(v) {
 		return 0, &Error{"", fmt.Sprintf("The gear's dimensions give no valve position at crank angle %.0f deg; check them with Validate.", thetaDeg)}
 	}
 	return v, nil
@@ -237,7 +229,7 @@ func positive(field, words string, v float64) error {
 // finiteField returns an *Error naming field (a key path) unless v is
 // finite; words name it in the message.
 func finiteField(field, words string, v float64) error {
-	if !finite(v) {
+	if !finiteNum(v) {
 		return &Error{field, fmt.Sprintf("The %s must be a number (got %g).", words, v)}
 	}
 	return nil

@@ -38,7 +38,7 @@ func LeverRatio(lap, lead, crankRadius float64) (float64, error) {
 	if err := positive("crank_radius", "crank radius", crankRadius); err != nil {
 		return 0, err
 	}
-	if !finite(lap) || !finite(lead) || !(lap+lead > 0) {
+	if !finiteNum(lap) || !finiteNum(lead) || !(lap+lead > 0) {
 		return 0, &Error{"steam_lap", fmt.Sprintf("Lap + lead must be a positive length (got %g + %g).", lap, lead)}
 	}
 	q := (lap + lead) / crankRadius
@@ -205,7 +205,7 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 		j11, j12 := dr.U*kr, (-a*dr.U-a*t/ct*dr.W)*kr
 		j21, j22 := du.U*ku, (k*du.U+k*t/ct*du.W)*ku
 		det := j11*j22 - j12*j21
-		if det == 0 || !finite(det) {
+		if det == 0 || !finiteNum(det) {
 			break
 		}
 		dv, dt := (fr*j22-fu*j12)/det, (j11*fu-j21*fr)/det
@@ -220,7 +220,7 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 	p.valvePin = Point{v, g.Guide}
 	p.radiusPin = Point{v - a*t, g.Guide + a*ct}
 	p.unionPin = Point{v + k*t, g.Guide - k*ct}
-	if !ok || !finite(v) || (p.radiusPin.U-p.die.U)*ahead < 0 || (p.unionPin.U-p.crossheadArm.U)*uSide < 0 {
+	if !ok || !finiteNum(v) || (p.radiusPin.U-p.die.U)*ahead < 0 || (p.unionPin.U-p.crossheadArm.U)*uSide < 0 {
 		// Name the link whose length is further from what the lever needs
 		// hanging straight with the valve central.
 		needR := Point{g.ValveCentreU, g.Guide + a}.Sub(p.die).Len()
@@ -260,7 +260,7 @@ func (g Walschaerts) CentreLink(e Engine) (Walschaerts, error) {
 		const h = 1e-6
 		fr := f(rho)
 		d := (f(rho+h) - f(rho-h)) / (2 * h)
-		if d == 0 || !finite(d) {
+		if d == 0 || !finiteNum(d) {
 			break
 		}
 		step := fr / d

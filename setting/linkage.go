@@ -245,8 +245,8 @@ func firstError(errs ...error) error {
 	return nil
 }
 
-// sweepCheck solves a gear at every checkAngles crank angle in full forward,
-// mid and full back gear, so Validate can report a linkage that cannot close
+// sweepCheck solves a gear every checkStepDeg degrees of crank in full
+// forward, mid and full back gear, so Validate can report a linkage that cannot close
 // before any event code meets it.
 func sweepCheck(e Engine, valve func(Engine, float64, Reverser) (float64, error)) error {
 	for _, r := range []Reverser{1, 0, -1} {

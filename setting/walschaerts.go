@@ -156,7 +156,9 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 	phi := crankRotation(e, thetaDeg)
 	p.crank = onAxle(e.CrankRadius, phi)
 	p.returnPin = p.crank.Add(onAxle(g.ReturnCrank, phi+g.ReturnAngle*(math.Pi/180)))
-	// The slider-crank closes with the crosshead on the line W = Offset.
+	// The slider-crank closes with the crosshead on the line W = Offset
+	// (Engine's own relation, from the crank pin already found; a test keeps
+	// them equal).
 	dw := e.Offset - p.crank.W
 	p.crosshead = Point{p.crank.U + math.Sqrt(e.RodLength*e.RodLength-dw*dw), e.Offset}
 	p.crossheadArm = p.crosshead.Add(g.CrossheadArm)
@@ -235,13 +237,13 @@ func (g *Walschaerts) solve(e Engine, thetaDeg float64, r Reverser) (walschaerts
 
 // CentreLink returns g with the return crank angle and eccentric rod length
 // set so the link stands at the middle of its swing (its foot at
-// Trunnion + LinkFoot) at both dead centres: then moving the reverser with the
-// engine on either dead centre does not move the valve (common practice, no
-// source: the setter's dead-centre test). It keeps the
-// return crank radius and searches the angle by Newton's method from g's
-// ReturnAngle, so give a value on the intended side (about +-150 degrees for
-// a return crank whose pin stands a quarter turn from the crank as seen from
-// the axle).
+// Trunnion + LinkFoot) at both dead centres: then moving the reverser with
+// the engine on either dead centre does not move the valve (common
+// practice, no source: the setter's dead-centre test). It keeps the return
+// crank radius and searches the angle by Newton's method from g's
+// ReturnAngle, so give a value on the intended side (about +-150 degrees
+// for a return crank whose pin stands a quarter turn from the crank as seen
+// from the axle).
 func (g Walschaerts) CentreLink(e Engine) (Walschaerts, error) {
 	if err := firstError(within("engine", e.Validate()), positive("return_crank", "return crank radius", g.ReturnCrank), finiteField("return_angle", "return crank angle", g.ReturnAngle)); err != nil {
 		return g, err

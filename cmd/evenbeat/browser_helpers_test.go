@@ -15,6 +15,7 @@ import (
 
 	"github.com/chromedp/cdproto/cdp"
 	"github.com/chromedp/cdproto/input"
+	"github.com/chromedp/cdproto/page"
 	"github.com/chromedp/chromedp"
 )
 
@@ -58,8 +59,8 @@ func startServer(t testing.TB) *Main {
 // newBrowser starts headless Chromium with a fresh profile in profile
 // (flags from the measured browser notes: SwiftShader WebGL, nothing that
 // reaches beyond loopback) and returns a tab context and a function that
-// closes the browser gracefully (also called at cleanup).
-func newBrowser(t testing.TB, profile string) (context.Context, func()) {
+// closes the browser gracefully (also called at cleanup). extra adds flags.
+func newBrowser(t testing.TB, profile string, extra ...chromedp.ExecAllocatorOption) (context.Context, func()) {
 	t.Helper()
 	opts := []chromedp.ExecAllocatorOption{
 		chromedp.ExecPath(chromiumPath),
@@ -75,6 +76,7 @@ func newBrowser(t testing.TB, profile string) (context.Context, func()) {
 		chromedp.Flag("use-angle", "swiftshader"),
 		chromedp.Flag("enable-unsafe-swiftshader", true),
 	}
+	opts = append(opts, extra...)
 	actx, acancel := chromedp.NewExecAllocator(context.Background(), opts...)
 	ctx, cancel := chromedp.NewContext(actx)
 	var once sync.Once
@@ -95,6 +97,13 @@ func newBrowser(t testing.TB, profile string) (context.Context, func()) {
 	}
 	return ctx, closeBrowser
 }
+
+// noTierUp keeps V8 on its baseline WebAssembly compiler. On a busy 2-core
+// machine the optimising recompile of the 11 MB module competes with the
+// page for the CPU (the first screenshot after load took 50 s with it, 11 s
+// without, in one measurement); the browser test checks behaviour, not
+// speed, so it skips that work. The figures benchmark leaves it on.
+func noTierUp() chromedp.ExecAllocatorOption { return chromedp.Flag("js-flags", "--no-wasm-tier-up") }
 
 // within runs steps with a time limit, failing the test with what on error.
 func within(t testing.TB, ctx context.Context, d time.Duration, what string, steps ...chromedp.Action[chromedp.Void]) {
@@ -165,7 +174,13 @@ func screenshot(t testing.TB, ctx context.Context, name string) image.Image {
 	tctx, cancel := context.WithTimeout(ctx, 120*time.Second)
 	defer cancel()
 	start := time.Now()
-	buf, err := chromedp.Run(tctx, chromedp.CaptureScreenshot())
+	// PNG is lossless, so colours can be compared exactly; the fast
+	// encoder matters at 1170x2532 pixels on a busy machine.
+	buf, err := chromedp.Run(tctx, chromedp.Action[[]byte](func(ctx context.Context, tg *chromedp.Target) ([]byte, error) {
+		yes := true
+		res, err := cdp.Call(ctx, tg, page.CaptureScreenshot, page.CaptureScreenshotParams{FromSurface: &yes, OptimizeForSpeed: &yes})
+		return res.Data, err
+	}))
 	t.Logf("screenshot took %v", time.Since(start))
 	if err != nil {
 		t.Fatalf("screenshot %s: %v", name, err)

@@ -121,7 +121,7 @@ func TestPhone(t *testing.T) {
 	}
 	needChromium(t)
 	m := startServer(t)
-	ctx, _ := newBrowser(t, t.TempDir())
+	ctx, _ := newBrowser(t, t.TempDir(), noTierUp())
 
 	within(t, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
 	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "cautions"`)

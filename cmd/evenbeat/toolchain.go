@@ -222,7 +222,60 @@ func (t toolchain) buildWasm(src, cacheRoot string, log io.Writer) ([]byte, erro
 	if err := os.Rename(tmp.Name(), p); err != nil {
 		return nil, fmt.Errorf("storing the app build: %w", err)
 	}
+	pruneCache(cacheRoot, keepBuilds, log)
 	return os.ReadFile(p)
+}
+
+// keepBuilds is how many app builds the cache keeps (about 11 MB each).
+const keepBuilds = 4
+
+// pruneCache removes all but the keep most recently built entries of the
+// build cache. Failures only cost disk space, so they are reported and
+// otherwise ignored.
+func pruneCache(root string, keep int, log io.Writer) {
+	for _, dir := range staleBuilds(root, keep) {
+		if err := os.RemoveAll(dir); err != nil {
+			fmt.Fprintf(log, "could not remove an old app build: %v\n", err)
+		}
+	}
+}
+
+// staleBuilds lists the build directories under root beyond the keep
+// newest (by modification time; ties broken by name so the choice is
+// stable).
+func staleBuilds(root string, keep int) []string {
+	entries, err := os.ReadDir(root)
+	if err != nil {
+		return nil
+	}
+	type build struct {
+		path string
+		mod  int64
+	}
+	var builds []build
+	for _, e := range entries {
+		if !e.IsDir() {
+			continue
+		}
+		info, err := e.Info()
+		if err != nil {
+			continue
+		}
+		builds = append(builds, build{filepath.Join(root, e.Name()), info.ModTime().UnixNano()})
+	}
+	sort.Slice(builds, func(i, j int) bool {
+		if builds[i].mod != builds[j].mod {
+			return builds[i].mod > builds[j].mod
+		}
+		return builds[i].path < builds[j].path
+	})
+	var stale []string
+	for i, b := range builds {
+		if i >= keep {
+			stale = append(stale, b.path)
+		}
+	}
+	return stale
 }
 
 // moduleRoot walks up from dir to the directory holding go.mod of module

@@ -2,10 +2,12 @@ package main
 
 import (
 	"errors"
+	"io"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 )
 
 func TestInputsHash(t *testing.T) {
@@ -78,6 +80,39 @@ func TestCachedWasm(t *testing.T) {
 	}
 	if p, ok := cachedWasm(dir); !ok || p != filepath.Join(dir, "main.wasm") {
 		t.Errorf("cachedWasm = %q, %v; want the complete build", p, ok)
+	}
+}
+
+func TestStaleBuilds(t *testing.T) {
+	root := t.TempDir()
+	base := time.Date(2026, 1, 1, 0, 0, 0, 0, time.UTC)
+	for i, name := range []string{"a", "b", "c", "d", "e", "f"} {
+		dir := filepath.Join(root, name)
+		if err := os.Mkdir(dir, 0o755); err != nil {
+			t.Fatal(err)
+		}
+		// a is the newest, f the oldest.
+		when := base.Add(-time.Duration(i) * time.Hour)
+		if err := os.Chtimes(dir, when, when); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if err := os.WriteFile(filepath.Join(root, "stray-file"), nil, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	got := staleBuilds(root, 4)
+	want := []string{filepath.Join(root, "e"), filepath.Join(root, "f")}
+	if strings.Join(got, ",") != strings.Join(want, ",") {
+		t.Errorf("staleBuilds = %v; want the two oldest %v", got, want)
+	}
+	pruneCache(root, 4, io.Discard)
+	for _, name := range []string{"a", "b", "c", "d", "stray-file"} {
+		if _, err := os.Stat(filepath.Join(root, name)); err != nil {
+			t.Errorf("%s was removed: %v", name, err)
+		}
+	}
+	if staleBuilds(filepath.Join(root, "missing"), 1) != nil {
+		t.Error("a missing cache root lists builds")
 	}
 }
 

@@ -80,3 +80,23 @@ func FuzzFitAndPlan(f *testing.F) {
 		scanFinite(t, out.Bytes())
 	})
 }
+
+// BenchmarkLinkage is one linkage solution of each test gear: the unit the
+// planner's cost is made of (a fit + plan costs some two thousand of
+// them), for reading BenchmarkFitAndPlan on a busy machine.
+func BenchmarkLinkage(b *testing.B) {
+	for _, kind := range gears {
+		b.Run(kind, func(b *testing.B) {
+			spec := testSpec(b, kind)
+			g, _ := spec.Gear.Gear()
+			th := 0.0
+			for b.Loop() {
+				g.Valve(spec.Engine, th, 0.7)
+				th += 7.3
+				if th > 360 {
+					th -= 360
+				}
+			}
+		})
+	}
+}

@@ -229,3 +229,19 @@ func TestExampleLeads(t *testing.T) {
 		}
 	}
 }
+
+// A link gear read in forward gear only can be set in forward gear only:
+// the example's left cylinder says so, without blocking a plan.
+func TestExampleLeftCylinderLacksBackGear(t *testing.T) {
+	s, err := Decode(bytes.NewReader(readExample(t)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	ps := s.Readiness(1)
+	if len(ps) != 1 || ps[0].Blocking || !strings.Contains(ps[0].Message, "no readings in back gear") {
+		t.Errorf("left cylinder: %v", ps)
+	}
+	if ps := s.Readiness(0); len(ps) != 0 {
+		t.Errorf("right cylinder: %v", ps)
+	}
+}

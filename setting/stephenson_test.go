@@ -44,12 +44,13 @@ func deadCentreOpening(t *testing.T, e Engine, g Stephenson, r Reverser) float64
 }
 
 // Zeuner's approximation for the Stephenson link motion (G. Zeuner,
-// Treatise on Valve-Gears, 1869, the chapter on the link motion): with the
-// link curved to the rod length l and the die u from the link's middle, the
-// valve stands r sin(delta) + r cos(delta) (c^2 - u^2)/(c l) from central at
-// dead centre, c being half the pin spacing; so from full gear (u = c) to mid
-// gear (u = 0) the lead grows by r cos(delta) c / l with open rods and, the
-// sign turned, falls by as much with crossed rods. For long rods (l = 600,
+// Treatise on Valve-Gears, 1869, the chapter on the link motion; the page is
+// not checked here): from full gear to mid gear the lead grows by
+// r cos(delta) c / l with open rods and falls by as much with crossed rods,
+// c being half the pin spacing and l the rod length, the link curved to
+// radius l. (The general form at die offset u, r sin(delta) +
+// r cos(delta) (c^2 - u^2)/(c l) at dead centre, is from memory; the test
+// uses only its two ends.) For long rods (l = 600,
 // c = 18, r = 5: 0.136 mm) the exact linkage must agree within 2 %, for
 // either admission; with the demo's short rods (l = 130, c/l = 0.14) within
 // 5 %.

@@ -373,8 +373,8 @@ func (d *decoder) measuring(n *node, path string) Measuring {
 	o := d.object(n, path, "the measuring set-up", "wheel_diameter_mm", "gauge_resolution_mm", "gauge_increases_toward", "mark_error_tyre_mm", "mark_error_deg")
 	var m Measuring
 	m.WheelDiameterMM = o.positive("wheel_diameter_mm", true, "the tyre diameter where the marks are measured, in mm")
-	if d.err == nil && m.WheelDiameterMM > maxLength {
-		d.fail(path+".wheel_diameter_mm", "The wheel diameter %s mm is larger than any wheel; give the tyre diameter in mm.", fmtNum(m.WheelDiameterMM))
+	if d.err == nil && (m.WheelDiameterMM > maxLength || m.WheelDiameterMM < 1) {
+		d.fail(path+".wheel_diameter_mm", "The wheel diameter %s mm is not the size of any wheel; give the tyre diameter in mm.", fmtNum(m.WheelDiameterMM))
 	}
 	m.GaugeResolutionMM = o.positive("gauge_resolution_mm", true, "the smallest division of the dial gauge, in mm")
 	if d.err == nil && m.GaugeResolutionMM > 10 {
@@ -384,6 +384,9 @@ func (d *decoder) measuring(n *node, path string) Measuring {
 	switch o.oneOf("the error of one mark round the wheel", "mark_error_tyre_mm", "mark_error_deg") {
 	case "mark_error_tyre_mm":
 		m.MarkError = Mark{TyreMM, o.positive("mark_error_tyre_mm", true, "the error of one tyre mark, in mm round the tyre")}
+		if half := math.Pi * m.WheelDiameterMM / 2; d.err == nil && m.MarkError.Value > half {
+			d.fail(path+".mark_error_tyre_mm", "The error of one tyre mark (%s mm) is more than half the way round the tyre (%s mm); give it in mm round the tyre.", fmtNum(m.MarkError.Value), fmtNum(math.Round(half)))
+		}
 	case "mark_error_deg":
 		m.MarkError = Mark{Deg, o.bounded("mark_error_deg", true, "the error of one degree mark", 0, 90)}
 		if d.err == nil && m.MarkError.Value == 0 {

@@ -52,6 +52,8 @@ func TestDecodeNamesTheField(t *testing.T) {
 		{"wheel zero", `"wheel_diameter_mm": 115`, `"wheel_diameter_mm": 0`, "measuring.wheel_diameter_mm", "more than zero"},
 		{"wheel huge", `"wheel_diameter_mm": 115`, `"wheel_diameter_mm": 1e400`, "measuring.wheel_diameter_mm", "too large"},
 		{"wheel missing", `"wheel_diameter_mm": 115,`, ``, "measuring.wheel_diameter_mm", "is missing"},
+		{"wheel tiny", `"wheel_diameter_mm": 115`, `"wheel_diameter_mm": 1e-300`, "measuring.wheel_diameter_mm", "not the size of any wheel"},
+		{"mark error huge", `"mark_error_tyre_mm": 0.5`, `"mark_error_tyre_mm": 1e300`, "measuring.mark_error_tyre_mm", "more than half the way round"},
 		{"resolution", `"gauge_resolution_mm": 0.01`, `"gauge_resolution_mm": 25`, "measuring.gauge_resolution_mm", "not a dial-gauge division"},
 		{"gauge direction", `"gauge_increases_toward": "front"`, `"gauge_increases_toward": "up"`, "measuring.gauge_increases_toward", `"front" or "back"`},
 		{"mark error both", `"mark_error_tyre_mm": 0.5`, `"mark_error_tyre_mm": 0.5, "mark_error_deg": 0.5`, "measuring.mark_error_deg", "only once"},

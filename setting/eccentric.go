@@ -186,7 +186,11 @@ func (g SingleEccentric) Valve(e Engine, thetaDeg float64, r Reverser) (float64,
 	return valveResult(p.spindle.U-g.ValveCentreU, thetaDeg)
 }
 
-// Pose returns every joint of the gear at crank angle thetaDeg.
+// Pose returns every joint of the gear at crank angle thetaDeg. Joints:
+// "axle", "crank pin", "eccentric sheave centre", "eccentric rod pin", and
+// with a rocker "rocker pivot", "rocker valve-arm pin" and (with a valve
+// rod) "valve spindle pin". Bars: "crank", "eccentric", "eccentric rod",
+// "rocker drive arm", "rocker valve arm", "valve rod".
 func (g SingleEccentric) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) {
 	p, err := g.solve(e, thetaDeg, r)
 	if err != nil {

@@ -285,7 +285,13 @@ func (g Stephenson) Valve(e Engine, thetaDeg float64, r Reverser) (float64, erro
 	return valveResult(p.die.U-g.ValveCentreU, thetaDeg)
 }
 
-// Pose returns every joint of the gear at crank angle thetaDeg.
+// Pose returns every joint of the gear at crank angle thetaDeg. Joints:
+// "axle", "crank pin", "forward eccentric sheave centre", "backward
+// eccentric sheave centre", "forward rod pin", "backward rod pin", "link
+// middle", "link suspension pin", "weighshaft", "reverse arm pin", "die
+// block". Bars: "crank", "forward eccentric", "backward eccentric",
+// "forward eccentric rod", "backward eccentric rod", "expansion link" (an
+// arc between the rod pins), "link hanger", "reverse arm", "lifting link".
 func (g Stephenson) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) {
 	p, err := g.solve(e, thetaDeg, r, true)
 	if err != nil {

@@ -294,7 +294,13 @@ func (g Walschaerts) Valve(e Engine, thetaDeg float64, r Reverser) (float64, err
 	return valveResult(p.valvePin.U-g.ValveCentreU, thetaDeg)
 }
 
-// Pose returns every joint of the gear at crank angle thetaDeg.
+// Pose returns every joint of the gear at crank angle thetaDeg. Joints:
+// "axle", "crank pin", "return crank pin", "link foot pin", "link
+// trunnion", "link top", "link bottom" (the slot's drawn ends), "die block",
+// "radius-rod pin", "valve spindle pin", "union-link pin", "crosshead pin",
+// "crosshead arm pin". Bars: "crank", "return crank", "eccentric rod",
+// "link tail", "expansion link" (an arc), "radius rod", "combination
+// lever", "crosshead arm", "union link", "connecting rod".
 func (g Walschaerts) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) {
 	p, err := g.solve(e, thetaDeg, r)
 	if err != nil {

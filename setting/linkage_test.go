@@ -122,14 +122,19 @@ func checkPose(t *testing.T, g PosedGear, e Engine, lengths map[string]float64) 
 			if err != nil || v != p.Valve {
 				t.Errorf("%s at %v deg: Valve %v (%v), Pose.Valve %v", g.Kind(), th, v, err, p.Valve)
 			}
+			seen := map[string]bool{}
 			for _, b := range p.Bars {
 				want, ok := lengths[b.Name]
 				if !ok {
 					continue
 				}
+				seen[b.Name] = true
 				if got := p.Joints[b.From].At.Sub(p.Joints[b.To].At).Len(); math.Abs(got-want) > 1e-6 {
 					t.Errorf("%s at %v deg, reverser %v: %s is %.9f mm, want %.9f", g.Kind(), th, r, b.Name, got, want)
 				}
+			}
+			if len(seen) != len(lengths) {
+				t.Fatalf("%s: pose has bars %v, want all of %v", g.Kind(), seen, lengths)
 			}
 		}
 	}

@@ -101,3 +101,67 @@ func allFinite(v reflect.Value, path string) (string, bool) {
 	}
 	return "", true
 }
+
+// FuzzReadings puts arbitrary numbers into the readings of an otherwise good
+// session, so that accepted sessions with odd values are explored: every
+// conversion, warning and readiness check must stay free of NaN, Inf and
+// panics. Run: go test -fuzz=FuzzReadings ./setting/session
+func FuzzReadings(f *testing.F) {
+	f.Add(115.0, 0.5, 350.1, 10.3, 2.0, 8.0, 1.8, 30.3, 44.5, 0.5, 0.01)
+	f.Add(1.0, 1.5, 0.0, 0.0, 5.0, 5.0, 5.0, -99999.0, 59.999, -1.0, 10.0)
+	f.Add(2500.0, 1e-9, 1e5, -1e5, -1000.0, 1000.0, 0.0, 1e5, 1e-9, 1.0, 1e-12)
+	f.Fuzz(func(t *testing.T, wheel, markErr, m1, m2, pmF, pmB, g, tyre, crosshead, rev, res float64) {
+		in := testJSON
+		for _, r := range []struct{ from, to string }{
+			{`"wheel_diameter_mm": 115`, `"wheel_diameter_mm": ` + fmtNum(wheel)},
+			{`"mark_error_tyre_mm": 0.5`, `"mark_error_tyre_mm": ` + fmtNum(markErr)},
+			{`"gauge_resolution_mm": 0.01`, `"gauge_resolution_mm": ` + fmtNum(res)},
+			{`[350.1, 10.3]`, "[" + fmtNum(m1) + ", " + fmtNum(m2) + "]"},
+			{`"front_gauge_mm": 2.0, "back_gauge_mm": 8.0`, `"front_gauge_mm": ` + fmtNum(pmF) + `, "back_gauge_mm": ` + fmtNum(pmB)},
+			{`"gauge_mm": 1.8}`, `"gauge_mm": ` + fmtNum(g) + `}`},
+			{`{"tyre_mm": 30.3, "gauge_mm": 3.9}`, `{"tyre_mm": ` + fmtNum(tyre) + `, "gauge_mm": ` + fmtNum(g) + `}`},
+			{`"crosshead_mm": 44.5`, `"crosshead_mm": ` + fmtNum(crosshead)},
+			{`"reverser": 1, "direction": "forward", "gauge_mm": 1.78`, `"reverser": ` + fmtNum(rev) + `, "direction": "forward", "gauge_mm": 1.78`},
+		} {
+			in = strings.Replace(in, r.from, r.to, 1)
+		}
+		s, err := Decode(strings.NewReader(in))
+		if err != nil {
+			var e *setting.Error
+			if !errors.As(err, &e) {
+				t.Fatalf("error %T %v", err, err)
+			}
+			return
+		}
+		for ci := range s.Cylinders {
+			obs, err := s.Observations(ci)
+			if err != nil {
+				continue
+			}
+			for _, o := range obs {
+				if path, ok := allFinite(reflect.ValueOf(o), "observation"); !ok {
+					t.Fatalf("NaN or Inf in %s of %s", path, o.Field)
+				}
+				if o.HasCrank && !(o.CrankDeg >= 0 && o.CrankDeg < 360) {
+					t.Fatalf("crank %v outside [0, 360) at %s", o.CrankDeg, o.Field)
+				}
+			}
+			leads, _ := s.Leads(ci)
+			for _, l := range leads {
+				if path, ok := allFinite(reflect.ValueOf(l), "lead"); !ok {
+					t.Fatalf("NaN or Inf in %s of %s", path, l.Field)
+				}
+			}
+			for _, p := range s.Readiness(ci) {
+				if strings.Contains(p.Message, "NaN") || strings.Contains(p.Message, "Inf") {
+					t.Fatalf("problem shows NaN or Inf: %s", p)
+				}
+			}
+		}
+		for _, w := range s.Check() {
+			if strings.Contains(w.Message, "NaN") || strings.Contains(w.Message, "Inf") {
+				t.Fatalf("warning shows NaN or Inf: %s", w)
+			}
+		}
+	})
+}

@@ -447,6 +447,26 @@ func (pb *problem) fitOuter(p [numParams]float64) ([numParams]float64, error) {
 		if !ok {
 			return p, &setting.Error{Field: "readings", Message: "The readings cannot fix the gear's state: take a sweep in full forward and in full back gear."}
 		}
+		// Converged when the whole step is a twentieth of a standard
+		// deviation of what the readings can tell: take it and stop. After
+		// a long first step the effect curves are sampled again where it
+		// lands, so that the later steps converge fast.
+		worst := 0.0
+		for a := range pb.idx {
+			worst = math.Max(worst, math.Abs(d[a])*math.Sqrt(A.at(a, a)))
+		}
+		// A step that would lower the sum of squares by less than 1e-3
+		// (in units of the readings' errors squared) changes nothing the
+		// readings can see.
+		pred := 0.0
+		for a := range g {
+			pred += g[a] * d[a]
+		}
+		if pred < 1e-3 {
+			break
+		}
+		small := worst < 0.05
+		resens := round == 0 && worst > 30
 		step := 1.0
 		accepted := false
 		var q [numParams]float64
@@ -456,8 +476,8 @@ func (pb *problem) fitOuter(p [numParams]float64) ([numParams]float64, error) {
 			for a, j := range pb.idx {
 				q[j] += step * d[a]
 			}
-			if err := pb.sampleAt(q, false); err == nil && pb.eval(q, rq) == nil {
-				if cq = pb.cost(q, rq); cq <= c*(1+1e-12) {
+			if err := pb.sampleAt(q, resens); err == nil && pb.eval(q, rq) == nil {
+				if cq = pb.cost(q, rq); cq <= c*(1+1e-9) || small {
 					accepted = true
 					break
 				}
@@ -470,15 +490,10 @@ func (pb *problem) fitOuter(p [numParams]float64) ([numParams]float64, error) {
 			}
 			return p, nil
 		}
-		small := true
-		for a := range pb.idx {
-			if math.Abs(step*d[a]) > 1e-3/math.Sqrt(A.at(a, a)) {
-				small = false
-			}
-		}
+		gain := c - cq
 		p, c = q, cq
 		copy(r, rq)
-		if small {
+		if small || gain < 1e-3 {
 			break
 		}
 	}

@@ -162,6 +162,7 @@ func readValue(dec *json.Decoder, steps []step) (*node, error) {
 // dupKeyError reports a key written twice in one object.
 type dupKeyError struct{ path string }
 
+// Error names the key.
 func (e *dupKeyError) Error() string { return "duplicate key " + e.path }
 
 // syntaxError turns a JSON reading error into a sentence with a line and

@@ -231,3 +231,23 @@ func count(img image.Image, r image.Rectangle, col color.RGBA, tol int) int {
 func chromedpNavigate(url string) chromedp.Action[chromedp.Void] { return chromedp.Navigate(url) }
 
 func chromedpReload() chromedp.Action[chromedp.Void] { return chromedp.Reload() }
+
+// killBrowser ends the browser process with SIGKILL, as a phone's system
+// may end an app without warning: nothing gets a chance to flush.
+func killBrowser(t testing.TB, ctx context.Context) {
+	t.Helper()
+	c := chromedp.FromContext(ctx)
+	if c == nil || c.Browser == nil || c.Browser.Process() == nil {
+		t.Fatal("no browser process to kill")
+	}
+	p := c.Browser.Process()
+	if err := p.Kill(); err != nil {
+		t.Fatalf("killing the browser (pid %d): %v", p.Pid, err)
+	}
+	// chromedp waits for the process and then ends the context.
+	select {
+	case <-ctx.Done():
+	case <-time.After(30 * time.Second):
+		t.Fatalf("the browser (pid %d) did not end after SIGKILL", p.Pid)
+	}
+}

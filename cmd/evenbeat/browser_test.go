@@ -113,15 +113,18 @@ func diagramProblems(t *testing.T, shot image.Image, box render.Rect, th render.
 
 // TestPhone runs the app in Chromium as a 3x phone with touch: the cautions
 // card comes first; a tap on its button shows the diagram and stores the
-// acknowledgement; with the server stopped, a reload still starts the app
-// from the service worker's cache and goes straight to the diagram.
+// acknowledgement; the browser is then killed outright and started again on
+// the same profile, and must go straight to the diagram (the entry was on
+// disk when the app called it saved); finally, with the server stopped, a
+// reload still starts the app from the service worker's cache.
 func TestPhone(t *testing.T) {
 	if testing.Short() {
 		t.Skip("browser test; drop -short to run it")
 	}
 	needChromium(t)
 	m := startServer(t)
-	ctx, _ := newBrowser(t, t.TempDir(), noTierUp())
+	profile := t.TempDir()
+	ctx, _ := newBrowser(t, profile, noTierUp())
 
 	within(t, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
 	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "cautions"`)
@@ -154,9 +157,18 @@ func TestPhone(t *testing.T) {
 	// A real tap: finger down, held longer than a frame, finger up.
 	tap(t, ctx, ack.X+ack.W/2, ack.Y+ack.H/2, 200*time.Millisecond)
 	waitFor(t, ctx, 30*time.Second, `window.evenbeatDrawn === "diagram" && window.evenbeatAckSaved === true`)
+
+	// Saved means on disk: kill the browser at once and start it again.
+	killBrowser(t, ctx)
+	ctx, _ = newBrowser(t, profile, noTierUp())
+	within(t, ctx, 90*time.Second, "opening "+m.URL+" after the kill", chromedpNavigate(m.URL))
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "diagram"`)
+	if first := eval[string](t, ctx, "window.evenbeatFirstScreen"); first != "diagram" {
+		t.Errorf("after the kill the first frame showed %q; want the diagram (acknowledgement lost?)", first)
+	}
 	checkDiagram(t, screenshot(t, ctx, "phone-diagram"), content, th)
 
-	waitFor(t, ctx, 60*time.Second, `navigator.serviceWorker.controller !== null && navigator.serviceWorker.controller.state === "activated"`)
+	waitFor(t, ctx, 90*time.Second, `navigator.serviceWorker.controller !== null && navigator.serviceWorker.controller.state === "activated"`)
 
 	// Cut the network: stop the server, make sure it is gone, reload.
 	if err := m.Close(); err != nil {
@@ -169,7 +181,7 @@ func TestPhone(t *testing.T) {
 	within(t, ctx, 90*time.Second, "reloading with the server stopped", chromedpReload())
 	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "diagram"`)
 	if first := eval[string](t, ctx, "window.evenbeatFirstScreen"); first != "diagram" {
-		t.Errorf("after the reload the first frame showed %q; want the diagram (acknowledgement lost?)", first)
+		t.Errorf("offline, the first frame showed %q; want the diagram", first)
 	}
 	checkDiagram(t, screenshot(t, ctx, "phone-offline-diagram"), content, th)
 }

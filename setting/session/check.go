@@ -132,7 +132,7 @@ func (s *Session) checkCylinder(ci int) []Warning {
 				}
 			}
 		}
-		if edges, ok := roundEdges(obs, ri); ok {
+		if edges, from, ok := a.edgesIn(ri); ok && from == ri {
 			if lf, lb := a.info.steamLap[0], a.info.steamLap[1]; lf+lb > 0 {
 				apart := math.Abs(edges[1] - edges[0])
 				if math.Abs(apart-(lf+lb)) > math.Max(0.5, 0.25*(lf+lb)) {
@@ -197,38 +197,6 @@ func parseDate(s string) (time.Time, error) {
 	return time.Parse(time.RFC3339, s)
 }
 
-// roundEdges returns the normalised steam-edge gauge readings (front,
-// back) of round ri from the observations.
-func roundEdges(obs []Observation, ri int) ([2]float64, bool) {
-	var e [2]float64
-	n := 0
-	for _, o := range obs {
-		if o.Round == ri && o.Kind == PortMarkKind {
-			e[endIndex(o.End)] = o.GaugeMM
-			n++
-		}
-	}
-	return e, n == 2
-}
-
-// steamEdges returns the steam edges (normalised gauge readings, front and
-// back) that hold in round ri of cylinder c: that round's port marks or
-// laps, or an earlier round's if the valve has not been moved on its spindle
-// since; from is the round they come from.
-func steamEdges(c *Cylinder, obs []Observation, ri int) (edges [2]float64, from int, ok bool) {
-	for k := ri; k >= 0; k-- {
-		if edges, ok = roundEdges(obs, k); ok {
-			return edges, k, true
-		}
-		for _, ch := range c.Rounds[k].AdjustmentsBefore {
-			if ch.Kind == ValveOnSpindle {
-				return edges, 0, false
-			}
-		}
-	}
-	return edges, 0, false
-}
-
 // LeadReading is a lead found straight from the readings, without a fit:
 // a dead-centre gauge reading against the port mark of its end, or a
 // feeler opening taken on a dead centre.
@@ -266,7 +234,7 @@ func (s *Session) Leads(cyl int) ([]LeadReading, error) {
 		lr := LeadReading{Round: o.Round, End: o.End, Reverser: o.Reverser, Notch: o.Notch, Direction: o.Direction, Field: o.Field, Label: o.Label}
 		switch o.Kind {
 		case AtDeadCentre:
-			edges, _, ok := steamEdges(a.c, obs, o.Round)
+			edges, _, ok := a.edgesIn(o.Round)
 			if !ok {
 				continue
 			}
@@ -381,7 +349,7 @@ func (s *Session) Readiness(cyl int) []Problem {
 		}
 	}
 
-	edges, from, haveEdges := steamEdges(c, obs, ri)
+	edges, from, haveEdges := a.edgesIn(ri)
 	if haveEdges && from != ri {
 		add(false, rp, "This round has no port marks; those of round %d are used. That holds only if the gauge has not been moved or re-set since.", from+1)
 	}

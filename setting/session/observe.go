@@ -278,35 +278,38 @@ func (a *angles) place(dc End, m Mark, dir Direction) (deg, sigma float64, words
 // Observations returns every reading of cylinder cyl, all rounds, as
 // observations in file order: port marks (or laps) first in each round,
 // then dead-centre readings, sweeps, cut-offs and feeler openings.
+//
+// A round without port marks or laps takes those of the latest earlier
+// round, if the valve has not been moved on its spindle since: they are
+// listed again in that round, with the earlier round's Field and a label
+// saying so, so that each round can be fitted on its own. A fitter using
+// several rounds at once should count a port mark once per Field.
 func (s *Session) Observations(cyl int) ([]Observation, error) {
 	a, err := s.angles(cyl)
 	if err != nil {
 		return nil, err
 	}
-	sign := 1.0
-	if s.Measuring.GaugeIncreases == Back {
-		sign = -1
-	}
+	sign := a.gaugeSign()
 	gsig := s.Measuring.GaugeResolutionMM / math.Sqrt(12)
-	sense := 1.0 // valve displacement that opens the front port to steam
-	if a.info.admission == setting.External {
-		sense = -1
-	}
 	var out []Observation
 	for ri, r := range a.c.Rounds {
 		path := fmt.Sprintf("cylinders[%d].rounds[%d]", cyl, ri)
 		base := Observation{Cylinder: cyl, Round: ri, GaugeSigmaMM: gsig}
-		marks, haveMarks := portMarks(r, sign, sense)
+		marks, from, haveMarks := a.edgesIn(ri)
 		if haveMarks {
-			field := path + ".port_marks"
-			if r.PortMarks == nil {
-				field = path + ".laps"
+			src := a.c.Rounds[from]
+			field := fmt.Sprintf("cylinders[%d].rounds[%d].port_marks", cyl, from)
+			if src.PortMarks == nil {
+				field = fmt.Sprintf("cylinders[%d].rounds[%d].laps", cyl, from)
 			}
 			for k, end := range []End{Front, Back} {
 				o := base
 				o.Kind, o.End, o.Field = PortMarkKind, end, field
 				o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, marks[k], sign*marks[k]
 				o.Label = string(end) + " port mark"
+				if from != ri {
+					o.Label += fmt.Sprintf(" (from round %d)", from+1)
+				}
 				out = append(out, o)
 			}
 		}
@@ -374,19 +377,52 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 	return out, nil
 }
 
-// portMarks returns a round's steam edges as normalised gauge readings,
-// front then back, from port marks or from laps.
-func portMarks(r Round, sign, sense float64) ([2]float64, bool) {
+// gaugeSign is +1 when the gauge grows as the valve moves forward, -1 when
+// it falls: multiplying a reading by it normalises it.
+func (a *angles) gaugeSign() float64 {
+	if a.s.Measuring.GaugeIncreases == Back {
+		return -1
+	}
+	return 1
+}
+
+// portMarks returns a round's own steam edges as normalised gauge
+// readings, front then back, from port marks or from laps.
+func (a *angles) portMarks(r Round) ([2]float64, bool) {
+	sign := a.gaugeSign()
 	switch {
 	case r.PortMarks != nil:
 		return [2]float64{sign * r.PortMarks.FrontGaugeMM, sign * r.PortMarks.BackGaugeMM}, true
 	case r.Laps != nil:
 		c := sign * r.Laps.CentreGaugeMM
-		// The front steam edge is reached when sense*x = lap; the back one
-		// when -sense*x = lap (see setting.Admission).
+		// The front steam edge is reached when sense*x = lap, the back one
+		// when -sense*x = lap, sense being +1 for internal admission and -1
+		// for external (see setting.Admission).
+		sense := 1.0
+		if a.info.admission == setting.External {
+			sense = -1
+		}
 		return [2]float64{c + sense*r.Laps.FrontMM, c - sense*r.Laps.BackMM}, true
 	}
 	return [2]float64{}, false
+}
+
+// edgesIn returns the steam edges (normalised gauge readings, front then
+// back) that hold in round ri: that round's port marks or laps, or those of
+// the latest earlier round if the valve has not been moved on its spindle
+// since; from is the round they were taken in.
+func (a *angles) edgesIn(ri int) (edges [2]float64, from int, ok bool) {
+	for k := ri; k >= 0; k-- {
+		if edges, ok = a.portMarks(a.c.Rounds[k]); ok {
+			return edges, k, true
+		}
+		for _, ch := range a.c.Rounds[k].AdjustmentsBefore {
+			if ch.Kind == ValveOnSpindle {
+				return edges, 0, false
+			}
+		}
+	}
+	return edges, 0, false
 }
 
 // setReverser fills the reverser fields of an observation.

@@ -296,3 +296,33 @@ func TestThreadAndSheave(t *testing.T) {
 		t.Errorf("1 degree on a 30 mm sheave = %v mm round the rim, want 0.2618", got)
 	}
 }
+
+// A round without port marks takes the last ones taken, unless the valve
+// has been moved on its spindle since.
+func TestObservationsCarryPortMarksForward(t *testing.T) {
+	s := mustDecode(t, testJSON)
+	r := &s.Cylinders[0].Rounds[1]
+	r.Laps = nil
+	count := func() (n int, label, field string) {
+		obs, err := s.Observations(0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, o := range obs {
+			if o.Round == 1 && o.Kind == PortMarkKind {
+				n++
+				label, field = o.Label, o.Field
+			}
+		}
+		return n, label, field
+	}
+	// The spindle was moved before round 2: the old marks no longer hold.
+	if n, _, _ := count(); n != 0 {
+		t.Errorf("%d port marks carried past a spindle change", n)
+	}
+	r.AdjustmentsBefore = nil
+	n, label, field := count()
+	if n != 2 || label != "back port mark (from round 1)" || field != "cylinders[0].rounds[0].port_marks" {
+		t.Errorf("carried marks: %d, %q, %q", n, label, field)
+	}
+}

@@ -115,11 +115,7 @@ func (e *encoder) session(s *Session) *node {
 	}
 	o.optStr("note", s.Note)
 	o.enum("display_unit", string(s.DisplayUnit), string(UnitMM), string(UnitInch))
-	raw, err := encodeEngine(s.Engine)
-	var eng *node
-	if err == nil {
-		eng, err = parseCompact(raw)
-	}
+	eng, err := encodeTree(s.Engine)
 	if err != nil {
 		if e.err == nil {
 			e.err = userError("engine", fmt.Sprintf("The engine cannot be written: %v.", err))

@@ -94,9 +94,14 @@ func infoOf(spec setting.EngineSpec) specInfo {
 	return info
 }
 
-// encodeEngine writes an engine object as JSON.
-func encodeEngine(spec setting.EngineSpec) ([]byte, error) {
-	return json.Marshal(spec)
+// encodeTree writes an engine spec as a tree, in the engine format's own
+// key order.
+func encodeTree(spec setting.EngineSpec) (*node, error) {
+	raw, err := json.Marshal(spec)
+	if err != nil {
+		return nil, err
+	}
+	return parseCompact(raw)
 }
 
 // allows says, as a sentence, why this engine's gear cannot have an

@@ -1,7 +1,6 @@
 package session
 
 import (
-	"bytes"
 	"fmt"
 	"math"
 
@@ -467,13 +466,4 @@ func markWords(m Mark) string {
 		return "tyre " + fmtNum(math.Round(m.Value*100)/100) + " mm"
 	}
 	return fmtNum(math.Round(m.Value*100)/100) + " deg"
-}
-
-// encodeTree writes an engine spec as a tree (for merging).
-func encodeTree(spec setting.EngineSpec) (*node, error) {
-	raw, err := encodeEngine(spec)
-	if err != nil {
-		return nil, err
-	}
-	return parseCompact(bytes.TrimSpace(raw))
 }

@@ -48,6 +48,8 @@ type Fit struct {
 	used     []bool
 	idx      []param
 	cov      sym // covariance of the fitted parameters, in idx order
+	revs     []setting.Reverser
+	sens     [][numParams]curve // the fit's effect curves per reverser position, for the planner
 	resMM    float64
 	varScale float64
 }
@@ -466,7 +468,15 @@ func (pb *problem) fitOuter(p [numParams]float64) ([numParams]float64, error) {
 			break
 		}
 		small := worst < 0.05
-		resens := round == 0 && worst > 30
+		// The effect curves are sampled again only when a gear
+		// dimension moved far (a tenth of its prior): the gauge zero,
+		// valve offset and dead-centre mark enter exactly.
+		resens := false
+		for a, j := range pb.idx {
+			if j != pGaugeZero && j != pValveOffset && j != pDeadCentre && math.Abs(d[a]) > 0.1*pb.prior[j] {
+				resens = round < 2
+			}
+		}
 		step := 1.0
 		accepted := false
 		var q [numParams]float64
@@ -713,6 +723,7 @@ func (pb *problem) finish(f *Fit, p [numParams]float64, res float64) error {
 	}
 	f.Sigma = devOf(sv)
 	f.obs = pb.obs
+	f.revs, f.sens = pb.revs, pb.sens
 	return nil
 }
 

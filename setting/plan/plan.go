@@ -178,7 +178,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	plan.Notes = append(plan.Notes, fit.RecheckMessages(opt.Unit)...)
 	plan.Notes = append(plan.Notes, notes...)
 
-	if err := ev.setKnobs(p, ks); err != nil {
+	if err := ev.setKnobs(p, ks, fit); err != nil {
 		return nil, &setting.Error{Field: "engine.gear", Message: "The fitted gear cannot close all round: " + err.Error()}
 	}
 	qNow, err := ev.eventsOf(ev.base, nil)
@@ -271,7 +271,7 @@ type planned struct {
 // plan solves, rounds and describes one priority.
 func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, obj objective, canLead bool, fit *Fit) (*planned, error) {
 	ts := obj.terms(len(ev.ps), canLead)
-	ideal, qIdeal, err := ev.optimise(p, ks, ts)
+	ideal, qIdeal, err := ev.optimise(p, ks, ts, qNow)
 	if err != nil {
 		return nil, &setting.Error{Field: "engine.gear", Message: "The events cannot be found for the fitted gear: " + err.Error()}
 	}

@@ -237,8 +237,10 @@ func (ev *evaluator) curvesAt(p [numParams]float64) ([]curve, error) {
 	return out, nil
 }
 
-// setKnobs samples the curves at p and each knob's effect on them.
-func (ev *evaluator) setKnobs(p [numParams]float64, ks []knob) error {
+// setKnobs samples the curves at p and each knob's effect on them, taking
+// the effect curves the fit already sampled where it has them (fit may be
+// nil).
+func (ev *evaluator) setKnobs(p [numParams]float64, ks []knob, fit *Fit) error {
 	base, err := ev.curvesAt(p)
 	if err != nil {
 		return err
@@ -251,6 +253,21 @@ func (ev *evaluator) setKnobs(p [numParams]float64, ks []knob) error {
 	for k, kb := range ks {
 		if kb.p == pValveOffset {
 			continue
+		}
+		if fit != nil {
+			found := 0
+			for i, pos := range ev.ps {
+				for g, r := range fit.revs {
+					if r == pos.notch.Reverser && fit.sens[g][kb.p] != nil {
+						ev.sens[i][k] = fit.sens[g][kb.p]
+						found++
+						break
+					}
+				}
+			}
+			if found == len(ev.ps) {
+				continue
+			}
 		}
 		// A secant over a tenth of a typical change keeps the linear
 		// model good across the changes a plan makes.
@@ -297,17 +314,16 @@ func (ev *evaluator) quick(cs []curve, prev []quantities, ks []knob) ([]quantiti
 			q.lead[k] = ev.spec.Valve.SteamEdge(end, x)
 			th := q.cutTheta[k]
 			conv := false
-			for it := 0; it < 12; it++ {
+			for it := 0; it < 30; it++ {
 				x, dx := cs[i].at(th)
 				f := ev.spec.Valve.SteamEdge(end, x)
 				fd := ev.kEdge[k] * dx
 				if fd == 0 {
 					break
 				}
-				step := f / fd
-				if math.Abs(step) > 20 {
-					break
-				}
+				// Damped: near a long cut-off the edge is flat and a full
+				// step could jump to the other crossing.
+				step := math.Max(-5, math.Min(5, f/fd))
 				th -= step
 				if math.Abs(step) < 1e-9 {
 					conv = true
@@ -597,12 +613,12 @@ func sumSquares(ts []term, q []quantities) float64 {
 // optimise finds the changes of the knobs (in their units) that minimise
 // the objective from parameters p (whose curves setKnobs has sampled), within the knobs' limits, by bounded
 // Gauss-Newton on the events' implicit-function gradients.
-func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term) ([]float64, []quantities, error) {
+func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term, qNow []quantities) ([]float64, []quantities, error) {
 	n := len(ks)
 	a := make([]float64, n)
-	qs, err := ev.eventsOf(ev.base, ks)
-	if err != nil {
-		return nil, nil, err
+	qs := append([]quantities(nil), qNow...)
+	for i := range qs {
+		ev.knobGrad(&qs[i], ev.base[i], i, ks)
 	}
 	if n == 0 {
 		return a, qs, nil

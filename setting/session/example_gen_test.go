@@ -30,7 +30,7 @@ type exampleTruth struct {
 // the left cylinder as found.
 var (
 	rightAsFound = exampleTruth{valveOffset: 0.12, backRodLong: 0.25, gaugeZero: 5, fdcTyre: 12.3}
-	rightRound2  = exampleTruth{valveOffset: 0.12 - 0.7/6, backRodLong: 0.25, gaugeZero: 5, fdcTyre: 12.3}
+	rightRound2  = exampleTruth{valveOffset: 0.12 - 0.117, backRodLong: 0.25, gaugeZero: 5, fdcTyre: 12.3}
 	leftAsFound  = exampleTruth{valveOffset: -0.08, backRodLong: 0, gaugeZero: 4.5, fdcTyre: 301.7}
 )
 
@@ -224,7 +224,7 @@ func buildExample(t *testing.T) *Session {
 	m2 := newExampleModel(t, spec, rightRound2)
 	round2 := Round{
 		Date:               "2026-11-22",
-		AdjustmentsBefore:  []Change{{Kind: ValveOnSpindle, Amount: -0.7 / 6, Note: "one flat back on the spindle nut"}},
+		AdjustmentsBefore:  []Change{{Kind: ValveOnSpindle, Amount: -0.117, Note: "one flat back on the spindle nut (0.7 mm / 6)"}},
 		PortMarks:          ptr(m2.portMarks()),
 		DeadCentreReadings: deadCentreReadings(m2, []ReverserPosition{ff, fb}),
 	}

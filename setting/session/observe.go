@@ -294,6 +294,13 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 	for ri, r := range a.c.Rounds {
 		path := fmt.Sprintf("cylinders[%d].rounds[%d]", cyl, ri)
 		base := Observation{Cylinder: cyl, Round: ri, GaugeSigmaMM: gsig}
+		// atCrank starts an observation taken with the crank at an angle.
+		atCrank := func(kind Kind, end End, field string, rp ReverserPosition, dir Direction) Observation {
+			o := base
+			o.Kind, o.End, o.Field, o.HasCrank = kind, end, field, true
+			o.setReverser(rp, dir, a.info)
+			return o
+		}
 		marks, from, haveMarks := a.edgesIn(ri)
 		if haveMarks {
 			src := a.c.Rounds[from]
@@ -313,10 +320,7 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 			}
 		}
 		for i, d := range r.DeadCentreReadings {
-			o := base
-			o.Kind, o.End, o.Field = AtDeadCentre, d.End, fmt.Sprintf("%s.dead_centre_readings[%d]", path, i)
-			o.setReverser(d.Reverser, d.Direction, a.info)
-			o.HasCrank = true
+			o := atCrank(AtDeadCentre, d.End, fmt.Sprintf("%s.dead_centre_readings[%d]", path, i), d.Reverser, d.Direction)
 			o.CrankDeg, o.CrankSigmaDeg = a.atDeadCentre(d.End, d.Direction)
 			o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, sign*d.GaugeMM, d.GaugeMM
 			o.Label = fmt.Sprintf("%s dead centre, %s", d.End, o.setting())
@@ -324,10 +328,7 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 		}
 		for i, w := range r.Sweeps {
 			for j, g := range w.Readings {
-				o := base
-				o.Kind, o.Field = InSweep, fmt.Sprintf("%s.sweeps[%d].readings[%d]", path, i, j)
-				o.setReverser(w.Reverser, w.Direction, a.info)
-				o.HasCrank = true
+				o := atCrank(InSweep, "", fmt.Sprintf("%s.sweeps[%d].readings[%d]", path, i, j), w.Reverser, w.Direction)
 				o.CrankDeg, o.CrankSigmaDeg = a.crank(g.At, w.Direction)
 				o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, sign*g.GaugeMM, g.GaugeMM
 				o.Label = fmt.Sprintf("sweep at %s, %s", markWords(g.At), o.setting())
@@ -335,10 +336,7 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 			}
 		}
 		for i, c := range r.CutOffs {
-			o := base
-			o.Kind, o.End, o.Field = CutOffKind, c.End, fmt.Sprintf("%s.cut_offs[%d]", path, i)
-			o.setReverser(c.Reverser, c.Direction, a.info)
-			o.HasCrank = true
+			o := atCrank(CutOffKind, c.End, fmt.Sprintf("%s.cut_offs[%d]", path, i), c.Reverser, c.Direction)
 			var where string
 			if c.At.Scale != "" {
 				o.CrankDeg, o.CrankSigmaDeg, where = a.place("", c.At, c.Direction)
@@ -351,20 +349,14 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 				where = "crosshead " + fmtNum(c.CrossheadMM) + " mm"
 			}
 			if haveMarks {
-				k := 0
-				if c.End == Back {
-					k = 1
-				}
+				k := endIndex(c.End)
 				o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, marks[k], sign*marks[k]
 			}
 			o.Label = fmt.Sprintf("%s cut-off at %s, %s", c.End, where, o.setting())
 			out = append(out, o)
 		}
 		for i, f := range r.FeelerOpenings {
-			o := base
-			o.Kind, o.End, o.Field = FeelerKind, f.Port, fmt.Sprintf("%s.feeler_openings[%d]", path, i)
-			o.setReverser(f.Reverser, f.Direction, a.info)
-			o.HasCrank = true
+			o := atCrank(FeelerKind, f.Port, fmt.Sprintf("%s.feeler_openings[%d]", path, i), f.Reverser, f.Direction)
 			var where string
 			o.CrankDeg, o.CrankSigmaDeg, where = a.place(f.DeadCentre, f.At, f.Direction)
 			o.GaugeSigmaMM = FeelerErrorMM

@@ -1,6 +1,7 @@
 package plan
 
 import (
+	"fmt"
 	"math"
 
 	"evenbeat/setting"
@@ -134,28 +135,59 @@ func (c curve) motion() setting.Motion {
 	return func(th float64) (float64, error) { return c.value(th), nil }
 }
 
-// effect returns, per position, the curve of the effect of one unit of
-// deviation j: a difference over step h of the curves at p (base) and at p
-// moved by h (by -h when the linkage cannot close at +h).
-func effect(curves func([numParams]float64) ([]curve, error), p [numParams]float64, j param, h float64, base []curve) ([]curve, error) {
+// gearCurves samples the gear's valve curve (plus the valve offset when
+// withOffset) at deviations p in each reverser position, at tr's angles.
+func gearCurves(spec setting.EngineSpec, p [numParams]float64, revs []setting.Reverser, tr *trig, withOffset bool) ([]curve, error) {
+	g, err := Model{spec, devOf(p)}.Gear()
+	if err != nil {
+		return nil, err
+	}
+	off := 0.0
+	if withOffset {
+		off = p[pValveOffset]
+	}
+	out := make([]curve, len(revs))
+	x := make([]float64, tr.n)
+	for k, r := range revs {
+		for j := range x {
+			v, err := g.Valve(spec.Engine, tr.angle(j), r)
+			if err != nil {
+				return nil, fmt.Errorf("%s: %w", notchName("", r), err)
+			}
+			x[j] = v + off
+		}
+		out[k] = tr.fit(x)
+	}
+	return out, nil
+}
+
+// effectSamples is how many points round a turn an effect curve is
+// sampled at: twice its harmonics (see effectHarmonics).
+const effectSamples = 2 * effectHarmonics
+
+// effect returns, per reverser position, the curve of the effect of one
+// unit of deviation j: the gear sampled at p moved by h (by -h when the
+// linkage cannot close at +h) at tr24's angles, less the base curves there,
+// over h. withOffset must be as the base curves were sampled.
+func effect(spec setting.EngineSpec, p [numParams]float64, revs []setting.Reverser, tr24 *trig, j param, h float64, base []curve, withOffset bool) ([]curve, error) {
 	q := p
 	q[j] += h
-	cs, err := curves(q)
+	cs, err := gearCurves(spec, q, revs, tr24, withOffset)
 	if err != nil {
 		q[j] = p[j] - h
-		if cs, err = curves(q); err != nil {
+		if cs, err = gearCurves(spec, q, revs, tr24, withOffset); err != nil {
 			return nil, err
 		}
 		h = -h
 	}
 	out := make([]curve, len(cs))
+	x := make([]float64, tr24.n)
 	for i := range cs {
-		n := min(len(cs[i]), 2*effectHarmonics+1)
-		d := make(curve, n)
-		for m := range d {
-			d[m] = (cs[i][m] - base[i][m]) / h
+		for m := range x {
+			th := tr24.angle(m)
+			x[m] = (cs[i].value(th) - base[i].value(th)) / h
 		}
-		out[i] = d
+		out[i] = tr24.fit(x)
 	}
 	return out, nil
 }

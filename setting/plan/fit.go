@@ -174,6 +174,7 @@ type problem struct {
 	mean  [numParams]float64 // prior means
 
 	tr    *trig
+	tr24  *trig              // for effect curves
 	revs  []setting.Reverser // the reverser positions of the readings
 	grp   []int              // per observation: index into revs, -1 for port marks
 	p0    [numParams]float64 // where base was sampled
@@ -184,7 +185,7 @@ type problem struct {
 
 // newProblem groups the observations by reverser position.
 func newProblem(spec setting.EngineSpec, obs []session.Observation) *problem {
-	pb := &problem{spec: spec, obs: obs, use: make([]bool, len(obs)), sig: make([]float64, len(obs)), grp: make([]int, len(obs)), tr: newTrig(curveSamples)}
+	pb := &problem{spec: spec, obs: obs, use: make([]bool, len(obs)), sig: make([]float64, len(obs)), grp: make([]int, len(obs)), tr: newTrig(curveSamples), tr24: newTrig(effectSamples)}
 	for k := 0; k < 2; k++ {
 		end := setting.CylinderEnd(k)
 		pb.kEdge[k] = spec.Valve.SteamEdge(end, 1) - spec.Valve.SteamEdge(end, 0)
@@ -211,22 +212,7 @@ func newProblem(spec setting.EngineSpec, obs []session.Observation) *problem {
 // sampleAt samples the gear curves at p, and the effect curves of the
 // fitted gear deviations when withSens.
 func (pb *problem) sampleAt(p [numParams]float64, withSens bool) error {
-	curves := func(p [numParams]float64) ([]curve, error) {
-		g, err := Model{pb.spec, devOf(p)}.Gear()
-		if err != nil {
-			return nil, err
-		}
-		out := make([]curve, len(pb.revs))
-		for k, r := range pb.revs {
-			c, err := pb.tr.sample(func(th float64) (float64, error) { return g.Valve(pb.spec.Engine, th, r) })
-			if err != nil {
-				return nil, err
-			}
-			out[k] = c
-		}
-		return out, nil
-	}
-	base, err := curves(p)
+	base, err := gearCurves(pb.spec, p, pb.revs, pb.tr, false)
 	if err != nil {
 		return err
 	}
@@ -236,7 +222,7 @@ func (pb *problem) sampleAt(p [numParams]float64, withSens bool) error {
 			if j == pGaugeZero || j == pValveOffset || j == pDeadCentre {
 				continue
 			}
-			ds, err := effect(curves, p, j, stepOf(j), base)
+			ds, err := effect(pb.spec, p, pb.revs, pb.tr24, j, stepOf(j), base, false)
 			if err != nil {
 				return err
 			}

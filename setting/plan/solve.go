@@ -200,6 +200,7 @@ type evaluator struct {
 	crank setting.Crank
 	ps    []position
 	tr    *trig
+	tr24  *trig     // for effect curves
 	base  []curve   // per position, at the fitted deviations
 	sens  [][]curve // per position, per knob: d(curve)/d(knob); nil for the spindle
 	kEdge [2]float64
@@ -207,7 +208,7 @@ type evaluator struct {
 
 // newEvaluator prepares an evaluator for an engine and positions.
 func newEvaluator(spec setting.EngineSpec, crank setting.Crank, ps []position) *evaluator {
-	ev := &evaluator{spec: spec, crank: crank, ps: ps, tr: newTrig(curveSamples)}
+	ev := &evaluator{spec: spec, crank: crank, ps: ps, tr: newTrig(curveSamples), tr24: newTrig(effectSamples)}
 	for k := 0; k < 2; k++ {
 		end := setting.CylinderEnd(k)
 		ev.kEdge[k] = spec.Valve.SteamEdge(end, 1) - spec.Valve.SteamEdge(end, 0)
@@ -218,23 +219,16 @@ func newEvaluator(spec setting.EngineSpec, crank setting.Crank, ps []position) *
 // curvesAt samples the valve curve (valve offset included) of every
 // position at deviations p.
 func (ev *evaluator) curvesAt(p [numParams]float64) ([]curve, error) {
-	g, err := Model{ev.spec, devOf(p)}.Gear()
-	if err != nil {
-		return nil, err
+	return gearCurves(ev.spec, p, ev.revs(), ev.tr, true)
+}
+
+// revs returns the reverser position of each planned position.
+func (ev *evaluator) revs() []setting.Reverser {
+	out := make([]setting.Reverser, len(ev.ps))
+	for i, p := range ev.ps {
+		out[i] = p.notch.Reverser
 	}
-	out := make([]curve, len(ev.ps))
-	for i, pos := range ev.ps {
-		r := pos.notch.Reverser
-		c, err := ev.tr.sample(func(th float64) (float64, error) {
-			x, err := g.Valve(ev.spec.Engine, th, r)
-			return x + p[pValveOffset], err
-		})
-		if err != nil {
-			return nil, fmt.Errorf("%s: %w", pos.name(), err)
-		}
-		out[i] = c
-	}
-	return out, nil
+	return out
 }
 
 // setKnobs samples the curves at p and each knob's effect on them, taking
@@ -272,7 +266,7 @@ func (ev *evaluator) setKnobs(p [numParams]float64, ks []knob, fit *Fit) error {
 		// A secant over a tenth of a typical change keeps the linear
 		// model good across the changes a plan makes.
 		h := 0.1 * kb.scale
-		ds, err := effect(ev.curvesAt, p, kb.p, h, base)
+		ds, err := effect(ev.spec, p, ev.revs(), ev.tr24, kb.p, h, base, true)
 		if err != nil {
 			return err
 		}

@@ -7,7 +7,7 @@ import (
 	"evenbeat/setting"
 )
 
-// The interpolant of 48 samples follows each test gear's exact linkage to
+// The interpolant of curveSamples samples follows each test gear's exact linkage to
 // 1e-4 mm at angles between the samples, in every planned position.
 func TestCurveMatchesGear(t *testing.T) {
 	tr := newTrig(curveSamples)

@@ -66,7 +66,14 @@ func (c *Canvas) Clear(col color.RGBA) {
 // WritePNG encodes the image as PNG.
 func (c *Canvas) WritePNG(w io.Writer) error { return png.Encode(w, c.img) }
 
+// maxCoord is the largest distance from the origin, in device pixels, of a
+// point Fill will draw: x/image/vector's integer path overflows some way
+// beyond it (a million pixels is far outside any screen or report).
+const maxCoord = 1 << 20
+
 // Fill fills p with the non-zero rule, anti-aliased, blended over the image.
+// A path with a point more than maxCoord device pixels from the origin is
+// not drawn at all, rather than drawn wrong.
 func (c *Canvas) Fill(p render.Path, s render.FillStyle) {
 	if s.Color.A == 0 || len(p) == 0 {
 		return
@@ -83,10 +90,10 @@ func (c *Canvas) Fill(p render.Path, s render.FillStyle) {
 			maxX, maxY = math.Max(maxX, pt.X), math.Max(maxY, pt.Y)
 		}
 	}
-	if minX > maxX {
+	k := c.scale
+	if minX > maxX || math.Max(math.Max(-minX, maxX), math.Max(-minY, maxY))*k > maxCoord {
 		return
 	}
-	k := c.scale
 	r := image.Rect(int(math.Floor(minX*k)), int(math.Floor(minY*k)),
 		int(math.Ceil(maxX*k))+1, int(math.Ceil(maxY*k))+1).Intersect(c.img.Bounds())
 	if r.Empty() {

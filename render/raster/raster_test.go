@@ -143,6 +143,25 @@ func TestBadInputDrawsNothing(t *testing.T) {
 	if !inkBounds(c.Image()).Empty() {
 		t.Error("bad or off-canvas input drew pixels")
 	}
+	// Far-flung points (beyond a million device pixels) are not drawn, and
+	// a large but sane path still covers the canvas.
+	cover := func(far float64) int {
+		c := raster.New(100, 100, 1)
+		c.Fill(render.RectPath(render.Rect{Min: render.Point{X: -far, Y: -far}, Max: render.Point{X: far, Y: far}}), render.FillStyle{Color: color.RGBA{0, 0, 0, 255}})
+		n := 0
+		for i := 3; i < len(c.Image().Pix); i += 4 {
+			if c.Image().Pix[i] == 255 {
+				n++
+			}
+		}
+		return n
+	}
+	if n := cover(1e5); n != 100*100 {
+		t.Errorf("a square 1e5 px each way covers %d of 10000 pixels", n)
+	}
+	if n := cover(1e7); n != 0 {
+		t.Errorf("a square 1e7 px each way should not be drawn, covered %d pixels", n)
+	}
 }
 
 // PNG goldens: decoded pixels compared with a tolerance of 2 per channel

@@ -85,6 +85,9 @@ func (t *trig) sample(f func(th float64) (float64, error)) (curve, error) {
 
 // at returns the curve's value and slope (mm per degree) at th degrees.
 func (c curve) at(th float64) (x, dx float64) {
+	if len(c) == 0 {
+		return 0, 0
+	}
 	s1, c1 := math.Sincos(th * math.Pi / 180)
 	ck, sk := 1.0, 0.0
 	x = c[0]
@@ -99,6 +102,9 @@ func (c curve) at(th float64) (x, dx float64) {
 
 // value returns the curve's value at th degrees.
 func (c curve) value(th float64) float64 {
+	if len(c) == 0 {
+		return 0
+	}
 	s1, c1 := math.Sincos(th * math.Pi / 180)
 	ck, sk := 1.0, 0.0
 	x := c[0]

@@ -217,7 +217,8 @@ func (pb *problem) sampleAt(p [numParams]float64, withSens bool) error {
 		return err
 	}
 	if withSens || pb.sens == nil {
-		pb.sens = make([][numParams]curve, len(pb.revs))
+		// Filled aside and kept only when every effect could be sampled.
+		sens := make([][numParams]curve, len(pb.revs))
 		for _, j := range pb.idx {
 			if j == pGaugeZero || j == pValveOffset || j == pDeadCentre {
 				continue
@@ -227,9 +228,10 @@ func (pb *problem) sampleAt(p [numParams]float64, withSens bool) error {
 				return err
 			}
 			for k := range pb.revs {
-				pb.sens[k][j] = ds[k]
+				sens[k][j] = ds[k]
 			}
 		}
+		pb.sens = sens
 	}
 	pb.base, pb.p0 = base, p
 	return nil

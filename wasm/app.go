@@ -110,7 +110,8 @@ func (a *app) Handle(in intent) (acknowledged bool) {
 		}
 		return false
 	}
-	if in.Kind != intentTap || !contains(a.AckButton(), in.At) {
+	tapped := in.Kind == intentTap && contains(a.AckButton(), in.At)
+	if !tapped && in.Kind != intentConfirm {
 		return false
 	}
 	a.screen = screenDiagram

@@ -124,3 +124,14 @@ func TestResizeLaysOutAgain(t *testing.T) {
 		t.Errorf("after growing: scroll %v, dirty %v, maxScroll %v; want 0, true, 0", a.scroll, a.dirty, a.maxScroll())
 	}
 }
+
+func TestEnterAcknowledges(t *testing.T) {
+	a := newApp(demoEngine(), render.Light(), false)
+	a.Resize(390, 844)
+	if !a.Handle(intent{Kind: intentConfirm}) || a.screen != screenDiagram {
+		t.Errorf("Enter on the cautions: screen %v; want the diagram", a.screen)
+	}
+	if a.Handle(intent{Kind: intentConfirm}) {
+		t.Error("Enter on the diagram acknowledged again")
+	}
+}

@@ -6,6 +6,14 @@
 // only for js (main.go, *_js.go): the ebiten Canvas backend, the pointer
 // queue fed by JavaScript listeners, and the IndexedDB store.
 //
+// Input: pointer events are queued by JavaScript listeners as they happen
+// (ebiten polls once per tick and would lose a quick tap on a slow phone),
+// with ebiten's touches and mouse as the fallback; keys, touches and mouse
+// are folded into intents (tap, scroll, confirm) that the screens handle.
+// The app publishes its state on window for tests (evenbeatState,
+// evenbeatDrawn, evenbeatFirstFrame, evenbeatFirstScreen, evenbeatAck,
+// evenbeatBox, evenbeatAckSaved, evenbeatTheme).
+//
 // Units: logical units are CSS pixels, origin top-left, y down, as in
 // render; the screen has scale device pixels per logical unit
 // (ebiten.Monitor().DeviceScaleFactor()). It may import setting, render

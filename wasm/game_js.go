@@ -72,13 +72,41 @@ func (g *game) Update() error {
 		g.events = g.polled(g.events)
 	}
 	for _, ev := range g.events {
-		in, ok := g.taps.Feed(ev)
-		if ok && g.app.Handle(in) {
-			g.saveAck()
+		if in, ok := g.taps.Feed(ev); ok {
+			g.handle(in)
 		}
+	}
+	for _, in := range keyIntents() {
+		g.handle(in)
 	}
 	g.publish()
 	return nil
+}
+
+// handle passes one intent to the app and saves what it asks to save.
+func (g *game) handle(in intent) {
+	if g.app.Handle(in) {
+		g.saveAck()
+	}
+}
+
+// keyStep is how far (CSS px) an arrow key scrolls.
+const keyStep = 40
+
+// keyIntents folds the keys pressed this tick into intents: Enter or Space
+// confirms, the arrow keys scroll.
+func keyIntents() []intent {
+	var ins []intent
+	if inpututil.IsKeyJustPressed(ebiten.KeyEnter) || inpututil.IsKeyJustPressed(ebiten.KeySpace) {
+		ins = append(ins, intent{Kind: intentConfirm})
+	}
+	if inpututil.IsKeyJustPressed(ebiten.KeyArrowDown) {
+		ins = append(ins, intent{Kind: intentScroll, Delta: render.Point{Y: -keyStep}})
+	}
+	if inpututil.IsKeyJustPressed(ebiten.KeyArrowUp) {
+		ins = append(ins, intent{Kind: intentScroll, Delta: render.Point{Y: keyStep}})
+	}
+	return ins
 }
 
 // polled reads touches (by touch ID) and the left mouse button as pointer

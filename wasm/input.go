@@ -30,8 +30,9 @@ type intentKind uint8
 
 // Intent kinds.
 const (
-	intentTap    intentKind = iota // a short press and release in one place
-	intentScroll                   // a finger dragging the content by Delta
+	intentTap     intentKind = iota // a short press and release in one place
+	intentScroll                    // a finger dragging the content by Delta (or arrow keys)
+	intentConfirm                   // Enter or Space: the screen's main button
 )
 
 // intent is one user action for the screens to handle.

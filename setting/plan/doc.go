@@ -26,9 +26,8 @@
 // # Fit (a), with dimensions
 //
 // FitObservations (FitSession for a session) finds the deviations by
-// nonlinear least squares: Gauss-Newton steps on the normal equations
-// (Cholesky, plain Go), each step halved while it does not lower the sum
-// (the Levenberg-Marquardt safeguard), weighting each reading by its error
+// nonlinear least squares by Levenberg-Marquardt on the normal equations
+// (Cholesky, plain Go), weighting each reading by its error
 // sqrt(gauge^2 + (valve slope x crank-angle error)^2) with the gauge error
 // resolution / sqrt(12) (uniform quantisation) and the crank-angle error
 // from the tyre marks. Every deviation carries a Gaussian prior (2 mm for

@@ -414,10 +414,11 @@ func (pb *problem) normal(p [numParams]float64, r []float64) (sym, []float64) {
 }
 
 // fitOuter minimises the weighted sum of squares with the priors by
-// Gauss-Newton steps, halved while they do not lower it (the
-// Levenberg-Marquardt safeguard in its simplest form): each step is solved
-// on the linear model, and the linkage is sampled again at its end, so
-// the model is exact where the step lands.
+// Levenberg-Marquardt: each step solves the damped normal equations
+// (J^T W J + P + lambda diag) d = -g on the linear model, the linkage is
+// sampled again where the step lands (so the model is exact there), and
+// lambda grows tenfold while a step does not lower the sum, shrinking
+// tenfold after one that does (from zero: a pure Gauss-Newton step first).
 func (pb *problem) fitOuter(p [numParams]float64) ([numParams]float64, error) {
 	if pb.p0 != p {
 		if err := pb.sampleAt(p, false); err != nil {
@@ -431,56 +432,60 @@ func (pb *problem) fitOuter(p [numParams]float64) ([numParams]float64, error) {
 	}
 	c := pb.cost(p, r)
 	rq := make([]float64, n)
+	lambda := 0.0 // Levenberg-Marquardt damping, relative to the diagonal
 	for round := 0; round < 12; round++ {
 		A, g := pb.normal(p, r)
-		d, ok := A.solve(g)
-		if !ok {
-			return p, &setting.Error{Field: "readings", Message: "The readings cannot fix the gear's state: take a sweep in full forward and in full back gear."}
-		}
-		// Converged when the whole step is a twentieth of a standard
-		// deviation of what the readings can tell: take it and stop. After
-		// a long first step the effect curves are sampled again where it
-		// lands, so that the later steps converge fast.
-		worst := 0.0
-		for a := range pb.idx {
-			worst = math.Max(worst, math.Abs(d[a])*math.Sqrt(A.at(a, a)))
-		}
-		// A step that would lower the sum of squares by less than 1e-3
-		// (in units of the readings' errors squared) changes nothing the
-		// readings can see.
-		pred := 0.0
-		for a := range g {
-			pred += g[a] * d[a]
-		}
-		if pred < 1e-3 {
-			break
-		}
-		small := worst < 0.05
-		// The effect curves are sampled again only when a gear
-		// dimension moved far (a tenth of its prior): the gauge zero,
-		// valve offset and dead-centre mark enter exactly.
-		resens := false
-		for a, j := range pb.idx {
-			if j != pGaugeZero && j != pValveOffset && j != pDeadCentre && math.Abs(d[a]) > 0.1*pb.prior[j] {
-				resens = round < 2
-			}
-		}
-		step := 1.0
 		accepted := false
 		var q [numParams]float64
-		var cq float64
-		for tries := 0; tries < 8; tries++ {
+		var cq, pred, worst float64
+		var small bool
+		for tries := 0; tries < 10; tries++ {
+			D := newSym(A.n)
+			copy(D.a, A.a)
+			for a := 0; a < A.n; a++ {
+				D.add(a, a, lambda*A.at(a, a))
+			}
+			d, ok := D.solve(g)
+			if !ok {
+				return p, &setting.Error{Field: "readings", Message: "The readings cannot fix the gear's state: take a sweep in full forward and in full back gear."}
+			}
+			// Converged when the whole step is a twentieth of a standard
+			// deviation of what the readings can tell, or would lower the
+			// sum of squares by less than 1e-3 (in units of the readings'
+			// errors squared): nothing the readings can see.
+			worst, pred = 0, 0
+			for a := range pb.idx {
+				worst = math.Max(worst, math.Abs(d[a])*math.Sqrt(A.at(a, a)))
+				pred += g[a] * d[a]
+			}
+			if pred < 1e-3 {
+				return p, nil
+			}
+			small = worst < 0.05
+			// The effect curves are sampled again only when a gear
+			// dimension moved far (a tenth of its prior) early on: the
+			// gauge zero, valve offset and dead-centre mark enter exactly.
+			resens := false
+			for a, j := range pb.idx {
+				if j != pGaugeZero && j != pValveOffset && j != pDeadCentre && math.Abs(d[a]) > 0.1*pb.prior[j] {
+					resens = round < 2
+				}
+			}
 			q = p
 			for a, j := range pb.idx {
-				q[j] += step * d[a]
+				q[j] += d[a]
 			}
 			if err := pb.sampleAt(q, resens); err == nil && pb.eval(q, rq) == nil {
 				if cq = pb.cost(q, rq); cq <= c*(1+1e-9) || small {
 					accepted = true
+					lambda /= 10
+					if lambda < 1e-6 {
+						lambda = 0
+					}
 					break
 				}
 			}
-			step /= 2
+			lambda = math.Max(10*lambda, 1e-3)
 		}
 		if !accepted {
 			if err := pb.sampleAt(p, false); err != nil {

@@ -411,3 +411,49 @@ func TestBalancedAndTarget(t *testing.T) {
 		t.Errorf("mean lead %.3f after the plan, target %.3f", m, target)
 	}
 }
+
+// Limits hold: with the spindle allowed only 0.1 mm either way the plan
+// stops there and says so; a profile with nothing to adjust is refused.
+func TestLimits(t *testing.T) {
+	kind := setting.KindSingleEccentric
+	sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
+	adjs := []session.Adjustment{{Kind: session.ValveOnSpindle, Min: -0.1, Max: 0.1, Thread: fineThread}}
+	p, err := Make(sim.session(t, 30, adjs), Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(p.Steps) != 1 || math.Abs(p.Steps[0].Amount) > 0.1+1e-9 || !p.Steps[0].AtLimit {
+		t.Fatalf("steps %+v", p.Steps)
+	}
+	if !strings.Contains(p.Steps[0].Words, "as far as the profile allows") {
+		t.Errorf("words %q", p.Steps[0].Words)
+	}
+	if _, err := Make(sim.session(t, 30, nil), Options{}); err == nil || !strings.Contains(err.Error(), "allows no adjustment") {
+		t.Errorf("no adjustments: %v", err)
+	}
+}
+
+// The readings' errors reach the events: a gauge read to the thou gives
+// wider leads than one read to 0.01 mm, and fewer readings wider still.
+func TestUncertaintyFollowsTheReadings(t *testing.T) {
+	kind := setting.KindStephenson
+	sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
+	sigma := func(s *session.Session) float64 {
+		p, err := Make(s, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		return p.Now[0].Front.LeadSigmaMM
+	}
+	fine := sigma(sim.session(t, 15, testAdjustments(kind)))
+	coarseS := sim.session(t, 15, testAdjustments(kind))
+	coarseS.Measuring.GaugeResolutionMM = 0.0254
+	coarse := sigma(coarseS)
+	few := sigma(sim.session(t, 0, testAdjustments(kind)))
+	if !(fine > 0 && coarse > fine && few > fine) {
+		t.Errorf("lead sigma: 0.01 mm gauge %.4f, thou gauge %.4f, dead centres only %.4f", fine, coarse, few)
+	}
+	if fine > 0.02 {
+		t.Errorf("with sweeps every 15 degrees the lead should be known to 0.02 mm, got %.4f", fine)
+	}
+}

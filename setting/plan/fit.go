@@ -56,8 +56,8 @@ type Fit struct {
 
 // FitOptions tunes the fit. The zero value is the default.
 type FitOptions struct {
-	// Round is the index of the round to fit; -1 or any value out of range
-	// means the latest.
+	// Round is the number of the round to fit, counting the first as 1;
+	// 0 (or any number beyond the last) means the latest.
 	Round int
 	// NoRecheck keeps every reading in the fit, however far it lies.
 	NoRecheck bool
@@ -76,15 +76,17 @@ func priors(spec setting.EngineSpec, dcSigma float64) [numParams]float64 {
 	}
 }
 
-// roundObservations picks the observations of one round of cylinder cyl.
+// roundObservations picks the observations of round number round (from
+// 1; 0 for the latest) of cylinder cyl.
 func roundObservations(s *session.Session, cyl, round int) ([]session.Observation, error) {
 	all, err := s.Observations(cyl)
 	if err != nil {
 		return nil, err
 	}
-	if round < 0 || round >= len(s.Cylinders[cyl].Rounds) {
-		round = len(s.Cylinders[cyl].Rounds) - 1
+	if round <= 0 || round > len(s.Cylinders[cyl].Rounds) {
+		round = len(s.Cylinders[cyl].Rounds)
 	}
+	round-- // to an index
 	var out []session.Observation
 	for _, o := range all {
 		if o.Round == round {

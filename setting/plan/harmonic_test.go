@@ -14,7 +14,7 @@ func TestHarmonicFitLeadsAndSpindle(t *testing.T) {
 	kind := setting.KindSingleEccentric
 	sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
 	s := sim.session(t, 15, testAdjustments(kind))
-	obs, err := roundObservations(s, 0, -1)
+	obs, err := roundObservations(s, 0, 0)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -56,7 +56,7 @@ func TestHarmonicFitLeadsAndSpindle(t *testing.T) {
 	}
 	// A knocked reading is named.
 	s.Cylinders[0].Rounds[0].Sweeps[0].Readings[5].GaugeMM += 0.4
-	obs, _ = roundObservations(s, 0, -1)
+	obs, _ = roundObservations(s, 0, 0)
 	h, err = FitHarmonic(obs)
 	if err != nil {
 		t.Fatal(err)

@@ -457,3 +457,34 @@ func TestUncertaintyFollowsTheReadings(t *testing.T) {
 		t.Errorf("with sweeps every 15 degrees the lead should be known to 0.02 mm, got %.4f", fine)
 	}
 }
+
+// The plan works from the latest round; an earlier one can be chosen.
+func TestLatestRound(t *testing.T) {
+	kind := setting.KindSingleEccentric
+	sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
+	s := sim.session(t, 30, testAdjustments(kind))
+	old := sim
+	old.dev.ValveOffsetMM += 0.5 // before the last adjustment
+	first := old.session(t, 30, testAdjustments(kind)).Cylinders[0].Rounds[0]
+	second := s.Cylinders[0].Rounds[0]
+	second.Date = "2026-12-02"
+	second.AdjustmentsBefore = []session.Change{{Kind: session.ValveOnSpindle, Amount: -0.5}}
+	s.Cylinders[0].Rounds = []session.Round{first, second}
+	s = roundTrip(t, s)
+	for _, c := range []struct {
+		round int
+		want  float64
+	}{{0, sim.dev.ValveOffsetMM}, {2, sim.dev.ValveOffsetMM}, {1, old.dev.ValveOffsetMM}} {
+		f, err := FitSession(s, 0, FitOptions{Round: c.round})
+		if err != nil {
+			t.Fatal(err)
+		}
+		// The offset shares with the rod length; their sum is what moves
+		// the valve, and is pinned by the readings.
+		got := f.Model.Dev.ValveOffsetMM + f.Model.Dev.EccentricRodMM[0]
+		want := c.want + sim.dev.EccentricRodMM[0]
+		if math.Abs(got-want) > 0.05 {
+			t.Errorf("round %d: offset + rod %.3f, want %.3f", c.round, got, want)
+		}
+	}
+}

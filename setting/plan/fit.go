@@ -710,9 +710,9 @@ func (pb *problem) finish(f *Fit, p [numParams]float64, res float64) error {
 	for a, j := range pb.idx {
 		sv[j] = math.Sqrt(cov.at(a, a))
 		if j != pGaugeZero {
-			f.Fitted = append(f.Fitted, paramNames[j])
+			f.Fitted = append(f.Fitted, j.name())
 			if sv[j] > 0.7*pb.prior[j]*math.Sqrt(f.varScale) {
-				f.Undecided = append(f.Undecided, paramNames[j])
+				f.Undecided = append(f.Undecided, j.name())
 			}
 		}
 	}

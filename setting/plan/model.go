@@ -56,12 +56,29 @@ const (
 	numParams
 )
 
-// paramNames are the deviations in words, for messages.
-var paramNames = [numParams]string{
-	"gauge zero", "valve position on its spindle", "front dead-centre mark",
-	"forward eccentric angle", "backward eccentric angle",
-	"forward eccentric rod length", "backward eccentric rod length",
-	"return crank angle", "radius rod length",
+// name returns the deviation in words, for messages.
+func (p param) name() string {
+	switch p {
+	case pGaugeZero:
+		return "gauge zero"
+	case pValveOffset:
+		return "valve position on its spindle"
+	case pDeadCentre:
+		return "front dead-centre mark"
+	case pEccFwd:
+		return "forward eccentric angle"
+	case pEccBack:
+		return "backward eccentric angle"
+	case pRodFwd:
+		return "forward eccentric rod length"
+	case pRodBack:
+		return "backward eccentric rod length"
+	case pReturnCrank:
+		return "return crank angle"
+	case pRadiusRod:
+		return "radius rod length"
+	}
+	return "deviation"
 }
 
 func (d Deviations) vec() [numParams]float64 {

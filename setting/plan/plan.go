@@ -212,7 +212,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 		plan.Notes = append(plan.Notes, next)
 	}
 	for _, u := range fit.Undecided {
-		if u == paramNames[pDeadCentre] {
+		if u == pDeadCentre.name() {
 			continue
 		}
 		plan.Notes = append(plan.Notes, fmt.Sprintf("The readings cannot tell the %s apart from other errors that act alike; the plan does not depend on it, but the fitted value is only a guess.", u))

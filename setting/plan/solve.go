@@ -450,7 +450,9 @@ func cutPercent(e setting.EndEvents) float64 {
 
 // gradParams are the deviations that change events (the gauge zero and the
 // dead-centre mark only change readings).
-var gradParams = []param{pValveOffset, pEccFwd, pEccBack, pRodFwd, pRodBack, pReturnCrank, pRadiusRod}
+func gradParams() []param {
+	return []param{pValveOffset, pEccFwd, pEccBack, pRodFwd, pRodBack, pReturnCrank, pRadiusRod}
+}
 
 // gradients fills q.grad by the implicit-function rule: a lead moves with
 // the valve at dead centre; a cut-off's crank angle moves by
@@ -486,7 +488,7 @@ func (ev *evaluator) gradients(p [numParams]float64, r setting.Reverser, q *quan
 		end := setting.CylinderEnd(k)
 		kEdge[k] = ev.spec.Valve.SteamEdge(end, 1) - ev.spec.Valve.SteamEdge(end, 0)
 	}
-	for _, j := range gradParams {
+	for _, j := range gradParams() {
 		var dx [4]float64
 		if j == pValveOffset {
 			dx = [4]float64{1, 1, 1, 1}

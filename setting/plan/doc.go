@@ -96,7 +96,10 @@
 // The fit's covariance (J^T W J + P)^-1, scaled by the reduced chi-square
 // when that exceeds one, is carried by linearised propagation to each lead
 // and cut-off and to each ideal change (-(A^T A)^-1 A^T B: A the objective's
-// gradients by the knobs, B by the fitted deviations). When an event in
+// gradients by the knobs, B by the fitted deviations); a step's error is
+// given with the other steps made as planned (the conditional standard
+// deviation), since knobs that act alike can leave single changes
+// uncertain while their sum is not. When an event in
 // some position stays uncertain (a lead to more than 0.05 mm, a cut-off to
 // more than 1 %), Plan.NextReading says which reading to take.
 //

@@ -49,7 +49,8 @@ type Step struct {
 	// IdealAmount is the change the solver found; Amount is it rounded to
 	// what hands can do (see the rounding rules in the package doc), both
 	// signed by Sign. SigmaAmount is one standard deviation of the ideal
-	// change from the readings' errors.
+	// change from the readings' errors, with the other steps made as
+	// planned.
 	IdealAmount float64 `json:"ideal_amount"`
 	Amount      float64 `json:"amount"`
 	SigmaAmount float64 `json:"sigma_amount"`
@@ -207,7 +208,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	if len(plan.Steps) == 0 {
 		plan.Notes = append(plan.Notes, "Nothing to change: no change the engine allows, in steps hands can make, would make it better by this priority.")
 	}
-	if next := nextReading(fit, ev, main); next != "" {
+	if next := nextReading(fit, ev, main, ks); next != "" {
 		plan.NextReading = next
 		plan.Notes = append(plan.Notes, next)
 	}
@@ -356,7 +357,7 @@ func (ev *evaluator) stepSigmas(ks []knob, ts []term, q []quantities, fit *Fit) 
 		}
 	}
 	for i, k := range ks {
-		A.add(i, i, sq(1e-3/k.scale)+1e-12)
+		A.add(i, i, sq(changeWeight/k.scale)+1e-12)
 	}
 	Ainv, ok := A.inverse()
 	if !ok {
@@ -364,6 +365,7 @@ func (ev *evaluator) stepSigmas(ks []knob, ts []term, q []quantities, fit *Fit) 
 	}
 	m := len(fit.idx)
 	// S[i][c] = d a_i / d p_c
+	S := make([][]float64, n)
 	for i := range ks {
 		g := make([]float64, m)
 		for c, pj := range fit.idx {
@@ -381,7 +383,41 @@ func (ev *evaluator) stepSigmas(ks []knob, ts []term, q []quantities, fit *Fit) 
 			}
 			g[c] = s
 		}
-		out[i] = math.Sqrt(math.Max(0, fit.cov.quad(g)))
+		S[i] = g
+	}
+	// Covariance of the ideal changes, S Cov S^T. Where knobs act alike
+	// (a spindle and both Stephenson rods) single changes can be uncertain
+	// while their sum is not; a setter makes the steps in turn, so each
+	// step's error is given with the others made as planned: the
+	// conditional standard deviation 1/sqrt((C^-1)_ii).
+	C := newSym(n)
+	tmp := make([]float64, m)
+	for i := 0; i < n; i++ {
+		for j := 0; j <= i; j++ {
+			for c := 0; c < m; c++ {
+				s := 0.0
+				for d := 0; d < m; d++ {
+					s += fit.cov.at(c, d) * S[j][d]
+				}
+				tmp[c] = s
+			}
+			v := 0.0
+			for c := 0; c < m; c++ {
+				v += S[i][c] * tmp[c]
+			}
+			C.a[i*n+j], C.a[j*n+i] = v, v
+		}
+	}
+	for i, k := range ks {
+		C.add(i, i, sq(1e-6*k.step))
+	}
+	Cinv, ok := C.inverse()
+	for i := range ks {
+		if ok && Cinv.at(i, i) > 0 {
+			out[i] = 1 / math.Sqrt(Cinv.at(i, i))
+		} else {
+			out[i] = math.Sqrt(math.Max(0, C.at(i, i)))
+		}
 	}
 	return out
 }
@@ -611,7 +647,16 @@ func angularityNote(main, alt *planned, prio Priority, running int, unit session
 
 // nextReading names the reading that would help most when the readings
 // leave an event or a step uncertain.
-func nextReading(fit *Fit, ev *evaluator, p *planned) string {
+func nextReading(fit *Fit, ev *evaluator, p *planned, ks []knob) string {
+	count := func(r setting.Reverser) int {
+		have := 0
+		for i, o := range fit.obs {
+			if fit.used[i] && o.HasCrank && math.Abs(float64(o.Reverser-r)) < 1e-6 {
+				have++
+			}
+		}
+		return have
+	}
 	worst, wi := 0.0, -1
 	for i, st := range p.now {
 		for _, e := range []EndState{st.Front, st.Back} {
@@ -623,18 +668,28 @@ func nextReading(fit *Fit, ev *evaluator, p *planned) string {
 			}
 		}
 	}
-	if worst < 1 || wi < 0 {
-		return ""
+	if worst >= 1 && wi >= 0 {
+		pos := ev.ps[wi]
+		if count(pos.notch.Reverser) < 4 {
+			return fmt.Sprintf("Take a sweep in %s (a gauge reading every 15 to 30 degrees round a turn): the readings leave its events uncertain.", pos.notch.Name)
+		}
+		return fmt.Sprintf("Bracket the dead centres again and take a second sweep in %s: the readings there scatter too much to pin its events down.", pos.notch.Name)
 	}
-	pos := ev.ps[wi]
-	have := 0
-	for i, o := range fit.obs {
-		if fit.used[i] && o.HasCrank && math.Abs(float64(o.Reverser-pos.notch.Reverser)) < 1e-6 {
-			have++
+	// A change the readings cannot pin down to two of its steps: the
+	// position with the fewest readings is the one to sweep.
+	for _, s := range p.steps {
+		for _, k := range ks {
+			if k.adj.Kind != s.Kind || k.adj.Eccentric != s.Eccentric || s.SigmaAmount <= 2*k.step {
+				continue
+			}
+			fewest, fi := math.MaxInt, 0
+			for i, pos := range ev.ps {
+				if c := count(pos.notch.Reverser); c < fewest {
+					fewest, fi = c, i
+				}
+			}
+			return fmt.Sprintf("Take a sweep in %s (a gauge reading every 15 to 30 degrees round a turn): without it the readings cannot tell how much of the change belongs to the %s (+/- %.2f %s).", ev.ps[fi].notch.Name, s.Part, s.SigmaAmount, s.Unit)
 		}
 	}
-	if have < 4 {
-		return fmt.Sprintf("Take a sweep in %s (a gauge reading every 15 to 30 degrees round a turn): the readings leave its events uncertain.", pos.notch.Name)
-	}
-	return fmt.Sprintf("Bracket the dead centres again and take a second sweep in %s: the readings there scatter too much to pin its events down.", pos.notch.Name)
+	return ""
 }

@@ -519,6 +519,13 @@ func (ev *evaluator) gradients(p [numParams]float64, r setting.Reverser, q *quan
 	return nil
 }
 
+// changeWeight prices a change of a knob by a typical amount (1 mm or 1
+// degree) like a lead difference of 0.0002 mm: far below anything the
+// readings or the rounding can see, but enough that where several knobs
+// act alike (a Stephenson spindle and both rods together) the plan takes
+// the smallest changes, and that choice does not swing with the readings.
+const changeWeight = 0.02
+
 // objective is what the solver drives to zero: weighted terms per
 // position.
 type objective struct {
@@ -619,7 +626,7 @@ func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term, qNow [
 	if n == 0 {
 		return a, qs, nil
 	}
-	const reg = 1e-3
+	reg := changeWeight
 	cost := func(a []float64, qs []quantities) float64 {
 		c := sumSquares(ts, qs)
 		for i, k := range ks {

@@ -42,4 +42,3 @@ func BenchmarkFirstFrame(b *testing.B) {
 	b.ReportMetric(float64(cold.Milliseconds())/float64(b.N), "ms-first-frame-cold")
 	b.ReportMetric(float64(warm.Milliseconds())/float64(b.N), "ms-first-frame-warm")
 }
-

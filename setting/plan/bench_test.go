@@ -70,7 +70,11 @@ func FuzzFitAndPlan(f *testing.F) {
 		if err != nil {
 			return
 		}
-		p, err := Make(s2, Options{Priority: []Priority{EqualLeads, EqualCutOffs, Balanced}[int(mode)%3]})
+		make := Make
+		if mode&8 != 0 {
+			make = MakeWithoutDimensions
+		}
+		p, err := make(s2, Options{Priority: []Priority{EqualLeads, EqualCutOffs, Balanced}[int(mode)%3]})
 		if err != nil {
 			var se *setting.Error
 			_ = se

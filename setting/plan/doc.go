@@ -56,6 +56,10 @@
 // takes the ports from the port marks, and from the fitted curve gives the
 // events (setting.Events), the spindle change that equalises the leads and
 // the eccentric turn that brings the mean lead to a target.
+// MakeWithoutDimensions builds a plan from it (spindle for forward gear,
+// then a Stephenson gear's backward rod for back gear, or a single
+// eccentric's angle for a target lead), for a gear whose drawing is
+// missing or wrong.
 //
 // # Solve
 //

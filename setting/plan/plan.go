@@ -433,9 +433,7 @@ func (ev *evaluator) states(qs []quantities, fit *Fit) []PositionState {
 			if k == 1 {
 				e = q.ev.Back
 			}
-			es := EndState{LeadMM: clean(e.Lead), CutOffPercent: clean(e.CutOff.StrokePercent), ReleasePercent: clean(e.Release.StrokePercent),
-				CompressionPct: clean(e.Compression.StrokePercent), MaxOpeningMM: clean(e.MaxOpening), NeverOpens: e.NeverOpens, NeverCloses: e.NeverCloses,
-				AdmissionBeforeD: clean(e.LeadAngle)}
+			es := endState(e)
 			if fit != nil && fit.cov.n > 0 {
 				es.LeadSigmaMM = clean(sdOf(fit, q.grad[k]))
 				if q.cutOK {
@@ -451,6 +449,13 @@ func (ev *evaluator) states(qs []quantities, fit *Fit) []PositionState {
 		out[i] = st
 	}
 	return out
+}
+
+// endState reports one end's events (without errors).
+func endState(e setting.EndEvents) EndState {
+	return EndState{LeadMM: clean(e.Lead), CutOffPercent: clean(e.CutOff.StrokePercent), ReleasePercent: clean(e.Release.StrokePercent),
+		CompressionPct: clean(e.Compression.StrokePercent), MaxOpeningMM: clean(e.MaxOpening), NeverOpens: e.NeverOpens, NeverCloses: e.NeverCloses,
+		AdmissionBeforeD: clean(e.LeadAngle)}
 }
 
 // sdOf returns the standard deviation of a linear function of the

@@ -746,7 +746,7 @@ func (f *Fit) contradiction(pb *problem) error {
 	for i := 0; i < len(worst) && i < 3; i++ {
 		names = append(names, fmt.Sprintf("%s (%.2f mm off)", worst[i].Label, math.Abs(worst[i].ResidualMM)))
 	}
-	return &setting.Error{Field: "readings", Message: fmt.Sprintf("The readings contradict one another (or the engine's dimensions): no setting of the gear follows them closer than %.2f mm, where the gauge reads to %.2f mm. Farthest off: %s. Check that the gauge was not knocked, that the marks are numbered the way the wheel turns, and the gear's dimensions; then take the round again.", f.RMSMM, f.resMM, strings.Join(names, "; "))}
+	return &setting.Error{Field: "readings", Message: fmt.Sprintf("The readings contradict one another (or the engine's dimensions): no setting of the gear follows them closer than %.2f mm, where the gauge reads to %.2f mm. Farthest off: %s. Check that the gauge was not knocked, that the marks are numbered the way the wheel turns, and the gear's dimensions, then take the round again; or plan without the dimensions, from the readings alone.", f.RMSMM, f.resMM, strings.Join(names, "; "))}
 }
 
 // RecheckMessages returns one sentence per reading to recheck:

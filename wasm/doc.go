@@ -12,7 +12,7 @@
 // are folded into intents (tap, scroll, confirm) that the screens handle.
 // The app publishes its state on window for tests (evenbeatState,
 // evenbeatDrawn, evenbeatFirstFrame, evenbeatFirstScreen, evenbeatAck,
-// evenbeatBox, evenbeatAckSaved, evenbeatTheme).
+// evenbeatBox, evenbeatAckSaved, evenbeatTheme, evenbeatGoStart).
 //
 // Units: logical units are CSS pixels, origin top-left, y down, as in
 // render; the screen has scale device pixels per logical unit

@@ -12,6 +12,8 @@ import (
 )
 
 func main() {
+	// For the figures: when the WebAssembly program started running.
+	js.Global().Set("evenbeatGoStart", js.Global().Get("performance").Call("now"))
 	st, err := openStore()
 	if err != nil {
 		log.Print(err) // run without remembering anything

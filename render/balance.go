@@ -1,0 +1,255 @@
+package render
+
+import (
+	"fmt"
+	"math"
+
+	"evenbeat/setting"
+)
+
+// BalanceLayout is where the balance card puts each part in its box: a
+// row per reverser position, each with a lane for today and one for after
+// the plan, in two columns (lead, cut-off). Each lane shows the front end
+// (circle) and the back end (square) on the column's scale, joined by a
+// bar, and a verdict mark: a tick when the two are within the tolerance,
+// a cross when not.
+type BalanceLayout struct {
+	Inner    Rect
+	Title    []string
+	TitleY   float64
+	HeadY    float64    // top of the column heads
+	Cols     [2]Rect    // value extent of the lead and cut-off columns (x), whole rows (y)
+	Verdict  [2]float64 // x centre of each column's verdict mark
+	LabelX   float64    // right edge of the lane labels
+	Rows     []BalanceRow
+	TicksY   float64 // top of the tick labels
+	Legend   Point
+	Caption  []string
+	CaptionY float64
+	NeedH    float64 // the box height the card needs
+}
+
+// BalanceRow is one reverser position's place in the balance card.
+type BalanceRow struct {
+	NameY float64   // top of the position's name
+	Lanes []float64 // centre y of each lane: today, then after the plan
+}
+
+const (
+	laneH    = 26 // height of a lane
+	verdictW = 22 // room for a verdict mark
+)
+
+// BalanceCaption is the balance card's caption for m.
+func BalanceCaption(m *Model) string {
+	return fmt.Sprintf("A tick: front and back within %s of lead and %s %% of cut-off; a cross: not yet.",
+		m.length(m.LeadTolMM), FormatTick(m.CutOffTolPct))
+}
+
+// LayoutBalance lays out the balance card of m in box.
+func LayoutBalance(box Rect, m *Model) BalanceLayout {
+	var l BalanceLayout
+	l.Inner = box.Inset(cardPad)
+	w := l.Inner.W()
+	l.Title = Wrap("Front against back: are we there?", w, TitleSize, true)
+	y := l.Inner.Min.Y
+	l.TitleY = y
+	y += float64(len(l.Title))*lineStep(TitleSize) + gap
+	l.HeadY = y
+	y += lineStep(BodySize) + gap/2
+	labelW := math.Max(TextWidth("today", BodySize, false), TextWidth("after", BodySize, false))
+	l.LabelX = l.Inner.Min.X + labelW
+	x0 := l.LabelX + gap + 8
+	colW := (l.Inner.Max.X - x0 - gap) / 2
+	lanes := 1
+	if len(m.Positions) > 0 && m.Positions[0].HasAfter {
+		lanes = 2
+	}
+	top := y
+	for range m.Positions {
+		r := BalanceRow{NameY: y}
+		y += lineStep(BodySize)
+		for k := 0; k < lanes; k++ {
+			r.Lanes = append(r.Lanes, y+laneH/2)
+			y += laneH
+		}
+		y += gap
+		l.Rows = append(l.Rows, r)
+	}
+	for k := 0; k < 2; k++ {
+		left := x0 + float64(k)*(colW+gap)
+		l.Cols[k] = Rect{Point{left + 8, top}, Point{left + colW - verdictW - 4, y}}
+		l.Verdict[k] = left + colW - verdictW/2
+	}
+	l.TicksY = y + tickLen
+	y = l.TicksY + lineStep(BodySize) + gap
+	l.Legend = Point{l.Inner.Min.X, y}
+	y += 3 * legendRow
+	l.Caption = Wrap(BalanceCaption(m), w, BodySize, false)
+	l.CaptionY = y + gap
+	y = l.CaptionY + float64(len(l.Caption))*lineStep(BodySize)
+	l.NeedH = y + cardPad - box.Min.Y
+	return l
+}
+
+// BalanceRanges returns the value range and ticks of the lead column (mm)
+// and the cut-off column (%) over every position, today and after.
+func BalanceRanges(m *Model) (lead, cut [2]float64, leadTicks, cutTicks []float64) {
+	lead = [2]float64{math.Inf(1), math.Inf(-1)}
+	cut = lead
+	for _, p := range m.Positions {
+		for _, ev := range eventSets(p) {
+			for _, e := range []setting.EndEvents{ev.Front, ev.Back} {
+				lead = [2]float64{math.Min(lead[0], e.Lead), math.Max(lead[1], e.Lead)}
+				cut = [2]float64{math.Min(cut[0], e.CutOff.StrokePercent), math.Max(cut[1], e.CutOff.StrokePercent)}
+			}
+		}
+	}
+	round := func(r [2]float64, minSpan float64) ([2]float64, []float64) {
+		if r[0] > r[1] {
+			r = [2]float64{0, 1}
+		}
+		if span := r[1] - r[0]; span < minSpan {
+			r = [2]float64{r[0] - (minSpan-span)/2, r[1] + (minSpan-span)/2}
+		}
+		t := Ticks(r[0], r[1], 3)
+		if len(t) > 1 {
+			s := t[1] - t[0]
+			r = [2]float64{math.Floor(r[0]/s) * s, math.Ceil(r[1]/s) * s}
+			t = Ticks(r[0], r[1], 3)
+		}
+		return r, t
+	}
+	lead, leadTicks = round(lead, 4*m.LeadTolMM)
+	cut, cutTicks = round(cut, 4*m.CutOffTolPct)
+	return
+}
+
+// eventSets returns today's events and, when there is a plan, those after.
+func eventSets(p Position) []setting.EventSet {
+	if p.HasAfter {
+		return []setting.EventSet{p.NowEvents, p.AfterEvents}
+	}
+	return []setting.EventSet{p.NowEvents}
+}
+
+// Balance draws the balance card: for each reverser position, the front
+// and back leads and cut-offs today and after the plan, on one scale per
+// column with the tolerance band shaded about the pair's mean, and a tick
+// or a cross saying whether the two ends are within the tolerance.
+func Balance(c Canvas, m *Model, box Rect, th Theme) {
+	if !usable(box) {
+		return
+	}
+	if m == nil || len(m.Positions) == 0 {
+		cardMessage(c, box, "Front against back", "There are no reverser positions to compare.", th)
+		return
+	}
+	l := LayoutBalance(box, m)
+	c.Fill(RoundRect(box, cardRadius), FillStyle{Color: th.Surface})
+	drawLines(c, Point{l.Inner.Min.X, l.TitleY}, l.Title, TextStyle{Color: th.Ink, Size: TitleSize, Bold: true})
+	lr, cr, lt, ct := BalanceRanges(m)
+	scales := [2]Scale{
+		{Min: lr[0], Max: lr[1], A: l.Cols[0].Min.X, B: l.Cols[0].Max.X},
+		{Min: cr[0], Max: cr[1], A: l.Cols[1].Min.X, B: l.Cols[1].Max.X},
+	}
+	heads := [2]string{"lead, " + unitName(m), "cut-off, %"}
+	tol := [2]float64{m.LeadTolMM, m.CutOffTolPct}
+	for k, ticks := range [][]float64{lt, ct} {
+		col := l.Cols[k]
+		c.Text(Point{(col.Min.X + col.Max.X) / 2, l.HeadY}, heads[k], TextStyle{Color: th.Muted, Size: BodySize, HAlign: Center, VAlign: Top})
+		var grid Path
+		for _, v := range ticks {
+			x := scales[k].At(v)
+			grid.MoveTo(Point{x, col.Min.Y})
+			grid.LineTo(Point{x, col.Max.Y})
+		}
+		c.Stroke(grid, th.GridLine())
+		// Only the end ticks are labelled: two labels always fit.
+		for _, v := range []float64{ticks[0], ticks[len(ticks)-1]} {
+			label := FormatTick(v)
+			if k == 0 {
+				label = FormatTick(toUnit(m, v))
+			}
+			c.Text(Point{scales[k].At(v), l.TicksY}, label, TextStyle{Color: th.Ink, Size: BodySize, HAlign: Center, VAlign: Top})
+		}
+	}
+	laneNames := []string{"today", "after"}
+	for i, row := range l.Rows {
+		p := m.Positions[i]
+		c.Text(Point{l.Inner.Min.X, row.NameY}, p.Notch.Name, TextStyle{Color: th.Ink, Size: BodySize, Bold: true, VAlign: Top})
+		for j, ev := range eventSets(p) {
+			if j >= len(row.Lanes) {
+				break
+			}
+			y := row.Lanes[j]
+			c.Text(Point{l.LabelX, y}, laneNames[j], TextStyle{Color: th.Muted, Size: BodySize, HAlign: Right, VAlign: Middle})
+			vals := [2][2]float64{
+				{ev.Front.Lead, ev.Back.Lead},
+				{ev.Front.CutOff.StrokePercent, ev.Back.CutOff.StrokePercent},
+			}
+			for k := 0; k < 2; k++ {
+				f, b := vals[k][0], vals[k][1]
+				mean := (f + b) / 2
+				band := Rect{Point{scales[k].At(mean - tol[k]/2), y - laneH/2 + 3}, Point{scales[k].At(mean + tol[k]/2), y + laneH/2 - 3}}
+				c.Fill(RoundRect(band, 4), FillStyle{Color: tint(th.Accent, 0.22)})
+				ok := math.Abs(f-b) <= tol[k]+1e-12
+				barCol := th.Accent
+				if !ok {
+					barCol = th.Warn
+				}
+				var bar Path
+				bar.MoveTo(Point{scales[k].At(f), y})
+				bar.LineTo(Point{scales[k].At(b), y})
+				c.Stroke(bar, LineStyle{Color: barCol, Width: 3})
+				th.FrontMark(c, Point{scales[k].At(f), y})
+				th.BackMark(c, Point{scales[k].At(b), y})
+				verdict(c, Point{l.Verdict[k], y}, ok, th)
+			}
+		}
+	}
+	frontBack := LineStyle{Color: th.Accent, Width: 3}
+	DrawLegend(c, l.Legend, []LegendEntry{
+		{Mark: th.FrontMark, Label: "front end"},
+		{Mark: th.BackMark, Label: "back end"},
+		{Line: &frontBack, Mark: func(c Canvas, at Point) {
+			c.Fill(RoundRect(Rect{Point{at.X - 12, at.Y - 9}, Point{at.X + 12, at.Y + 9}}, 4), FillStyle{Color: tint(th.Accent, 0.22)})
+		}, Label: "tolerance band about the middle"},
+	}, th)
+	drawLines(c, Point{l.Inner.Min.X, l.CaptionY}, l.Caption, TextStyle{Color: th.Ink, Size: BodySize})
+}
+
+// verdict draws a tick (ok) in the accent colour or a cross in the warning
+// colour, centred on at: told apart by shape as well as colour.
+func verdict(c Canvas, at Point, ok bool, th Theme) {
+	var p Path
+	s := 6.0
+	if ok {
+		p.MoveTo(Point{at.X - s, at.Y})
+		p.LineTo(Point{at.X - s/3, at.Y + s*0.8})
+		p.LineTo(Point{at.X + s, at.Y - s*0.9})
+		c.Stroke(p, LineStyle{Color: th.Accent, Width: 3})
+		return
+	}
+	p.MoveTo(Point{at.X - s*0.8, at.Y - s*0.8})
+	p.LineTo(Point{at.X + s*0.8, at.Y + s*0.8})
+	p.MoveTo(Point{at.X + s*0.8, at.Y - s*0.8})
+	p.LineTo(Point{at.X - s*0.8, at.Y + s*0.8})
+	c.Stroke(p, LineStyle{Color: th.Warn, Width: 3})
+}
+
+// unitName names the model's display unit for axis heads.
+func unitName(m *Model) string {
+	if m.Unit == "inch" {
+		return "in"
+	}
+	return "mm"
+}
+
+// toUnit converts mm to the model's display unit for tick labels.
+func toUnit(m *Model, mm float64) float64 {
+	if m.Unit == "inch" {
+		return math.Round(mm/25.4*10000) / 10000
+	}
+	return mm
+}

@@ -87,13 +87,27 @@ func roundObservations(s *session.Session, cyl, round int) ([]session.Observatio
 		round = len(s.Cylinders[cyl].Rounds)
 	}
 	round-- // to an index
-	var out []session.Observation
-	for _, o := range all {
-		if o.Round == round {
-			out = append(out, o)
+	// Observations come round by round, so the round is one run of them.
+	lo := 0
+	for lo < len(all) && all[lo].Round != round {
+		lo++
+	}
+	hi := lo
+	for hi < len(all) && all[hi].Round == round {
+		hi++
+	}
+	for _, o := range all[hi:] {
+		if o.Round == round { // not in one run after all: gather them
+			out := make([]session.Observation, 0, len(all))
+			for _, o := range all {
+				if o.Round == round {
+					out = append(out, o)
+				}
+			}
+			return out, nil
 		}
 	}
-	return out, nil
+	return all[lo:hi:hi], nil
 }
 
 // FitSession fits cylinder cyl of a session (its latest round unless opt

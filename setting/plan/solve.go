@@ -3,6 +3,7 @@ package plan
 import (
 	"fmt"
 	"math"
+	"sort"
 
 	"evenbeat/setting"
 	"evenbeat/setting/session"
@@ -730,28 +731,61 @@ func (ev *evaluator) roundPlan(p [numParams]float64, ks []knob, ts []term, ideal
 	for i, k := range ks {
 		lo[i] = math.Floor(ideal[i]/k.step) * k.step
 	}
-	var best []float64
-	var bestQ []quantities
-	bestC := math.Inf(1)
-	try := func(a []float64) {
+	inLimits := func(a []float64) bool {
 		for i, k := range ks {
 			if a[i] < k.adj.Min-1e-9 || a[i] > k.adj.Max+1e-9 {
-				return
+				return false
 			}
 		}
-		qs, err := ev.quick(ev.surrogate(ks, a), qIdeal, nil)
-		if err != nil {
+		return true
+	}
+	// The search runs on the events linearised about the ideal changes
+	// (a step or two away, where they are accurate); the few best
+	// candidates are then checked on the curves themselves.
+	lin := make([]quantities, len(qIdeal))
+	linCost := func(a []float64) float64 {
+		for i := range qIdeal {
+			q := &lin[i]
+			q.cutOK = qIdeal[i].cutOK
+			q.lead, q.cut = qIdeal[i].lead, qIdeal[i].cut
+			for k, kb := range ks {
+				d := a[k] - ideal[k]
+				for e := 0; e < 2; e++ {
+					q.lead[e] += qIdeal[i].grad[e][kb.p] * d
+					q.cut[e] += qIdeal[i].grad[2+e][kb.p] * d
+				}
+			}
+		}
+		return sumSquares(ts, lin)
+	}
+	type cand struct {
+		a []float64
+		c float64
+	}
+	var cands []cand
+	seen := map[string]bool{}
+	var best []float64
+	bestC := math.Inf(1)
+	try := func(a []float64) {
+		for i := range a {
+			if math.Abs(a[i]) < 1e-12 {
+				a[i] = 0
+			}
+		}
+		key := fmt.Sprint(a)
+		if seen[key] || !inLimits(a) {
 			return
 		}
-		if c := sumSquares(ts, qs); c < bestC-1e-12 {
-			bestC, best, bestQ = c, append([]float64(nil), a...), qs
+		seen[key] = true
+		c := linCost(a)
+		cands = append(cands, cand{append([]float64(nil), a...), c})
+		if c < bestC-1e-12 {
+			bestC, best = c, append([]float64(nil), a...)
 		}
 	}
-	try(make([]float64, n)) // no change
-	m := n
-	if m > 5 {
-		m = 5
-	}
+	zero := make([]float64, n)
+	try(zero)
+	m := min(n, 5)
 	for mask := 0; mask < 1<<m; mask++ {
 		a := make([]float64, n)
 		for i, k := range ks {
@@ -760,32 +794,38 @@ func (ev *evaluator) roundPlan(p [numParams]float64, ks []knob, ts []term, ideal
 			} else {
 				a[i] = math.Round(ideal[i]/k.step) * k.step
 			}
-			if math.Abs(a[i]) < 1e-12 {
-				a[i] = 0
-			}
 		}
 		try(a)
 	}
 	// Then a step either way on each knob while that helps: coarse steps
 	// on one knob can be made up by another.
 	for it := 0; it < 40 && best != nil; it++ {
-		improved := false
+		before := bestC
 		for i, k := range ks {
 			for _, dir := range []float64{-1, 1} {
 				a := append([]float64(nil), best...)
 				a[i] += dir * k.step
-				if math.Abs(a[i]) < 1e-12 {
-					a[i] = 0
-				}
-				before := bestC
 				try(a)
-				if bestC < before {
-					improved = true
-				}
 			}
 		}
-		if !improved {
+		if !(bestC < before) {
 			break
+		}
+	}
+	sort.Slice(cands, func(i, j int) bool { return cands[i].c < cands[j].c })
+	if len(cands) > 4 {
+		cands = cands[:4]
+	}
+	cands = append(cands, cand{a: zero}) // no change is always checked
+	var bestQ []quantities
+	best, bestC = nil, math.Inf(1)
+	for _, cd := range cands {
+		qs, err := ev.quick(ev.surrogate(ks, cd.a), qIdeal, nil)
+		if err != nil {
+			continue
+		}
+		if c := sumSquares(ts, qs); c < bestC-1e-12 {
+			bestC, best, bestQ = c, cd.a, qs
 		}
 	}
 	if best == nil {

@@ -87,12 +87,14 @@ func (m *Main) Bundle() (*bundle, error) {
 // Run builds the site, starts listening on Addr and serves in the
 // background; URL is set when it returns without error.
 func (m *Main) Run() error {
-	b, err := m.Bundle()
+	// Listen first: a busy port is reported at once, not after a build.
+	ln, err := listen(m.Addr)
 	if err != nil {
 		return err
 	}
-	ln, err := listen(m.Addr)
+	b, err := m.Bundle()
 	if err != nil {
+		ln.Close()
 		return err
 	}
 	m.URL = "http://" + ln.Addr().String() + "/"

@@ -48,3 +48,23 @@ func TestPortInUse(t *testing.T) {
 		}
 	}
 }
+
+// TestRunReportsBusyPortFirst: a busy port is reported before any build
+// (which takes minutes the first time); here the build would fail anyway,
+// as Src is outside the source tree.
+func TestRunReportsBusyPortFirst(t *testing.T) {
+	ln, err := net.Listen("tcp", "127.0.0.1:0")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer ln.Close()
+	m := &Main{Addr: ln.Addr().String(), Src: t.TempDir()}
+	err = m.Run()
+	if err == nil {
+		m.Close()
+		t.Fatal("Run on a busy port succeeded")
+	}
+	if !strings.Contains(err.Error(), "-addr") {
+		t.Errorf("Run on a busy port: %v; want the -addr error first", err)
+	}
+}

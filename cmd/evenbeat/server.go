@@ -2,6 +2,7 @@ package main
 
 import (
 	"net/http"
+	"path"
 	"strconv"
 	"strings"
 )
@@ -14,7 +15,7 @@ func (b *bundle) ServeHTTP(w http.ResponseWriter, r *http.Request) {
 		http.Error(w, "method not allowed", http.StatusMethodNotAllowed)
 		return
 	}
-	name := strings.TrimPrefix(r.URL.Path, "/")
+	name := strings.TrimPrefix(path.Clean("/"+r.URL.Path), "/")
 	if name == "" {
 		name = "index.html"
 	}

@@ -210,6 +210,9 @@ func TestServe(t *testing.T) {
 		t.Errorf("If-None-Match with the current tag: %d; want 304", res.StatusCode)
 	}
 
+	if res, body = get("GET", "//", nil); res.StatusCode != 200 || !bytes.Equal(body, b.Assets["index.html"].Data) {
+		t.Errorf("//: %d; want index.html", res.StatusCode)
+	}
 	res, body = get("GET", "/", nil)
 	if res.StatusCode != 200 || res.Header.Get("Content-Type") != "text/html; charset=utf-8" || !bytes.Equal(body, b.Assets["index.html"].Data) {
 		t.Errorf("/ : %d %v", res.StatusCode, res.Header)

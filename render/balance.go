@@ -25,6 +25,7 @@ type BalanceLayout struct {
 	TicksY   float64 // top of the tick labels
 	Legend   Point
 	Caption  []string
+	CaptionX float64
 	CaptionY float64
 	NeedH    float64 // the box height the card needs
 }
@@ -60,7 +61,12 @@ func LayoutBalance(box Rect, m *Model) BalanceLayout {
 	labelW := math.Max(TextWidth("today", BodySize, false), TextWidth("after", BodySize, false))
 	l.LabelX = l.Inner.Min.X + labelW
 	x0 := l.LabelX + gap + 8
-	colW := (l.Inner.Max.X - x0 - gap) / 2
+	right := l.Inner.Max.X
+	side := w >= sideColumnFrom
+	if side {
+		right = l.Inner.Max.X - math.Min(300, 0.38*w) - 2*gap
+	}
+	colW := (right - x0 - gap) / 2
 	lanes := 1
 	if len(m.Positions) > 0 && m.Positions[0].HasAfter {
 		lanes = 2
@@ -83,16 +89,35 @@ func LayoutBalance(box Rect, m *Model) BalanceLayout {
 	}
 	l.TicksY = y + tickLen
 	y = l.TicksY + lineStep(BodySize) + gap
-	l.Legend = Point{l.Inner.Min.X, y}
+	l.CaptionX = l.Inner.Min.X
+	cw := w
+	if side {
+		l.CaptionX = right + 2*gap
+		cw = l.Inner.Max.X - l.CaptionX
+		y = l.HeadY
+	}
+	l.Legend = Point{l.CaptionX, y}
 	y += 3 * legendRow
-	l.Caption = Wrap(BalanceCaption(m), w, BodySize, false)
+	l.Caption = Wrap(BalanceCaption(m), cw, BodySize, false)
 	l.CaptionY = y + gap
 	y = l.CaptionY + float64(len(l.Caption))*lineStep(BodySize)
+	if side {
+		y = math.Max(y, l.TicksY+lineStep(BodySize))
+	}
 	l.NeedH = y + cardPad - box.Min.Y
 	return l
 }
 
-// BalanceRanges returns the value range and ticks of the lead column (mm)
+// leadIn converts a lead in mm to the display unit.
+func leadIn(m *Model, mm float64) float64 {
+	if m.Unit == "inch" {
+		return mm / 25.4
+	}
+	return mm
+}
+
+// BalanceRanges returns the value range and ticks of the lead column (in
+// the display unit)
 // and the cut-off column (%) over every position, today and after.
 func BalanceRanges(m *Model) (lead, cut [2]float64, leadTicks, cutTicks []float64) {
 	lead = [2]float64{math.Inf(1), math.Inf(-1)}
@@ -100,7 +125,8 @@ func BalanceRanges(m *Model) (lead, cut [2]float64, leadTicks, cutTicks []float6
 	for _, p := range m.Positions {
 		for _, ev := range eventSets(p) {
 			for _, e := range []setting.EndEvents{ev.Front, ev.Back} {
-				lead = [2]float64{math.Min(lead[0], e.Lead), math.Max(lead[1], e.Lead)}
+				v := leadIn(m, e.Lead)
+				lead = [2]float64{math.Min(lead[0], v), math.Max(lead[1], v)}
 				cut = [2]float64{math.Min(cut[0], e.CutOff.StrokePercent), math.Max(cut[1], e.CutOff.StrokePercent)}
 			}
 		}
@@ -120,7 +146,7 @@ func BalanceRanges(m *Model) (lead, cut [2]float64, leadTicks, cutTicks []float6
 		}
 		return r, t
 	}
-	lead, leadTicks = round(lead, 4*m.LeadTolMM)
+	lead, leadTicks = round(lead, 4*leadIn(m, m.LeadTolMM))
 	cut, cutTicks = round(cut, 4*m.CutOffTolPct)
 	return
 }
@@ -154,7 +180,7 @@ func Balance(c Canvas, m *Model, box Rect, th Theme) {
 		{Min: cr[0], Max: cr[1], A: l.Cols[1].Min.X, B: l.Cols[1].Max.X},
 	}
 	heads := [2]string{"lead, " + unitName(m), "cut-off, %"}
-	tol := [2]float64{m.LeadTolMM, m.CutOffTolPct}
+	tol := [2]float64{leadIn(m, m.LeadTolMM), m.CutOffTolPct}
 	for k, ticks := range [][]float64{lt, ct} {
 		col := l.Cols[k]
 		c.Text(Point{(col.Min.X + col.Max.X) / 2, l.HeadY}, heads[k], TextStyle{Color: th.Muted, Size: BodySize, HAlign: Center, VAlign: Top})
@@ -167,11 +193,7 @@ func Balance(c Canvas, m *Model, box Rect, th Theme) {
 		c.Stroke(grid, th.GridLine())
 		// Only the end ticks are labelled: two labels always fit.
 		for _, v := range []float64{ticks[0], ticks[len(ticks)-1]} {
-			label := FormatTick(v)
-			if k == 0 {
-				label = FormatTick(toUnit(m, v))
-			}
-			c.Text(Point{scales[k].At(v), l.TicksY}, label, TextStyle{Color: th.Ink, Size: BodySize, HAlign: Center, VAlign: Top})
+			c.Text(Point{scales[k].At(v), l.TicksY}, FormatTick(v), TextStyle{Color: th.Ink, Size: BodySize, HAlign: Center, VAlign: Top})
 		}
 	}
 	laneNames := []string{"today", "after"}
@@ -185,7 +207,7 @@ func Balance(c Canvas, m *Model, box Rect, th Theme) {
 			y := row.Lanes[j]
 			c.Text(Point{l.LabelX, y}, laneNames[j], TextStyle{Color: th.Muted, Size: BodySize, HAlign: Right, VAlign: Middle})
 			vals := [2][2]float64{
-				{ev.Front.Lead, ev.Back.Lead},
+				{leadIn(m, ev.Front.Lead), leadIn(m, ev.Back.Lead)},
 				{ev.Front.CutOff.StrokePercent, ev.Back.CutOff.StrokePercent},
 			}
 			for k := 0; k < 2; k++ {
@@ -216,7 +238,7 @@ func Balance(c Canvas, m *Model, box Rect, th Theme) {
 			c.Fill(RoundRect(Rect{Point{at.X - 12, at.Y - 9}, Point{at.X + 12, at.Y + 9}}, 4), FillStyle{Color: tint(th.Accent, 0.22)})
 		}, Label: "tolerance band about the middle"},
 	}, th)
-	drawLines(c, Point{l.Inner.Min.X, l.CaptionY}, l.Caption, TextStyle{Color: th.Ink, Size: BodySize})
+	drawLines(c, Point{l.CaptionX, l.CaptionY}, l.Caption, TextStyle{Color: th.Ink, Size: BodySize})
 }
 
 // verdict draws a tick (ok) in the accent colour or a cross in the warning
@@ -244,12 +266,4 @@ func unitName(m *Model) string {
 		return "in"
 	}
 	return "mm"
-}
-
-// toUnit converts mm to the model's display unit for tick labels.
-func toUnit(m *Model, mm float64) float64 {
-	if m.Unit == "inch" {
-		return math.Round(mm/25.4*10000) / 10000
-	}
-	return mm
 }

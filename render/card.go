@@ -32,7 +32,7 @@ type CardLayout struct {
 
 // minPlotH is the least plot height a card keeps; a box too short for it
 // overflows at the bottom rather than squash the plot.
-const minPlotH = 120
+const minPlotH = 100
 
 // CardSpec says what a plot card holds, for LayoutCard.
 type CardSpec struct {
@@ -49,7 +49,9 @@ func LayoutCard(box Rect, s CardSpec) CardLayout {
 	l.Inner = box.Inset(cardPad)
 	w := l.Inner.W()
 	l.Title = Wrap(s.Title, w, TitleSize, true)
-	l.Sub = Wrap(s.Sub, w, BodySize, false)
+	if s.Sub != "" {
+		l.Sub = Wrap(s.Sub, w, BodySize, false)
+	}
 	y := l.Inner.Min.Y
 	l.TitleY = y
 	y += float64(len(l.Title)) * lineStep(TitleSize)
@@ -59,7 +61,8 @@ func LayoutCard(box Rect, s CardSpec) CardLayout {
 	}
 	y += gap
 	l.YLabelY = y
-	y += lineStep(BodySize) + gap/2
+	// Room for the top tick label, centred on the plot's top edge.
+	y += lineStep(BodySize) + BodySize*0.65
 	top := y
 	left := l.Inner.Min.X + s.YTickWidth + tickLen + 4
 	right := l.Inner.Max.X - TextWidth("360", BodySize, false)/2
@@ -74,13 +77,13 @@ func LayoutCard(box Rect, s CardSpec) CardLayout {
 	if side {
 		sw := math.Min(300, 0.38*w)
 		l.Legend = Point{l.Inner.Max.X - sw, l.YLabelY}
-		l.Caption = Wrap(s.Caption, sw, BodySize, false)
+		l.Caption = wrapSome(s.Caption, sw)
 		l.CaptionX = l.Legend.X
 		l.CaptionY = l.Legend.Y + legendH + gap
 		right = l.Legend.X - 2*gap - TextWidth("360", BodySize, false)/2
 		below = axisBelow
 	} else {
-		l.Caption = Wrap(s.Caption, w, BodySize, false)
+		l.Caption = wrapSome(s.Caption, w)
 		below = axisBelow + gap + legendH + gap + float64(len(l.Caption))*lineStep(BodySize)
 	}
 	bottom := math.Max(l.Inner.Max.Y-below, top+minPlotH)
@@ -116,6 +119,14 @@ func LayoutCard(box Rect, s CardSpec) CardLayout {
 		l.NeedH -= l.Plot.H() - minPlotH
 	}
 	return l
+}
+
+// wrapSome wraps body text, giving no lines for none.
+func wrapSome(text string, w float64) []string {
+	if text == "" {
+		return nil
+	}
+	return Wrap(text, w, BodySize, false)
 }
 
 // drawCard fills the card's ground and draws its title, figures line and

@@ -140,7 +140,6 @@ func NewSessionModel(s *session.Session, opt plan.Options) (*Model, error) {
 	for _, st := range p.Now {
 		pos = append(pos, Position{Notch: setting.Notch{Name: st.Notch, Reverser: setting.Reverser(st.Reverser)}, Direction: st.Direction})
 	}
-	m.Spec.Valve = measuredLaps(s, cyl, fit.Model.Dev, spec.Valve)
 	after := afterModel(fit.Model, p.Steps)
 	if err := m.fill(pos, &after); err != nil {
 		return nil, err
@@ -262,30 +261,6 @@ func readings(s *session.Session, cyl int, fit *plan.Fit) []Reading {
 // valve's displacement: less the gauge zero, plus the valve's place on its
 // spindle.
 func gaugeToValve(g float64, d plan.Deviations) float64 { return g - d.GaugeZeroMM + d.ValveOffsetMM }
-
-// measuredLaps returns v with the steam laps the latest round's port marks
-// show (the steam edges as the setter found them), as the plan takes
-// them; v unchanged when the round has none.
-func measuredLaps(s *session.Session, cyl int, d plan.Deviations, v setting.Valve) setting.Valve {
-	obs, err := s.Observations(cyl)
-	if err != nil {
-		return v
-	}
-	last := len(s.Cylinders[cyl].Rounds) - 1
-	sign := ValveEdges(v).Sign
-	for _, o := range obs {
-		if o.Round != last || o.Kind != session.PortMarkKind || !o.HasGauge {
-			continue
-		}
-		x := gaugeToValve(o.GaugeMM, d)
-		if o.End == session.Front {
-			v.Front.SteamLap = sign * x
-		} else {
-			v.Back.SteamLap = -sign * x
-		}
-	}
-	return v
-}
 
 // ValveAt returns position i's valve displacement at crank angle deg
 // (degrees, any value), interpolated between the samples; after chooses

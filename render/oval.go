@@ -146,13 +146,13 @@ func LayoutPortOpening(box Rect, m *Model, i int) CardLayout {
 	w := math.Max(m.Valve.Front.Width(), m.Valve.Back.Width())
 	cap := "A slot opens in proportion to the valve's movement."
 	if holes(m.Valve) {
-		cap = "The ports are rings of drilled holes: a round hole passes far less than a slot of the same width when the valve first cracks it, and catches up at full opening."
+		cap = "The ports are rings of drilled holes: a round hole passes far less than a slot of the same width when the valve first cracks it, and about four fifths (pi/4) when fully open."
 	}
 	return LayoutCard(box, CardSpec{
 		Title:   "Port opening, " + m.Positions[i].Notch.Name,
 		Sub:     "Top: opening in mm. Below: open area in mm², against crank angle.",
 		Caption: cap, LegendRows: 3, YTickWidth: yTickWidth(Ticks(0, math.Max(w, 1)*1.1, 3)) + 8,
-		StripH: math.Min(160, math.Max(90, 0.22*box.H())), MaxPlotH: 200,
+		StripH: math.Min(160, math.Max(60, 0.22*box.H())), MaxPlotH: 200,
 	})
 }
 

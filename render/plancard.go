@@ -75,21 +75,37 @@ func LayoutPlan(box Rect, m *Model) PlanLayout {
 	l.TitleY = l.Inner.Min.Y
 	y := l.TitleY + float64(len(l.Title))*lineStep(TitleSize) + gap
 	if p != nil {
-		tx := l.Inner.Min.X + iconSide + gap + 4
-		for _, s := range p.Steps {
+		// Wide boxes (a phone on its side, a tablet) take the steps in
+		// two columns, row by row.
+		cols := 1
+		if w >= sideColumnFrom && len(p.Steps) > 1 {
+			cols = 2
+		}
+		colW := (w - float64(cols-1)*2*gap) / float64(cols)
+		rowTop, rowH := y, 0.0
+		for k, s := range p.Steps {
+			col := k % cols
+			if col == 0 && k > 0 {
+				rowTop += rowH + gap
+				rowH = 0
+			}
+			y = rowTop
+			left := l.Inner.Min.X + float64(col)*(colW+2*gap)
+			tx := left + iconSide + gap + 4
 			var sl PlanStepLayout
 			sl.AmountS = StepAmount(s, m.Unit)
 			sl.Amount = Point{tx, y + 4}
 			sl.WordsX = tx
 			sl.WordsY = y + 4 + lineStep(BodySize+2)
-			sl.Words = Wrap(s.Words, l.Inner.Max.X-tx, BodySize, false)
+			sl.Words = Wrap(s.Words, left+colW-tx, BodySize, false)
 			h := math.Max(iconSide+8, sl.WordsY-y+float64(len(sl.Words))*lineStep(BodySize)+6)
 			h = math.Max(h, HitMin)
-			sl.Row = Rect{Point{l.Inner.Min.X, y}, Point{l.Inner.Max.X, y + h}}
-			sl.Icon = Rect{Point{l.Inner.Min.X, y + 4}, Point{l.Inner.Min.X + iconSide, y + 4 + iconSide}}
+			sl.Row = Rect{Point{left, y}, Point{left + colW, y + h}}
+			sl.Icon = Rect{Point{left, y + 4}, Point{left + iconSide, y + 4 + iconSide}}
 			l.Steps = append(l.Steps, sl)
-			y += h + gap
+			rowH = math.Max(rowH, h)
 		}
+		y = rowTop + rowH + gap
 		var notes string
 		if p.NextReading != "" {
 			notes = p.NextReading
@@ -125,10 +141,10 @@ func PlanCard(c Canvas, m *Model, box Rect, th Theme) []Rect {
 		StepArrow(c, sl.Icon, s, th)
 		c.Text(sl.Amount, fmt.Sprintf("%d. %s", k+1, sl.AmountS), TextStyle{Color: th.Ink, Size: BodySize + 2, Bold: true, VAlign: Top})
 		drawLines(c, Point{sl.WordsX, sl.WordsY}, sl.Words, TextStyle{Color: th.Ink, Size: BodySize})
-		if k > 0 {
+		if sl.Row.Min.Y > l.Steps[0].Row.Min.Y && sl.Row.Min.X == l.Steps[0].Row.Min.X {
 			var sep Path
 			sep.MoveTo(Point{sl.Row.Min.X, sl.Row.Min.Y - gap/2})
-			sep.LineTo(Point{sl.Row.Max.X, sl.Row.Min.Y - gap/2})
+			sep.LineTo(Point{l.Inner.Max.X, sl.Row.Min.Y - gap/2})
 			c.Stroke(sep, th.GridLine())
 		}
 		hits = append(hits, sl.Row)

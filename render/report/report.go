@@ -1,0 +1,73 @@
+// Package report writes Evenbeat's printed report as a PNG: the whole
+// report of one cylinder of a session (engine, readings, event table,
+// balance, valve curves, plan and cautions) drawn by render.Report through
+// the raster backend.
+//
+// It imports render, render/raster, setting and its subpackages and the
+// standard library; never ebiten or syscall/js.
+package report
+
+import (
+	"image/png"
+	"io"
+	"math"
+
+	"evenbeat/render"
+	"evenbeat/render/raster"
+	"evenbeat/setting/plan"
+	"evenbeat/setting/session"
+)
+
+// Options tune the report. The zero value gives the light theme at
+// render.ReportWidth logical units drawn at scale 2, for cylinder 0 with
+// equal leads.
+type Options struct {
+	Plan  plan.Options // the plan's choices (cylinder, priority)
+	Dark  bool         // the dark theme instead of the light one
+	Width float64      // logical width; 0 means render.ReportWidth
+	Scale float64      // device pixels per logical unit; 0 means 2
+}
+
+// Build returns the report's model for a session: the fit and plan of the
+// chosen cylinder. Errors are the fit's and plan's *setting.Error
+// sentences.
+func Build(s *session.Session, opt Options) (render.ReportModel, error) {
+	m, err := render.NewSessionModel(s, opt.Plan)
+	if err != nil {
+		return render.ReportModel{}, err
+	}
+	return render.ReportModel{Model: m, Session: s}, nil
+}
+
+// Draw draws the report of rm into a new raster canvas of the report's
+// height.
+func Draw(rm render.ReportModel, opt Options) *raster.Canvas {
+	w := opt.Width
+	if !(w > 0) || math.IsInf(w, 0) {
+		w = render.ReportWidth
+	}
+	k := opt.Scale
+	if !(k > 0) || math.IsInf(k, 0) {
+		k = 2
+	}
+	th := render.Light()
+	if opt.Dark {
+		th = render.Dark()
+	}
+	h := render.ReportHeight(w, rm)
+	c := raster.New(int(math.Ceil(w*k)), int(math.Ceil(h*k)), k)
+	c.Clear(th.Background)
+	render.Report(c, rm, th)
+	return c
+}
+
+// WritePNG fits and plans a session and writes its report as a PNG to w
+// (fast compression: the picture is mostly flat colour).
+func WritePNG(w io.Writer, s *session.Session, opt Options) error {
+	rm, err := Build(s, opt)
+	if err != nil {
+		return err
+	}
+	enc := png.Encoder{CompressionLevel: png.BestSpeed}
+	return enc.Encode(w, Draw(rm, opt).Image())
+}

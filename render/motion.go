@@ -110,6 +110,10 @@ type MotionLayout struct {
 
 const insetH = 64
 
+// legendColW is the width of the motion legend beside the inset: the
+// swatch and its longest label.
+const legendColW = legendLineW + 10 + 270
+
 // MotionSub is the figures line of the motion card.
 func MotionSub(m *Model, i int, crankDeg float64) string {
 	return fmt.Sprintf("Crank at %.0f°, %s. To scale, cylinder line level; valve and ports enlarged below.", normDeg(crankDeg), m.Positions[i].Notch.Name)
@@ -147,7 +151,11 @@ func LayoutMotion(box Rect, m *Model, i int) MotionLayout {
 	g := m.geo
 	spanU, spanW := g.Max.U-g.Min.U, g.Max.W-g.Min.W
 	legendH := 3.0 * legendRow
+	side := w >= sideColumnFrom // legend beside the inset, not under it
 	below := gap + insetH + lineStep(BodySize) + gap + legendH
+	if side {
+		below = gap + math.Max(insetH+lineStep(BodySize)+2, legendH)
+	}
 	availH := l.Inner.Max.Y - y - below
 	k := w / spanU
 	if availH > 0 {
@@ -161,11 +169,20 @@ func LayoutMotion(box Rect, m *Model, i int) MotionLayout {
 	l.Drawing = Rect{Point{l.Inner.Min.X + (w-dw)/2, y}, Point{l.Inner.Min.X + (w+dw)/2, y + dh}}
 	l.Origin = l.Drawing.Min
 	y = l.Drawing.Max.Y + gap
-	l.Inset = Rect{Point{l.Inner.Min.X, y}, Point{l.Inner.Max.X, y + insetH}}
+	insetR := l.Inner.Max.X
+	if side {
+		insetR = l.Inner.Max.X - legendColW - 2*gap
+	}
+	l.Inset = Rect{Point{l.Inner.Min.X, y}, Point{insetR, y + insetH}}
 	l.InsetLab = l.Inset.Max.Y + 2
-	y = l.InsetLab + lineStep(BodySize) + gap
-	l.Legend = Point{l.Inner.Min.X, y}
-	y += legendH
+	if side {
+		l.Legend = Point{insetR + 2*gap, y}
+		y = math.Max(l.InsetLab+lineStep(BodySize), y+legendH)
+	} else {
+		y = l.InsetLab + lineStep(BodySize) + gap
+		l.Legend = Point{l.Inner.Min.X, y}
+		y += legendH
+	}
 	l.NeedH = y + cardPad - box.Min.Y
 	return l
 }
@@ -175,12 +192,21 @@ func (l MotionLayout) toScreen(g MotionGeometry, p setting.Point) Point {
 	return Point{l.Origin.X + (p.U-g.Min.U)*l.Scale, l.Origin.Y + (g.Max.W-p.W)*l.Scale}
 }
 
-// fixedJoints are the joints fixed to the frame, drawn as anchors.
-var fixedJoints = map[string]bool{"axle": true, "weighshaft": true, "link trunnion": true, "rocker pivot": true}
+// fixedJoint reports whether a joint is fixed to the frame (drawn as an
+// anchor).
+func fixedJoint(name string) bool {
+	switch name {
+	case "axle", "weighshaft", "link trunnion", "rocker pivot":
+		return true
+	}
+	return false
+}
 
 // valvePins are the joint names, in order of preference, where the valve
 // rod leaves the gear toward the steam chest.
-var valvePins = []string{"valve spindle pin", "die block", "rocker valve-arm pin", "eccentric rod pin"}
+func valvePins() [4]string {
+	return [4]string{"valve spindle pin", "die block", "rocker valve-arm pin", "eccentric rod pin"}
+}
 
 // Motion draws the engine at crank angle crankDeg in position i, to scale:
 // the cylinder with its piston and the steam in each end (by port state:
@@ -302,7 +328,7 @@ func Motion(c Canvas, m *Model, i int, crankDeg float64, box Rect, th Theme) {
 			}
 		}
 		// Valve rod to the chest.
-		for _, name := range valvePins {
+		for _, name := range valvePins() {
 			if p, ok := pose.Joint(name); ok {
 				var vrod Path
 				vrod.MoveTo(at(p))
@@ -313,7 +339,7 @@ func Motion(c Canvas, m *Model, i int, crankDeg float64, box Rect, th Theme) {
 		}
 		for _, j := range pose.Joints {
 			pt := at(j.At)
-			if fixedJoints[j.Name] {
+			if fixedJoint(j.Name) {
 				anchor(c, pt, th)
 				continue
 			}

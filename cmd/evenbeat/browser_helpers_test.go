@@ -136,12 +136,13 @@ func waitValue[T any](t testing.TB, ctx context.Context, d time.Duration, expr s
 	return v
 }
 
-// eval evaluates a JavaScript expression and decodes its value.
+// eval evaluates a JavaScript expression (awaiting it if it is a promise)
+// and decodes its value.
 func eval[T any](t testing.TB, ctx context.Context, expr string) T {
 	t.Helper()
 	tctx, cancel := context.WithTimeout(ctx, 30*time.Second)
 	defer cancel()
-	v, err := chromedp.Run(tctx, chromedp.Evaluate[T](expr))
+	v, err := chromedp.Run(tctx, chromedp.Evaluate[T](expr, chromedp.EvalAwaitPromise))
 	if err != nil {
 		t.Fatalf("evaluating %s: %v", expr, err)
 	}

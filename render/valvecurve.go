@@ -330,8 +330,5 @@ func residualStrip(c Canvas, box Rect, ax Axes, rs []Reading, m *Model, th Theme
 		c.Stroke(s, LineStyle{Color: col, Width: 2})
 		diamond(c, Point{x, ys.At(math.Max(-rr, math.Min(rr, r.ResidualMM)))}, col, th.Surface)
 	}
-	st := TextStyle{Color: th.Muted, Size: BodySize, HAlign: Right, VAlign: Top}
-	c.Text(Point{box.Min.X - tickLen - 3, box.Min.Y}, "fit", st)
-	st.VAlign = Bottom
-	c.Text(Point{box.Min.X - tickLen - 3, box.Max.Y}, "±"+FormatTick(math.Round(rr*1000)/1000), TextStyle{Color: th.Muted, Size: BodySize, HAlign: Left, VAlign: Bottom})
+	c.Text(Point{box.Max.X - 3, box.Min.Y + 1}, "off the fit, ±"+FormatTick(math.Round(rr*1000)/1000)+" mm", TextStyle{Color: th.Muted, Size: BodySize, HAlign: Right, VAlign: Top})
 }

@@ -14,6 +14,8 @@ import (
 	"evenbeat/render"
 	"evenbeat/render/raster"
 	"evenbeat/setting"
+	"evenbeat/setting/plan"
+	"evenbeat/setting/session"
 )
 
 var update = flag.Bool("update", false, "rewrite the PNG goldens in testdata")
@@ -181,6 +183,30 @@ func TestPNGGoldens(t *testing.T) {
 			render.PistonCurve(c, e, render.Rect{Min: render.Point{X: 16, Y: 16}, Max: render.Point{X: 374, Y: 584}}, render.Light())
 			return c
 		}},
+		{"valve_curve_phone_dark", func() *raster.Canvas {
+			m := sessionModel(t)
+			c := raster.New(780, 1688, 2)
+			th := render.Dark()
+			c.Clear(th.Background)
+			render.DrawScreen(c, m, render.Screen{Diagram: render.ValveCurveDiagram}, render.Rect{Min: render.Point{X: 16, Y: 16}, Max: render.Point{X: 374, Y: 828}}, th)
+			return c
+		}},
+		{"motion_walschaerts_phone", func() *raster.Canvas {
+			m, err := render.NewEngineModel(setting.DemoWalschaerts())
+			if err != nil {
+				t.Fatal(err)
+			}
+			c := raster.New(780, 900, 2)
+			c.Clear(render.Light().Background)
+			render.Motion(c, m, 0, 135, render.Rect{Min: render.Point{X: 16, Y: 16}, Max: render.Point{X: 374, Y: 434}}, render.Light())
+			return c
+		}},
+		{"balance_landscape", func() *raster.Canvas {
+			c := raster.New(1688, 780, 2)
+			c.Clear(render.Light().Background)
+			render.Balance(c, sessionModel(t), render.Rect{Min: render.Point{X: 16, Y: 16}, Max: render.Point{X: 828, Y: 374}}, render.Light())
+			return c
+		}},
 		{"icon_192", func() *raster.Canvas {
 			c := raster.New(192, 192, 1)
 			render.Icon(c, 192)
@@ -205,6 +231,26 @@ func TestPNGGoldens(t *testing.T) {
 			}
 		})
 	}
+}
+
+// sessionModel is the model of the invented demo session's first
+// cylinder, planned for equal leads.
+func sessionModel(t *testing.T) *render.Model {
+	t.Helper()
+	f, err := os.Open("../../testdata/sessions/brackenfold-stephenson.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	s, err := session.Decode(f)
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := render.NewSessionModel(s, plan.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return m
 }
 
 func writePNG(t *testing.T, path string, img image.Image) {

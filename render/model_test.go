@@ -246,3 +246,6 @@ func TestModelErrors(t *testing.T) {
 		t.Error("invalid engine accepted")
 	}
 }
+
+// planOptions are the plan choices of the tests: equal leads.
+func planOptions() plan.Options { return plan.Options{} }

@@ -37,11 +37,12 @@ func ReportHeight(width float64, m ReportModel) float64 {
 // position, the plan card and its notes, and the cautions. Make the canvas
 // ReportHeight tall.
 func Report(c Canvas, m ReportModel, th Theme) {
-	w, _ := c.Size()
+	w, ch := c.Size()
 	if !(w > 2*reportPad+100) || math.IsInf(w, 0) {
 		return
 	}
-	c.Fill(RectPath(Rect{Max: Point{w, ReportHeight(w, m)}}), FillStyle{Color: th.Background})
+	// The ground covers the canvas to its last (perhaps partly used) row.
+	c.Fill(RectPath(Rect{Max: Point{w, math.Max(ch, ReportHeight(w, m))}}), FillStyle{Color: th.Background})
 	report(c, m, th, w)
 }
 

@@ -23,6 +23,7 @@ type Canvas struct {
 	scale float64
 	z     vector.Rasterizer
 	mask  []byte // coverage of the current fill, reused between fills
+	solid []byte // a row of the current opaque colour, reused between fills
 	faces map[faceKey]font.Face
 }
 
@@ -178,6 +179,19 @@ func (c *Canvas) composite(r image.Rectangle, col color.RGBA) {
 	sr, sg, sb, sa := uint32(col.R)*0x101, uint32(col.G)*0x101, uint32(col.B)*0x101, uint32(col.A)*0x101
 	opaque := col.A == 0xff
 	full := binary.LittleEndian.Uint32([]byte{col.R, col.G, col.B, col.A})
+	// A row of the opaque colour, copied over runs of full coverage: the
+	// inside of a large fill (a card's ground) costs a memory copy.
+	var solid []byte
+	if opaque {
+		if cap(c.solid) < 4*w {
+			c.solid = make([]byte, 4*w)
+		}
+		solid = c.solid[:4*w]
+		for i := 0; i < len(solid); i += 4 {
+			binary.LittleEndian.PutUint32(solid[i:], full)
+		}
+	}
+	const all = ^uint64(0)
 	for y := 0; y < h; y++ {
 		mrow := mask.Pix[y*w : y*w+w]
 		drow := c.img.Pix[c.img.PixOffset(r.Min.X, r.Min.Y+y):]
@@ -192,11 +206,20 @@ func (c *Canvas) composite(r image.Rectangle, col color.RGBA) {
 				continue
 			}
 			i := 4 * x
-			d := drow[i : i+4 : i+4]
 			if m == 0xff && opaque {
-				binary.LittleEndian.PutUint32(d, full)
+				// The run of full coverage from x, eight at a time.
+				e := x + 1
+				for e+8 <= len(mrow) && binary.LittleEndian.Uint64(mrow[e:]) == all {
+					e += 8
+				}
+				for e < len(mrow) && mrow[e] == 0xff {
+					e++
+				}
+				copy(drow[i:4*e], solid[:4*(e-x)])
+				x = e - 1
 				continue
 			}
+			d := drow[i : i+4 : i+4]
 			ma := uint32(m) * 0x101
 			a := 0xffff - sa*ma/0xffff
 			d[0] = uint8((uint32(d[0])*0x101*a + sr*ma) / 0xffff >> 8)

@@ -19,13 +19,14 @@ import (
 )
 
 // Options tune the report. The zero value gives the light theme at
-// render.ReportWidth logical units drawn at scale 2, for cylinder 0 with
+// render.ReportWidth logical units drawn at scale 1.5 (960 pixels wide,
+// about 150 dots per inch across a printed A4 page), for cylinder 0 with
 // equal leads.
 type Options struct {
 	Plan  plan.Options // the plan's choices (cylinder, priority)
 	Dark  bool         // the dark theme instead of the light one
 	Width float64      // logical width; 0 means render.ReportWidth
-	Scale float64      // device pixels per logical unit; 0 means 2
+	Scale float64      // device pixels per logical unit; 0 means 1.5
 }
 
 // Build returns the report's model for a session: the fit and plan of the
@@ -48,7 +49,7 @@ func Draw(rm render.ReportModel, opt Options) *raster.Canvas {
 	}
 	k := opt.Scale
 	if !(k > 0) || math.IsInf(k, 0) {
-		k = 2
+		k = 1.5
 	}
 	th := render.Light()
 	if opt.Dark {
@@ -56,8 +57,7 @@ func Draw(rm render.ReportModel, opt Options) *raster.Canvas {
 	}
 	h := render.ReportHeight(w, rm)
 	c := raster.New(int(math.Ceil(w*k)), int(math.Ceil(h*k)), k)
-	c.Clear(th.Background)
-	render.Report(c, rm, th)
+	render.Report(c, rm, th) // paints its own ground
 	return c
 }
 

@@ -13,7 +13,7 @@ import (
 // Every diagram: a recorder golden in portrait light and landscape dark,
 // everything inside its box, no labels overlapping, no text under 14.
 func TestDiagramGoldens(t *testing.T) {
-	m := sessionModel(t)
+	m := frozenModel(t)
 	ms := engineModels(t)
 	walsch := ms[2]
 	type draw func(c render.Canvas, box render.Rect, th render.Theme)
@@ -115,7 +115,7 @@ func TestCurvesStayInBox(t *testing.T) {
 // The plan card gives a finger-sized hit box per step, in order, not
 // overlapping, and an arrow per step; a model without a plan says so.
 func TestPlanCardHits(t *testing.T) {
-	m := sessionModel(t)
+	m := frozenModel(t)
 	c := recorder.New(390, 844)
 	hits := render.PlanCard(c, m, portrait, render.Light())
 	if len(hits) != len(m.Plan.Steps) || len(hits) == 0 {
@@ -140,7 +140,7 @@ func TestPlanCardHits(t *testing.T) {
 
 // The report's height is what it draws, and it holds every section.
 func TestReportHeightAndSections(t *testing.T) {
-	rm := render.ReportModel{Model: sessionModel(t), Session: demoSession(t)}
+	rm := render.ReportModel{Model: frozenModel(t), Session: demoSession(t)}
 	h := render.ReportHeight(render.ReportWidth, rm)
 	if !(h > 2000) || math.IsInf(h, 0) {
 		t.Fatalf("report height %g", h)

@@ -232,7 +232,7 @@ func TestImportsStayNative(t *testing.T) {
 	if err != nil {
 		t.Skip("no go command on PATH")
 	}
-	out, err := exec.Command(goBin, "list", "-deps", "evenbeat/setting", "evenbeat/render", "evenbeat/render/raster", "evenbeat/render/recorder").CombinedOutput()
+	out, err := exec.Command(goBin, "list", "-deps", "evenbeat/setting", "evenbeat/render", "evenbeat/render/raster", "evenbeat/render/recorder", "evenbeat/render/report").CombinedOutput()
 	if err != nil {
 		t.Fatalf("go list: %v\n%s", err, out)
 	}

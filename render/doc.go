@@ -21,22 +21,40 @@
 //     tell the front and back ends apart by shape as well as colour.
 //   - Plot pieces shared by diagrams: Axes (scales, grid, ticks, sampled
 //     curves), DrawLegend, Button.
+//   - Model: one cylinder worked out once (NewEngineModel for an engine as
+//     drawn, NewSessionModel for a session's fit and plan): each reverser
+//     position's valve curve sampled every CurveStep degrees today and
+//     after the plan, the events of both, the readings with their
+//     residuals, and the scale drawing's frame. Drawing only maps numbers,
+//     so a frame is cheap; build a new Model when the data change.
 //   - Diagrams, each a function of (canvas, model, box): PistonCurve,
-//     Cautions (returns its button's hit rectangle) and Icon; their layout
-//     maths (LayoutPiston, LayoutCautions, CautionsHeight, Ticks,
-//     AngleTicks, Scale) are plain functions tested with numbers, so an app
-//     can learn where a button is without drawing.
+//     Cautions (returns its button's hit rectangle), Icon, ValveCurve,
+//     Balance, ValvePiston, PortOpening, Motion (one frame of the
+//     animation at a crank angle) and PlanCard (returns each step's hit
+//     rectangle); DrawScreen draws a whole phone screen with the position
+//     tabs (LayoutTabs, LayoutSideTabs) and returns its touch targets;
+//     Report draws the printed report (ReportHeight). Their layout maths
+//     (LayoutPiston, LayoutCautions, CautionsHeight, LayoutCard,
+//     LayoutValveCurve, LayoutBalance, LayoutMotion, LayoutPlan, ValveEdges,
+//     ValveRange, Ports, PortStateAt, Ticks, AngleTicks, Scale) are plain
+//     functions tested with numbers, so an app can learn where a button is
+//     without drawing.
+//   - Front and back differ by more than colour everywhere: front solid
+//     lines and round markers, back dashed lines, square markers and
+//     hatched bands; port states by pattern (steam solid, exhaust hatched,
+//     closed empty); the balance card's verdicts by shape (tick or cross).
 //
 // Backends live in sub-packages: render/recorder (a text log for goldens
-// and layout checks) and render/raster (*image.RGBA and PNG). The browser's
-// ebiten backend lives with the app.
+// and layout checks) and render/raster (*image.RGBA and PNG); render/report
+// writes the report of a session as a PNG. The browser's ebiten backend
+// lives with the app.
 //
 // Text is the Go font family (render/font/LICENSE) rasterised with
 // Freetype-Go, used under the FreeType License (render/font/FTL.txt):
 // portions of this software are copyright 2010 The FreeType Project
 // (www.freetype.org). All rights reserved.
 //
-// Imports: setting, golang.org/x/image and github.com/golang/freetype, and
+// Imports: setting and its subpackages session and plan, golang.org/x/image and github.com/golang/freetype, and
 // the standard library. Never ebiten or syscall/js: render must build and
 // test natively with no display.
 package render

@@ -72,10 +72,9 @@ type Model struct {
 	// FitRMSMM is the fit's root-mean-square residual (0 without readings).
 	FitRMSMM float64
 
-	geo    MotionGeometry
-	built  plan.Model // as built (the drawing plus the fitted deviations)
-	gear   setting.PosedGear
-	hasFit bool
+	geo   MotionGeometry
+	built plan.Model // as built (the drawing plus the fitted deviations)
+	gear  setting.PosedGear
 }
 
 // NewEngineModel builds the model of an engine as drawn: its full forward
@@ -113,10 +112,6 @@ func NewSessionModel(s *session.Session, opt plan.Options) (*Model, error) {
 	if cyl < 0 || cyl >= len(s.Cylinders) {
 		return nil, &setting.Error{Field: "cylinder", Message: fmt.Sprintf("The session has no cylinder number %d.", cyl+1)}
 	}
-	spec, err := s.CylinderEngine(cyl)
-	if err != nil {
-		return nil, err
-	}
 	fit, err := plan.FitSession(s, cyl, opt.Fit)
 	if err != nil {
 		return nil, err
@@ -128,10 +123,25 @@ func NewSessionModel(s *session.Session, opt plan.Options) (*Model, error) {
 	if err != nil {
 		return nil, err
 	}
-	p.Engine, p.Cylinder = spec.Name, s.Cylinders[cyl].Name
+	return NewModel(s, cyl, fit, p)
+}
+
+// NewModel builds the model of cylinder cyl of a session from a fit and a
+// plan already made (plan.FitSession, plan.FromFit): today's curves from
+// the fit, the readings of the fitted round with their residuals, and the
+// curves after the plan's rounded steps, for every position the plan
+// covers. Errors are *setting.Error sentences.
+func NewModel(s *session.Session, cyl int, fit *plan.Fit, p *plan.Plan) (*Model, error) {
+	if s == nil || fit == nil || p == nil {
+		return nil, &setting.Error{Field: "session", Message: "There is no session, fit or plan to draw."}
+	}
+	if cyl < 0 || cyl >= len(s.Cylinders) {
+		return nil, &setting.Error{Field: "cylinder", Message: fmt.Sprintf("The session has no cylinder number %d.", cyl+1)}
+	}
+	spec := fit.Model.Spec
 	m := &Model{
 		Title: spec.Name + ", " + s.Cylinders[cyl].Name + " cylinder", Spec: spec, Plan: p,
-		Unit: s.DisplayUnit, FitRMSMM: fit.RMSMM, built: fit.Model, hasFit: true,
+		Unit: s.DisplayUnit, FitRMSMM: fit.RMSMM, built: fit.Model,
 	}
 	if m.Unit == "" {
 		m.Unit = session.UnitMM

@@ -2,13 +2,13 @@ package render_test
 
 import (
 	"math"
-	"os"
 	"strings"
 	"sync"
 	"testing"
 
 	"evenbeat/render"
 	"evenbeat/render/recorder"
+	"evenbeat/render/report"
 	"evenbeat/setting"
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
@@ -17,12 +17,7 @@ import (
 // demoSession is the invented Brackenfold session shared by the tests.
 func demoSession(t testing.TB) *session.Session {
 	t.Helper()
-	f, err := os.Open("../testdata/sessions/brackenfold-stephenson.json")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	s, err := session.Decode(f)
+	s, err := report.ReadSession("../testdata/sessions/brackenfold-stephenson.json")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -46,6 +41,23 @@ func sessionModel(t testing.TB) *render.Model {
 		t.Fatal(sessionModelErr)
 	}
 	return sessionModelVal
+}
+
+// frozenModel is the demo session drawn with report.DemoFit's fixed fit
+// and plan: the goldens use it, so they move only when the drawing code
+// does, not when the solver improves.
+func frozenModel(t testing.TB) *render.Model {
+	t.Helper()
+	s := demoSession(t)
+	fit, p, err := report.DemoFit(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := render.NewModel(s, 0, fit, p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return m
 }
 
 // engineModels are the three invented demo engines as drawn.

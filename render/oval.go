@@ -35,23 +35,7 @@ func ValvePiston(c Canvas, m *Model, i int, box Rect, th Theme) {
 	l := LayoutValvePiston(box, m, i)
 	drawCard(c, box, l, th)
 	p := m.Positions[i]
-	lo, hi, ticks := ValveRange(m, i)
-	ax := NewAxes(l.Plot, 0, 100, lo, hi, Ticks(0, 100, 4), ticks)
-	e := ValveEdges(m.Valve)
-	lapBand(c, ax, e.FrontSteam, false, th)
-	lapBand(c, ax, e.BackSteam, true, th)
-	ax.Draw(c, l.XTicksY, th)
-	c.Text(Point{l.Inner.Min.X, l.YLabelY}, "valve, mm", TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
-	c.Text(Point{(l.Plot.Min.X + l.Plot.Max.X) / 2, l.XLabelY}, "piston, % of stroke from the front", TextStyle{Color: th.Muted, Size: BodySize, HAlign: Center, VAlign: Top})
-	for _, v := range []struct {
-		y    float64
-		back bool
-	}{{e.FrontSteam, false}, {e.BackSteam, true}} {
-		var q Path
-		q.MoveTo(ax.At(0, v.y))
-		q.LineTo(ax.At(100, v.y))
-		c.Stroke(q, edgeLine(th, v.back))
-	}
+	ax, _ := valvePlot(c, m, i, l, 100, Ticks(0, 100, 4), "piston, % of stroke from the front", th)
 	bdc := m.Crank.BackDeadCentre()
 	loop := func(curve []float64, from, to float64) Path {
 		var pts []Point
@@ -66,38 +50,13 @@ func ValvePiston(c Canvas, m *Model, i int, box Rect, th Theme) {
 	}
 	c.Stroke(loop(p.Now, 0, bdc), th.FrontLine())
 	c.Stroke(loop(p.Now, bdc, 360), th.BackLine())
-	at := func(d float64) Point { return ax.At(100*m.Crank.PistonFraction(d), interp(p.Now, d)) }
-	for _, end := range []setting.CylinderEnd{setting.Front, setting.Back} {
-		ev := p.NowEvents.End(end)
-		back := end == setting.Back
-		col := th.Front
-		if back {
-			col = th.Back
-		}
-		if !ev.NeverOpens && !ev.NeverCloses {
-			for _, d := range []float64{ev.Admission.CrankDeg, ev.CutOff.CrankDeg} {
-				if back {
-					th.BackMark(c, at(d))
-				} else {
-					th.FrontMark(c, at(d))
-				}
-			}
-		}
-		if !ev.ExhaustNeverOpens && !ev.ExhaustNeverCloses {
-			for _, d := range []float64{ev.Release.CrankDeg, ev.Compression.CrankDeg} {
-				ring(c, at(d), back, col, th.Surface)
-			}
-		}
-	}
+	eventMarks(c, p.NowEvents, func(d float64) Point { return ax.At(100*m.Crank.PistonFraction(d), interp(p.Now, d)) }, th)
 	fl, bl := th.FrontLine(), th.BackLine()
 	after := LineStyle{Color: th.Muted, Width: 1.75, Dashes: []float64{2, 3}}
 	entries := []LegendEntry{
 		{Line: &fl, Mark: th.FrontMark, Label: "front stroke; front events"},
 		{Line: &bl, Mark: th.BackMark, Label: "back stroke; back events"},
-		{Mark: func(c Canvas, at Point) {
-			ring(c, Point{at.X - 8, at.Y}, false, th.Front, th.Surface)
-			ring(c, Point{at.X + 8, at.Y}, true, th.Back, th.Surface)
-		}, Label: "release, compression"},
+		exhaustLegend(th),
 	}
 	if p.HasAfter {
 		entries = append(entries, LegendEntry{Line: &after, Label: "after the plan"})

@@ -182,10 +182,7 @@ func valveCurveLegend(m *Model, i int, th Theme) []LegendEntry {
 	es = append(es,
 		LegendEntry{Line: &fe, Mark: func(c Canvas, at Point) { th.FrontMark(c, at) }, Label: "front: lap, admission, cut-off"},
 		LegendEntry{Line: &be, Mark: func(c Canvas, at Point) { th.BackMark(c, at) }, Label: "back: lap, admission, cut-off"},
-		LegendEntry{Mark: func(c Canvas, at Point) {
-			ring(c, Point{at.X - 8, at.Y}, false, th.Front, th.Surface)
-			ring(c, Point{at.X + 8, at.Y}, true, th.Back, th.Surface)
-		}, Label: "release, compression"},
+		exhaustLegend(th),
 	)
 	return es
 }
@@ -208,15 +205,7 @@ func ValveCurve(c Canvas, m *Model, i int, box Rect, th Theme) {
 	l := LayoutValveCurve(box, m, i)
 	drawCard(c, box, l, th)
 	p := m.Positions[i]
-	lo, hi, ticks := ValveRange(m, i)
-	ax := NewAxes(l.Plot, 0, 360, lo, hi, AngleTicks(0, 360, 4), ticks)
-	e := ValveEdges(m.Valve)
-
-	lapBand(c, ax, e.FrontSteam, false, th)
-	lapBand(c, ax, e.BackSteam, true, th)
-	ax.Draw(c, l.XTicksY, th)
-	c.Text(Point{l.Inner.Min.X, l.YLabelY}, "valve, mm", TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
-	c.Text(Point{(l.Plot.Min.X + l.Plot.Max.X) / 2, l.XLabelY}, "crank angle, degrees", TextStyle{Color: th.Muted, Size: BodySize, HAlign: Center, VAlign: Top})
+	ax, e := valvePlot(c, m, i, l, 360, AngleTicks(0, 360, 4), "crank angle, degrees", th)
 
 	// Steam openings: the area past each steam edge.
 	c.Fill(openArea(ax, p.Now, e.FrontSteam, e.Sign), FillStyle{Color: tint(th.Front, 0.30)})
@@ -229,8 +218,6 @@ func ValveCurve(c Canvas, m *Model, i int, box Rect, th Theme) {
 		q.LineTo(ax.At(360, v))
 		return q
 	}
-	c.Stroke(hline(e.FrontSteam), edgeLine(th, false))
-	c.Stroke(hline(e.BackSteam), edgeLine(th, true))
 	exh := LineStyle{Color: th.Muted, Width: 1, Dashes: []float64{2, 3}}
 	c.Stroke(hline(e.FrontExhaust), exh)
 	if e.BackExhaust != e.FrontExhaust {
@@ -260,29 +247,7 @@ func ValveCurve(c Canvas, m *Model, i int, box Rect, th Theme) {
 	}
 
 	// Events on today's curve.
-	for _, end := range []setting.CylinderEnd{setting.Front, setting.Back} {
-		ev := p.NowEvents.End(end)
-		back := end == setting.Back
-		col := th.Front
-		if back {
-			col = th.Back
-		}
-		at := func(d float64) Point { return ax.At(d, interp(p.Now, d)) }
-		if !ev.NeverOpens && !ev.NeverCloses {
-			for _, d := range []float64{ev.Admission.CrankDeg, ev.CutOff.CrankDeg} {
-				if back {
-					th.BackMark(c, at(d))
-				} else {
-					th.FrontMark(c, at(d))
-				}
-			}
-		}
-		if !ev.ExhaustNeverOpens && !ev.ExhaustNeverCloses {
-			for _, d := range []float64{ev.Release.CrankDeg, ev.Compression.CrankDeg} {
-				ring(c, at(d), back, col, th.Surface)
-			}
-		}
-	}
+	eventMarks(c, p.NowEvents, func(d float64) Point { return ax.At(d, interp(p.Now, d)) }, th)
 
 	// Readings and their residuals.
 	rs := readingsAt(m, i)
@@ -331,4 +296,61 @@ func residualStrip(c Canvas, box Rect, ax Axes, rs []Reading, m *Model, th Theme
 		diamond(c, Point{x, ys.At(math.Max(-rr, math.Min(rr, r.ResidualMM)))}, col, th.Surface)
 	}
 	c.Text(Point{box.Max.X - 3, box.Min.Y + 1}, "off the fit, ±"+FormatTick(math.Round(rr*1000)/1000)+" mm", TextStyle{Color: th.Muted, Size: BodySize, HAlign: Right, VAlign: Top})
+}
+
+// valvePlot sets up a plot of valve displacement (y) against x from 0 to
+// x1 on a card: the lap bands under the grid, the axes, both axis labels
+// and each end's steam edge. It returns the axes and the edges.
+func valvePlot(c Canvas, m *Model, i int, l CardLayout, x1 float64, xticks []float64, xlabel string, th Theme) (Axes, Edges) {
+	lo, hi, ticks := ValveRange(m, i)
+	ax := NewAxes(l.Plot, 0, x1, lo, hi, xticks, ticks)
+	e := ValveEdges(m.Valve)
+	lapBand(c, ax, e.FrontSteam, false, th)
+	lapBand(c, ax, e.BackSteam, true, th)
+	ax.Draw(c, l.XTicksY, th)
+	c.Text(Point{l.Inner.Min.X, l.YLabelY}, "valve, mm", TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
+	c.Text(Point{(l.Plot.Min.X + l.Plot.Max.X) / 2, l.XLabelY}, xlabel, TextStyle{Color: th.Muted, Size: BodySize, HAlign: Center, VAlign: Top})
+	for k, y := range []float64{e.FrontSteam, e.BackSteam} {
+		var q Path
+		q.MoveTo(ax.At(0, y))
+		q.LineTo(ax.At(x1, y))
+		c.Stroke(q, edgeLine(th, k == 1))
+	}
+	return ax, e
+}
+
+// eventMarks marks the four events of each end at the points at gives for
+// a crank angle: front round, back square; steam events (admission,
+// cut-off) filled, exhaust events (release, compression) hollow.
+func eventMarks(c Canvas, set setting.EventSet, at func(deg float64) Point, th Theme) {
+	for _, end := range []setting.CylinderEnd{setting.Front, setting.Back} {
+		ev := set.End(end)
+		back := end == setting.Back
+		col := th.Front
+		if back {
+			col = th.Back
+		}
+		if !ev.NeverOpens && !ev.NeverCloses {
+			for _, d := range []float64{ev.Admission.CrankDeg, ev.CutOff.CrankDeg} {
+				if back {
+					th.BackMark(c, at(d))
+				} else {
+					th.FrontMark(c, at(d))
+				}
+			}
+		}
+		if !ev.ExhaustNeverOpens && !ev.ExhaustNeverCloses {
+			for _, d := range []float64{ev.Release.CrankDeg, ev.Compression.CrankDeg} {
+				ring(c, at(d), back, col, th.Surface)
+			}
+		}
+	}
+}
+
+// exhaustLegend is the legend row of the hollow exhaust-event markers.
+func exhaustLegend(th Theme) LegendEntry {
+	return LegendEntry{Mark: func(c Canvas, at Point) {
+		ring(c, Point{at.X - 8, at.Y}, false, th.Front, th.Surface)
+		ring(c, Point{at.X + 8, at.Y}, true, th.Back, th.Surface)
+	}, Label: "release, compression"}
 }

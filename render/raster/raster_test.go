@@ -13,9 +13,8 @@ import (
 
 	"evenbeat/render"
 	"evenbeat/render/raster"
+	"evenbeat/render/report"
 	"evenbeat/setting"
-	"evenbeat/setting/plan"
-	"evenbeat/setting/session"
 )
 
 var update = flag.Bool("update", false, "rewrite the PNG goldens in testdata")
@@ -234,19 +233,19 @@ func TestPNGGoldens(t *testing.T) {
 }
 
 // sessionModel is the model of the invented demo session's first
-// cylinder, planned for equal leads.
+// cylinder with report.DemoFit's frozen fit and plan, so the goldens do
+// not move when the solver improves.
 func sessionModel(t *testing.T) *render.Model {
 	t.Helper()
-	f, err := os.Open("../../testdata/sessions/brackenfold-stephenson.json")
+	s, err := report.ReadSession("../../testdata/sessions/brackenfold-stephenson.json")
 	if err != nil {
 		t.Fatal(err)
 	}
-	defer f.Close()
-	s, err := session.Decode(f)
+	fit, p, err := report.DemoFit(s)
 	if err != nil {
 		t.Fatal(err)
 	}
-	m, err := render.NewSessionModel(s, plan.Options{})
+	m, err := render.NewModel(s, 0, fit, p)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -3,7 +3,6 @@ package report_test
 import (
 	"bytes"
 	"image/png"
-	"os"
 	"strings"
 	"testing"
 	"time"
@@ -16,12 +15,7 @@ import (
 
 func demoSession(t testing.TB) *session.Session {
 	t.Helper()
-	f, err := os.Open("../../testdata/sessions/brackenfold-stephenson.json")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	s, err := session.Decode(f)
+	s, err := report.ReadSession("../../testdata/sessions/brackenfold-stephenson.json")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -188,3 +188,43 @@ func TestNewDiagramsBadInput(t *testing.T) {
 		t.Errorf("bad position should give a message:\n%.400s", s)
 	}
 }
+
+// Every link of the gear is drawn at its solved place: for each bar of
+// the pose, a stroke runs from one of its joints to the other (arcs end on
+// them), mapped by the layout's scale.
+func TestMotionDrawsEveryLink(t *testing.T) {
+	for _, m := range engineModels(t) {
+		for _, a := range []float64{0, 100, 250} {
+			pose, ok := m.Pose(0, a)
+			if !ok || len(pose.Bars) < 3 {
+				t.Fatalf("%s: no pose at %g", m.Title, a)
+			}
+			c := recorder.New(390, 844)
+			render.Motion(c, m, 0, a, portrait, render.Light())
+			l := render.LayoutMotion(portrait, m, 0)
+			g := m.Geometry()
+			at := func(u, w float64) render.Point {
+				return render.Point{X: l.Origin.X + (u-g.Min.U)*l.Scale, Y: l.Origin.Y + (g.Max.W-w)*l.Scale}
+			}
+			near := func(p, q render.Point) bool { return math.Hypot(p.X-q.X, p.Y-q.Y) < 0.01 }
+			for _, b := range pose.Bars {
+				from, to := pose.Joints[b.From].At, pose.Joints[b.To].At
+				p0, p1 := at(from.U, from.W), at(to.U, to.W)
+				found := false
+				for _, op := range c.Ops() {
+					if op.Kind != recorder.Stroke || len(op.Path) < 2 {
+						continue
+					}
+					s, e := op.Path[0].Pts[0], op.Path[len(op.Path)-1].Pts[0]
+					if (near(s, p0) && near(e, p1)) || (near(s, p1) && near(e, p0)) {
+						found = true
+						break
+					}
+				}
+				if !found {
+					t.Errorf("%s at %g°: the %s (%s to %s) is not drawn", m.Title, a, b.Name, pose.Joints[b.From].Name, pose.Joints[b.To].Name)
+				}
+			}
+		}
+	}
+}

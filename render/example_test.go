@@ -4,6 +4,8 @@ import (
 	"fmt"
 
 	"evenbeat/render"
+	"evenbeat/render/recorder"
+	"evenbeat/setting"
 )
 
 // Outline turns a stroke into a path any backend can fill with the
@@ -44,4 +46,39 @@ func ExampleWrap() {
 	// Never test the setting on steam
 	// or air while anyone is near the
 	// motion.
+}
+
+// A phone screen of the Walschaerts demo engine's motion at a crank angle,
+// drawn into the recorder: DrawScreen returns the position tabs' hit boxes
+// for the app's taps.
+func ExampleDrawScreen() {
+	m, err := render.NewEngineModel(setting.DemoWalschaerts())
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	c := recorder.New(390, 844)
+	box := render.Rect{Min: render.Point{X: 16, Y: 16}, Max: render.Point{X: 374, Y: 828}}
+	hits := render.DrawScreen(c, m, render.Screen{Diagram: render.MotionDiagram, Position: 1, CrankDeg: 45}, box, render.Light())
+	for i, r := range hits.Positions {
+		fmt.Printf("%s: %.0f px tall\n", m.Positions[i].Notch.Name, r.H())
+	}
+	// Output:
+	// full forward: 48 px tall
+	// running notch: 48 px tall
+	// full back: 48 px tall
+}
+
+// What a port is open to follows from the valve's displacement and laps:
+// an outside-admission slide valve moved back past its lap opens the front
+// port to steam and the back port to exhaust.
+func ExamplePortStateAt() {
+	v := setting.DemoStephenson().Valve
+	for _, x := range []float64{-3, 0, 3} {
+		fmt.Printf("valve %+.0f mm: front %v, back %v\n", x, render.PortStateAt(v, setting.Front, x), render.PortStateAt(v, setting.Back, x))
+	}
+	// Output:
+	// valve -3 mm: front steam, back exhaust
+	// valve +0 mm: front closed, back closed
+	// valve +3 mm: front exhaust, back steam
 }

@@ -116,39 +116,43 @@ func leadIn(m *Model, mm float64) float64 {
 	return mm
 }
 
-// BalanceRanges returns the value range and ticks of the lead column (in
-// the display unit)
-// and the cut-off column (%) over every position, today and after.
-func BalanceRanges(m *Model) (lead, cut [2]float64, leadTicks, cutTicks []float64) {
-	lead = [2]float64{math.Inf(1), math.Inf(-1)}
-	cut = lead
+// BalanceRanges returns the half-width of the lead column (in the
+// display unit) and of the cut-off column (% of stroke), and the ticks of
+// each. Each lane is drawn about the middle of its two ends, so a column
+// shows how far each end lies from that middle: the tolerance band is
+// plus or minus half the tolerance, and the half-width is the larger of
+// one and a half tolerances and the widest pair's half-difference, with a
+// tenth to spare, rounded out to a tick.
+func BalanceRanges(m *Model) (lead, cut float64, leadTicks, cutTicks []float64) {
+	lead, cut = 1.5*leadIn(m, m.LeadTolMM), 1.5*m.CutOffTolPct
 	for _, p := range m.Positions {
 		for _, ev := range eventSets(p) {
-			for _, e := range []setting.EndEvents{ev.Front, ev.Back} {
-				v := leadIn(m, e.Lead)
-				lead = [2]float64{math.Min(lead[0], v), math.Max(lead[1], v)}
-				cut = [2]float64{math.Min(cut[0], e.CutOff.StrokePercent), math.Max(cut[1], e.CutOff.StrokePercent)}
-			}
+			lead = math.Max(lead, 1.1*math.Abs(leadIn(m, ev.Front.Lead-ev.Back.Lead))/2)
+			cut = math.Max(cut, 1.1*math.Abs(ev.Front.CutOff.StrokePercent-ev.Back.CutOff.StrokePercent)/2)
 		}
 	}
-	round := func(r [2]float64, minSpan float64) ([2]float64, []float64) {
-		if r[0] > r[1] {
-			r = [2]float64{0, 1}
-		}
-		if span := r[1] - r[0]; span < minSpan {
-			r = [2]float64{r[0] - (minSpan-span)/2, r[1] + (minSpan-span)/2}
-		}
-		t := Ticks(r[0], r[1], 3)
-		if len(t) > 1 {
-			s := t[1] - t[0]
-			r = [2]float64{math.Floor(r[0]/s) * s, math.Ceil(r[1]/s) * s}
-			t = Ticks(r[0], r[1], 3)
-		}
-		return r, t
+	round := func(h float64) (float64, []float64) {
+		h = NiceCeil(h)
+		return h, []float64{-h, 0, h}
 	}
-	lead, leadTicks = round(lead, 4*leadIn(m, m.LeadTolMM))
-	cut, cutTicks = round(cut, 4*m.CutOffTolPct)
+	lead, leadTicks = round(lead)
+	cut, cutTicks = round(cut)
 	return
+}
+
+// NiceCeil returns the least of 1, 2, 2.5 and 5 times a power of ten that
+// is at least v (v itself when not positive and finite: 1).
+func NiceCeil(v float64) float64 {
+	if !(v > 0) || math.IsInf(v, 0) {
+		return 1
+	}
+	p := math.Pow(10, math.Floor(math.Log10(v)))
+	for _, k := range []float64{1, 2, 2.5, 5, 10} {
+		if k*p >= v*(1-1e-12) {
+			return k * p
+		}
+	}
+	return 10 * p
 }
 
 // eventSets returns today's events and, when there is a plan, those after.
@@ -160,9 +164,10 @@ func eventSets(p Position) []setting.EventSet {
 }
 
 // Balance draws the balance card: for each reverser position, the front
-// and back leads and cut-offs today and after the plan, on one scale per
-// column with the tolerance band shaded about the pair's mean, and a tick
-// or a cross saying whether the two ends are within the tolerance.
+// and back leads and cut-offs today and after the plan, each pair placed
+// about its own middle on one scale per column, the tolerance band shaded
+// about that middle (both ends inside it: even), and a tick or a cross
+// saying whether the two ends are within the tolerance.
 func Balance(c Canvas, m *Model, box Rect, th Theme) {
 	if !usable(box) {
 		return
@@ -176,10 +181,12 @@ func Balance(c Canvas, m *Model, box Rect, th Theme) {
 	drawLines(c, Point{l.Inner.Min.X, l.TitleY}, l.Title, TextStyle{Color: th.Ink, Size: TitleSize, Bold: true})
 	lr, cr, lt, ct := BalanceRanges(m)
 	scales := [2]Scale{
-		{Min: lr[0], Max: lr[1], A: l.Cols[0].Min.X, B: l.Cols[0].Max.X},
-		{Min: cr[0], Max: cr[1], A: l.Cols[1].Min.X, B: l.Cols[1].Max.X},
+		{Min: -lr, Max: lr, A: l.Cols[0].Min.X, B: l.Cols[0].Max.X},
+		{Min: -cr, Max: cr, A: l.Cols[1].Min.X, B: l.Cols[1].Max.X},
 	}
-	heads := [2]string{"lead, " + unitName(m), "cut-off, %"}
+	heads := [2]string{"lead", "cut-off"}
+	units := [2]string{" " + unitName(m), " %"}
+	halves := [2]float64{lr, cr}
 	tol := [2]float64{leadIn(m, m.LeadTolMM), m.CutOffTolPct}
 	for k, ticks := range [][]float64{lt, ct} {
 		col := l.Cols[k]
@@ -191,10 +198,9 @@ func Balance(c Canvas, m *Model, box Rect, th Theme) {
 			grid.LineTo(Point{x, col.Max.Y})
 		}
 		c.Stroke(grid, th.GridLine())
-		// Only the end ticks are labelled: two labels always fit.
-		for _, v := range []float64{ticks[0], ticks[len(ticks)-1]} {
-			c.Text(Point{scales[k].At(v), l.TicksY}, FormatTick(v), TextStyle{Color: th.Ink, Size: BodySize, HAlign: Center, VAlign: Top})
-		}
+		// The scale's half-width, once, under the column: the ends lie
+		// either side of their middle.
+		c.Text(Point{(col.Min.X + col.Max.X) / 2, l.TicksY}, "±"+FormatTick(halves[k])+units[k], TextStyle{Color: th.Ink, Size: BodySize, HAlign: Center, VAlign: Top})
 	}
 	laneNames := []string{"today", "after"}
 	for i, row := range l.Rows {
@@ -213,7 +219,8 @@ func Balance(c Canvas, m *Model, box Rect, th Theme) {
 			for k := 0; k < 2; k++ {
 				f, b := vals[k][0], vals[k][1]
 				mean := (f + b) / 2
-				band := Rect{Point{scales[k].At(mean - tol[k]/2), y - laneH/2 + 3}, Point{scales[k].At(mean + tol[k]/2), y + laneH/2 - 3}}
+				f, b = f-mean, b-mean
+				band := Rect{Point{scales[k].At(-tol[k] / 2), y - laneH/2 + 3}, Point{scales[k].At(tol[k] / 2), y + laneH/2 - 3}}
 				c.Fill(RoundRect(band, 4), FillStyle{Color: tint(th.Accent, 0.22)})
 				ok := math.Abs(f-b) <= tol[k]+1e-12
 				barCol := th.Accent

@@ -207,6 +207,11 @@ func TestLayoutNumbers(t *testing.T) {
 	if math.Abs(l.NeedH-want) > 1e-9 {
 		t.Errorf("NeedH %g, want %g", l.NeedH, want)
 	}
+	for _, c := range [][2]float64{{0.0108, 0.02}, {3.48, 5}, {2, 2}, {0.21, 0.25}, {7, 10}, {0, 1}} {
+		if got := render.NiceCeil(c[0]); math.Abs(got-c[1]) > 1e-12 {
+			t.Errorf("NiceCeil(%g) = %g, want %g", c[0], got, c[1])
+		}
+	}
 	if r := render.ResidualRange([]render.Reading{{ResidualMM: -0.05}}); math.Abs(r-0.06) > 1e-12 {
 		t.Errorf("ResidualRange %g, want 0.06", r)
 	}

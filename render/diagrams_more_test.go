@@ -228,3 +228,20 @@ func TestMotionDrawsEveryLink(t *testing.T) {
 		}
 	}
 }
+
+// LayoutScreen gives the same touch targets as drawing the screen.
+func TestLayoutScreenMatchesDrawing(t *testing.T) {
+	m := frozenModel(t)
+	for _, s := range []render.Screen{{Diagram: render.ValveCurveDiagram, Position: 1}, {Diagram: render.PlanDiagram}} {
+		for _, box := range []render.Rect{portrait, landscape} {
+			want := render.DrawScreen(recorder.New(844, 844), m, s, box, render.Dark())
+			got := render.LayoutScreen(m, s, box)
+			if fmt.Sprint(got) != fmt.Sprint(want) {
+				t.Errorf("screen %v in %v: layout %v, drawing %v", s, box, got, want)
+			}
+			if len(got.Positions)+len(got.Steps) == 0 {
+				t.Errorf("screen %v: no touch targets", s)
+			}
+		}
+	}
+}

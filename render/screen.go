@@ -171,3 +171,10 @@ func DrawScreen(c Canvas, m *Model, s Screen, box Rect, th Theme) ScreenHits {
 	}
 	return hits
 }
+
+// LayoutScreen returns the touch targets DrawScreen would draw for s in
+// box, without drawing: the app learns where a tap lands from the same
+// layout the picture uses.
+func LayoutScreen(m *Model, s Screen, box Rect) ScreenHits {
+	return DrawScreen(nopCanvas{w: box.Max.X, h: box.Max.Y}, m, s, box, Light())
+}

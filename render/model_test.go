@@ -48,12 +48,7 @@ func sessionModel(t testing.TB) *render.Model {
 // does, not when the solver improves.
 func frozenModel(t testing.TB) *render.Model {
 	t.Helper()
-	s := demoSession(t)
-	fit, p, err := report.DemoFit(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := render.NewModel(s, 0, fit, p)
+	m, err := report.DemoModel(demoSession(t))
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -241,11 +241,7 @@ func sessionModel(t *testing.T) *render.Model {
 	if err != nil {
 		t.Fatal(err)
 	}
-	fit, p, err := report.DemoFit(s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := render.NewModel(s, 0, fit, p)
+	m, err := report.DemoModel(s)
 	if err != nil {
 		t.Fatal(err)
 	}

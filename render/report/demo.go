@@ -1,6 +1,7 @@
 package report
 
 import (
+	"evenbeat/render"
 	"evenbeat/setting"
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
@@ -53,4 +54,14 @@ func DemoFit(s *session.Session) (*plan.Fit, *plan.Plan, error) {
 		Cautions: setting.Cautions(),
 	}
 	return fit, p, nil
+}
+
+// DemoModel returns the diagram model of the demo session drawn with
+// DemoFit's frozen fit and plan.
+func DemoModel(s *session.Session) (*render.Model, error) {
+	fit, p, err := DemoFit(s)
+	if err != nil {
+		return nil, err
+	}
+	return render.NewModel(s, 0, fit, p)
 }

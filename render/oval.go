@@ -35,7 +35,7 @@ func ValvePiston(c Canvas, m *Model, i int, box Rect, th Theme) {
 	l := LayoutValvePiston(box, m, i)
 	drawCard(c, box, l, th)
 	p := m.Positions[i]
-	ax, _ := valvePlot(c, m, i, l, 100, Ticks(0, 100, 4), "piston, % of stroke from the front", th)
+	ax, _ := valvePlot(c, m, i, l, 100, Ticks(0, 100, 4), "piston, % of stroke from the front", nil, th)
 	bdc := m.Crank.BackDeadCentre()
 	loop := func(curve []float64, from, to float64) Path {
 		var pts []Point

@@ -205,13 +205,8 @@ func ValveCurve(c Canvas, m *Model, i int, box Rect, th Theme) {
 	l := LayoutValveCurve(box, m, i)
 	drawCard(c, box, l, th)
 	p := m.Positions[i]
-	ax, e := valvePlot(c, m, i, l, 360, AngleTicks(0, 360, 4), "crank angle, degrees", th)
+	ax, e := valvePlot(c, m, i, l, 360, AngleTicks(0, 360, 4), "crank angle, degrees", p.Now, th)
 
-	// Steam openings: the area past each steam edge.
-	c.Fill(openArea(ax, p.Now, e.FrontSteam, e.Sign), FillStyle{Color: tint(th.Front, 0.30)})
-	c.Fill(openArea(ax, p.Now, e.BackSteam, -e.Sign), FillStyle{Color: tint(th.Back, 0.30)})
-
-	// Edges: steam edges in the end's pattern, exhaust edges thin.
 	hline := func(v float64) Path {
 		var q Path
 		q.MoveTo(ax.At(0, v))
@@ -299,9 +294,11 @@ func residualStrip(c Canvas, box Rect, ax Axes, rs []Reading, m *Model, th Theme
 }
 
 // valvePlot sets up a plot of valve displacement (y) against x from 0 to
-// x1 on a card: the lap bands under the grid, the axes, both axis labels
-// and each end's steam edge. It returns the axes and the edges.
-func valvePlot(c Canvas, m *Model, i int, l CardLayout, x1 float64, xticks []float64, xlabel string, th Theme) (Axes, Edges) {
+// x1 on a card: the lap bands under the grid, the axes, both axis labels,
+// the steam openings of curve (sampled every CurveStep degrees against
+// crank angle; nil for none) shaded past each steam edge, and each end's
+// steam edge on top. It returns the axes and the edges.
+func valvePlot(c Canvas, m *Model, i int, l CardLayout, x1 float64, xticks []float64, xlabel string, curve []float64, th Theme) (Axes, Edges) {
 	lo, hi, ticks := ValveRange(m, i)
 	ax := NewAxes(l.Plot, 0, x1, lo, hi, xticks, ticks)
 	e := ValveEdges(m.Valve)
@@ -310,6 +307,10 @@ func valvePlot(c Canvas, m *Model, i int, l CardLayout, x1 float64, xticks []flo
 	ax.Draw(c, l.XTicksY, th)
 	c.Text(Point{l.Inner.Min.X, l.YLabelY}, "valve, mm", TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
 	c.Text(Point{(l.Plot.Min.X + l.Plot.Max.X) / 2, l.XLabelY}, xlabel, TextStyle{Color: th.Muted, Size: BodySize, HAlign: Center, VAlign: Top})
+	if curve != nil {
+		c.Fill(openArea(ax, curve, e.FrontSteam, e.Sign), FillStyle{Color: tint(th.Front, 0.30)})
+		c.Fill(openArea(ax, curve, e.BackSteam, -e.Sign), FillStyle{Color: tint(th.Back, 0.30)})
+	}
 	for k, y := range []float64{e.FrontSteam, e.BackSteam} {
 		var q Path
 		q.MoveTo(ax.At(0, y))

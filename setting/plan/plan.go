@@ -191,16 +191,17 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 			return nil, err
 		}
 	}
-	main, err := ev.plan(p, ks, qNow, objective{prio: opt.Priority, weight: opt.Weight, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit)
+	main, err := ev.plan(p, ks, qNow, objective{prio: opt.Priority, weight: opt.Weight, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit, opt.Unit)
 	if err != nil {
 		return nil, err
 	}
 	plan.Steps, plan.Now, plan.After = main.steps, main.now, main.after
+	plan.Notes = append(plan.Notes, main.notes...)
 	other := EqualCutOffs
 	if opt.Priority == EqualCutOffs {
 		other = EqualLeads
 	}
-	alt, err := ev.plan(p, ks, qNow, objective{prio: other, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit)
+	alt, err := ev.plan(p, ks, qNow, objective{prio: other, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit, opt.Unit)
 	if err == nil {
 		plan.Other = &Alternative{Priority: other, Steps: alt.steps, After: alt.after}
 		plan.Notes = append(plan.Notes, angularityNote(main, alt, opt.Priority, running, opt.Unit))
@@ -267,34 +268,42 @@ type planned struct {
 	now, after []PositionState
 	qNow, qAft []quantities
 	prio       Priority
+	notes      []string // what the plan chose and what rounding leaves
 }
 
 // plan solves, rounds and describes one priority.
-func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, obj objective, canLead bool, fit *Fit) (*planned, error) {
-	ts := obj.terms(len(ev.ps), canLead)
-	ideal, qIdeal, err := ev.optimise(p, ks, ts, qNow)
-	if err != nil {
-		return nil, &setting.Error{Field: "engine.gear", Message: "The events cannot be found for the fitted gear: " + err.Error()}
-	}
-	rounded, qAft, err := ev.roundPlan(p, ks, ts, ideal, qIdeal)
+func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, obj objective, canLead bool, fit *Fit, unit session.Unit) (*planned, error) {
+	g := ev.weighing(&obj, qNow, fit)
+	pol := ev.sheavePolicy(ks, qNow, obj, canLead, fit, unit)
+	obj.mean = pol.mean
+	ts := obj.terms(len(ev.ps))
+	ch, err := ev.choose(p, ks, ts, qNow, g, pol.usable)
 	if err != nil {
 		return nil, err
 	}
-	// Uncertainty: the ideal change's sensitivity to the fitted
-	// deviations, -(A^T A + R)^-1 A^T B, through the fit's covariance.
-	sig := ev.stepSigmas(ks, ts, qNow, fit)
-	out := &planned{prio: obj.prio, qNow: qNow, qAft: qAft}
+	rounded := ch.rounded
+	out := &planned{prio: obj.prio, qNow: qNow, qAft: ch.qAft, notes: pol.notes}
 	out.now = ev.states(qNow, fit)
-	qAftG := qAft
-	// The rounded plan's events from the linkage sampled afresh; their
+	// The rounded plan's events come from the linkage solved afresh; their
 	// errors are today's (the plan adds none the readings can see).
-	if q2, err := ev.events(applyKnobs(p, ks, rounded), false); err == nil {
-		for i := range q2 {
-			q2[i].grad = qNow[i].grad
-		}
-		qAftG = q2
+	qAftG := append([]quantities(nil), ch.qAft...)
+	for i := range qAftG {
+		qAftG[i].grad = qNow[i].grad
 	}
 	out.after = ev.states(qAftG, fit)
+	// Uncertainty of the steps made: the ideal change's sensitivity to
+	// the fitted deviations, -(A^T A + R)^-1 A^T B, through the fit's
+	// covariance, over the knobs the plan moves.
+	sub := make([]knob, len(ch.set))
+	for j, k := range ch.set {
+		sub[j] = ks[k]
+	}
+	ideal := ch.ideal
+	sigSub := ev.stepSigmas(sub, ts, qNow, fit)
+	sig := make([]float64, len(ks))
+	for j, k := range ch.set {
+		sig[k] = sigSub[j]
+	}
 	for _, i := range workOrder(ev.spec.Gear.Kind, ks) {
 		if rounded[i] == 0 {
 			continue
@@ -323,6 +332,7 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 	if out.steps == nil {
 		out.steps = []Step{}
 	}
+	out.notes = append(out.notes, ev.leftNotes(ks, pol.usable, qNow, ch, g, unit)...)
 	return out, nil
 }
 

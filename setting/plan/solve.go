@@ -3,7 +3,6 @@ package plan
 import (
 	"fmt"
 	"math"
-	"sort"
 
 	"evenbeat/setting"
 	"evenbeat/setting/session"
@@ -534,10 +533,17 @@ type objective struct {
 	weight  float64
 	running int
 	target  *float64
-	// design is the drawing's mean lead per position, which the plan
-	// keeps where the knobs leave a choice (weakly, below equality).
+	// design is the drawing's mean lead per position.
 	design []float64
 	full   []bool // positions in full gear, where a target lead applies
+	// wLead and wCut weigh each position's differences by how well the
+	// readings know them (see weighing); nil weighs all alike.
+	wLead, wCut []float64
+	// mean marks the positions whose mean lead the plan holds: at the
+	// target in full gear when one is set, else at the drawing's. Only
+	// an eccentric sheave moves the mean lead, so it is held only where
+	// sheaves may be turned (see sheavePolicy).
+	mean []bool
 }
 
 // term is one weighted residual: coefficients on the four quantities of a
@@ -551,7 +557,7 @@ type term struct {
 	what  string
 }
 
-func (o objective) terms(n int, canLead bool) []term {
+func (o objective) terms(n int) []term {
 	var ts []term
 	wl, wc := 1.0, 1e-2
 	sl, sc := 0.01, 1.0
@@ -568,17 +574,24 @@ func (o objective) terms(n int, canLead bool) []term {
 		sl, sc = 0.05, 1
 	}
 	for i := 0; i < n; i++ {
-		ts = append(ts, term{pos: i, coef: [4]float64{1, -1, 0, 0}, scale: sl, w: wl, what: "lead"})
+		pl, pc := 1.0, 1.0
+		if i < len(o.wLead) {
+			pl, pc = o.wLead[i], o.wCut[i]
+		}
+		ts = append(ts, term{pos: i, coef: [4]float64{1, -1, 0, 0}, scale: sl, w: wl * pl, what: "lead"})
 		cw := wc
 		if o.prio == EqualCutOffs && i != o.running {
 			cw = 1e-2
 		}
-		ts = append(ts, term{pos: i, coef: [4]float64{0, 0, 1, -1}, scale: sc, w: cw, what: "cut"})
+		ts = append(ts, term{pos: i, coef: [4]float64{0, 0, 1, -1}, scale: sc, w: cw * pc, what: "cut"})
+		if i >= len(o.mean) || !o.mean[i] {
+			continue
+		}
 		switch {
-		case o.target != nil && canLead && (o.full == nil || o.full[i]):
-			ts = append(ts, term{pos: i, coef: [4]float64{0.5, 0.5, 0, 0}, c: -*o.target, scale: sl, w: 1, what: "target"})
+		case o.target != nil && (o.full == nil || o.full[i]):
+			ts = append(ts, term{pos: i, coef: [4]float64{0.5, 0.5, 0, 0}, c: -*o.target, scale: sl, w: pl, what: "target"})
 		case i < len(o.design):
-			ts = append(ts, term{pos: i, coef: [4]float64{0.5, 0.5, 0, 0}, c: -o.design[i], scale: 0.05, w: 1, what: "design"})
+			ts = append(ts, term{pos: i, coef: [4]float64{0.5, 0.5, 0, 0}, c: -o.design[i], scale: 0.05, w: pl, what: "design"})
 		}
 	}
 	return ts
@@ -614,10 +627,13 @@ func sumSquares(ts []term, q []quantities) float64 {
 	return s
 }
 
-// optimise finds the changes of the knobs (in their units) that minimise
-// the objective from parameters p (whose curves setKnobs has sampled), within the knobs' limits, by bounded
-// Gauss-Newton on the events' implicit-function gradients.
-func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term, qNow []quantities) ([]float64, []quantities, error) {
+// optimise finds the changes of the knobs in set (in their units; the
+// others stay at zero) that minimise the objective from parameters p
+// (whose curves setKnobs has sampled), within the knobs' limits, by
+// bounded Gauss-Newton on the events' implicit-function gradients, the
+// events found afresh on the sampled curves at each step (so a port that
+// opens or closes on the way is seen).
+func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term, qNow []quantities, set []bool) ([]float64, []quantities, error) {
 	n := len(ks)
 	a := make([]float64, n)
 	qs := append([]quantities(nil), qNow...)
@@ -644,7 +660,7 @@ func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term, qNow [
 				// stays on its bound unless the gradient pulls it inward
 				free[i] = false
 			}
-			if k.adj.Min == 0 && k.adj.Max == 0 {
+			if (k.adj.Min == 0 && k.adj.Max == 0) || !set[i] {
 				free[i] = false
 			}
 		}
@@ -669,7 +685,7 @@ func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term, qNow [
 		}
 		// Release a bound whose gradient pulls inward.
 		for i, k := range ks {
-			if !free[i] && ((a[i] >= k.adj.Max && g[i] < 0) || (a[i] <= k.adj.Min && g[i] > 0)) && !(k.adj.Min == 0 && k.adj.Max == 0) {
+			if !free[i] && set[i] && ((a[i] >= k.adj.Max && g[i] < 0) || (a[i] <= k.adj.Min && g[i] > 0)) && !(k.adj.Min == 0 && k.adj.Max == 0) {
 				free[i] = true
 			}
 		}
@@ -717,119 +733,4 @@ func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term, qNow [
 		}
 	}
 	return a, qs, nil
-}
-
-// roundPlan rounds the ideal changes to what hands can do: each knob to a
-// whole number of its steps, trying the nearest step either side of each
-// (all combinations for up to five knobs) and keeping the combination whose
-// exact events score best; no change at all is among the candidates, so
-// the rounded plan never leaves the engine worse than it is by the plan's
-// own measure.
-func (ev *evaluator) roundPlan(p [numParams]float64, ks []knob, ts []term, ideal []float64, qIdeal []quantities) ([]float64, []quantities, error) {
-	n := len(ks)
-	lo := make([]float64, n)
-	for i, k := range ks {
-		lo[i] = math.Floor(ideal[i]/k.step) * k.step
-	}
-	inLimits := func(a []float64) bool {
-		for i, k := range ks {
-			if a[i] < k.adj.Min-1e-9 || a[i] > k.adj.Max+1e-9 {
-				return false
-			}
-		}
-		return true
-	}
-	// The search runs on the events linearised about the ideal changes
-	// (a step or two away, where they are accurate); the few best
-	// candidates are then checked on the curves themselves.
-	lin := make([]quantities, len(qIdeal))
-	linCost := func(a []float64) float64 {
-		for i := range qIdeal {
-			q := &lin[i]
-			q.cutOK = qIdeal[i].cutOK
-			q.lead, q.cut = qIdeal[i].lead, qIdeal[i].cut
-			for k, kb := range ks {
-				d := a[k] - ideal[k]
-				for e := 0; e < 2; e++ {
-					q.lead[e] += qIdeal[i].grad[e][kb.p] * d
-					q.cut[e] += qIdeal[i].grad[2+e][kb.p] * d
-				}
-			}
-		}
-		return sumSquares(ts, lin)
-	}
-	type cand struct {
-		a []float64
-		c float64
-	}
-	var cands []cand
-	seen := map[string]bool{}
-	var best []float64
-	bestC := math.Inf(1)
-	try := func(a []float64) {
-		for i := range a {
-			if math.Abs(a[i]) < 1e-12 {
-				a[i] = 0
-			}
-		}
-		key := fmt.Sprint(a)
-		if seen[key] || !inLimits(a) {
-			return
-		}
-		seen[key] = true
-		c := linCost(a)
-		cands = append(cands, cand{append([]float64(nil), a...), c})
-		if c < bestC-1e-12 {
-			bestC, best = c, append([]float64(nil), a...)
-		}
-	}
-	zero := make([]float64, n)
-	try(zero)
-	m := min(n, 5)
-	for mask := 0; mask < 1<<m; mask++ {
-		a := make([]float64, n)
-		for i, k := range ks {
-			if i < m {
-				a[i] = lo[i] + float64((mask>>i)&1)*k.step
-			} else {
-				a[i] = math.Round(ideal[i]/k.step) * k.step
-			}
-		}
-		try(a)
-	}
-	// Then a step either way on each knob while that helps: coarse steps
-	// on one knob can be made up by another.
-	for it := 0; it < 40 && best != nil; it++ {
-		before := bestC
-		for i, k := range ks {
-			for _, dir := range []float64{-1, 1} {
-				a := append([]float64(nil), best...)
-				a[i] += dir * k.step
-				try(a)
-			}
-		}
-		if !(bestC < before) {
-			break
-		}
-	}
-	sort.Slice(cands, func(i, j int) bool { return cands[i].c < cands[j].c })
-	if len(cands) > 4 {
-		cands = cands[:4]
-	}
-	cands = append(cands, cand{a: zero}) // no change is always checked
-	var bestQ []quantities
-	best, bestC = nil, math.Inf(1)
-	for _, cd := range cands {
-		qs, err := ev.quick(ev.surrogate(ks, cd.a), qIdeal, nil)
-		if err != nil {
-			continue
-		}
-		if c := sumSquares(ts, qs); c < bestC-1e-12 {
-			bestC, best, bestQ = c, cd.a, qs
-		}
-	}
-	if best == nil {
-		return nil, nil, &setting.Error{Field: "adjustments", Message: "No rounded plan could be evaluated: the gear cannot close with the changes proposed."}
-	}
-	return best, bestQ, nil
 }

@@ -13,6 +13,9 @@ import (
 	"evenbeat/render"
 )
 
+// noScreen is no screen at all: nothing has been published yet.
+const noScreen screen = 255
+
 // ackKey is the store key of the cautions acknowledgement.
 const ackKey = "cautions-acknowledged"
 
@@ -46,7 +49,7 @@ func newGame(a *app, st *store) *game {
 		store:     st,
 		held:      map[ebiten.TouchID]render.Point{},
 		window:    js.Global(),
-		published: 255,
+		published: noScreen,
 	}
 }
 

@@ -1,0 +1,414 @@
+package ui
+
+import (
+	"fmt"
+	"math"
+
+	"evenbeat/setting"
+	"evenbeat/setting/session"
+)
+
+// field is one number the user types: an engine dimension at set-up or a
+// reading while measuring. Its Key is the value's place in the session
+// file, so an error or a warning about it names the same field.
+type field struct {
+	Key   string // the session file's field ("cylinders[0].rounds[0].port_marks.front_gauge_mm")
+	Step  string // the step it belongs to, as a heading ("Port marks")
+	Label string // the value in words ("Front port mark")
+	Say   string // one or two sentences: what to do and where
+	// Lo and Hi bound a plausible value in mm; outside them the entry is
+	// accepted with a sentence asking for a second look.
+	Lo, Hi float64
+	// Optional fields may be skipped with the rest of their step.
+	Optional bool
+	get      func(s *session.Session) (float64, bool)
+	set      func(s *session.Session, mm float64)
+	// path gives the value's field in the file as it stands, with list
+	// indices, to match session.Check's warnings; nil when Key is it.
+	path func(s *session.Session) string
+}
+
+// Path returns the field's place in the session file as it stands.
+func (f field) Path(s *session.Session) string {
+	if f.path != nil {
+		return f.path(s)
+	}
+	return f.Key
+}
+
+// newSession returns a session for a demo engine's design with the
+// defaults a setter would start from: one cylinder, a 0.01 mm gauge, the
+// adjustments the gear has, and no readings yet.
+func newSession(spec setting.EngineSpec, unit session.Unit) *session.Session {
+	s := &session.Session{
+		Name:        spec.Name,
+		Invented:    spec.Invented,
+		DisplayUnit: unit,
+		Engine:      spec,
+		Measuring: session.Measuring{
+			WheelDiameterMM:   115,
+			GaugeResolutionMM: 0.01,
+			GaugeIncreases:    session.GaugeFront,
+			MarkError:         session.Mark{Scale: session.TyreMM, Value: 0.3},
+		},
+		Adjustments: defaultAdjustments(spec.Gear.Kind),
+	}
+	s.Engine.Cylinders = nil
+	s.Cylinders = []session.Cylinder{{Name: "right"}}
+	if s.Invented {
+		s.Note = "Invented demo engine: the design is made up, not a real locomotive."
+	}
+	return s
+}
+
+// spindle is the usual valve-spindle adjustment: lock nuts on an M4
+// thread (common practice, no source).
+func spindle() session.Adjustment {
+	return session.Adjustment{Kind: session.ValveOnSpindle, Min: -1.5, Max: 1.5,
+		Thread: session.Thread{PitchMM: 0.7, FlatsPerTurn: 6}}
+}
+
+// defaultAdjustments returns the adjustments a gear of the given kind
+// usually allows, with modest limits (common practice, no source).
+func defaultAdjustments(kind string) []session.Adjustment {
+	rod := func(k session.AdjustmentKind, e session.Eccentric) session.Adjustment {
+		return session.Adjustment{Kind: k, Eccentric: e, Min: -1.5, Max: 1.5,
+			Thread: session.Thread{TPI: 40, FlatsPerTurn: 2}}
+	}
+	sheave := func(e session.Eccentric) session.Adjustment {
+		return session.Adjustment{Kind: session.EccentricAngle, Eccentric: e, Min: -8, Max: 8, SheaveDiameterMM: 30}
+	}
+	switch kind {
+	case setting.KindStephenson:
+		return []session.Adjustment{spindle(),
+			sheave(session.ForwardEccentric), sheave(session.BackwardEccentric),
+			rod(session.EccentricRodLength, session.ForwardEccentric),
+			rod(session.EccentricRodLength, session.BackwardEccentric)}
+	case setting.KindWalschaerts:
+		return []session.Adjustment{spindle(),
+			{Kind: session.ReturnCrankAngle, Min: -5, Max: 5},
+			rod(session.EccentricRodLength, ""),
+			rod(session.RadiusRodLength, "")}
+	default:
+		return []session.Adjustment{spindle(), sheave(""), rod(session.EccentricRodLength, "")}
+	}
+}
+
+// adjustmentName names an adjustment in workshop words.
+func adjustmentName(a session.Adjustment) string {
+	e := ""
+	if a.Eccentric != "" {
+		e = string(a.Eccentric) + " "
+	}
+	switch a.Kind {
+	case session.ValveOnSpindle:
+		return "Valve on its spindle"
+	case session.EccentricAngle:
+		return "Turn the " + e + "eccentric"
+	case session.EccentricRodLength:
+		return "Length of the " + e + "eccentric rod"
+	case session.ReturnCrankAngle:
+		return "Turn the return crank"
+	case session.RadiusRodLength:
+		return "Length of the radius rod"
+	case session.LiftingLinkLength:
+		return "Length of the lifting link"
+	}
+	return string(a.Kind)
+}
+
+// dimensionFields are the engine's dimensions asked at set-up, each with
+// the demo engine's value as its default.
+func dimensionFields() []field {
+	dim := func(key, label, say string, lo, hi float64, p func(s *session.Session) *float64) field {
+		return field{Key: key, Step: "The engine", Label: label, Say: say, Lo: lo, Hi: hi,
+			get: func(s *session.Session) (float64, bool) { return *p(s), true },
+			set: func(s *session.Session, v float64) { *p(s) = v }}
+	}
+	return []field{
+		dim("engine.engine.crank_radius", "Crank radius", "Half the piston stroke: measure the stroke on the slide bar between the two dead centres and halve it.", 5, 600,
+			func(s *session.Session) *float64 { return &s.Engine.Engine.CrankRadius }),
+		dim("engine.engine.rod_length", "Connecting rod", "Centre to centre of the connecting rod, crosshead pin to crank pin.", 20, 4000,
+			func(s *session.Session) *float64 { return &s.Engine.Engine.RodLength }),
+		dim("engine.valve.front.steam_lap", "Front steam lap", "How far the valve's front steam edge overlaps the front port with the valve central, from the drawing or measured with the cover off.", 0, 60,
+			func(s *session.Session) *float64 { return &s.Engine.Valve.Front.SteamLap }),
+		dim("engine.valve.back.steam_lap", "Back steam lap", "The same overlap at the back port.", 0, 60,
+			func(s *session.Session) *float64 { return &s.Engine.Valve.Back.SteamLap }),
+		dim("measuring.wheel_diameter_mm", "Wheel diameter", "Diameter of the driving wheel on the tread, where you will mark the tyre.", 40, 2500,
+			func(s *session.Session) *float64 { return &s.Measuring.WheelDiameterMM }),
+	}
+}
+
+// position is a reverser position the setter reads in, with the way the
+// wheel is turned there (the running direction of that gear).
+type position struct {
+	Notch string
+	Dir   session.Direction
+}
+
+// positions returns the reverser positions read for a session's engine:
+// full forward, the forward running notches and full back (a single
+// eccentric is read in full forward only).
+func positions(s *session.Session) []position {
+	ps := []position{{session.FullForward, session.Forward}}
+	if s.Engine.Gear.Kind == setting.KindSingleEccentric {
+		return ps
+	}
+	for _, n := range s.Engine.Notches {
+		if n.Reverser > 0 {
+			ps = append(ps, position{n.Name, session.Forward})
+		}
+	}
+	return append(ps, position{session.FullBack, session.Backward})
+}
+
+// sweepSteps is the number of sweep readings round one turn: every 30
+// degrees (common practice, no source).
+const sweepSteps = 12
+
+// measureFields lists every reading of round ri of cylinder 0 in the order
+// the setter takes them. Dead centres belong to the cylinder and are asked
+// only in the first round.
+func measureFields(s *session.Session, ri int) []field {
+	rp := fmt.Sprintf("cylinders[0].rounds[%d]", ri)
+	round := func(s *session.Session) *session.Round { return &s.Cylinders[0].Rounds[ri] }
+	var fs []field
+	// Port marks.
+	pm := func(end session.End, label, say string) field {
+		return field{Key: rp + ".port_marks." + string(end) + "_gauge_mm", path: func(*session.Session) string { return rp + ".port_marks" }, Step: "Port marks", Label: label, Say: say, Lo: -50, Hi: 50,
+			get: func(s *session.Session) (float64, bool) {
+				p := round(s).PortMarks
+				if p == nil {
+					return 0, false
+				}
+				if end == session.Front {
+					return p.FrontGaugeMM, true
+				}
+				return p.BackGaugeMM, true
+			},
+			set: func(s *session.Session, v float64) {
+				r := round(s)
+				if r.PortMarks == nil {
+					r.PortMarks = &session.PortMarks{}
+				}
+				if end == session.Front {
+					r.PortMarks.FrontGaugeMM = v
+				} else {
+					r.PortMarks.BackGaugeMM = v
+				}
+			}}
+	}
+	fs = append(fs,
+		pm(session.Front, "Front port mark", "Move the valve forward until its front steam edge is just line-on-line with the front port edge, and type the dial gauge reading."),
+		pm(session.Back, "Back port mark", "Now move the valve back until the back steam edge just cracks the back port, and type the gauge reading."))
+	// Dead centres from tyre marks, first round only.
+	if ri == 0 {
+		circ := s.Measuring.WheelDiameterMM * math.Pi
+		for _, dir := range []session.Direction{session.Forward, session.Backward} {
+			for _, end := range []session.End{session.Front, session.Back} {
+				for k := 0; k < 2; k++ {
+					fs = append(fs, deadCentreField(end, dir, k, circ))
+				}
+			}
+		}
+	}
+	// Dead-centre readings and sweeps per position.
+	for _, p := range positions(s) {
+		for _, end := range []session.End{session.Front, session.Back} {
+			fs = append(fs, dcReadingField(rp, round, p, end))
+		}
+	}
+	ff := positions(s)[0]
+	for k := 0; k < sweepSteps; k++ {
+		fs = append(fs, sweepField(rp, round, ff, k, false), sweepField(rp, round, ff, k, true))
+	}
+	for _, end := range []session.End{session.Front, session.Back} {
+		fs = append(fs, cutOffField(rp, round, ff, end))
+	}
+	return fs
+}
+
+// deadCentreField is mark k (0 first, 1 second) of the dead centre at end
+// found turning dir.
+func deadCentreField(end session.End, dir session.Direction, k int, circ float64) field {
+	which := [2]string{"first", "second"}[k]
+	say := fmt.Sprintf("Turn the wheel %s until the crosshead is a little short of the %s end of its travel; scribe the crosshead on the slide bar and type the tyre mark (mm round the tyre) at the pointer.", dir, end)
+	if k == 1 {
+		say = fmt.Sprintf("Keep turning %s past dead centre until the crosshead comes back to the scribed line, and type the tyre mark again.", dir)
+	}
+	find := func(s *session.Session) int {
+		for i, d := range s.Cylinders[0].DeadCentres {
+			if d.End == end && d.Direction == dir {
+				return i
+			}
+		}
+		return -1
+	}
+	return field{Key: fmt.Sprintf("cylinders[0].dead_centres[%s %s].marks_tyre_mm[%d]", end, dir, k),
+		Step: "Dead centres", Label: fmt.Sprintf("%s dead centre turning %s, %s mark", title(string(end)), dir, which), Say: say,
+		Lo: 0, Hi: circ,
+		path: func(s *session.Session) string {
+			return fmt.Sprintf("cylinders[0].dead_centres[%d]", find(s))
+		},
+		get: func(s *session.Session) (float64, bool) {
+			i := find(s)
+			if i < 0 {
+				return 0, false
+			}
+			d := s.Cylinders[0].DeadCentres[i]
+			return [2]float64{d.First, d.Second}[k], true
+		},
+		set: func(s *session.Session, v float64) {
+			i := find(s)
+			c := &s.Cylinders[0]
+			if i < 0 {
+				c.DeadCentres = append(c.DeadCentres, session.DeadCentre{End: end, Direction: dir, Scale: session.TyreMM})
+				i = len(c.DeadCentres) - 1
+			}
+			if k == 0 {
+				c.DeadCentres[i].First = v
+			} else {
+				c.DeadCentres[i].Second = v
+			}
+		}}
+}
+
+// dcReadingField is the gauge reading at end's dead centre in position p.
+func dcReadingField(rp string, round func(*session.Session) *session.Round, p position, end session.End) field {
+	find := func(r *session.Round) int {
+		for i, d := range r.DeadCentreReadings {
+			if d.End == end && d.Reverser.Notch == p.Notch && d.Direction == p.Dir {
+				return i
+			}
+		}
+		return -1
+	}
+	return field{Key: fmt.Sprintf("%s.dead_centre_readings[%s %s].gauge_mm", rp, p.Notch, end),
+		Step: "Readings at dead centre", Label: fmt.Sprintf("%s dead centre, %s", title(string(end)), p.Notch),
+		Say: fmt.Sprintf("Put the reverser in %s. Turn the wheel %s to the %s dead centre mark, taking up backlash as you go, and type the gauge reading.", p.Notch, p.Dir, end),
+		Lo:  -50, Hi: 50,
+		path: func(s *session.Session) string {
+			return fmt.Sprintf("%s.dead_centre_readings[%d]", rp, find(round(s)))
+		},
+		get: func(s *session.Session) (float64, bool) {
+			r := round(s)
+			if i := find(r); i >= 0 {
+				return r.DeadCentreReadings[i].GaugeMM, true
+			}
+			return 0, false
+		},
+		set: func(s *session.Session, v float64) {
+			r := round(s)
+			i := find(r)
+			if i < 0 {
+				r.DeadCentreReadings = append(r.DeadCentreReadings, session.DeadCentreReading{End: end,
+					Reverser: session.ReverserPosition{Notch: p.Notch}, Direction: p.Dir})
+				i = len(r.DeadCentreReadings) - 1
+			}
+			r.DeadCentreReadings[i].GaugeMM = v
+		}}
+}
+
+// sweepField is reading k of the sweep in position p: its tyre mark, or
+// (gauge) its gauge reading.
+func sweepField(rp string, round func(*session.Session) *session.Round, p position, k int, gauge bool) field {
+	sweep := func(s *session.Session, make bool) *session.Sweep {
+		r := round(s)
+		for i := range r.Sweeps {
+			if r.Sweeps[i].Reverser.Notch == p.Notch && r.Sweeps[i].Direction == p.Dir {
+				return &r.Sweeps[i]
+			}
+		}
+		if !make {
+			return nil
+		}
+		r.Sweeps = append(r.Sweeps, session.Sweep{Reverser: session.ReverserPosition{Notch: p.Notch}, Direction: p.Dir})
+		return &r.Sweeps[len(r.Sweeps)-1]
+	}
+	f := field{Step: "Sweep, " + p.Notch, Optional: true, Lo: -50, Hi: 50}
+	if gauge {
+		f.Key = fmt.Sprintf("%s.sweeps[%s].readings[%d].gauge_mm", rp, p.Notch, k)
+		f.Label = fmt.Sprintf("Reading %d of %d, gauge", k+1, sweepSteps)
+		f.Say = "Type the gauge reading at that mark."
+	} else {
+		f.Key = fmt.Sprintf("%s.sweeps[%s].readings[%d].tyre_mm", rp, p.Notch, k)
+		f.Label = fmt.Sprintf("Reading %d of %d, tyre mark", k+1, sweepSteps)
+		f.Say = fmt.Sprintf("Readings round a whole turn are better than dead centres alone. Turn the wheel %s about a twelfth of a turn and type the tyre mark at the pointer.", p.Dir)
+		f.Lo, f.Hi = 0, 8000
+	}
+	f.path = func(s *session.Session) string {
+		r := round(s)
+		for i := range r.Sweeps {
+			if r.Sweeps[i].Reverser.Notch == p.Notch && r.Sweeps[i].Direction == p.Dir {
+				return fmt.Sprintf("%s.sweeps[%d].readings[%d]", rp, i, k)
+			}
+		}
+		return f.Key
+	}
+	f.get = func(s *session.Session) (float64, bool) {
+		sw := sweep(s, false)
+		if sw == nil || k >= len(sw.Readings) {
+			return 0, false
+		}
+		if gauge {
+			return sw.Readings[k].GaugeMM, true
+		}
+		return sw.Readings[k].At.Value, true
+	}
+	f.set = func(s *session.Session, v float64) {
+		sw := sweep(s, true)
+		for len(sw.Readings) <= k {
+			sw.Readings = append(sw.Readings, session.SweepReading{At: session.Mark{Scale: session.TyreMM}})
+		}
+		if gauge {
+			sw.Readings[k].GaugeMM = v
+		} else {
+			sw.Readings[k].At.Value = v
+		}
+	}
+	return f
+}
+
+// cutOffField is the crosshead's distance from end's dead centre where the
+// valve closes end's steam port in position p.
+func cutOffField(rp string, round func(*session.Session) *session.Round, p position, end session.End) field {
+	find := func(r *session.Round) int {
+		for i, c := range r.CutOffs {
+			if c.End == end && c.Reverser.Notch == p.Notch && c.Direction == p.Dir {
+				return i
+			}
+		}
+		return -1
+	}
+	return field{Key: fmt.Sprintf("%s.cut_offs[%s %s].crosshead_mm", rp, p.Notch, end),
+		Step: "Cut-off points", Label: fmt.Sprintf("%s cut-off, %s", title(string(end)), p.Notch), Optional: true,
+		Say: fmt.Sprintf("Turn %s from the %s dead centre until the gauge is back at the %s port mark; type how far the crosshead has moved from its dead-centre line on the slide bar.", p.Dir, end, end),
+		Lo:  0, Hi: 2000,
+		path: func(s *session.Session) string {
+			return fmt.Sprintf("%s.cut_offs[%d]", rp, find(round(s)))
+		},
+		get: func(s *session.Session) (float64, bool) {
+			r := round(s)
+			if i := find(r); i >= 0 {
+				return r.CutOffs[i].CrossheadMM, true
+			}
+			return 0, false
+		},
+		set: func(s *session.Session, v float64) {
+			r := round(s)
+			i := find(r)
+			if i < 0 {
+				r.CutOffs = append(r.CutOffs, session.CutOff{End: end, Reverser: session.ReverserPosition{Notch: p.Notch}, Direction: p.Dir})
+				i = len(r.CutOffs) - 1
+			}
+			r.CutOffs[i].CrossheadMM = v
+		}}
+}
+
+// title returns s with its first letter in capitals.
+func title(s string) string {
+	if s == "" {
+		return s
+	}
+	return string(s[0]-'a'+'A') + s[1:]
+}

@@ -408,10 +408,19 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 		idx = idx[:7]
 	}
 	lin := make([]quantities, len(qNow))
-	pos := map[string]int{}
+	// A plan's key: its whole steps per usable knob.
+	type planKey [7]int32
+	keyOf := func(a []float64) planKey {
+		var key planKey
+		for j, k := range idx {
+			key[j] = int32(math.Round(a[k] / ks[k].step))
+		}
+		return key
+	}
+	pos := map[planKey]int{}
 	var cands []candidate
 	add := func(a []float64, q []quantities, ideal []float64) {
-		key := fmt.Sprint(a)
+		key := keyOf(a)
 		c := candidate{a: append([]float64(nil), a...), ideal: ideal}
 		for k, v := range a {
 			if v != 0 {
@@ -453,7 +462,7 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 		}
 		ideal := subsetIdeal(ks, ts, qNow, set)
 		roundings(ideal, set, func(a []float64) {
-			if _, ok := pos[fmt.Sprint(a)]; !ok {
+			if _, ok := pos[keyOf(a)]; !ok {
 				linearAt(qNow, ks, a, lin)
 				add(a, lin, ideal)
 			}
@@ -518,7 +527,7 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 			return a.measure < b.measure
 		})
 		for i, c := range cands {
-			pos[fmt.Sprint(c.a)] = i
+			pos[keyOf(c.a)] = i
 		}
 	}
 	rank()
@@ -530,7 +539,7 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 		// open at all today); leads are close to it.
 		sets = append(sets, idx)
 	}
-	if len(cands) > 0 && cands[0].steps > 0 && (cands[0].steps < len(idx) || g.prio == EqualLeads) {
+	if len(cands) > 0 && cands[0].steps > 0 && cands[0].steps < len(idx) && g.prio != EqualLeads {
 		var fav []int
 		for k, v := range cands[0].a {
 			if v != 0 {
@@ -632,8 +641,9 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 	// as expected) is taken; when none does, the best of those judged by
 	// the same rules.
 	type exact struct {
-		c candidate
-		q []quantities
+		c  candidate
+		q  []quantities
+		cs []curve
 	}
 	est := math.Inf(1)
 	for _, c := range cands {
@@ -646,17 +656,23 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 		if c.worse || c.steps == 0 || len(ex) >= 4 {
 			break
 		}
-		q, err := ev.events(applyKnobs(p, ks, c.a), false)
+		// The linkage sampled afresh; the events found from today's by
+		// Newton's method (the full search where that fails).
+		cs, err := ev.curvesAt(applyKnobs(p, ks, c.a))
+		if err != nil {
+			continue
+		}
+		q, err := ev.quick(cs, qNow, nil)
 		if err != nil || g.worse(qNow, q, ts) {
 			continue
 		}
 		c.measure = measure(ts, q)
 		if c.measure <= est+g.slack {
-			return newChoice(c, q), nil
+			return ev.newChoice(c, cs)
 		}
-		ex = append(ex, exact{c, q})
+		ex = append(ex, exact{c, q, cs})
 	}
-	ex = append(ex, exact{candidate{a: zero, ideal: zero, measure: measure(ts, qNow)}, qNow})
+	ex = append(ex, exact{candidate{a: zero, ideal: zero, measure: measure(ts, qNow)}, qNow, nil})
 	best := math.Inf(1)
 	for _, e := range ex {
 		best = math.Min(best, e.c.measure)
@@ -675,23 +691,31 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 			pick = i
 		}
 	}
-	return newChoice(ex[pick].c, ex[pick].q), nil
+	if ex[pick].cs == nil {
+		return &choice{rounded: zero, ideal: zero, qAft: qNow}, nil
+	}
+	return ev.newChoice(ex[pick].c, ex[pick].cs)
 }
 
-// newChoice makes the choice of a candidate with its exact events.
-func newChoice(c candidate, q []quantities) *choice {
+// newChoice makes the choice of a candidate, its events found in full on
+// the linkage sampled afresh with its changes.
+func (ev *evaluator) newChoice(c candidate, cs []curve) (*choice, error) {
+	q, err := ev.eventsOf(cs, nil)
+	if err != nil {
+		return nil, &setting.Error{Field: "adjustments", Message: "The events cannot be found for the gear with the changes proposed: " + err.Error()}
+	}
 	ch := &choice{rounded: c.a, ideal: c.ideal, qAft: q}
 	for k, v := range c.a {
 		if v != 0 {
 			ch.set = append(ch.set, k)
 		}
 	}
-	return ch
+	return ch, nil
 }
 
 // leftNotes says plainly what the rounded plan leaves: for each position
-// still apart by more than the readings can tell, how far, and the finest
-// step of the usable knobs that moves the difference there.
+// still apart by more than the readings can tell, how far, and the step of
+// the adjuster that acts most there.
 func (ev *evaluator) leftNotes(ks []knob, usable []bool, qNow []quantities, ch *choice, g goal, unit session.Unit) []string {
 	var out []string
 	for i, q := range ch.qAft {
@@ -709,17 +733,29 @@ func (ev *evaluator) leftNotes(ks []knob, usable []bool, qNow []quantities, ch *
 		if g.prio == EqualCutOffs {
 			what = fmt.Sprintf("the cut-offs will still be %.1f %% apart (%.1f %% front, %.1f %% back)", math.Abs(d), q.cut[0], q.cut[1])
 		}
-		fine, fk := math.Inf(1), -1
+		// The adjuster that acts most on this position rather than on
+		// the others (the backward rod for full back), and its step.
+		fine, fk, spec := 0.0, -1, 0.0
 		for k, kb := range ks {
 			if !usable[k] || isSheave(kb) {
 				continue
 			}
-			gd := qNow[i].grad[0][kb.p] - qNow[i].grad[1][kb.p]
-			if g.prio == EqualCutOffs {
-				gd = qNow[i].grad[2][kb.p] - qNow[i].grad[3][kb.p]
+			var here, all float64
+			for j, qj := range qNow {
+				gd := qj.grad[0][kb.p] - qj.grad[1][kb.p]
+				if g.prio == EqualCutOffs {
+					gd = qj.grad[2][kb.p] - qj.grad[3][kb.p]
+				}
+				all += math.Abs(gd)
+				if j == i {
+					here = math.Abs(gd)
+				}
 			}
-			if e := math.Abs(gd) * kb.step; e > 1e-6 && e < fine {
-				fine, fk = e, k
+			if here*kb.step < 1e-6 {
+				continue
+			}
+			if sp := here / all; fk < 0 || sp > spec+1e-6 || math.Abs(sp-spec) <= 1e-6 && here*kb.step < fine {
+				fine, fk, spec = here*kb.step, k, sp
 			}
 		}
 		name := ev.ps[i].name()
@@ -731,34 +767,33 @@ func (ev *evaluator) leftNotes(ks []knob, usable []bool, qNow []quantities, ch *
 			if g.prio == EqualCutOffs {
 				amt = fmt.Sprintf("%.1f %%", fine)
 			}
-			out = append(out, fmt.Sprintf("In %s %s: the finest step that moves them, %s, changes them by %s, so this is as close as it can be set.", name, what, handStepWords(ks[fk], ev.spec.Gear.Kind, unit), amt))
+			out = append(out, fmt.Sprintf("In %s %s: the adjuster that acts most there, the %s, moves them %s with %s, so this is as close as it can be set.", name, what, partName(ks[fk].adj, ev.spec.Gear.Kind), amt, handStepWords(ks[fk], unit)))
 		default:
-			out = append(out, fmt.Sprintf("In %s %s: setting them closer would leave another position worse or need more steps than it is worth.", name, what))
+			out = append(out, fmt.Sprintf("In %s %s: setting them closer would upset another position by more, or take more steps than it gains.", name, what))
 		}
 	}
 	return out
 }
 
-// handStepWords names a knob's smallest step: "half a turn of the backward
-// eccentric rod's thread (0.32 mm)".
-func handStepWords(k knob, kind string, unit session.Unit) string {
-	part := partName(k.adj, kind)
+// handStepWords names a knob's smallest step: "each half turn of its
+// thread (0.32 mm)".
+func handStepWords(k knob, unit session.Unit) string {
 	if k.adj.Kind.Angular() {
 		if k.adj.Kind == session.EccentricAngle && k.adj.SheaveDiameterMM > 0 {
-			return fmt.Sprintf("%s round the rim of the %s", length(rimStepMM, unit), part)
+			return fmt.Sprintf("each %s round its rim", length(rimStepMM, unit))
 		}
-		return fmt.Sprintf("%.2f deg of the %s", k.step, part)
+		return fmt.Sprintf("each %.2f deg", k.step)
 	}
 	if !(k.adj.Thread.Pitch() > 0) {
-		return fmt.Sprintf("%s on the %s", length(k.step, unit), part)
+		return "each " + length(k.step, unit)
 	}
 	f := k.adj.Thread.FlatsPerTurn
 	if f <= 0 {
 		f = defaultFlats
 	}
-	one := "one flat"
+	one := "flat"
 	if f == 2 {
-		one = "half a turn"
+		one = "half turn"
 	}
-	return fmt.Sprintf("%s of the %s's thread (%s)", one, part, length(k.step, unit))
+	return fmt.Sprintf("each %s of its thread (%s)", one, length(k.step, unit))
 }

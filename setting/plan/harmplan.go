@@ -112,7 +112,7 @@ func MakeWithoutDimensions(s *session.Session, opt Options) (*Plan, error) {
 				f = defaultFlats
 			}
 			flats := int(math.Round(math.Abs(amt) / k.step))
-			st.Turns, st.Flats = flats/f, flats%f
+			st.Turns, st.Flats, st.perTurn = flats/f, flats%f, f
 		}
 		st.Words = stepWords(st, opt.Unit)
 		steps = append(steps, st)

@@ -65,6 +65,8 @@ type Step struct {
 	AtLimit bool `json:"at_limit,omitempty"`
 	// Words is the step in workshop words.
 	Words string `json:"words"`
+
+	perTurn int // flats per turn of the thread, for the words
 }
 
 // Alternative is a plan made with another priority: its steps and what the
@@ -323,7 +325,7 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 				f = defaultFlats
 			}
 			if k.adj.Thread.Pitch() > 0 {
-				st.Turns, st.Flats = flats/f, flats%f
+				st.Turns, st.Flats, st.perTurn = flats/f, flats%f, f
 			}
 		}
 		st.AtLimit = rounded[i] <= k.adj.Min+1e-9 || rounded[i] >= k.adj.Max-1e-9
@@ -593,7 +595,7 @@ func stepWords(s Step, unit session.Unit) string {
 	}
 	if s.Turns != 0 || s.Flats != 0 {
 		b.WriteString(": ")
-		b.WriteString(turnsWords(s.Turns, s.Flats))
+		b.WriteString(turnsWords(s.Turns, s.Flats, s.perTurn))
 	}
 	if s.SigmaAmount > 0 {
 		if s.Unit == "deg" {
@@ -626,7 +628,19 @@ func fineLength(mm float64, unit session.Unit) string {
 	return fmt.Sprintf("%.3f mm", math.Max(mm, 0.001))
 }
 
-func turnsWords(turns, flats int) string {
+// turnsWords writes a change on a thread: "2 turns and 3 flats of the
+// thread", or in half turns for a thread turned only by halves (a fork end
+// with two flats a turn).
+func turnsWords(turns, flats, perTurn int) string {
+	if perTurn == 2 {
+		switch {
+		case turns == 0:
+			return "half a turn of the thread"
+		case flats == 0:
+			return count(turns, "turn") + " of the thread"
+		}
+		return fmt.Sprintf("%d and a half turns of the thread", turns)
+	}
 	var parts []string
 	if turns > 0 {
 		parts = append(parts, count(turns, "turn"))

@@ -174,11 +174,14 @@ func measureFields(s *session.Session, ri int) []field {
 	round := func(s *session.Session) *session.Round { return &s.Cylinders[0].Rounds[ri] }
 	var fs []field
 	// Port marks.
-	pm := func(end session.End, label, say string) field {
+	pm := func(end session.End, label, other, say string) field {
 		return field{Key: rp + ".port_marks." + string(end) + "_gauge_mm", path: func(*session.Session) string { return rp + ".port_marks" }, Step: "Port marks", Label: label, Say: say, Lo: -50, Hi: 50,
 			get: func(s *session.Session) (float64, bool) {
 				p := round(s).PortMarks
 				if p == nil {
+					return 0, false
+				}
+				if p.Note == notTaken(label) {
 					return 0, false
 				}
 				if end == session.Front {
@@ -189,7 +192,9 @@ func measureFields(s *session.Session, ri int) []field {
 			set: func(s *session.Session, v float64) {
 				r := round(s)
 				if r.PortMarks == nil {
-					r.PortMarks = &session.PortMarks{}
+					r.PortMarks = &session.PortMarks{Note: notTaken(other)}
+				} else if r.PortMarks.Note == notTaken(label) {
+					r.PortMarks.Note = ""
 				}
 				if end == session.Front {
 					r.PortMarks.FrontGaugeMM = v
@@ -199,8 +204,8 @@ func measureFields(s *session.Session, ri int) []field {
 			}}
 	}
 	fs = append(fs,
-		pm(session.Front, "Front port mark", "Move the valve forward until its front steam edge is just line-on-line with the front port edge, and type the dial gauge reading."),
-		pm(session.Back, "Back port mark", "Now move the valve back until the back steam edge just cracks the back port, and type the gauge reading."))
+		pm(session.Front, "Front port mark", "Back port mark", "Move the valve forward until its front steam edge is just line-on-line with the front port edge, and type the dial gauge reading."),
+		pm(session.Back, "Back port mark", "Front port mark", "Now move the valve back until the back steam edge just cracks the back port, and type the gauge reading."))
 	// Dead centres from tyre marks, first round only.
 	if ri == 0 {
 		circ := s.Measuring.WheelDiameterMM * math.Pi
@@ -256,14 +261,20 @@ func deadCentreField(end session.End, dir session.Direction, k int, circ float64
 				return 0, false
 			}
 			d := s.Cylinders[0].DeadCentres[i]
+			if d.Note == notTaken(which+" mark") {
+				return 0, false
+			}
 			return [2]float64{d.First, d.Second}[k], true
 		},
 		set: func(s *session.Session, v float64) {
 			i := find(s)
 			c := &s.Cylinders[0]
 			if i < 0 {
-				c.DeadCentres = append(c.DeadCentres, session.DeadCentre{End: end, Direction: dir, Scale: session.TyreMM})
+				c.DeadCentres = append(c.DeadCentres, session.DeadCentre{End: end, Direction: dir, Scale: session.TyreMM,
+					Note: notTaken([2]string{"second", "first"}[k] + " mark")})
 				i = len(c.DeadCentres) - 1
+			} else if c.DeadCentres[i].Note == notTaken(which+" mark") {
+				c.DeadCentres[i].Note = ""
 			}
 			if k == 0 {
 				c.DeadCentres[i].First = v
@@ -350,6 +361,9 @@ func sweepField(rp string, round func(*session.Session) *session.Round, p positi
 		if sw == nil || k >= len(sw.Readings) {
 			return 0, false
 		}
+		if sw.Readings[k].Note == notTaken(half(gauge)) {
+			return 0, false
+		}
 		if gauge {
 			return sw.Readings[k].GaugeMM, true
 		}
@@ -358,7 +372,10 @@ func sweepField(rp string, round func(*session.Session) *session.Round, p positi
 	f.set = func(s *session.Session, v float64) {
 		sw := sweep(s, true)
 		for len(sw.Readings) <= k {
-			sw.Readings = append(sw.Readings, session.SweepReading{At: session.Mark{Scale: session.TyreMM}})
+			sw.Readings = append(sw.Readings, session.SweepReading{At: session.Mark{Scale: session.TyreMM}, Note: notTaken(half(!gauge))})
+		}
+		if sw.Readings[k].Note == notTaken(half(gauge)) {
+			sw.Readings[k].Note = ""
 		}
 		if gauge {
 			sw.Readings[k].GaugeMM = v
@@ -403,6 +420,19 @@ func cutOffField(rp string, round func(*session.Session) *session.Round, p posit
 			}
 			r.CutOffs[i].CrossheadMM = v
 		}}
+}
+
+// notTaken is the note a pair of values carries while one of them, named
+// by what, is still to be typed: kept in the file, so a reload knows the
+// zero there was never read.
+func notTaken(what string) string { return what + " not yet taken" }
+
+// half names the half of a sweep reading: its gauge reading or its mark.
+func half(gauge bool) string {
+	if gauge {
+		return "gauge reading"
+	}
+	return "tyre mark"
 }
 
 // title returns s with its first letter in capitals.

@@ -1,0 +1,662 @@
+package ui
+
+import (
+	"encoding/json"
+	"fmt"
+	"strconv"
+	"strings"
+	"sync"
+	"time"
+
+	"evenbeat/render"
+	"evenbeat/setting"
+	"evenbeat/setting/plan"
+	"evenbeat/setting/session"
+)
+
+// Screen is which page the app shows.
+type Screen uint8
+
+// The screens, in the order of the flow.
+const (
+	Engines  Screen = iota // saved engines, the invented demo engines, a new engine
+	Gear                   // set-up: the gear type first
+	Units                  // set-up: mm or inch, the gauge's division
+	Sizes                  // set-up: the dimensions, on the keypad
+	Adjust                 // set-up: which adjustments this engine has
+	Cautions               // the safety card: first run, and from the menu
+	Measure                // one reading at a time, on the keypad
+	Readings               // every reading of the round, to choose one to edit
+	Plan                   // the plan's steps, balance, valve curve, motion; what-if
+	History                // the rounds so far
+	Menu                   // everywhere else from anywhere
+)
+
+// String names the screen for the page's state (tests, the History API).
+func (s Screen) String() string {
+	names := [...]string{"engines", "gear", "units", "sizes", "adjust", "cautions", "measure", "readings", "plan", "history", "menu"}
+	if int(s) < len(names) {
+		return names[s]
+	}
+	return "screen" + strconv.Itoa(int(s))
+}
+
+// IntentKind is what the user means, whatever the device.
+type IntentKind uint8
+
+// Intent kinds.
+const (
+	Tap     IntentKind = iota // a short press and release at At
+	Drag                      // a finger moving by Delta, now at At
+	Confirm                   // Enter or Space: the screen's main action
+)
+
+// Intent is one user action, folded from pointer events and keys by the
+// glue.
+type Intent struct {
+	Kind  IntentKind
+	At    render.Point
+	Delta render.Point
+}
+
+// Options configure an App.
+type Options struct {
+	// Store keeps sessions; nil keeps nothing (the app says so).
+	Store Store
+	// Theme is the palette; the zero Theme means render.Light().
+	Theme render.Theme
+	// Now dates new rounds; nil means time.Now.
+	Now func() time.Time
+	// OnExport, when set, is called with a file name and the bytes to
+	// save when the user asks for an export (the glue offers a download or
+	// Web Share).
+	OnExport func(name string, data []byte)
+	// OnImport, when set, is called when the user asks to import a file;
+	// the glue opens a file chooser and hands the bytes to App.Import.
+	OnImport func()
+}
+
+// App is the phone app's screens and flow. Handle, Update, Back, Resize,
+// Import and Draw must be called from one goroutine (the game loop); the
+// store's answers may arrive on any goroutine and are taken in by Update.
+type App struct {
+	opt    Options
+	theme  render.Theme
+	w, h   float64
+	screen Screen
+	stack  []Screen // where Back returns to
+	scroll float64  // how far a list or card is scrolled up
+	dirty  bool
+
+	stored   []*Stored
+	index    []string // the stored sessions' keys
+	cur      *Stored  // the session being set
+	loadNote string   // a sentence about loading, shown on the engines list
+	acked    bool
+	after    Screen // where acknowledging the cautions leads (Measure), or Menu for Back
+
+	// The keypad form: set-up dimensions or a round's readings.
+	fields []field
+	fi     int
+	round  int    // the round being measured (index)
+	text   string // what has been typed for fields[fi]
+	typed  bool
+	note   string // a sentence under the entry: implausible, or an error
+	warn   string // a warning about the entry just committed
+
+	// Saving.
+	mu       sync.Mutex
+	answers  []saveResult
+	seq      int // the latest write asked for
+	savedSeq int // the latest write known complete
+	saveErr  string
+	status   string
+
+	// The plan.
+	planRound int // the round planned, counting from 1; 0 the latest
+	fit       *plan.Fit
+	plan      *plan.Plan
+	model     *render.Model
+	planNote  []string // why there is no plan, or what weakens it
+	diagram   render.Diagram
+	position  int
+	crankDeg  float64
+	what      whatIf
+	importErr string
+}
+
+// whatIf is the plan screen's what-if: one step's amount changed by a
+// drag, with the model after it.
+type whatIf struct {
+	step   int
+	amount float64
+	lo, hi float64
+	model  *render.Model // nil until a drag; then the model with the amount
+}
+
+// New starts the app: it loads the stored sessions (keeping any that
+// cannot be read, with the reason) and opens on the engines list.
+func New(opt Options) *App {
+	a := &App{opt: opt, theme: opt.Theme, dirty: true, status: "Not saved yet"}
+	if a.theme == (render.Theme{}) {
+		a.theme = render.Light()
+	}
+	if opt.Store == nil {
+		a.loadNote = "This browser gives the app no storage: nothing you enter will be kept. Export the session file before you close the page."
+		return a
+	}
+	stored, index, err := loadAll(opt.Store)
+	if err != nil {
+		a.loadNote = err.Error()
+	}
+	a.stored, a.index = stored, index
+	if _, ok, err := opt.Store.Get(AckKey); err == nil && ok {
+		a.acked = true
+	}
+	return a
+}
+
+// Screen returns the screen shown.
+func (a *App) Screen() Screen { return a.screen }
+
+// Status returns the saving state shown on every screen: "Saved" only once
+// the store has reported the latest write complete.
+func (a *App) Status() string { return a.status }
+
+// Note returns the sentence under the keypad entry ("" when none).
+func (a *App) Note() string { return a.note }
+
+// Session returns the session being set, or nil.
+func (a *App) Session() *session.Session {
+	if a.cur == nil {
+		return nil
+	}
+	return a.cur.Session
+}
+
+// StoredSessions returns every stored session, readable or not.
+func (a *App) StoredSessions() []*Stored { return a.stored }
+
+// Dirty reports whether the screen changed since the last Draw.
+func (a *App) Dirty() bool { return a.dirty }
+
+// Resize sets the screen size in logical units.
+func (a *App) Resize(w, h float64) {
+	if w != a.w || h != a.h {
+		a.w, a.h, a.dirty = w, h, true
+	}
+}
+
+// Update takes in the store's answers; call it once a tick. It reports
+// whether the screen must be drawn again.
+func (a *App) Update() bool {
+	a.mu.Lock()
+	ans := a.answers
+	a.answers = nil
+	a.mu.Unlock()
+	for _, r := range ans {
+		if r.err != nil {
+			a.saveErr = "Not saved: " + r.err.Error() + ". Your entries are still here; export the session file (Menu, Export) to keep a copy."
+		} else if r.seq > a.savedSeq {
+			a.savedSeq = r.seq
+			if r.seq == a.seq {
+				a.saveErr = "" // the latest write holds everything
+			}
+		}
+		a.dirty = true
+	}
+	a.setStatus()
+	return a.dirty
+}
+
+// setStatus words the saving state.
+func (a *App) setStatus() {
+	switch {
+	case a.saveErr != "":
+		a.status = a.saveErr
+	case a.seq == 0:
+		a.status = "Not saved yet"
+	case a.savedSeq == a.seq:
+		a.status = "Saved"
+	default:
+		a.status = "Saving..."
+	}
+}
+
+// save writes the current session through the store as a whole session
+// file.
+func (a *App) save() {
+	if a.cur == nil || a.cur.Session == nil {
+		return
+	}
+	b, err := encodeSession(a.cur.Session)
+	if err != nil {
+		a.saveErr = "Not saved: " + sentence(err)
+		a.setStatus()
+		return
+	}
+	a.cur.Raw = b
+	a.put(a.cur.Key, b)
+}
+
+// put writes one value, counted for the saving state.
+func (a *App) put(key string, b []byte) {
+	if a.opt.Store == nil {
+		a.saveErr = "Not saved: this browser gives the app no storage. Export the session file (Menu, Export) to keep it."
+		a.setStatus()
+		return
+	}
+	a.seq++
+	seq := a.seq
+	a.setStatus()
+	a.opt.Store.Put(key, b, func(err error) {
+		a.mu.Lock()
+		a.answers = append(a.answers, saveResult{seq, err})
+		a.mu.Unlock()
+	})
+}
+
+// addSession stores s under a new key and makes it current.
+func (a *App) addSession(s *session.Session) {
+	used := map[string]bool{}
+	for _, k := range a.index {
+		used[k] = true
+	}
+	n := len(a.index) + 1
+	for used[sessionPrefix+strconv.Itoa(n)] {
+		n++
+	}
+	e := &Stored{Key: sessionPrefix + strconv.Itoa(n), Session: s}
+	a.stored = append(a.stored, e)
+	a.index = append(a.index, e.Key)
+	a.cur = e
+	a.save()
+	idx, _ := json.Marshal(a.index)
+	a.put(IndexKey, idx)
+}
+
+// navigate shows screen s, remembering where Back returns to.
+func (a *App) navigate(s Screen) {
+	if s == a.screen {
+		return
+	}
+	a.stack = append(a.stack, a.screen)
+	a.screen, a.scroll, a.dirty = s, 0, true
+}
+
+// Back moves one step back: the previous field on the keypad, else the
+// previous screen. It returns false when there is nowhere to go back to
+// (the glue then lets the browser leave the app).
+func (a *App) Back() bool {
+	a.dirty = true
+	if (a.screen == Measure || a.screen == Sizes) && a.fi > 0 {
+		a.setField(a.fi - 1)
+		return true
+	}
+	if len(a.stack) == 0 {
+		return false
+	}
+	a.screen = a.stack[len(a.stack)-1]
+	a.stack = a.stack[:len(a.stack)-1]
+	a.scroll = 0
+	if a.screen == Measure || a.screen == Sizes {
+		a.setField(a.fi)
+	}
+	return true
+}
+
+// unit returns the session's display unit.
+func (a *App) unit() session.Unit {
+	if s := a.Session(); s != nil && s.DisplayUnit == session.UnitInch {
+		return session.UnitInch
+	}
+	return session.UnitMM
+}
+
+// unitLabel is the display unit as shown beside an entry.
+func (a *App) unitLabel() string {
+	if a.unit() == session.UnitInch {
+		return "in"
+	}
+	return "mm"
+}
+
+// openSession makes a stored session current and goes where its next
+// entry is: the first reading not yet taken, or the plan.
+func (a *App) openSession(e *Stored) {
+	a.cur = e
+	s := e.Session
+	if len(s.Cylinders[0].Rounds) == 0 {
+		a.navigate(Adjust)
+		return
+	}
+	a.round = len(s.Cylinders[0].Rounds) - 1
+	a.fields = measureFields(s, a.round)
+	for i, f := range a.fields {
+		if _, ok := f.get(s); !ok && !f.Optional {
+			a.fi = i
+			a.navigate(Measure)
+			a.setField(i)
+			return
+		}
+	}
+	a.planRound = 0
+	a.navigate(Plan)
+	a.makePlan()
+}
+
+// startSetUp begins a new session from a demo engine's design.
+func (a *App) startSetUp(spec setting.EngineSpec) {
+	s := newSession(spec, session.UnitMM)
+	a.addSession(s)
+	a.navigate(Units)
+}
+
+// startMeasuring opens round ri's first field, after the cautions when
+// they were never acknowledged.
+func (a *App) startMeasuring() {
+	s := a.Session()
+	if len(s.Cylinders[0].Rounds) == 0 {
+		s.Cylinders[0].Rounds = append(s.Cylinders[0].Rounds, session.Round{Date: a.today()})
+		a.save()
+	}
+	a.round = len(s.Cylinders[0].Rounds) - 1
+	a.fields = measureFields(s, a.round)
+	a.setField(0)
+	if !a.acked {
+		a.after = Measure
+		a.navigate(Cautions)
+		return
+	}
+	a.navigate(Measure)
+}
+
+// today is the date of a new round.
+func (a *App) today() string {
+	now := time.Now
+	if a.opt.Now != nil {
+		now = a.opt.Now
+	}
+	return now().Format("2006-01-02")
+}
+
+// nextRound starts a new round after the plan's changes were made: the
+// changes are recorded as made before it.
+func (a *App) nextRound() {
+	s := a.Session()
+	r := session.Round{Date: a.today()}
+	if a.plan != nil {
+		for _, st := range a.plan.Steps {
+			if st.Amount != 0 {
+				r.AdjustmentsBefore = append(r.AdjustmentsBefore, session.Change{Kind: st.Kind, Eccentric: st.Eccentric, Amount: st.Amount, Note: "as planned"})
+			}
+		}
+	}
+	c := &s.Cylinders[0]
+	c.Rounds = append(c.Rounds, r)
+	a.save()
+	a.round = len(c.Rounds) - 1
+	a.fields = measureFields(s, a.round)
+	a.setField(0)
+	a.navigate(Measure)
+}
+
+// setField makes field i current with nothing typed.
+func (a *App) setField(i int) {
+	if i >= len(a.fields) {
+		i = len(a.fields) - 1
+	}
+	if i < 0 {
+		i = 0
+	}
+	a.fi, a.text, a.typed, a.note = i, "", false, ""
+	a.dirty = true
+}
+
+// key handles one keypad key.
+func (a *App) key(k Key) {
+	a.dirty = true
+	if k == KeyNext {
+		a.commit()
+		return
+	}
+	a.text = press(a.text, k)
+	a.typed = true
+	a.check()
+}
+
+// check judges the typed text as it stands: a sentence when the number
+// is outside the field's plausible range.
+func (a *App) check() {
+	a.note = ""
+	if len(a.fields) == 0 || a.text == "" || strings.HasSuffix(a.text, ".") || a.text == "-" {
+		return
+	}
+	f := a.fields[a.fi]
+	mm, err := session.ParseLength(a.text, a.unit())
+	if err != nil {
+		return
+	}
+	if mm < f.Lo || mm > f.Hi {
+		a.note = fmt.Sprintf("%s: %s %s is unusual here (between %s and %s is usual); check it before Next.", f.Label, a.text, a.unitLabel(),
+			formatNumber(f.Lo, a.unit() == session.UnitInch), formatNumber(f.Hi, a.unit() == session.UnitInch))
+	}
+}
+
+// commit takes the typed text into the session, saves it and moves on.
+func (a *App) commit() {
+	if len(a.fields) == 0 {
+		return
+	}
+	f := a.fields[a.fi]
+	s := a.Session()
+	if !a.typed || a.text == "" {
+		if _, ok := f.get(s); !ok {
+			a.note = f.Label + ": type the value with the keypad, then Next."
+			return
+		}
+		a.advance()
+		return
+	}
+	mm, err := session.ParseLength(a.text, a.unit())
+	if err != nil {
+		a.note = f.Label + ": " + sentence(err)
+		return
+	}
+	f.set(s, mm)
+	a.save()
+	a.warn = ""
+	path := f.Path(s)
+	for _, w := range s.Check() {
+		if strings.HasPrefix(w.Field, path) || strings.HasPrefix(path, w.Field) {
+			a.warn = f.Label + ": " + w.Message
+			break
+		}
+	}
+	a.advance()
+}
+
+// advance goes to the next field, or on from the last one.
+func (a *App) advance() {
+	if a.fi+1 < len(a.fields) {
+		a.setField(a.fi + 1)
+		return
+	}
+	switch a.screen {
+	case Sizes:
+		a.navigate(Adjust)
+	case Measure:
+		a.planRound = 0
+		a.navigate(Plan)
+		a.makePlan()
+	}
+}
+
+// skipStep skips the rest of the current optional step.
+func (a *App) skipStep() {
+	step := a.fields[a.fi].Step
+	i := a.fi
+	for i < len(a.fields) && a.fields[i].Step == step {
+		i++
+	}
+	a.fi = i - 1
+	a.advance()
+}
+
+// makePlan fits and plans the round chosen and builds the diagrams'
+// model, or says why it cannot.
+func (a *App) makePlan() {
+	a.fit, a.plan, a.model, a.planNote = nil, nil, nil, nil
+	a.what = whatIf{}
+	a.diagram, a.position = render.PlanDiagram, 0
+	a.dirty = true
+	s := a.Session()
+	if s == nil {
+		return
+	}
+	for _, p := range s.Readiness(0) {
+		if p.Blocking {
+			a.planNote = append(a.planNote, p.Message)
+		}
+	}
+	if len(a.planNote) > 0 && a.planRound == 0 {
+		return
+	}
+	a.planNote = nil
+	fit, err := plan.FitSession(s, 0, plan.FitOptions{Round: a.planRound})
+	if err != nil {
+		a.planNote = []string{sentence(err)}
+		return
+	}
+	p, err := plan.FromFit(fit, s.Adjustments, plan.Options{Unit: a.unit(), Fit: plan.FitOptions{Round: a.planRound}})
+	if err != nil {
+		a.planNote = []string{sentence(err)}
+		return
+	}
+	m, err := render.NewModel(s, 0, fit, p)
+	if err != nil {
+		a.planNote = []string{sentence(err)}
+		return
+	}
+	a.fit, a.plan, a.model = fit, p, m
+	a.setWhatStep(0)
+}
+
+// PlanText returns the plan in words, as plain text (for the page's live
+// region and for copying), or why there is no plan; "" off the plan.
+func (a *App) PlanText() string {
+	if a.plan == nil {
+		return strings.Join(a.planNote, "\n")
+	}
+	var b strings.Builder
+	if err := plan.WriteText(&b, a.plan, a.unit()); err != nil {
+		return sentence(err)
+	}
+	return b.String()
+}
+
+// ExportJSON returns the current session as a session file, the same
+// JSON the command line reads.
+func (a *App) ExportJSON() ([]byte, error) {
+	if a.cur == nil {
+		return nil, fmt.Errorf("There is no session open to export.")
+	}
+	if a.cur.Session == nil {
+		return a.cur.Raw, nil // kept as stored
+	}
+	return encodeSession(a.cur.Session)
+}
+
+// exportName is the file name offered for an export.
+func (a *App) exportName() string {
+	name := "session"
+	if s := a.Session(); s != nil && s.Name != "" {
+		name = strings.Map(func(r rune) rune {
+			if r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9' {
+				return r
+			}
+			return '-'
+		}, s.Name)
+	}
+	return name + ".json"
+}
+
+// export hands the current session to the glue's OnExport.
+func (a *App) export() {
+	b, err := a.ExportJSON()
+	if err != nil {
+		a.importErr = err.Error()
+		return
+	}
+	if a.opt.OnExport != nil {
+		a.opt.OnExport(a.exportName(), b)
+	}
+}
+
+// Import reads a session file the user chose: decoded and validated, it
+// is stored as a new session and opened; otherwise the sentence naming
+// the field at fault is shown on the engines list and returned.
+func (a *App) Import(b []byte) error {
+	a.dirty = true
+	s, err := decodeSession(b)
+	if err != nil {
+		a.importErr = "The file cannot be imported: " + err.Error()
+		if a.screen != Engines {
+			a.navigate(Engines)
+		}
+		return fmt.Errorf("%s", a.importErr)
+	}
+	a.importErr = ""
+	a.addSession(s)
+	a.openSession(a.cur)
+	return nil
+}
+
+// setWhatStep chooses the plan step the what-if changes.
+func (a *App) setWhatStep(i int) {
+	a.what = whatIf{}
+	if a.plan == nil || len(a.plan.Steps) == 0 {
+		return
+	}
+	i %= len(a.plan.Steps)
+	st := a.plan.Steps[i]
+	a.what.step, a.what.amount = i, st.Amount
+	a.what.lo, a.what.hi = -1, 1
+	for _, adj := range a.Session().Adjustments {
+		if adj.Kind == st.Kind && adj.Eccentric == st.Eccentric {
+			a.what.lo, a.what.hi = adj.Min, adj.Max
+		}
+	}
+}
+
+// SetWhatIf sets the what-if amount of plan step i (mm, or degrees for
+// angular steps, signed as the step) and rebuilds the model after it.
+// Amounts are held within the adjustment's limits.
+func (a *App) SetWhatIf(i int, amount float64) error {
+	if a.plan == nil || i < 0 || i >= len(a.plan.Steps) {
+		return fmt.Errorf("There is no plan step %d to change.", i+1)
+	}
+	if i != a.what.step {
+		a.setWhatStep(i)
+	}
+	amount = max(a.what.lo, min(a.what.hi, amount))
+	p := *a.plan
+	p.Steps = append([]plan.Step(nil), a.plan.Steps...)
+	p.Steps[i].Amount = amount
+	m, err := render.NewModel(a.Session(), 0, a.fit, &p)
+	if err != nil {
+		return err
+	}
+	a.what.amount, a.what.model = amount, m
+	a.dirty = true
+	return nil
+}
+
+// shownModel is the model the plan screen draws: the what-if's when there
+// is one.
+func (a *App) shownModel() *render.Model {
+	if a.what.model != nil {
+		return a.what.model
+	}
+	return a.model
+}

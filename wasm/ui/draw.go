@@ -1,0 +1,127 @@
+package ui
+
+import (
+	"image/color"
+
+	"evenbeat/render"
+	"evenbeat/setting/session"
+)
+
+// Draw draws the screen shown on c; it only draws.
+func (a *App) Draw(c render.Canvas) {
+	a.dirty = false
+	th := a.theme
+	v := a.layout()
+	c.Fill(render.RectPath(rect(0, 0, a.w, a.h)), render.FillStyle{Color: th.Background})
+	switch a.screen {
+	case Cautions:
+		render.Cautions(c, v.body, th)
+	case Plan:
+		if m := a.shownModel(); m != nil {
+			render.DrawScreen(c, m, a.renderScreen(), v.body, th)
+		}
+	}
+	for _, p := range v.paras {
+		col := th.Ink
+		if p.warn {
+			col = th.Warn
+		} else if p.muted {
+			col = th.Muted
+		}
+		st := render.TextStyle{Color: col, Size: p.size, Bold: p.bold, VAlign: render.Top}
+		for i, line := range p.lines {
+			c.Text(render.Point{X: p.at.X, Y: p.at.Y + float64(i)*p.size*render.LineHeight}, line, st)
+		}
+	}
+	if v.entry.W() > 0 {
+		a.drawEntry(c, v.entry)
+	}
+	if v.slider.W() > 0 {
+		a.drawSlider(c, v.slider)
+	}
+	// The top bar last, over anything scrolled under it.
+	c.Fill(render.RectPath(rect(0, 0, a.w, barH+margin)), render.FillStyle{Color: th.Background})
+	c.Text(render.Point{X: a.w / 2, Y: margin/2 + barH/2}, a.status, render.TextStyle{Color: a.statusColour(), Size: render.BodySize, HAlign: render.Center, VAlign: render.Middle})
+	for _, t := range v.targets {
+		if t.Label == render.AckLabel && a.screen == Cautions {
+			continue // drawn by the card
+		}
+		if t.On {
+			render.Button(c, t.Rect, "* "+t.Label, th)
+			continue
+		}
+		a.drawPlain(c, t)
+	}
+}
+
+// drawPlain draws a target as a framed button on the card colour, so the
+// chosen option (filled) stands out.
+func (a *App) drawPlain(c render.Canvas, t Target) {
+	th := a.theme
+	c.Fill(render.RoundRect(t.Rect, 10), render.FillStyle{Color: th.Surface})
+	c.Stroke(render.RoundRect(t.Rect, 10), render.LineStyle{Color: th.Grid, Width: 1.5})
+	size := float64(render.ButtonSize)
+	label := t.Label
+	for size > render.BodySize && render.TextWidth(label, size, true) > t.Rect.W()-16 {
+		size--
+	}
+	for len(label) > 4 && render.TextWidth(label, size, true) > t.Rect.W()-16 {
+		label = label[:len(label)-4] + "..."
+	}
+	c.Text(render.Point{X: (t.Rect.Min.X + t.Rect.Max.X) / 2, Y: (t.Rect.Min.Y + t.Rect.Max.Y) / 2}, label,
+		render.TextStyle{Color: th.Ink, Size: size, Bold: true, HAlign: render.Center, VAlign: render.Middle})
+}
+
+// statusColour is the saving state's colour: a failure in the warning
+// colour.
+func (a *App) statusColour() color.RGBA {
+	if a.saveErr != "" {
+		return a.theme.Warn
+	}
+	return a.theme.Muted
+}
+
+// drawEntry draws the typed entry, or the value kept when nothing is
+// typed.
+func (a *App) drawEntry(c render.Canvas, r render.Rect) {
+	th := a.theme
+	c.Fill(render.RoundRect(r, 8), render.FillStyle{Color: th.Surface})
+	c.Stroke(render.RoundRect(r, 8), render.LineStyle{Color: th.Accent, Width: 2})
+	text, col := a.text, th.Ink
+	if !a.typed || a.text == "" {
+		f := a.fields[a.fi]
+		if v, ok := f.get(a.Session()); ok {
+			text, col = formatNumber(v, a.unit() == session.UnitInch), th.Muted
+		} else {
+			text, col = "", th.Muted
+		}
+	}
+	mid := (r.Min.Y + r.Max.Y) / 2
+	c.Text(render.Point{X: r.Max.X - 16, Y: mid}, a.unitLabel(), render.TextStyle{Color: th.Muted, Size: 18, HAlign: render.Right, VAlign: render.Middle})
+	c.Text(render.Point{X: r.Min.X + 16, Y: mid}, text, render.TextStyle{Color: col, Size: 30, Bold: true, VAlign: render.Middle})
+}
+
+// drawSlider draws the what-if track with the amount's knob and the
+// plan's amount marked.
+func (a *App) drawSlider(c render.Canvas, r render.Rect) {
+	th := a.theme
+	mid := (r.Min.Y + r.Max.Y) / 2
+	var track render.Path
+	track.MoveTo(render.Point{X: r.Min.X, Y: mid})
+	track.LineTo(render.Point{X: r.Max.X, Y: mid})
+	c.Stroke(track, render.LineStyle{Color: th.Grid, Width: 6})
+	at := func(v float64) float64 {
+		if a.what.hi <= a.what.lo {
+			return (r.Min.X + r.Max.X) / 2
+		}
+		return r.Min.X + (v-a.what.lo)/(a.what.hi-a.what.lo)*r.W()
+	}
+	if a.plan != nil && len(a.plan.Steps) > 0 {
+		x := at(a.plan.Steps[a.what.step].Amount)
+		var tick render.Path
+		tick.MoveTo(render.Point{X: x, Y: r.Min.Y + 8})
+		tick.LineTo(render.Point{X: x, Y: r.Max.Y - 8})
+		c.Stroke(tick, render.LineStyle{Color: th.Muted, Width: 2})
+	}
+	c.Fill(render.Circle(render.Point{X: at(a.what.amount), Y: mid}, 16), render.FillStyle{Color: th.Accent})
+}

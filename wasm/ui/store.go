@@ -1,0 +1,120 @@
+package ui
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"strings"
+
+	"evenbeat/setting"
+	"evenbeat/setting/session"
+)
+
+// Store keeps the app's data: session files and a little state, by key.
+// The browser glue implements it with IndexedDB in strict-durability
+// transactions; tests with a map.
+type Store interface {
+	// Get returns the value of key; ok is false when it was never stored.
+	// It may block (the app calls it only when starting).
+	Get(key string) (value []byte, ok bool, err error)
+	// Put writes key = value and calls done once, with nil only when the
+	// value is durably stored, or with the reason it is not. done may be
+	// called before Put returns or later, from another goroutine.
+	Put(key string, value []byte, done func(error))
+}
+
+// Store keys.
+const (
+	// IndexKey holds the JSON list of the keys of every stored session.
+	IndexKey = "sessions"
+	// AckKey is present once the cautions were acknowledged.
+	AckKey = "cautions_acknowledged"
+	// sessionPrefix starts each session's key.
+	sessionPrefix = "session/"
+)
+
+// Stored is one session as the store holds it. A session that cannot be
+// read (a newer version, a damaged file) keeps its raw bytes and the
+// reason, so it can be exported and is never overwritten.
+type Stored struct {
+	Key     string
+	Session *session.Session // nil when Err is set
+	Raw     []byte           // the bytes as stored
+	Err     string           // why it could not be read, a sentence
+}
+
+// saveResult is a store's answer to one write.
+type saveResult struct {
+	seq int
+	err error
+}
+
+// encodeSession returns the session file of s.
+func encodeSession(s *session.Session) ([]byte, error) {
+	var b bytes.Buffer
+	if err := session.Encode(&b, s); err != nil {
+		return nil, err
+	}
+	return b.Bytes(), nil
+}
+
+// decodeSession reads a session file: the session, or a sentence naming
+// the field at fault.
+func decodeSession(b []byte) (*session.Session, error) {
+	s, err := session.Decode(bytes.NewReader(b))
+	if err != nil {
+		return nil, errors.New(sentence(err))
+	}
+	if len(s.Cylinders) == 0 {
+		return nil, errors.New("cylinders: the file has no cylinder to set; add one with its name.")
+	}
+	return s, nil
+}
+
+// sentence turns an error into what the user reads: a setting.Error's
+// field and sentence, or the error's text.
+func sentence(err error) string {
+	var se *setting.Error
+	if errors.As(err, &se) {
+		if se.Field == "" || strings.Contains(se.Message, se.Field) {
+			return se.Message
+		}
+		return se.Field + ": " + se.Message
+	}
+	return err.Error()
+}
+
+// loadAll reads every stored session listed in the index.
+func loadAll(st Store) ([]*Stored, []string, error) {
+	raw, ok, err := st.Get(IndexKey)
+	if err != nil {
+		return nil, nil, fmt.Errorf("The list of saved engines could not be read (%v); nothing was changed.", err)
+	}
+	if !ok {
+		return nil, nil, nil
+	}
+	var keys []string
+	if err := json.Unmarshal(raw, &keys); err != nil {
+		return nil, nil, fmt.Errorf("The list of saved engines is damaged (%v); nothing was changed.", err)
+	}
+	var out []*Stored
+	for _, k := range keys {
+		b, ok, err := st.Get(k)
+		switch {
+		case err != nil:
+			out = append(out, &Stored{Key: k, Err: "This engine could not be read from the browser's storage: " + err.Error()})
+		case !ok:
+			continue // listed before its first write completed
+		default:
+			e := &Stored{Key: k, Raw: b}
+			if s, err := decodeSession(b); err != nil {
+				e.Err = "This saved engine cannot be opened: " + err.Error() + " Export it to keep it; it is left as it is."
+			} else {
+				e.Session = s
+			}
+			out = append(out, e)
+		}
+	}
+	return out, keys, nil
+}

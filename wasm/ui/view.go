@@ -1,0 +1,540 @@
+package ui
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"evenbeat/render"
+	"evenbeat/setting"
+	"evenbeat/setting/session"
+)
+
+// Screen layout sizes, logical units.
+const (
+	margin  = 12                // screen edge to content
+	barH    = render.HitMin     // the top bar: Back, status, Menu
+	rowH    = render.HitMin + 4 // a list row or a button in a row
+	gap     = 8                 // between rows
+	entryH  = 64                // the typed entry's box
+	sliderH = 56                // the what-if slider's band
+)
+
+// Target is one touch target of the screen shown: its words and where it
+// is, for the glue's accessibility mirror and for tests.
+type Target struct {
+	Label string
+	Rect  render.Rect
+	On    bool // a chosen option of a group
+	act   func()
+}
+
+// view is what one screen shows, laid out.
+type view struct {
+	title   string
+	paras   []para
+	targets []Target
+	keypad  []KeyRect
+	entry   render.Rect // the typed entry's box (keypad screens)
+	body    render.Rect // the diagram's box (plan, cautions)
+	slider  render.Rect // the what-if track (plan, balance)
+	bottom  float64     // the lowest y of the content, for scrolling
+}
+
+// para is a paragraph of the screen's text.
+type para struct {
+	lines []string
+	at    render.Point
+	size  float64
+	bold  bool
+	warn  bool
+	muted bool
+}
+
+// layout lays out the current screen. Handle and Draw both use it, so a
+// tap lands on what is drawn.
+func (a *App) layout() *view {
+	v := &view{}
+	lay := &layouter{a: a, v: v, x: margin, w: a.w - 2*margin, y: barH + 2*margin}
+	if len(a.stack) > 0 {
+		v.targets = append(v.targets, Target{Label: "Back", Rect: rect(margin, margin/2, 80, barH), act: func() { a.Back() }})
+	}
+	if a.screen != Menu {
+		v.targets = append(v.targets, Target{Label: "Menu", Rect: rect(a.w-margin-80, margin/2, 80, barH), act: func() { a.navigate(Menu) }})
+	}
+	switch a.screen {
+	case Engines:
+		a.enginesView(lay)
+	case Gear:
+		lay.title("New engine: which valve gear?")
+		lay.text("Choose the gear first: the dimensions asked next depend on it. Each starts from an invented demo engine's dimensions, which you then change to your own.", false)
+		for _, spec := range setting.DemoEngines() {
+			lay.button(gearName(spec.Gear.Kind), false, func() { a.startSetUp(spec) })
+		}
+	case Units:
+		a.unitsView(lay)
+	case Sizes, Measure:
+		a.keypadView(lay)
+	case Adjust:
+		a.adjustView(lay)
+	case Cautions:
+		v.body = render.Rect{Min: render.Point{X: margin, Y: lay.y}, Max: render.Point{X: a.w - margin, Y: a.h - margin}}
+		if !render.LayoutCautions(v.body, setting.Cautions()).Fits {
+			v.body.Max.Y = v.body.Min.Y + render.CautionsHeight(v.body.W())
+		}
+		lay.y = v.body.Max.Y
+		ack := render.LayoutCautions(v.body, setting.Cautions()).Ack
+		v.targets = append(v.targets, Target{Label: render.AckLabel, Rect: ack, act: a.acknowledge})
+	case Readings:
+		a.readingsView(lay)
+	case Plan:
+		a.planView(lay)
+	case History:
+		a.historyView(lay)
+	case Menu:
+		a.menuView(lay)
+	}
+	v.bottom = lay.y
+	a.scrolled(v)
+	return v
+}
+
+// scrolled moves the content (not the top bar) up by the scroll.
+func (a *App) scrolled(v *view) {
+	maxS := math.Max(0, v.bottom+margin-a.h)
+	if v.keypad != nil || a.screen == Plan {
+		maxS = 0 // fitted to the screen
+	}
+	a.scroll = math.Max(0, math.Min(a.scroll, maxS))
+	if a.scroll == 0 {
+		return
+	}
+	dy := -a.scroll
+	for i := range v.paras {
+		v.paras[i].at.Y += dy
+	}
+	for i := range v.targets {
+		if v.targets[i].Rect.Min.Y >= barH+margin/2 {
+			v.targets[i].Rect = shift(v.targets[i].Rect, dy)
+		}
+	}
+	v.body = shift(v.body, dy)
+}
+
+// layouter stacks a screen's parts down the page.
+type layouter struct {
+	a    *App
+	v    *view
+	x, w float64
+	y    float64
+}
+
+// rect returns the box at (x, y) of size w by h.
+func rect(x, y, w, h float64) render.Rect {
+	return render.Rect{Min: render.Point{X: x, Y: y}, Max: render.Point{X: x + w, Y: y + h}}
+}
+
+// shift moves r down by dy.
+func shift(r render.Rect, dy float64) render.Rect {
+	r.Min.Y += dy
+	r.Max.Y += dy
+	return r
+}
+
+func (l *layouter) title(t string) {
+	l.v.title = t
+	l.para(t, render.TitleSize, true, false, false)
+}
+
+func (l *layouter) text(t string, warn bool) {
+	l.para(t, render.BodySize+2, false, warn, false)
+}
+
+func (l *layouter) muted(t string) {
+	l.para(t, render.BodySize, false, false, true)
+}
+
+func (l *layouter) para(t string, size float64, bold, warn, muted bool) {
+	if t == "" {
+		return
+	}
+	lines := render.Wrap(t, l.w, size, bold)
+	l.v.paras = append(l.v.paras, para{lines: lines, at: render.Point{X: l.x, Y: l.y}, size: size, bold: bold, warn: warn, muted: muted})
+	l.y += float64(len(lines))*size*render.LineHeight + gap
+}
+
+// button adds a full-width row.
+func (l *layouter) button(label string, on bool, act func()) {
+	l.row([]string{label}, []bool{on}, []func(){act})
+}
+
+// row adds buttons side by side sharing the width.
+func (l *layouter) row(labels []string, on []bool, acts []func()) {
+	n := float64(len(labels))
+	w := (l.w - (n-1)*gap) / n
+	for i, lab := range labels {
+		l.v.targets = append(l.v.targets, Target{Label: lab, Rect: rect(l.x+float64(i)*(w+gap), l.y, w, rowH), On: on[i], act: acts[i]})
+	}
+	l.y += rowH + gap
+}
+
+// gearName names a gear kind for the user.
+func gearName(kind string) string {
+	switch kind {
+	case setting.KindStephenson:
+		return "Stephenson link motion"
+	case setting.KindWalschaerts:
+		return "Walschaerts gear"
+	case setting.KindSingleEccentric:
+		return "Single (slip) eccentric"
+	}
+	return kind
+}
+
+func (a *App) enginesView(l *layouter) {
+	l.title("Engines")
+	l.text(a.loadNote, true)
+	l.text(a.importErr, true)
+	for _, e := range a.stored {
+		e := e
+		if e.Session == nil {
+			l.text(e.Err, true)
+			l.button("Export the unreadable "+e.Key, false, func() {
+				if a.opt.OnExport != nil {
+					a.opt.OnExport(strings.ReplaceAll(e.Key, "/", "-")+".json", e.Raw)
+				}
+			})
+			continue
+		}
+		n := len(e.Session.Cylinders[0].Rounds)
+		label := fmt.Sprintf("%s, %d round", e.Session.Name, n)
+		if n != 1 {
+			label += "s"
+		}
+		l.button(label, false, func() { a.openSession(e) })
+	}
+	l.muted("Start from an invented demo engine (made up, not a real locomotive), or set up your own:")
+	for _, spec := range setting.DemoEngines() {
+		spec := spec
+		l.button(spec.Name+" (invented demo)", false, func() { a.startSetUp(spec) })
+	}
+	l.button("New engine", false, func() { a.navigate(Gear) })
+	if a.opt.OnImport != nil {
+		l.button("Import a session file", false, a.opt.OnImport)
+	}
+}
+
+func (a *App) unitsView(l *layouter) {
+	s := a.Session()
+	l.title("Units and dial gauge")
+	l.text("How do you read lengths? Numbers you type are in this unit; the file keeps mm.", false)
+	set := func(u session.Unit) func() {
+		return func() { s.DisplayUnit = u; a.save(); a.dirty = true }
+	}
+	l.row([]string{"mm", "inch"}, []bool{s.DisplayUnit != session.UnitInch, s.DisplayUnit == session.UnitInch}, []func(){set(session.UnitMM), set(session.UnitInch)})
+	l.text("The smallest division of your dial gauge:", false)
+	res := []float64{0.01, 0.02, 0.0254, 0.0127}
+	labels := []string{"0.01 mm", "0.02 mm", "0.001 in", "0.0005 in"}
+	on := make([]bool, len(res))
+	acts := make([]func(), len(res))
+	for i, r := range res {
+		on[i] = s.Measuring.GaugeResolutionMM == r
+		acts[i] = func() { s.Measuring.GaugeResolutionMM = r; a.save(); a.dirty = true }
+	}
+	l.row(labels[:2], on[:2], acts[:2])
+	l.row(labels[2:], on[2:], acts[2:])
+	l.button("Next", false, func() {
+		a.fields = dimensionFields()
+		a.setField(0)
+		a.navigate(Sizes)
+	})
+}
+
+func (a *App) adjustView(l *layouter) {
+	s := a.Session()
+	l.title("What can you adjust on this engine?")
+	l.text("Tap to turn each on or off. The plan only changes what is on.", false)
+	for _, adj := range defaultAdjustments(s.Engine.Gear.Kind) {
+		adj := adj
+		i := findAdjustment(s.Adjustments, adj)
+		l.button(adjustmentName(adj), i >= 0, func() {
+			if j := findAdjustment(s.Adjustments, adj); j >= 0 {
+				s.Adjustments = append(s.Adjustments[:j:j], s.Adjustments[j+1:]...)
+			} else {
+				s.Adjustments = append(s.Adjustments, adj)
+			}
+			a.save()
+			a.dirty = true
+		})
+	}
+	l.button("Next: start measuring", false, a.startMeasuring)
+}
+
+// findAdjustment returns the index of the adjustment of adj's kind and
+// eccentric in list, or -1.
+func findAdjustment(list []session.Adjustment, adj session.Adjustment) int {
+	for i, b := range list {
+		if b.Kind == adj.Kind && b.Eccentric == adj.Eccentric {
+			return i
+		}
+	}
+	return -1
+}
+
+func (a *App) keypadView(l *layouter) {
+	if len(a.fields) == 0 {
+		return
+	}
+	f := a.fields[a.fi]
+	s := a.Session()
+	head := f.Step
+	if a.screen == Measure {
+		head = fmt.Sprintf("Round %d: %s", a.round+1, f.Step)
+	}
+	l.title(head)
+	l.text(f.Say, false)
+	l.para(fmt.Sprintf("%s (%d of %d)", f.Label, a.fi+1, len(a.fields)), render.BodySize+2, true, false, false)
+	l.v.entry = rect(l.x, l.y, l.w, entryH)
+	l.y += entryH + gap
+	note := a.note
+	if note == "" && a.warn != "" {
+		note = "Check the last entry: " + a.warn
+	}
+	l.para(note, render.BodySize, false, true, false)
+	if a.screen == Measure {
+		labels := []string{"All readings"}
+		acts := []func(){func() { a.navigate(Readings) }}
+		if f.Optional {
+			labels = append(labels, "Skip")
+			acts = append(acts, a.skipStep)
+		}
+		if len(s.Readiness(0)) == 0 || !hasBlocking(s.Readiness(0)) {
+			labels = append(labels, "Plan")
+			acts = append(acts, func() { a.planRound = 0; a.navigate(Plan); a.makePlan() })
+		}
+		l.row(labels, make([]bool, len(labels)), acts)
+	}
+	l.v.keypad = LayoutKeypad(render.Rect{Min: render.Point{X: margin, Y: margin}, Max: render.Point{X: a.w - margin, Y: a.h - margin}})
+	for _, k := range l.v.keypad {
+		k := k
+		l.v.targets = append(l.v.targets, Target{Label: k.Key.Label(), Rect: k.Rect, act: func() { a.key(k.Key) }})
+	}
+}
+
+// hasBlocking reports whether any problem stops a plan.
+func hasBlocking(ps []session.Problem) bool {
+	for _, p := range ps {
+		if p.Blocking {
+			return true
+		}
+	}
+	return false
+}
+
+func (a *App) readingsView(l *layouter) {
+	s := a.Session()
+	l.title(fmt.Sprintf("Round %d: every reading", a.round+1))
+	l.muted("Tap a reading to type it again.")
+	inch := a.unit() == session.UnitInch
+	for i, f := range a.fields {
+		i := i
+		val := "not taken"
+		if v, ok := f.get(s); ok {
+			val = formatNumber(v, inch) + " " + a.unitLabel()
+		}
+		l.button(f.Label+": "+val, false, func() {
+			a.setField(i)
+			a.navigate(Measure)
+		})
+	}
+}
+
+func (a *App) historyView(l *layouter) {
+	s := a.Session()
+	l.title("Rounds")
+	if s == nil {
+		return
+	}
+	leads, _ := s.Leads(0)
+	for ri, r := range s.Cylinders[0].Rounds {
+		ri := ri
+		var ws []string
+		for _, ld := range leads {
+			if ld.Round == ri && ld.Notch == session.FullForward {
+				ws = append(ws, fmt.Sprintf("%s lead %s", ld.End, session.FormatLength(ld.LeadMM, a.unit())))
+			}
+		}
+		label := fmt.Sprintf("Round %d, %s", ri+1, r.Date)
+		if len(ws) > 0 {
+			label += ": " + strings.Join(ws, ", ")
+		}
+		l.button(label, false, func() {
+			a.planRound = ri + 1
+			a.navigate(Plan)
+			a.makePlan()
+		})
+	}
+}
+
+func (a *App) menuView(l *layouter) {
+	l.title("Menu")
+	l.button("Engines", false, func() { a.navigate(Engines) })
+	l.button("Cautions", false, func() { a.after = 0; a.navigate(Cautions) })
+	if a.Session() != nil {
+		l.button("All readings", false, func() {
+			if a.fields == nil || a.screen == Sizes {
+				a.round = len(a.Session().Cylinders[0].Rounds) - 1
+				if a.round < 0 {
+					return
+				}
+				a.fields = measureFields(a.Session(), a.round)
+			}
+			a.navigate(Readings)
+		})
+		l.button("Plan", false, func() { a.planRound = 0; a.navigate(Plan); a.makePlan() })
+		l.button("History of rounds", false, func() { a.navigate(History) })
+		l.button("Export the session file", false, a.export)
+	}
+	if a.opt.OnImport != nil {
+		l.button("Import a session file", false, a.opt.OnImport)
+	}
+	l.text(a.importErr, true)
+}
+
+// acknowledge records the cautions as read and goes on.
+func (a *App) acknowledge() {
+	if !a.acked {
+		a.acked = true
+		a.put(AckKey, []byte("true"))
+	}
+	if a.after == Measure {
+		a.after = 0
+		a.screen = Measure // the cautions are not a step to go back to
+		a.dirty = true
+		return
+	}
+	a.Back()
+}
+
+// planTabNames name the plan screen's tabs, one per diagram of planTabs.
+func planTabNames() [4]string { return [4]string{"Steps", "Balance", "Curve", "Motion"} }
+
+// planTabs are the plan screen's diagrams.
+func planTabs() [4]render.Diagram {
+	return [4]render.Diagram{render.PlanDiagram, render.BalanceDiagram, render.ValveCurveDiagram, render.MotionDiagram}
+}
+
+func (a *App) planView(l *layouter) {
+	if a.model == nil {
+		l.title("Plan")
+		if len(a.planNote) == 0 {
+			l.text("No plan yet: take the readings first.", false)
+		}
+		for _, n := range a.planNote {
+			l.text(n, true)
+		}
+		l.button("All readings", false, func() { a.navigate(Readings) })
+		return
+	}
+	names := planTabNames()
+	labels := names[:]
+	on := make([]bool, len(labels))
+	acts := make([]func(), len(labels))
+	for i, d := range planTabs() {
+		d := d
+		on[i] = a.diagram == d
+		acts[i] = func() { a.diagram = d; a.dirty = true }
+	}
+	l.row(labels, on, acts)
+	bottom := a.h - margin - rowH
+	if a.diagram == render.BalanceDiagram && len(a.plan.Steps) > 0 {
+		st := a.plan.Steps[a.what.step]
+		l.button(fmt.Sprintf("What if: %s %s", st.Part, a.whatAmountText()), false, func() {
+			a.setWhatStep(a.what.step + 1)
+			a.dirty = true
+		})
+		l.v.slider = rect(l.x, l.y, l.w, sliderH)
+		l.y += sliderH + gap
+	}
+	l.v.body = render.Rect{Min: render.Point{X: margin, Y: l.y}, Max: render.Point{X: a.w - margin, Y: bottom - gap}}
+	y := l.y
+	l.y = bottom
+	l.row([]string{"Next round", "Rounds"}, []bool{false, false}, []func(){a.nextRound, func() { a.navigate(History) }})
+	l.y = math.Max(l.y, y)
+}
+
+// whatAmountText is the what-if amount in the step's unit.
+func (a *App) whatAmountText() string {
+	st := a.plan.Steps[a.what.step]
+	if st.Unit == "deg" {
+		return fmt.Sprintf("%+.2f deg", a.what.amount)
+	}
+	return "by " + session.FormatLength(a.what.amount, a.unit())
+}
+
+// Targets returns the touch targets of the screen shown, in drawing
+// order: for the glue's accessibility mirror and for tests.
+func (a *App) Targets() []Target {
+	v := a.layout()
+	if a.screen == Plan && a.model != nil {
+		hits := render.LayoutScreen(a.shownModel(), a.renderScreen(), v.body)
+		for i, r := range hits.Positions {
+			v.targets = append(v.targets, Target{Label: a.model.PositionNames()[i], Rect: r})
+		}
+	}
+	return v.targets
+}
+
+// renderScreen is what the plan screen's diagram shows.
+func (a *App) renderScreen() render.Screen {
+	return render.Screen{Diagram: a.diagram, Position: a.position, CrankDeg: a.crankDeg}
+}
+
+// Handle acts on one intent.
+func (a *App) Handle(in Intent) {
+	v := a.layout()
+	switch in.Kind {
+	case Confirm:
+		switch a.screen {
+		case Sizes, Measure:
+			a.key(KeyNext)
+		case Cautions:
+			a.acknowledge()
+		}
+	case Drag:
+		a.dirty = true
+		if a.screen == Plan && v.slider.Inset(-gap).Contains(in.At) && v.slider.W() > 0 {
+			t := (in.At.X - v.slider.Min.X) / v.slider.W()
+			_ = a.SetWhatIf(a.what.step, a.what.lo+math.Max(0, math.Min(1, t))*(a.what.hi-a.what.lo))
+			return
+		}
+		if a.screen == Plan && a.diagram == render.MotionDiagram {
+			a.crankDeg = math.Mod(a.crankDeg+in.Delta.X+360, 360)
+			return
+		}
+		a.scroll -= in.Delta.Y
+	case Tap:
+		for i := len(v.targets) - 1; i >= 0; i-- { // the top bar is drawn last
+			t := v.targets[i]
+			if t.act != nil && t.Rect.Contains(in.At) {
+				a.dirty = true
+				t.act()
+				return
+			}
+		}
+		if a.screen == Plan && a.model != nil {
+			hits := render.LayoutScreen(a.shownModel(), a.renderScreen(), v.body)
+			for i, r := range hits.Positions {
+				if r.Contains(in.At) {
+					a.position, a.dirty = i, true
+				}
+			}
+			for i, r := range hits.Steps {
+				if r.Contains(in.At) {
+					a.setWhatStep(i)
+					a.diagram, a.dirty = render.BalanceDiagram, true
+				}
+			}
+		}
+	}
+}

@@ -17,7 +17,10 @@ type goal struct {
 	prio    Priority
 	running int
 	tol     []float64 // per position: measurement uncertainty of its difference (mm or %)
-	slack   float64
+	// slack is how much closer a plan of more steps must come to be
+	// preferred (what the setter can measure); fine how much closer a
+	// rounding of as many steps must come (half a gauge division).
+	slack, fine float64
 }
 
 // diff returns a position's front-minus-back difference the goal
@@ -89,16 +92,28 @@ func (ev *evaluator) weighing(obj *objective, qNow []quantities, fit *Fit) goal 
 			g.tol[i] = math.Max(cutTolPct, sc)
 		}
 	}
-	// Two plans within half a gauge division (the reading's own
-	// rounding) of one another, or half the cut-off tolerance, are alike
-	// to the setter.
+	// A plan of more steps is preferred only when it comes closer by
+	// more than the setter can measure: two gauge divisions (a lead
+	// difference is read from four gauge readings) or the cut-off
+	// tolerance, or the uncertainty of the differences in the positions
+	// the readings pin down, whichever is larger. Roundings with as many
+	// steps are told apart to half a division.
+	known := 0.0
+	for i, tl := range g.tol {
+		if g.prio == EqualCutOffs && i != g.running {
+			continue
+		}
+		if tl <= leadUnknownMM*k || g.prio == EqualCutOffs && tl <= cutUnknownPct {
+			known = math.Max(known, tl)
+		}
+	}
 	switch g.prio {
 	case EqualCutOffs:
-		g.slack = cutTolPct / 2 / 0.1
+		g.slack, g.fine = math.Max(cutTolPct, known)/0.1, cutTolPct/2/0.1
 	case Balanced:
-		g.slack = res / 2 / 0.05
+		g.slack, g.fine = math.Max(2*res, known)/0.05, res/2/0.05
 	default:
-		g.slack = res / 2 / 0.01
+		g.slack, g.fine = math.Max(2*res, known)/0.01, res/2/0.01
 	}
 	return g
 }
@@ -271,7 +286,9 @@ type candidate struct {
 	effort  float64
 	measure float64
 	worse   bool
-	tier    int
+	tier    int     // rank group (see rankPlans)
+	bar     float64 // the measure its rank promised
+	from    int     // where a judged candidate's curves are kept
 }
 
 // linearAt returns the quantities after changes a, linear in the changes
@@ -469,63 +486,7 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 		})
 	}
 	rank := func() {
-		best := math.Inf(1)
-		for _, c := range cands {
-			if !c.worse && c.measure < best {
-				best = c.measure
-			}
-		}
-		// Tiers: the closest rounding of each set of knobs within the
-		// slack of the best; other roundings within it; the rest by how
-		// close they come; plans that leave something worse last.
-		setOf := func(a []float64) string {
-			b := make([]byte, len(a))
-			for k, v := range a {
-				b[k] = '0'
-				if v != 0 {
-					b[k] = '1'
-				}
-			}
-			return string(b)
-		}
-		lead := map[string]int{}
-		for i, c := range cands {
-			if c.worse || c.measure > best+g.slack {
-				continue
-			}
-			if j, ok := lead[setOf(c.a)]; !ok || c.measure < cands[j].measure {
-				lead[setOf(c.a)] = i
-			}
-		}
-		for i := range cands {
-			c := &cands[i]
-			switch {
-			case c.worse:
-				c.tier = 3
-			case c.measure > best+g.slack:
-				c.tier = 2
-			case lead[setOf(c.a)] == i:
-				c.tier = 0
-			default:
-				c.tier = 1
-			}
-		}
-		sort.SliceStable(cands, func(i, j int) bool {
-			a, b := cands[i], cands[j]
-			if a.tier != b.tier {
-				return a.tier < b.tier
-			}
-			if a.tier >= 2 {
-				return a.measure < b.measure
-			}
-			if a.steps != b.steps {
-				return a.steps < b.steps
-			}
-			if math.Abs(a.effort-b.effort) > 1e-9 {
-				return a.effort < b.effort
-			}
-			return a.measure < b.measure
-		})
+		rankPlans(cands, g)
 		for i, c := range cands {
 			pos[keyOf(c.a)] = i
 		}
@@ -638,22 +599,12 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 	rank()
 	// The favourites judged on the linkage solved afresh with their
 	// rounded changes: the first that holds up (not worse, and as close
-	// as expected) is taken; when none does, the best of those judged by
-	// the same rules.
-	type exact struct {
-		c  candidate
-		q  []quantities
-		cs []curve
-	}
-	est := math.Inf(1)
+	// as its rank promised) is taken; when none does, the best of those
+	// judged, by the same rules.
+	var judged []candidate
+	curves := map[int][]curve{}
 	for _, c := range cands {
-		if !c.worse {
-			est = math.Min(est, c.measure)
-		}
-	}
-	var ex []exact
-	for _, c := range cands {
-		if c.worse || c.steps == 0 || len(ex) >= 4 {
+		if c.tier != 0 || c.steps == 0 || len(judged) >= 4 {
 			break
 		}
 		// The linkage sampled afresh; the events found from today's by
@@ -667,34 +618,71 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 			continue
 		}
 		c.measure = measure(ts, q)
-		if c.measure <= est+g.slack {
+		if c.measure <= c.bar {
 			return ev.newChoice(c, cs)
 		}
-		ex = append(ex, exact{c, q, cs})
+		curves[len(judged)] = cs
+		judged = append(judged, c)
 	}
-	ex = append(ex, exact{candidate{a: zero, ideal: zero, measure: measure(ts, qNow)}, qNow, nil})
-	best := math.Inf(1)
-	for _, e := range ex {
-		best = math.Min(best, e.c.measure)
+	for i := range judged {
+		judged[i].from = i
 	}
-	pick := -1
-	for i, e := range ex {
-		if e.c.measure > best+g.slack {
-			continue
-		}
-		if pick < 0 {
-			pick = i
-			continue
-		}
-		b := ex[pick].c
-		if e.c.steps < b.steps || e.c.steps == b.steps && (e.c.effort < b.effort-1e-9 || math.Abs(e.c.effort-b.effort) <= 1e-9 && e.c.measure < b.measure) {
-			pick = i
-		}
-	}
-	if ex[pick].cs == nil {
+	judged = append(judged, candidate{a: zero, ideal: zero, measure: measure(ts, qNow)})
+	rankPlans(judged, g)
+	c := judged[0]
+	if c.steps == 0 {
 		return &choice{rounded: zero, ideal: zero, qAft: qNow}, nil
 	}
-	return ev.newChoice(ex[pick].c, ex[pick].cs)
+	return ev.newChoice(c, curves[c.from])
+}
+
+// rankPlans orders candidate plans: first, for each number of steps whose
+// best comes within the goal's slack of the best of all, fewest steps
+// first, the roundings within half a division of that best, smallest
+// changes first; then the other plans that leave nothing worse, closest
+// first; last those that leave something worse. Each candidate's bar is
+// the measure its rank promised (its step count's best, and the fine
+// tolerance).
+func rankPlans(cs []candidate, g goal) {
+	bestOf := map[int]float64{}
+	all := math.Inf(1)
+	for _, c := range cs {
+		if c.worse {
+			continue
+		}
+		if b, ok := bestOf[c.steps]; !ok || c.measure < b {
+			bestOf[c.steps] = c.measure
+		}
+		all = math.Min(all, c.measure)
+	}
+	for i := range cs {
+		c := &cs[i]
+		b := bestOf[c.steps]
+		switch {
+		case c.worse:
+			c.tier = 2
+		case b <= all+g.slack && c.measure <= b+g.fine:
+			c.tier, c.bar = 0, b+g.fine
+		default:
+			c.tier = 1
+		}
+	}
+	sort.SliceStable(cs, func(i, j int) bool {
+		a, b := cs[i], cs[j]
+		if a.tier != b.tier {
+			return a.tier < b.tier
+		}
+		if a.tier > 0 {
+			return a.measure < b.measure
+		}
+		if a.steps != b.steps {
+			return a.steps < b.steps
+		}
+		if math.Abs(a.effort-b.effort) > 1e-9 {
+			return a.effort < b.effort
+		}
+		return a.measure < b.measure
+	})
 }
 
 // newChoice makes the choice of a candidate, its events found in full on

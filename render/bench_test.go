@@ -2,8 +2,8 @@ package render_test
 
 import (
 	"testing"
-	"time"
 
+	"evenbeat/internal/cpubench"
 	"evenbeat/render"
 	"evenbeat/render/raster"
 	"evenbeat/render/recorder"
@@ -14,18 +14,10 @@ import (
 // the raster, and into the recorder (the cost of the diagram code alone).
 // Issue goal: a full phone frame under 4 ms of CPU natively.
 
-// reportCPU adds a cpu-ns/op metric: process CPU time (all threads, GC
-// included) per iteration since start.
-func reportCPU(b *testing.B, start time.Duration) {
-	if d := cpuTime() - start; d > 0 {
-		b.ReportMetric(float64(d.Nanoseconds())/float64(b.N), "cpu-ns/op")
-	}
-}
-
 func BenchmarkPhoneFrameRaster(b *testing.B) {
 	c := raster.New(1170, 2532, 3)
 	th := render.Light()
-	defer reportCPU(b, cpuTime())
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		c.Clear(th.Background)
 		render.PistonCurve(c, testEngine, portrait, th)
@@ -52,7 +44,7 @@ func BenchmarkCautionsRaster(b *testing.B) {
 func BenchmarkPhoneFrameRecorder(b *testing.B) {
 	c := recorder.New(390, 844)
 	th := render.Light()
-	defer reportCPU(b, cpuTime())
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		c.Reset()
 		render.PistonCurve(c, testEngine, portrait, th)

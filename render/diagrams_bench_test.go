@@ -3,6 +3,7 @@ package render_test
 import (
 	"testing"
 
+	"evenbeat/internal/cpubench"
 	"evenbeat/render"
 	"evenbeat/render/raster"
 	"evenbeat/render/recorder"
@@ -26,7 +27,7 @@ func BenchmarkAllDiagramsRecorder(b *testing.B) {
 	m := sessionModel(b)
 	c := recorder.New(390, 844)
 	th := render.Light()
-	defer reportCPU(b, cpuTime())
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		c.Reset()
 		allScreens(c, m, th)
@@ -37,7 +38,7 @@ func BenchmarkAllDiagramsRaster(b *testing.B) {
 	m := sessionModel(b)
 	c := raster.New(1170, 2532, 3)
 	th := render.Light()
-	defer reportCPU(b, cpuTime())
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		c.Clear(th.Background)
 		allScreens(c, m, th)
@@ -58,7 +59,7 @@ func benchScreen(b *testing.B, d render.Diagram, rast bool) {
 		rc := recorder.New(390, 844)
 		c, clear = rc, rc.Reset
 	}
-	defer reportCPU(b, cpuTime())
+	defer cpubench.Report(b, cpubench.Now())
 	a := 0.0
 	for b.Loop() {
 		clear()
@@ -91,7 +92,7 @@ func BenchmarkScreenRaster(b *testing.B) {
 // plan and every position's curves and events.
 func BenchmarkSessionModel(b *testing.B) {
 	s := demoSession(b)
-	defer reportCPU(b, cpuTime())
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		if _, err := render.NewSessionModel(s, planOptions()); err != nil {
 			b.Fatal(err)

@@ -1,32 +1,12 @@
-//go:build unix
-
 package setting
 
 import (
 	"os"
 	"path/filepath"
-	"syscall"
 	"testing"
-	"time"
+
+	"evenbeat/internal/cpubench"
 )
-
-// cpuTime returns the CPU time (user + system, all threads) the process has
-// used. The machines these run on are shared, so wall time per op is
-// inflated by other work; cpu-ns/op is the cost of the work itself.
-func cpuTime() time.Duration {
-	var ru syscall.Rusage
-	if syscall.Getrusage(syscall.RUSAGE_SELF, &ru) != nil {
-		return 0
-	}
-	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
-}
-
-// reportCPU adds the cpu-ns/op metric for the loop that started at start.
-func reportCPU(b *testing.B, start time.Duration) {
-	if d := cpuTime() - start; d > 0 {
-		b.ReportMetric(float64(d.Nanoseconds())/float64(b.N), "cpu-ns/op")
-	}
-}
 
 // Speed goal (issue 3): the full event table for the three gears x 9
 // reverser positions x both directions in at most 2 ms natively. Shown by
@@ -69,7 +49,7 @@ func benchTables(b *testing.B, specs []EngineSpec) {
 		gears[i] = g
 	}
 	b.ReportAllocs()
-	defer reportCPU(b, cpuTime())
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		for i, s := range specs {
 			if _, err := Table(s.Engine, s.Valve, gears[i], positions, dirs); err != nil {
@@ -109,7 +89,7 @@ func BenchmarkEventsMotion(b *testing.B) {
 		return wiggly(t)
 	}
 	b.ReportAllocs()
-	defer reportCPU(b, cpuTime())
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		if _, err := Events(e, v, m, Forward); err != nil {
 			b.Fatal(err)

@@ -5,8 +5,8 @@ import (
 	"image/png"
 	"strings"
 	"testing"
-	"time"
 
+	"evenbeat/internal/cpubench"
 	"evenbeat/render"
 	"evenbeat/render/report"
 	"evenbeat/setting/plan"
@@ -63,18 +63,12 @@ func TestWritePNGBadSession(t *testing.T) {
 	}
 }
 
-func reportCPU(b *testing.B, start time.Duration) {
-	if d := cpuTime() - start; d > 0 {
-		b.ReportMetric(float64(d.Nanoseconds())/float64(b.N), "cpu-ns/op")
-	}
-}
-
 // BenchmarkReportPNG is the whole report command's work: fit, plan,
 // layout, drawing at scale 2 and PNG encoding. Issue goal: under 300 ms.
 func BenchmarkReportPNG(b *testing.B) {
 	s := demoSession(b)
 	var buf bytes.Buffer
-	defer reportCPU(b, cpuTime())
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		buf.Reset()
 		if err := report.WritePNG(&buf, s, report.Options{}); err != nil {
@@ -90,7 +84,7 @@ func BenchmarkReportDraw(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	defer reportCPU(b, cpuTime())
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		report.Draw(rm, report.Options{})
 	}

@@ -1,8 +1,0 @@
-//go:build !unix
-
-package render_test
-
-import "time"
-
-// cpuTime is not measured on this platform; benchmarks report zero.
-func cpuTime() time.Duration { return 0 }

@@ -39,19 +39,29 @@ func (a *App) Draw(c render.Canvas) {
 	if v.slider.W() > 0 {
 		a.drawSlider(c, v.slider)
 	}
+	for _, t := range v.targets {
+		if !t.bar && !(t.Label == render.AckLabel && a.screen == Cautions) { // the card draws its own
+			a.drawTarget(c, t)
+		}
+	}
 	// The top bar last, over anything scrolled under it.
 	c.Fill(render.RectPath(rect(0, 0, a.w, barH+margin)), render.FillStyle{Color: th.Background})
-	c.Text(render.Point{X: a.w / 2, Y: margin/2 + barH/2}, a.status, render.TextStyle{Color: a.statusColour(), Size: render.BodySize, HAlign: render.Center, VAlign: render.Middle})
+	c.Text(render.Point{X: a.w / 2, Y: margin/2 + barH/2}, a.shortStatus(), render.TextStyle{Color: a.statusColour(), Size: render.BodySize, HAlign: render.Center, VAlign: render.Middle})
 	for _, t := range v.targets {
-		if t.Label == render.AckLabel && a.screen == Cautions {
-			continue // drawn by the card
+		if t.bar {
+			a.drawTarget(c, t)
 		}
-		if t.On {
-			render.Button(c, t.Rect, "* "+t.Label, th)
-			continue
-		}
-		a.drawPlain(c, t)
 	}
+}
+
+// drawTarget draws a button: a chosen option filled and marked, others
+// framed on the card colour.
+func (a *App) drawTarget(c render.Canvas, t Target) {
+	if t.On {
+		render.Button(c, t.Rect, "* "+t.Label, a.theme)
+		return
+	}
+	a.drawPlain(c, t)
 }
 
 // drawPlain draws a target as a framed button on the card colour, so the
@@ -70,6 +80,15 @@ func (a *App) drawPlain(c render.Canvas, t Target) {
 	}
 	c.Text(render.Point{X: (t.Rect.Min.X + t.Rect.Max.X) / 2, Y: (t.Rect.Min.Y + t.Rect.Max.Y) / 2}, label,
 		render.TextStyle{Color: th.Ink, Size: size, Bold: true, HAlign: render.Center, VAlign: render.Middle})
+}
+
+// shortStatus is the saving state in the top bar; a failure's sentence
+// is shown in full under it.
+func (a *App) shortStatus() string {
+	if a.saveErr != "" {
+		return "Not saved"
+	}
+	return a.status
 }
 
 // statusColour is the saving state's colour: a failure in the warning

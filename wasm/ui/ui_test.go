@@ -509,3 +509,40 @@ func planApp(t testing.TB) *App {
 	}
 	return a
 }
+
+// TestNextRoundAndHistory: the next round records the plan's changes as
+// made before it and asks the port marks again; the rounds list opens the
+// plan of an earlier round.
+func TestNextRoundAndHistory(t *testing.T) {
+	a := planApp(t)
+	steps := len(a.plan.Steps)
+	tap(t, a, "Next round")
+	s := a.Session()
+	if n := len(s.Cylinders[0].Rounds); n != 2 || a.Screen() != Measure || a.round != 1 {
+		t.Fatalf("next round: %d rounds, screen %s, round %d", n, a.Screen(), a.round+1)
+	}
+	if got := len(s.Cylinders[0].Rounds[1].AdjustmentsBefore); got == 0 || got > steps {
+		t.Fatalf("next round recorded %d changes for a plan of %d steps", got, steps)
+	}
+	if f := a.fields[a.fi]; f.Label != "Front port mark" {
+		t.Fatalf("next round starts at %q", f.Label)
+	}
+	for _, f := range a.fields {
+		if f.Step == "Dead centres" {
+			t.Fatal("dead centres asked again in a later round")
+		}
+	}
+	tap(t, a, "Menu")
+	tap(t, a, "History of rounds")
+	text, _ := drawText(a)
+	if !strings.Contains(text, "Round 1, 2026-11-21: front lead") || !strings.Contains(text, "Round 2") {
+		t.Fatalf("rounds list:\n%s", text)
+	}
+	tap(t, a, "Round 1")
+	if a.Screen() != Plan || a.plan == nil {
+		t.Fatalf("round 1's plan: screen %s, %q", a.Screen(), a.planNote)
+	}
+	if !a.Back() || a.Screen() != History {
+		t.Fatalf("Back from the plan: %s", a.Screen())
+	}
+}

@@ -27,6 +27,7 @@ type Target struct {
 	Rect  render.Rect
 	On    bool // a chosen option of a group
 	act   func()
+	bar   bool // in the top bar, drawn over scrolled content
 }
 
 // view is what one screen shows, laid out.
@@ -57,10 +58,13 @@ func (a *App) layout() *view {
 	v := &view{}
 	lay := &layouter{a: a, v: v, x: margin, w: a.w - 2*margin, y: barH + 2*margin}
 	if len(a.stack) > 0 {
-		v.targets = append(v.targets, Target{Label: "Back", Rect: rect(margin, margin/2, 80, barH), act: func() { a.Back() }})
+		v.targets = append(v.targets, Target{Label: "Back", Rect: rect(margin, margin/2, 80, barH), act: func() { a.Back() }, bar: true})
 	}
 	if a.screen != Menu {
-		v.targets = append(v.targets, Target{Label: "Menu", Rect: rect(a.w-margin-80, margin/2, 80, barH), act: func() { a.navigate(Menu) }})
+		v.targets = append(v.targets, Target{Label: "Menu", Rect: rect(a.w-margin-80, margin/2, 80, barH), act: func() { a.navigate(Menu) }, bar: true})
+	}
+	if a.saveErr != "" && a.screen != Plan && a.screen != Cautions {
+		lay.text(a.saveErr, true)
 	}
 	switch a.screen {
 	case Engines:
@@ -114,7 +118,7 @@ func (a *App) scrolled(v *view) {
 		v.paras[i].at.Y += dy
 	}
 	for i := range v.targets {
-		if v.targets[i].Rect.Min.Y >= barH+margin/2 {
+		if !v.targets[i].bar {
 			v.targets[i].Rect = shift(v.targets[i].Rect, dy)
 		}
 	}
@@ -308,7 +312,7 @@ func (a *App) keypadView(l *layouter) {
 			labels = append(labels, "Skip")
 			acts = append(acts, a.skipStep)
 		}
-		if len(s.Readiness(0)) == 0 || !hasBlocking(s.Readiness(0)) {
+		if !hasBlocking(s.Readiness(0)) {
 			labels = append(labels, "Plan")
 			acts = append(acts, func() { a.planRound = 0; a.navigate(Plan); a.makePlan() })
 		}
@@ -514,9 +518,9 @@ func (a *App) Handle(in Intent) {
 		}
 		a.scroll -= in.Delta.Y
 	case Tap:
-		for i := len(v.targets) - 1; i >= 0; i-- { // the top bar is drawn last
-			t := v.targets[i]
-			if t.act != nil && t.Rect.Contains(in.At) {
+		underBar := in.At.Y < barH+margin
+		for _, t := range v.targets {
+			if t.act != nil && t.Rect.Contains(in.At) && t.bar == underBar {
 				a.dirty = true
 				t.act()
 				return

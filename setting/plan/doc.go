@@ -63,26 +63,54 @@
 //
 // # Solve
 //
-// The adjustments of the session's profile are the knobs. The solver
-// minimises, over the positions planned (full forward, the engine's notches,
-// full back; a fixed single eccentric has only full forward), weighted
-// front-minus-back differences: leads (per 0.01 mm) for EqualLeads; the
-// running notch's cut-offs (per 0.1 % of stroke) for EqualCutOffs; both
-// (per 0.05 mm and per 1 %) by Options.Weight for Balanced. Weaker terms keep
-// each position's mean lead at the drawing's (or at Options.TargetLeadMM in
-// full gear, where an eccentric angle may change), and a tiny one prefers
-// small changes. Bounded Gauss-Newton, the knobs held within their limits,
-// with gradients by the implicit-function rule: a lead moves with the valve
-// at dead centre, a cut-off's crank angle by -(dx/dp)/(dx/dtheta).
+// The adjustments of the session's profile are the knobs. The plan is
+// judged by front-minus-back differences over the positions planned (full
+// forward, the engine's notches, full back; a fixed single eccentric has
+// only full forward): leads (per 0.01 mm) for EqualLeads; the running
+// notch's cut-offs (per 0.1 % of stroke) for EqualCutOffs; both (per
+// 0.05 mm and per 1 %) by Options.Weight for Balanced. Each position
+// counts by how well the readings know its difference (a position nobody
+// measured counts for little). A mean-lead term holds the lead at
+// Options.TargetLeadMM in full gear, or at the drawing's, only where an
+// eccentric sheave may be turned, since nothing else changes the lead
+// itself.
+//
+// Eccentric sheaves are turned only for a target lead, when the mean lead
+// of the gear an eccentric drives is far from the drawing's (a slipped
+// sheave; the plan says so), or when the profile allows nothing else: a
+// spindle or rod change shares the lead between the ends, a sheave
+// changes it at both. A knob that acts mainly where the readings pin
+// nothing down (a backward rod with no readings in back gear) is left
+// alone, and the plan says which readings to take.
+//
+// Every set of the usable knobs is solved by least squares, linear in the
+// changes about today (the events' gradients by the implicit-function
+// rule: a lead moves with the valve at dead centre, a cut-off's crank angle
+// by -(dx/dp)/(dx/dtheta)), and each knob rounded to the whole steps
+// either side of its ideal. For cut-offs, whose events are far from
+// linear (a port may not open at all today), the whole set and the
+// favourite set are solved again by bounded Gauss-Newton on the events
+// themselves, and their roundings judged there. A plan is refused when it
+// leaves any position worse than today by more than the readings can tell
+// (the lead differences, for EqualLeads; the running notch's cut-off
+// difference, for EqualCutOffs; the whole objective, for Balanced). Of the
+// rest the plan with the fewest steps is taken whose worst weighted
+// difference comes within what the setter can measure of the best any
+// plan reaches (two gauge divisions, or the uncertainty of the
+// differences, whichever is larger), then the smallest changes; an
+// adjustment rounded to nothing is no step. So a plan does not buy a
+// hundredth of a millimetre with large changes that cancel one another.
+// The favourite is checked on the linkage solved afresh with its rounded
+// changes, and the next taken when it does not hold up.
 //
 // Rounding: a length on a thread moves in whole flats (pitch / flats per
-// turn; 6 when not given); a length with no thread in 0.05 mm; an eccentric
-// sheave in 0.5 mm round its rim (without a diameter, and for a return
-// crank, 0.25 degree). The nearest step either side of each ideal change is
-// tried (all combinations of the first five knobs) with no change at all
-// among them, and the best by the plan's own measure is kept, so a plan
-// never leaves the engine worse than it found it. The predicted events are
-// those of the ROUNDED changes, from the linkage solved afresh.
+// turn; 6 when not given; a thread turned by halves is written in half
+// turns); a length with no thread in 0.05 mm; an eccentric sheave in
+// 0.5 mm round its rim (without a diameter, and for a return crank, 0.25
+// degree). The predicted events are those of the ROUNDED changes, from
+// the linkage solved afresh, and the notes say what rounding leaves: how
+// far apart each position stays, and the step of the adjuster that acts
+// most there.
 //
 // Angularity makes equal leads and equal cut-offs impossible at once:
 // every plan is also made with the other priority (Plan.Other), and a note
@@ -100,11 +128,11 @@
 // The fit's covariance (J^T W J + P)^-1, scaled by the reduced chi-square
 // when that exceeds one, is carried by linearised propagation to each lead
 // and cut-off and to each ideal change (-(A^T A)^-1 A^T B: A the objective's
-// gradients by the knobs, B by the fitted deviations); a step's error is
-// given with the other steps made as planned (the conditional standard
-// deviation), since knobs that act alike can leave single changes
-// uncertain while their sum is not. When an event in
-// some position stays uncertain (a lead to more than 0.05 mm, a cut-off to
+// gradients by the knobs the plan moves, B by the fitted deviations); a
+// step's error is given with the other steps made as planned (the
+// conditional standard deviation), since knobs that act alike can leave
+// single changes uncertain while their sum is not. When an event in some
+// position stays uncertain (a lead to more than 0.05 mm, a cut-off to
 // more than 1 %), Plan.NextReading says which reading to take.
 //
 // # Command-line writers

@@ -209,7 +209,9 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 		plan.Notes = append(plan.Notes, angularityNote(main, alt, opt.Priority, running, opt.Unit))
 	}
 	if len(plan.Steps) == 0 {
-		plan.Notes = append(plan.Notes, "Nothing to change: no change the engine allows, in steps hands can make, would make it better by this priority.")
+		plan.Notes = append(plan.Notes, "Nothing to change: no change the engine allows, in steps hands can make, would make it better by this priority by more than the readings can tell without leaving another position worse.")
+	} else {
+		plan.Notes = append(plan.Notes, "After the steps, take the port marks and the dead-centre readings again as a new round, to check the result before anything else is changed.")
 	}
 	if next := nextReading(fit, ev, main, ks); next != "" {
 		plan.NextReading = next

@@ -412,29 +412,6 @@ type quantities struct {
 	leadTheta [2]float64
 }
 
-// events computes the events of every position at p.
-// It samples the linkage afresh at p; with withGrad the gradients with
-// respect to every deviation come from the exact linkage at the event
-// angles.
-func (ev *evaluator) events(p [numParams]float64, withGrad bool) ([]quantities, error) {
-	cs, err := ev.curvesAt(p)
-	if err != nil {
-		return nil, err
-	}
-	out, err := ev.eventsOf(cs, nil)
-	if err != nil {
-		return nil, err
-	}
-	if withGrad {
-		for i := range out {
-			if err := ev.gradients(p, ev.ps[i].notch.Reverser, &out[i]); err != nil {
-				return nil, err
-			}
-		}
-	}
-	return out, nil
-}
-
 // cutPercent is an end's cut-off in % of stroke: 0 when the port never
 // opens, 100 when it never closes, so that a plan cannot make cut-offs
 // "equal" by shutting a port.

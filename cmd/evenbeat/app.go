@@ -135,6 +135,9 @@ const defaultAddr = "127.0.0.1:8080"
 const usage = `usage:
   evenbeat serve [-addr 127.0.0.1:8080] [-src DIR]   build the app and serve it
   evenbeat build -o DIR [-src DIR]                    write the app as static files for any HTTPS host
+  evenbeat plan [-json] [flags] SESSION.json           fit the readings and print what to adjust
+  evenbeat events [-json] ENGINE.json                  print the valve-event table of an engine
+  evenbeat report SESSION.json -o report.png           write the report as a tall PNG
 `
 
 // run is the command line: it parses args and runs one subcommand until ctx
@@ -142,7 +145,7 @@ const usage = `usage:
 func run(ctx context.Context, args []string, stdout, stderr io.Writer) error {
 	if len(args) == 0 {
 		fmt.Fprint(stderr, usage)
-		return errors.New("no command given; use serve or build")
+		return errors.New("no command given; use serve, build, plan, events or report")
 	}
 	switch args[0] {
 	case "serve":
@@ -185,12 +188,18 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) error {
 		}
 		fmt.Fprintf(stdout, "Evenbeat (%s) written to %s; host it over HTTPS and open it once on the phone to keep it offline\n", b.Version, *out)
 		return nil
+	case "plan":
+		return runPlan(args[1:], stdout, stderr)
+	case "events":
+		return runEvents(args[1:], stdout, stderr)
+	case "report":
+		return runReport(args[1:], stdout, stderr)
 	case "help", "-h", "-help", "--help":
 		fmt.Fprint(stdout, usage)
 		return nil
 	}
 	fmt.Fprint(stderr, usage)
-	return fmt.Errorf("unknown command %q; use serve or build", args[0])
+	return fmt.Errorf("unknown command %q; use serve, build, plan, events or report", args[0])
 }
 
 // parseFlags parses and rejects stray arguments.

@@ -1,0 +1,264 @@
+package main
+
+import (
+	"bufio"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"strings"
+
+	"evenbeat/render/report"
+	"evenbeat/setting"
+	"evenbeat/setting/plan"
+	"evenbeat/setting/session"
+)
+
+// planFlags are the setter's choices shared by plan and report.
+type planFlags struct {
+	cylinder   string
+	priority   string
+	weight     float64
+	targetLead float64
+	unit       string
+}
+
+func (p *planFlags) register(fs *flag.FlagSet) {
+	fs.StringVar(&p.cylinder, "cylinder", "", "cylinder to plan, by name (default: the first in the file)")
+	fs.StringVar(&p.priority, "priority", string(plan.EqualLeads), "what to make equal front against back: leads, cut-offs or balanced")
+	fs.Float64Var(&p.weight, "weight", 0, "with -priority balanced: share given to leads, 0 to 1 (0 means one half)")
+	fs.Float64Var(&p.targetLead, "target-lead", -1, "lead wanted at both ends, mm (eccentric gears only; default: keep today's mean)")
+	fs.StringVar(&p.unit, "unit", "", "units of the words: mm or inch (default: the session's)")
+}
+
+// options turns the flags into plan options for session s, naming the flag
+// at fault.
+func (p *planFlags) options(s *session.Session) (plan.Options, error) {
+	var opt plan.Options
+	switch pr := plan.Priority(p.priority); pr {
+	case plan.EqualLeads, plan.EqualCutOffs, plan.Balanced:
+		opt.Priority = pr
+	default:
+		return opt, fmt.Errorf("flag -priority: %q is not a priority; use leads, cut-offs or balanced", p.priority)
+	}
+	if p.weight < 0 || p.weight > 1 {
+		return opt, fmt.Errorf("flag -weight: %g is outside 0 to 1", p.weight)
+	}
+	opt.Weight = p.weight
+	if p.targetLead != -1 {
+		if p.targetLead < -2 || p.targetLead > 5 {
+			return opt, fmt.Errorf("flag -target-lead: %g mm is not a plausible lead; give millimetres, e.g. 0.2", p.targetLead)
+		}
+		t := p.targetLead
+		opt.TargetLeadMM = &t
+	}
+	switch u := session.Unit(p.unit); u {
+	case "", session.UnitMM, session.UnitInch:
+		opt.Unit = u
+	default:
+		return opt, fmt.Errorf("flag -unit: %q is not a unit; use mm or inch", p.unit)
+	}
+	if p.cylinder != "" {
+		var names []string
+		opt.Cylinder = -1
+		for i, c := range s.Cylinders {
+			names = append(names, c.Name)
+			if strings.EqualFold(c.Name, p.cylinder) {
+				opt.Cylinder = i
+			}
+		}
+		if opt.Cylinder < 0 {
+			return opt, fmt.Errorf("flag -cylinder: this session has no cylinder %q (it has %s)", p.cylinder, strings.Join(names, ", "))
+		}
+	}
+	return opt, nil
+}
+
+// displayUnit is the unit the plan's words use: the flag's, else the session's.
+func displayUnit(opt plan.Options, s *session.Session) session.Unit {
+	if opt.Unit != "" {
+		return opt.Unit
+	}
+	return s.DisplayUnit
+}
+
+// oneFile parses flags and expects exactly one file argument.
+func oneFile(fs *flag.FlagSet, args []string, what string) (string, error) {
+	if err := fs.Parse(args); err != nil {
+		return "", fmt.Errorf("%s: %w", fs.Name(), err)
+	}
+	if fs.NArg() != 1 {
+		return "", fmt.Errorf("%s needs one %s file, e.g. evenbeat %s testdata/%s (flags: %s)",
+			fs.Name(), what, fs.Name(), exampleFile[fs.Name()], flagNames(fs))
+	}
+	return fs.Arg(0), nil
+}
+
+var exampleFile = map[string]string{
+	"plan":   "sessions/brackenfold-stephenson.json",
+	"report": "sessions/brackenfold-stephenson.json",
+	"events": "engines/brackenfold-walschaerts.json",
+}
+
+// runPlan is `evenbeat plan [flags] SESSION.json`: the plan as text, or as
+// JSON with -json.
+func runPlan(args []string, stdout, stderr io.Writer) error {
+	fs := flag.NewFlagSet("plan", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	asJSON := fs.Bool("json", false, "write JSON (signed amounts in mm or degrees, sign conventions beside them)")
+	var pf planFlags
+	pf.register(fs)
+	path, err := oneFile(fs, args, "session")
+	if err != nil {
+		return err
+	}
+	s, err := report.ReadSession(path)
+	if err != nil {
+		return err
+	}
+	opt, err := pf.options(s)
+	if err != nil {
+		return err
+	}
+	p, err := plan.Make(s, opt)
+	if err != nil {
+		return fmt.Errorf("%s: %w", path, err)
+	}
+	return buffered(stdout, func(w io.Writer) error {
+		if *asJSON {
+			return plan.WriteJSON(w, p, displayUnit(opt, s))
+		}
+		return plan.WriteText(w, p, displayUnit(opt, s))
+	})
+}
+
+// runEvents is `evenbeat events [-json] ENGINE.json`: the event table of an
+// engine file (or of the engine inside a session file).
+func runEvents(args []string, stdout, stderr io.Writer) error {
+	fs := flag.NewFlagSet("events", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	asJSON := fs.Bool("json", false, "write JSON")
+	path, err := oneFile(fs, args, "engine")
+	if err != nil {
+		return err
+	}
+	spec, err := readEngine(path)
+	if err != nil {
+		return err
+	}
+	return buffered(stdout, func(w io.Writer) error {
+		if *asJSON {
+			return plan.WriteEventsJSON(w, spec)
+		}
+		return plan.WriteEventsText(w, spec)
+	})
+}
+
+// readEngine reads an engine file; a session file is accepted too, for its
+// engine.
+func readEngine(path string) (setting.EngineSpec, error) {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return setting.EngineSpec{}, err
+	}
+	if strings.Contains(string(data), `"evenbeat-session"`) {
+		s, err := session.Decode(strings.NewReader(string(data)))
+		if err != nil {
+			return setting.EngineSpec{}, fmt.Errorf("%s: %w", path, err)
+		}
+		return s.Engine, nil
+	}
+	spec, err := setting.DecodeEngineSpec(strings.NewReader(string(data)))
+	if err != nil {
+		return setting.EngineSpec{}, fmt.Errorf("%s: %w", path, err)
+	}
+	return spec, nil
+}
+
+// runReport is `evenbeat report [flags] SESSION.json -o report.png`.
+func runReport(args []string, stdout, stderr io.Writer) error {
+	fs := flag.NewFlagSet("report", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	out := fs.String("o", "", "PNG file to write (required)")
+	dark := fs.Bool("dark", false, "dark theme")
+	var pf planFlags
+	pf.register(fs)
+	// Accept -o after the file name too, as people type it.
+	path, err := oneFile(fs, reorder(args), "session")
+	if err != nil {
+		return err
+	}
+	if *out == "" {
+		return errors.New("report needs a file to write: flag -o report.png")
+	}
+	s, err := report.ReadSession(path)
+	if err != nil {
+		return err
+	}
+	opt, err := pf.options(s)
+	if err != nil {
+		return err
+	}
+	tmp := *out + ".part"
+	f, err := os.Create(tmp)
+	if err != nil {
+		return fmt.Errorf("flag -o: %w", err)
+	}
+	w := bufio.NewWriter(f)
+	err = report.WritePNG(w, s, report.Options{Plan: opt, Dark: *dark})
+	if err == nil {
+		err = w.Flush()
+	}
+	if cerr := f.Close(); err == nil {
+		err = cerr
+	}
+	if err == nil {
+		err = os.Rename(tmp, *out)
+	}
+	if err != nil {
+		os.Remove(tmp)
+		return fmt.Errorf("%s: %w", path, err)
+	}
+	fmt.Fprintf(stdout, "report written to %s\n", *out)
+	return nil
+}
+
+// reorder moves flags after the first positional argument in front of it,
+// so `report S.json -o r.png` parses like `report -o r.png S.json`.
+func reorder(args []string) []string {
+	var flags, rest []string
+	for i := 0; i < len(args); i++ {
+		a := args[i]
+		if strings.HasPrefix(a, "-") && len(a) > 1 {
+			flags = append(flags, a)
+			if !strings.Contains(a, "=") && i+1 < len(args) && takesValue(a) {
+				flags = append(flags, args[i+1])
+				i++
+			}
+			continue
+		}
+		rest = append(rest, a)
+	}
+	return append(flags, rest...)
+}
+
+// takesValue says whether a report flag is followed by a value.
+func takesValue(flagArg string) bool {
+	switch strings.TrimLeft(flagArg, "-") {
+	case "dark", "json":
+		return false
+	}
+	return true
+}
+
+// buffered writes through a buffer so a failure leaves no half output on
+// stdout.
+func buffered(stdout io.Writer, write func(io.Writer) error) error {
+	var b strings.Builder
+	if err := write(&b); err != nil {
+		return err
+	}
+	_, err := io.WriteString(stdout, b.String())
+	return err
+}

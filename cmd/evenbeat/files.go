@@ -75,6 +75,16 @@ func (p *planFlags) options(s *session.Session) (plan.Options, error) {
 	return opt, nil
 }
 
+// load reads the session file at path and the plan options for it.
+func (p *planFlags) load(path string) (*session.Session, plan.Options, error) {
+	s, err := report.ReadSession(path)
+	if err != nil {
+		return nil, plan.Options{}, err
+	}
+	opt, err := p.options(s)
+	return s, opt, err
+}
+
 // displayUnit is the unit the plan's words use: the flag's, else the session's.
 func displayUnit(opt plan.Options, s *session.Session) session.Unit {
 	if opt.Unit != "" {
@@ -113,11 +123,7 @@ func runPlan(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	s, err := report.ReadSession(path)
-	if err != nil {
-		return err
-	}
-	opt, err := pf.options(s)
+	s, opt, err := pf.load(path)
 	if err != nil {
 		return err
 	}
@@ -192,11 +198,7 @@ func runReport(args []string, stdout, stderr io.Writer) error {
 	if *out == "" {
 		return errors.New("report needs a file to write: flag -o report.png")
 	}
-	s, err := report.ReadSession(path)
-	if err != nil {
-		return err
-	}
-	opt, err := pf.options(s)
+	s, opt, err := pf.load(path)
 	if err != nil {
 		return err
 	}

@@ -107,8 +107,10 @@ type App struct {
 	// Saving.
 	mu       sync.Mutex
 	answers  []saveResult
-	seq      int // the latest write asked for
-	savedSeq int // the latest write known complete
+	seq      int    // writes asked for so far
+	open     int    // writes not yet answered
+	errKey   string // the key whose write failed, until a later write of it succeeds
+	errSeq   int
 	saveErr  string
 	status   string
 
@@ -195,13 +197,12 @@ func (a *App) Update() bool {
 	a.answers = nil
 	a.mu.Unlock()
 	for _, r := range ans {
+		a.open--
 		if r.err != nil {
 			a.saveErr = "Not saved: " + r.err.Error() + ". Your entries are still here; export the session file (Menu, Export) to keep a copy."
-		} else if r.seq > a.savedSeq {
-			a.savedSeq = r.seq
-			if r.seq == a.seq {
-				a.saveErr = "" // the latest write holds everything
-			}
+			a.errKey, a.errSeq = r.key, r.seq
+		} else if r.key == a.errKey && r.seq > a.errSeq {
+			a.saveErr, a.errKey = "", "" // a later write of the whole value holds everything
 		}
 		a.dirty = true
 	}
@@ -216,7 +217,7 @@ func (a *App) setStatus() {
 		a.status = a.saveErr
 	case a.seq == 0:
 		a.status = "Not saved yet"
-	case a.savedSeq == a.seq:
+	case a.open == 0:
 		a.status = "Saved"
 	default:
 		a.status = "Saving..."
@@ -247,11 +248,12 @@ func (a *App) put(key string, b []byte) {
 		return
 	}
 	a.seq++
+	a.open++
 	seq := a.seq
 	a.setStatus()
 	a.opt.Store.Put(key, b, func(err error) {
 		a.mu.Lock()
-		a.answers = append(a.answers, saveResult{seq, err})
+		a.answers = append(a.answers, saveResult{key, seq, err})
 		a.mu.Unlock()
 	})
 }

@@ -46,6 +46,7 @@ type Stored struct {
 
 // saveResult is a store's answer to one write.
 type saveResult struct {
+	key string
 	seq int
 	err error
 }

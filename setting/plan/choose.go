@@ -492,20 +492,19 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 		}
 	}
 	rank()
-	// Solve again on the events: the set of the favourite, and for
-	// cut-offs the whole usable set.
+	// For cut-offs, solve again on the events: the set of the favourite,
+	// or the whole usable set when no change is the favourite (the linear
+	// model cannot see a port that does not open today).
 	var sets [][]int
-	if len(idx) > 0 && g.prio != EqualLeads {
-		// Cut-offs are far from linear in the changes (a port may not
-		// open at all today); leads are close to it.
-		sets = append(sets, idx)
-	}
-	if len(cands) > 0 && cands[0].steps > 0 && cands[0].steps < len(idx) && g.prio != EqualLeads {
+	if g.prio != EqualLeads && len(idx) > 0 && len(cands) > 0 {
 		var fav []int
 		for k, v := range cands[0].a {
 			if v != 0 {
 				fav = append(fav, k)
 			}
+		}
+		if len(fav) == 0 {
+			fav = idx
 		}
 		sets = append(sets, fav)
 	}

@@ -513,7 +513,7 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 		for _, k := range set {
 			in[k] = true
 		}
-		ideal, qIdeal, err := ev.optimise(p, ks, ts, qNow, in)
+		ideal, qIdeal, err := ev.optimise(p, ks, ts, qNow, in, subsetIdeal(ks, ts, qNow, set))
 		if err != nil {
 			continue
 		}

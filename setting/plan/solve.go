@@ -609,8 +609,9 @@ func sumSquares(ts []term, q []quantities) float64 {
 // (whose curves setKnobs has sampled), within the knobs' limits, by
 // bounded Gauss-Newton on the events' implicit-function gradients, the
 // events found afresh on the sampled curves at each step (so a port that
-// opens or closes on the way is seen).
-func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term, qNow []quantities, set []bool) ([]float64, []quantities, error) {
+// opens or closes on the way is seen). It starts from start (within the
+// limits, zero outside set) when that is better than no change.
+func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term, qNow []quantities, set []bool, start []float64) ([]float64, []quantities, error) {
 	n := len(ks)
 	a := make([]float64, n)
 	qs := append([]quantities(nil), qNow...)
@@ -629,6 +630,13 @@ func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term, qNow [
 		return c
 	}
 	c := cost(a, qs)
+	if start != nil {
+		if q0, err := ev.quick(ev.surrogate(ks, start), qs, ks); err == nil {
+			if c0 := cost(start, q0); c0 < c {
+				a, qs, c = append([]float64(nil), start...), q0, c0
+			}
+		}
+	}
 	free := make([]bool, n)
 	for it := 0; it < 12; it++ {
 		for i, k := range ks {

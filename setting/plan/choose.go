@@ -21,6 +21,7 @@ type goal struct {
 	// preferred (what the setter can measure); fine how much closer a
 	// rounding of as many steps must come (half a gauge division).
 	slack, fine float64
+	res         float64 // what one reading resolves: the gauge (mm), or the cut-off tolerance (%)
 }
 
 // diff returns a position's front-minus-back difference the goal
@@ -71,10 +72,7 @@ func (ev *evaluator) weighing(obj *objective, qNow []quantities, fit *Fit) goal 
 	g := goal{prio: obj.prio, running: obj.running, tol: make([]float64, n)}
 	obj.wLead, obj.wCut = make([]float64, n), make([]float64, n)
 	k := math.Max(1, ev.spec.Engine.CrankRadius/25)
-	res := 0.01
-	if fit != nil && fit.resMM > 0 {
-		res = fit.resMM
-	}
+	res := gaugeResolution(fit)
 	for i, q := range qNow {
 		var sl, sc float64
 		if fit != nil && fit.cov.n > 0 {
@@ -107,8 +105,10 @@ func (ev *evaluator) weighing(obj *objective, qNow []quantities, fit *Fit) goal 
 			known = math.Max(known, tl)
 		}
 	}
+	g.res = res
 	switch g.prio {
 	case EqualCutOffs:
+		g.res = cutTolPct
 		g.slack, g.fine = math.Max(cutTolPct, known)/0.1, cutTolPct/2/0.1
 	case Balanced:
 		g.slack, g.fine = math.Max(2*res, known)/0.05, res/2/0.05
@@ -116,6 +116,29 @@ func (ev *evaluator) weighing(obj *objective, qNow []quantities, fit *Fit) goal 
 		g.slack, g.fine = math.Max(2*res, known)/0.01, res/2/0.01
 	}
 	return g
+}
+
+// gaugeResolution returns the dial gauge's resolution (mm) from the
+// readings taken with it; the fit's coarsest resolution (feelers) when
+// none were, and 0.01 mm without a fit.
+func gaugeResolution(fit *Fit) float64 {
+	if fit == nil {
+		return 0.01
+	}
+	res := 0.0
+	for _, o := range fit.obs {
+		switch o.Kind {
+		case session.PortMarkKind, session.AtDeadCentre, session.InSweep:
+			res = math.Max(res, o.GaugeSigmaMM*math.Sqrt(12))
+		}
+	}
+	if res == 0 {
+		res = fit.resMM
+	}
+	if !(res > 0) {
+		res = 0.01
+	}
+	return res
 }
 
 // isSheave reports whether a knob turns an eccentric sheave: the one
@@ -720,20 +743,24 @@ func (ev *evaluator) leftNotes(ks []knob, usable []bool, qNow []quantities, ch *
 		if g.prio == EqualCutOffs {
 			what = fmt.Sprintf("the cut-offs will still be %.1f %% apart (%.1f %% front, %.1f %% back)", math.Abs(d), q.cut[0], q.cut[1])
 		}
-		// The adjuster that acts most on this position rather than on
-		// the others (the backward rod for full back), and its step.
+		// The adjuster that sets this position: the finest of the plan's
+		// own steps that acts there at least half as much as anywhere,
+		// else the one that acts most there rather than elsewhere (the
+		// backward rod for full back).
 		fine, fk, spec := 0.0, -1, 0.0
+		inPlan := false
 		for k, kb := range ks {
 			if !usable[k] || isSheave(kb) {
 				continue
 			}
-			var here, all float64
+			var here, all, most float64
 			for j, qj := range qNow {
 				gd := qj.grad[0][kb.p] - qj.grad[1][kb.p]
 				if g.prio == EqualCutOffs {
 					gd = qj.grad[2][kb.p] - qj.grad[3][kb.p]
 				}
 				all += math.Abs(gd)
+				most = math.Max(most, math.Abs(gd))
 				if j == i {
 					here = math.Abs(gd)
 				}
@@ -741,7 +768,12 @@ func (ev *evaluator) leftNotes(ks []knob, usable []bool, qNow []quantities, ch *
 			if here*kb.step < 1e-6 {
 				continue
 			}
-			if sp := here / all; fk < 0 || sp > spec+1e-6 || math.Abs(sp-spec) <= 1e-6 && here*kb.step < fine {
+			own := ch.rounded[k] != 0 && here >= most/2
+			sp := here / all
+			switch {
+			case own && (!inPlan || here*kb.step < fine):
+				fine, fk, inPlan = here*kb.step, k, true
+			case !own && !inPlan && (fk < 0 || sp > spec+1e-6 || math.Abs(sp-spec) <= 1e-6 && here*kb.step < fine):
 				fine, fk, spec = here*kb.step, k, sp
 			}
 		}
@@ -749,12 +781,12 @@ func (ev *evaluator) leftNotes(ks []knob, usable []bool, qNow []quantities, ch *
 		switch {
 		case fk < 0:
 			out = append(out, fmt.Sprintf("In %s %s: nothing the profile allows, other than an eccentric sheave, moves them apart or together.", name, what))
-		case math.Abs(d) <= fine/2+g.tol[i]:
+		case math.Abs(d) <= fine/2+g.res/2:
 			amt := length(fine, unit)
 			if g.prio == EqualCutOffs {
 				amt = fmt.Sprintf("%.1f %%", fine)
 			}
-			out = append(out, fmt.Sprintf("In %s %s: the adjuster that acts most there, the %s, moves them %s with %s, so this is as close as it can be set.", name, what, partName(ks[fk].adj, ev.spec.Gear.Kind), amt, handStepWords(ks[fk], unit)))
+			out = append(out, fmt.Sprintf("In %s %s: the %s moves them %s with %s, so this is as close as it can be set.", name, what, partName(ks[fk].adj, ev.spec.Gear.Kind), amt, handStepWords(ks[fk], unit)))
 		default:
 			out = append(out, fmt.Sprintf("In %s %s: setting them closer would upset another position by more, or take more steps than it gains.", name, what))
 		}

@@ -176,19 +176,58 @@ func TestExamplePlanFewStepsNeverWorse(t *testing.T) {
 	}
 }
 
-// The right cylinder's second round differs from a rounded plan only by
-// the backward rod: that is the one step.
-func TestExamplePlanSecondRoundIsTheBackwardRod(t *testing.T) {
-	p, err := Make(exampleSession(t), Options{})
-	if err != nil {
-		t.Fatal(err)
+// The steps of the example plans are the faults' own, one flat or half
+// turn each: the right cylinder as found, the valve back on its spindle and
+// the backward rod shortened; after the flat, the backward rod alone; the
+// left cylinder, read in full forward only, the valve forward and back
+// gear left for its readings.
+func TestExamplePlanStepsAreTheFaults(t *testing.T) {
+	s := exampleSession(t)
+	type want struct {
+		kind session.AdjustmentKind
+		ecc  session.Eccentric
+		sign float64
 	}
-	if len(p.Steps) != 1 || p.Steps[0].Kind != session.EccentricRodLength || p.Steps[0].Eccentric != session.BackwardEccentric || p.Steps[0].Amount >= 0 {
-		t.Fatalf("want one step, the backward rod shortened: %+v", p.Steps)
+	spindle := func(sign float64) want { return want{session.ValveOnSpindle, "", sign} }
+	backRod := want{session.EccentricRodLength, session.BackwardEccentric, -1}
+	for _, c := range []struct {
+		name       string
+		cyl, round int
+		steps      []want
+	}{
+		{"right as found", 0, 1, []want{spindle(-1), backRod}},
+		{"right after one flat", 0, 2, []want{backRod}},
+		{"left as found", 1, 1, []want{spindle(+1)}},
+	} {
+		fit, err := FitSession(s, c.cyl, FitOptions{Round: c.round})
+		if err != nil {
+			t.Fatal(err)
+		}
+		p, err := FromFit(fit, s.Adjustments, Options{Unit: s.DisplayUnit})
+		if err != nil {
+			t.Fatal(err)
+		}
+		ok := len(p.Steps) == len(c.steps)
+		for i := 0; ok && i < len(c.steps); i++ {
+			st, w := p.Steps[i], c.steps[i]
+			ks, _ := knobsOf(fit.Model.Spec, []session.Adjustment{{Kind: st.Kind, Eccentric: st.Eccentric}})
+			ok = st.Kind == w.kind && st.Eccentric == w.ecc && st.Amount*w.sign > 0 &&
+				math.Abs(math.Abs(st.Amount)-handStep(s.Adjustments[adjIndex(s.Adjustments, st)])) < 1e-9 && len(ks) == 1
+		}
+		if !ok {
+			t.Errorf("%s: steps %+v", c.name, p.Steps)
+		}
 	}
-	if p.Steps[0].Words == "" || p.Steps[0].perTurn != 2 {
-		t.Errorf("words %q", p.Steps[0].Words)
+}
+
+// adjIndex finds the session adjustment a step changes.
+func adjIndex(adjs []session.Adjustment, st Step) int {
+	for i, a := range adjs {
+		if a.Kind == st.Kind && a.Eccentric == st.Eccentric {
+			return i
+		}
 	}
+	return 0
 }
 
 // demoEngine reads one of the invented demo engines, its running notch

@@ -353,3 +353,50 @@ func TestSlippedSheaveIsTurnedBack(t *testing.T) {
 		t.Errorf("sheave 6 deg retarded: steps %+v, notes %q", p.Steps, p.Notes)
 	}
 }
+
+// With priority on equal cut-offs the example plans leave the running
+// notch's cut-offs no further apart on the true engine than they were (to
+// the 0.2 % a crosshead mark resolves), and turn no sheave.
+func TestExampleCutOffPlanNeverWorse(t *testing.T) {
+	s := exampleSession(t)
+	for _, c := range []struct {
+		cyl, round int
+		truth      Deviations
+	}{
+		{0, 1, Deviations{ValveOffsetMM: 0.12, EccentricRodMM: [2]float64{0, 0.25}}},
+		{0, 2, Deviations{ValveOffsetMM: 0.12 - 0.117, EccentricRodMM: [2]float64{0, 0.25}}},
+	} {
+		spec, err := s.CylinderEngine(c.cyl)
+		if err != nil {
+			t.Fatal(err)
+		}
+		fit, err := FitSession(s, c.cyl, FitOptions{Round: c.round})
+		if err != nil {
+			t.Fatal(err)
+		}
+		p, err := FromFit(fit, s.Adjustments, Options{Priority: EqualCutOffs})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, st := range p.Steps {
+			if st.Kind == session.EccentricAngle {
+				t.Errorf("round %d: a sheave is turned: %s", c.round, st.Words)
+			}
+		}
+		before := trueEvents(t, spec, c.truth, p.Now)
+		after := trueEvents(t, spec, applySteps(t, spec, c.truth, p.Steps), p.Now)
+		for i, pos := range p.Now {
+			if pos.Notch != "running notch" {
+				continue
+			}
+			d0 := math.Abs(before[i].Front.CutOff.StrokePercent - before[i].Back.CutOff.StrokePercent)
+			d1 := math.Abs(after[i].Front.CutOff.StrokePercent - after[i].Back.CutOff.StrokePercent)
+			if d1 > d0+0.2 {
+				t.Errorf("round %d: running-notch cut-offs %.2f %% apart after the plan, %.2f %% before", c.round, d1, d0)
+			}
+			if d1 > 1 {
+				t.Errorf("round %d: running-notch cut-offs still %.2f %% apart", c.round, d1)
+			}
+		}
+	}
+}

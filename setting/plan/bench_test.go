@@ -2,10 +2,9 @@ package plan
 
 import (
 	"bytes"
-	"syscall"
 	"testing"
-	"time"
 
+	"evenbeat/internal/cpubench"
 	"evenbeat/setting"
 	"evenbeat/setting/session"
 )
@@ -19,15 +18,14 @@ func BenchmarkFitAndPlan(b *testing.B) {
 			sim := simulated{spec: testSpec(b, kind), dev: injected(kind)}
 			s := sim.session(b, 15, testAdjustments(kind))
 			b.ReportAllocs()
-			cpu0 := cpuTime()
+			// On a shared machine wall time says little; the process's own
+			// CPU time per operation is reported beside it.
+			defer cpubench.Report(b, cpubench.Now())
 			for b.Loop() {
 				if _, err := Make(s, Options{}); err != nil {
 					b.Fatal(err)
 				}
 			}
-			// On a shared machine wall time says little; the process's own
-			// CPU time per operation is reported beside it.
-			b.ReportMetric(float64(cpuTime()-cpu0)/float64(b.N), "cpu-ns/op")
 		})
 	}
 }
@@ -109,13 +107,4 @@ func BenchmarkLinkage(b *testing.B) {
 			}
 		})
 	}
-}
-
-// cpuTime returns the process's user plus system CPU time.
-func cpuTime() time.Duration {
-	var ru syscall.Rusage
-	if syscall.Getrusage(syscall.RUSAGE_SELF, &ru) != nil {
-		return 0
-	}
-	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
 }

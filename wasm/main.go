@@ -35,6 +35,12 @@ func main() {
 	js.Global().Set("evenbeatTheme", name)
 	ebiten.SetScreenClearedEveryFrame(false)
 	ebiten.SetWindowTitle("Evenbeat")
+	if flowMode() {
+		if err := runFlow(st, th); err != nil {
+			log.Print(err)
+		}
+		return
+	}
 	if err := ebiten.RunGame(newGame(newApp(demoEngine(), th, acked), st)); err != nil {
 		log.Print(err)
 	}

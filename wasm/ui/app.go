@@ -168,6 +168,15 @@ func (a *App) Status() string { return a.status }
 // Note returns the sentence under the keypad entry ("" when none).
 func (a *App) Note() string { return a.note }
 
+// Field returns the label of the value the keypad is entering ("" off
+// the keypad screens).
+func (a *App) Field() string {
+	if (a.screen != Measure && a.screen != Sizes) || len(a.fields) == 0 {
+		return ""
+	}
+	return a.fields[a.fi].Label
+}
+
 // Session returns the session being set, or nil.
 func (a *App) Session() *session.Session {
 	if a.cur == nil {

@@ -1,0 +1,229 @@
+//go:build js
+
+package main
+
+import (
+	"encoding/json"
+	"log"
+	"strings"
+	"sync"
+	"syscall/js"
+
+	"github.com/hajimehoshi/ebiten/v2"
+
+	"evenbeat/render"
+	"evenbeat/wasm/ui"
+)
+
+// flowMode reports whether the page asked for the whole measuring flow
+// (package ui) with "?flow" in its address. The skeleton (cautions, then
+// the piston diagram) stays the default until the browser tests move to
+// the flow.
+func flowMode() bool {
+	return strings.Contains(js.Global().Get("location").Get("search").String(), "flow")
+}
+
+// uiStore is the IndexedDB store as package ui's Store.
+type uiStore struct{ st *store }
+
+func (s uiStore) Get(key string) ([]byte, bool, error) {
+	v, ok, err := s.st.Get(key)
+	return []byte(v), ok, err
+}
+
+func (s uiStore) Put(key string, value []byte, done func(error)) {
+	s.st.Put(key, string(value), done)
+}
+
+// flowGame runs package ui's app: the game's input plumbing (pointer
+// queue, taps, polled touches) and canvas, with ui.App in place of the
+// skeleton's screens.
+type flowGame struct {
+	*game
+	ui     *ui.App
+	window js.Value
+
+	mu      sync.Mutex
+	backs   int      // popstate events not yet handled
+	imports [][]byte // files chosen, not yet imported
+	live    js.Value // the hidden live region mirroring the plan's words
+}
+
+// runFlow starts the flow app.
+func runFlow(st *store, th render.Theme) error {
+	g := &flowGame{game: newGame(nil, st), window: js.Global()}
+	opt := ui.Options{Theme: th, OnExport: download, OnImport: g.chooseFile}
+	if st != nil {
+		opt.Store = uiStore{st}
+	}
+	g.ui = ui.New(opt)
+	g.live = liveRegion()
+	// One guard entry in the page's history: the back gesture pops it, the
+	// app moves back a step and puts it back; when the app has nowhere to
+	// go back to, the browser leaves.
+	hist := g.window.Get("history")
+	hist.Call("pushState", "evenbeat", "")
+	g.window.Call("addEventListener", "popstate", js.FuncOf(func(js.Value, []js.Value) any {
+		g.mu.Lock()
+		g.backs++
+		g.mu.Unlock()
+		return nil
+	}))
+	return ebiten.RunGame(g)
+}
+
+// Update runs one tick: size, queued back gestures and files, input,
+// the store's answers, and the state published for the page.
+func (g *flowGame) Update() error {
+	if g.scale > 0 {
+		g.ui.Resize(float64(g.outW), float64(g.outH))
+	}
+	g.mu.Lock()
+	backs, files := g.backs, g.imports
+	g.backs, g.imports = 0, nil
+	g.mu.Unlock()
+	hist := g.window.Get("history")
+	for range backs {
+		if g.ui.Back() {
+			hist.Call("pushState", "evenbeat", "")
+		} else {
+			hist.Call("back")
+		}
+	}
+	for _, b := range files {
+		if err := g.ui.Import(b); err != nil {
+			log.Print(err)
+		}
+	}
+	var fromPage bool
+	g.events, fromPage = g.queue.Drain(g.events[:0])
+	if !fromPage {
+		g.events = g.polled(g.events)
+	}
+	for _, ev := range g.events {
+		if in, ok := g.taps.Feed(ev); ok {
+			g.ui.Handle(uiIntent(in))
+		}
+	}
+	for _, in := range keyIntents() {
+		g.ui.Handle(uiIntent(in))
+	}
+	if g.ui.Update() {
+		g.publish()
+	}
+	return nil
+}
+
+// uiIntent is the skeleton's intent as package ui's.
+func uiIntent(in intent) ui.Intent {
+	switch in.Kind {
+	case intentScroll:
+		return ui.Intent{Kind: ui.Drag, At: in.At, Delta: in.Delta}
+	case intentConfirm:
+		return ui.Intent{Kind: ui.Confirm}
+	}
+	return ui.Intent{Kind: ui.Tap, At: in.At}
+}
+
+// publish tells the page (and tests) the screen, the saving state, the
+// touch targets in CSS px and the plan's words, and mirrors the words into
+// the live region.
+func (g *flowGame) publish() {
+	type target struct {
+		Label      string
+		X, Y, W, H float64
+	}
+	var ts []target
+	for _, t := range g.ui.Targets() {
+		ts = append(ts, target{t.Label, t.Rect.Min.X, t.Rect.Min.Y, t.Rect.W(), t.Rect.H()})
+	}
+	b, _ := json.Marshal(ts)
+	g.window.Set("evenbeatState", g.ui.Screen().String())
+	g.window.Set("evenbeatStatus", g.ui.Status())
+	g.window.Set("evenbeatField", g.ui.Field())
+	g.window.Set("evenbeatTargets", string(b))
+	words := ""
+	if g.ui.Screen() == ui.Plan {
+		words = g.ui.PlanText()
+	}
+	g.window.Set("evenbeatPlanText", words)
+	if g.live.Truthy() && g.live.Get("textContent").String() != words {
+		g.live.Set("textContent", words)
+	}
+}
+
+// Draw draws the app when it changed.
+func (g *flowGame) Draw(screen *ebiten.Image) {
+	if !g.ui.Dirty() || g.outW == 0 {
+		return
+	}
+	g.canvas.Begin(screen, g.scale)
+	g.ui.Draw(g.canvas)
+	g.window.Set("evenbeatDrawn", g.ui.Screen().String())
+	if !g.drawn {
+		g.drawn = true
+		g.window.Set("evenbeatFirstFrame", g.window.Get("performance").Call("now"))
+		g.window.Set("evenbeatFirstScreen", g.ui.Screen().String())
+		if el := g.window.Get("document").Call("getElementById", "loading"); el.Truthy() {
+			el.Get("style").Set("display", "none")
+		}
+	}
+}
+
+// liveRegion adds a visually hidden element that screen readers announce
+// when its text changes.
+func liveRegion() js.Value {
+	doc := js.Global().Get("document")
+	el := doc.Call("createElement", "div")
+	el.Set("id", "evenbeat-words")
+	el.Call("setAttribute", "aria-live", "polite")
+	el.Call("setAttribute", "style", "position:absolute;left:-10000px;width:1px;height:1px;overflow:hidden")
+	doc.Get("body").Call("appendChild", el)
+	return el
+}
+
+// download offers data as a file.
+func download(name string, data []byte) {
+	doc := js.Global().Get("document")
+	arr := js.Global().Get("Uint8Array").New(len(data))
+	js.CopyBytesToJS(arr, data)
+	blob := js.Global().Get("Blob").New([]any{arr}, map[string]any{"type": "application/json"})
+	url := js.Global().Get("URL").Call("createObjectURL", blob)
+	a := doc.Call("createElement", "a")
+	a.Set("href", url)
+	a.Set("download", name)
+	a.Call("click")
+	js.Global().Get("URL").Call("revokeObjectURL", url)
+}
+
+// chooseFile opens the browser's file chooser; the chosen file's bytes are
+// imported on the next tick.
+func (g *flowGame) chooseFile() {
+	doc := js.Global().Get("document")
+	in := doc.Call("createElement", "input")
+	in.Set("type", "file")
+	in.Set("accept", ".json,application/json")
+	var onChange js.Func
+	onChange = js.FuncOf(func(js.Value, []js.Value) any {
+		onChange.Release()
+		files := in.Get("files")
+		if files.Length() == 0 {
+			return nil
+		}
+		var then js.Func
+		then = js.FuncOf(func(_ js.Value, args []js.Value) any {
+			then.Release()
+			arr := js.Global().Get("Uint8Array").New(args[0])
+			b := make([]byte, arr.Length())
+			js.CopyBytesToGo(b, arr)
+			g.mu.Lock()
+			g.imports = append(g.imports, b)
+			g.mu.Unlock()
+			return nil
+		})
+		files.Index(0).Call("arrayBuffer").Call("then", then)
+		return nil
+	})
+	in.Call("addEventListener", "change", onChange)
+	in.Call("click")
+}

@@ -546,3 +546,28 @@ func TestNextRoundAndHistory(t *testing.T) {
 		t.Fatalf("Back from the plan: %s", a.Screen())
 	}
 }
+
+// TestCautionsFromMenuAndMotionScrub: the cautions are always reachable
+// from the menu and Back returns from them; a drag on the motion drawing
+// turns the wheel.
+func TestCautionsFromMenuAndMotionScrub(t *testing.T) {
+	a := planApp(t)
+	tap(t, a, "Motion")
+	before, _ := drawText(a)
+	a.Handle(Intent{Kind: Drag, At: render.Point{X: 200, Y: 400}, Delta: render.Point{X: 40}})
+	if a.crankDeg != 40 {
+		t.Fatalf("crank at %v after a 40 px drag, want 40", a.crankDeg)
+	}
+	if after, _ := drawText(a); after == before {
+		t.Fatal("the motion drawing did not change with the drag")
+	}
+	tap(t, a, "Menu")
+	tap(t, a, "Cautions")
+	if text, _ := drawText(a); a.Screen() != Cautions || !strings.Contains(text, render.CautionsTitle) {
+		t.Fatalf("menu's cautions: screen %s", a.Screen())
+	}
+	tap(t, a, render.AckLabel)
+	if a.Screen() != Menu {
+		t.Fatalf("after the cautions from the menu: screen %s, want menu", a.Screen())
+	}
+}

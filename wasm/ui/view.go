@@ -453,7 +453,7 @@ func (a *App) planView(l *layouter) {
 	bottom := a.h - margin - rowH
 	if a.diagram == render.BalanceDiagram && len(a.plan.Steps) > 0 {
 		st := a.plan.Steps[a.what.step]
-		l.button(fmt.Sprintf("What if: %s %s", st.Part, a.whatAmountText()), false, func() {
+		l.button(fmt.Sprintf("What if: %s %s (tap: next part)", st.Part, a.whatAmountText()), false, func() {
 			a.setWhatStep(a.what.step + 1)
 			a.dirty = true
 		})

@@ -105,14 +105,14 @@ type App struct {
 	warn   string // a warning about the entry just committed
 
 	// Saving.
-	mu       sync.Mutex
-	answers  []saveResult
-	seq      int    // writes asked for so far
-	open     int    // writes not yet answered
-	errKey   string // the key whose write failed, until a later write of it succeeds
-	errSeq   int
-	saveErr  string
-	status   string
+	mu      sync.Mutex
+	answers []saveResult
+	seq     int    // writes asked for so far
+	open    int    // writes not yet answered
+	errKey  string // the key whose write failed, until a later write of it succeeds
+	errSeq  int
+	saveErr string
+	status  string
 
 	// The plan.
 	planRound int // the round planned, counting from 1; 0 the latest

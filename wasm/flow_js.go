@@ -95,19 +95,7 @@ func (g *flowGame) Update() error {
 			log.Print(err)
 		}
 	}
-	var fromPage bool
-	g.events, fromPage = g.queue.Drain(g.events[:0])
-	if !fromPage {
-		g.events = g.polled(g.events)
-	}
-	for _, ev := range g.events {
-		if in, ok := g.taps.Feed(ev); ok {
-			g.ui.Handle(uiIntent(in))
-		}
-	}
-	for _, in := range keyIntents() {
-		g.ui.Handle(uiIntent(in))
-	}
+	g.feed(func(in intent) { g.ui.Handle(uiIntent(in)) })
 	if g.ui.Update() {
 		g.publish()
 	}

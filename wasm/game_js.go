@@ -67,6 +67,14 @@ func (g *game) Update() error {
 	if g.scale > 0 {
 		g.app.Resize(float64(g.outW), float64(g.outH))
 	}
+	g.feed(g.handle)
+	g.publish()
+	return nil
+}
+
+// feed passes this tick's input to handle as intents: the pointer events
+// the page queued (or ebiten's polled touches and mouse), then the keys.
+func (g *game) feed(handle func(intent)) {
 	var fromPage bool
 	g.events, fromPage = g.queue.Drain(g.events[:0])
 	if !fromPage {
@@ -76,14 +84,12 @@ func (g *game) Update() error {
 	}
 	for _, ev := range g.events {
 		if in, ok := g.taps.Feed(ev); ok {
-			g.handle(in)
+			handle(in)
 		}
 	}
 	for _, in := range keyIntents() {
-		g.handle(in)
+		handle(in)
 	}
-	g.publish()
-	return nil
 }
 
 // handle passes one intent to the app and saves what it asks to save.

@@ -3,6 +3,7 @@ package ui
 import (
 	"encoding/json"
 	"fmt"
+	"math"
 	"strconv"
 	"strings"
 	"sync"
@@ -30,11 +31,12 @@ const (
 	Plan                   // the plan's steps, balance, valve curve, motion; what-if
 	History                // the rounds so far
 	Menu                   // everywhere else from anywhere
+	Where                  // the engine drawn where it stands for the reading asked
 )
 
 // String names the screen for the page's state (tests, the History API).
 func (s Screen) String() string {
-	names := [...]string{"engines", "gear", "units", "sizes", "adjust", "cautions", "measure", "readings", "plan", "history", "menu"}
+	names := [...]string{"engines", "gear", "units", "sizes", "adjust", "cautions", "measure", "readings", "plan", "history", "menu", "where"}
 	if int(s) < len(names) {
 		return names[s]
 	}
@@ -125,6 +127,8 @@ type App struct {
 	crankDeg  float64
 	what      whatIf
 	importErr string
+	engine    *render.Model // the engine as drawn, for the drawing of where
+	engineOf  *session.Session
 }
 
 // whatIf is the plan screen's what-if: one step's amount changed by a
@@ -307,10 +311,11 @@ func (a *App) Back() bool {
 	if len(a.stack) == 0 {
 		return false
 	}
+	from := a.screen
 	a.screen = a.stack[len(a.stack)-1]
 	a.stack = a.stack[:len(a.stack)-1]
 	a.scroll = 0
-	if a.screen == Measure || a.screen == Sizes {
+	if (a.screen == Measure || a.screen == Sizes) && from != Where { // the drawing keeps what was typed
 		a.setField(a.fi)
 	}
 	return true
@@ -475,6 +480,9 @@ func (a *App) commit() {
 		return
 	}
 	f.set(s, mm)
+	if a.screen == Sizes {
+		a.engine = nil // drawn again with the new size
+	}
 	a.save()
 	a.warn = ""
 	path := f.Path(s)
@@ -661,6 +669,32 @@ func (a *App) SetWhatIf(i int, amount float64) error {
 	a.what.amount, a.what.model = amount, m
 	a.dirty = true
 	return nil
+}
+
+// showWhere draws the engine where it stands for the current reading.
+func (a *App) showWhere() {
+	s := a.Session()
+	if a.engine == nil || a.engineOf != s {
+		m, err := render.NewEngineModel(s.Engine)
+		if err != nil {
+			a.note = sentence(err)
+			return
+		}
+		a.engine, a.engineOf = m, s
+	}
+	a.crankDeg = math.Mod(a.fields[a.fi].CrankDeg+360, 360)
+	a.navigate(Where)
+}
+
+// wherePosition is the engine model's position of the current reading.
+func (a *App) wherePosition() int {
+	f := a.fields[a.fi]
+	for i, n := range a.engine.PositionNames() {
+		if n == f.Notch {
+			return i
+		}
+	}
+	return 0
 }
 
 // shownModel is the model the plan screen draws: the what-if's when there

@@ -16,6 +16,8 @@ func (a *App) Draw(c render.Canvas) {
 	switch a.screen {
 	case Cautions:
 		render.Cautions(c, v.body, th)
+	case Where:
+		render.Motion(c, a.engine, a.wherePosition(), a.crankDeg, v.body, th)
 	case Plan:
 		if m := a.shownModel(); m != nil {
 			render.DrawScreen(c, m, a.renderScreen(), v.body, th)

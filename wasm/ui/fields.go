@@ -21,6 +21,11 @@ type field struct {
 	Lo, Hi float64
 	// Optional fields may be skipped with the rest of their step.
 	Optional bool
+	// Notch and CrankDeg say where the engine stands for this reading, for
+	// the drawing of where: the reverser position ("" for full forward) and
+	// about where the crank is (degrees from front dead centre).
+	Notch    string
+	CrankDeg float64
 	get      func(s *session.Session) (float64, bool)
 	set      func(s *session.Session, mm float64)
 	// path gives the value's field in the file as it stands, with list
@@ -175,7 +180,11 @@ func measureFields(s *session.Session, ri int) []field {
 	var fs []field
 	// Port marks.
 	pm := func(end session.End, label, other, say string) field {
-		return field{Key: rp + ".port_marks." + string(end) + "_gauge_mm", path: func(*session.Session) string { return rp + ".port_marks" }, Step: "Port marks", Label: label, Say: say, Lo: -50, Hi: 50,
+		crank := 0.0
+		if end == session.Back {
+			crank = 180
+		}
+		return field{CrankDeg: crank, Key: rp + ".port_marks." + string(end) + "_gauge_mm", path: func(*session.Session) string { return rp + ".port_marks" }, Step: "Port marks", Label: label, Say: say, Lo: -50, Hi: 50,
 			get: func(s *session.Session) (float64, bool) {
 				p := round(s).PortMarks
 				if p == nil {
@@ -249,7 +258,14 @@ func deadCentreField(end session.End, dir session.Direction, k int, circ float64
 		}
 		return -1
 	}
-	return field{Key: fmt.Sprintf("cylinders[0].dead_centres[%s %s].marks_tyre_mm[%d]", end, dir, k),
+	crank := [2]float64{-25, 25}[k]
+	if dir == session.Backward {
+		crank = -crank
+	}
+	if end == session.Back {
+		crank += 180
+	}
+	return field{CrankDeg: crank, Key: fmt.Sprintf("cylinders[0].dead_centres[%s %s].marks_tyre_mm[%d]", end, dir, k),
 		Step: "Dead centres", Label: fmt.Sprintf("%s dead centre turning %s, %s mark", title(string(end)), dir, which), Say: say,
 		Lo: 0, Hi: circ,
 		path: func(s *session.Session) string {
@@ -294,7 +310,11 @@ func dcReadingField(rp string, round func(*session.Session) *session.Round, p po
 		}
 		return -1
 	}
-	return field{Key: fmt.Sprintf("%s.dead_centre_readings[%s %s].gauge_mm", rp, p.Notch, end),
+	crank := 0.0
+	if end == session.Back {
+		crank = 180
+	}
+	return field{Notch: p.Notch, CrankDeg: crank, Key: fmt.Sprintf("%s.dead_centre_readings[%s %s].gauge_mm", rp, p.Notch, end),
 		Step: "Readings at dead centre", Label: fmt.Sprintf("%s dead centre, %s", title(string(end)), p.Notch),
 		Say: fmt.Sprintf("Put the reverser in %s. Turn the wheel %s to the %s dead centre mark, taking up backlash as you go, and type the gauge reading.", p.Notch, p.Dir, end),
 		Lo:  -50, Hi: 50,
@@ -336,7 +356,7 @@ func sweepField(rp string, round func(*session.Session) *session.Round, p positi
 		r.Sweeps = append(r.Sweeps, session.Sweep{Reverser: session.ReverserPosition{Notch: p.Notch}, Direction: p.Dir})
 		return &r.Sweeps[len(r.Sweeps)-1]
 	}
-	f := field{Step: "Sweep, " + p.Notch, Optional: true, Lo: -50, Hi: 50}
+	f := field{Step: "Sweep, " + p.Notch, Optional: true, Lo: -50, Hi: 50, Notch: p.Notch, CrankDeg: float64(k) * 360 / sweepSteps}
 	if gauge {
 		f.Key = fmt.Sprintf("%s.sweeps[%s].readings[%d].gauge_mm", rp, p.Notch, k)
 		f.Label = fmt.Sprintf("Reading %d of %d, gauge", k+1, sweepSteps)
@@ -397,7 +417,11 @@ func cutOffField(rp string, round func(*session.Session) *session.Round, p posit
 		}
 		return -1
 	}
-	return field{Key: fmt.Sprintf("%s.cut_offs[%s %s].crosshead_mm", rp, p.Notch, end),
+	crank := 120.0 // about three quarters of the stroke
+	if end == session.Back {
+		crank = 300
+	}
+	return field{Notch: p.Notch, CrankDeg: crank, Key: fmt.Sprintf("%s.cut_offs[%s %s].crosshead_mm", rp, p.Notch, end),
 		Step: "Cut-off points", Label: fmt.Sprintf("%s cut-off, %s", title(string(end)), p.Notch), Optional: true,
 		Say: fmt.Sprintf("Turn %s from the %s dead centre until the gauge is back at the %s port mark; type how far the crosshead has moved from its dead-centre line on the slide bar.", p.Dir, end, end),
 		Lo:  0, Hi: 2000,

@@ -60,6 +60,11 @@ func TestScreensFit(t *testing.T) {
 		check("measure")
 		typeKeys(t, a, "129")
 		check("measure, implausible")
+		tap(t, a, "Where")
+		check("where")
+		if !a.Back() || a.Screen() != Measure || a.text != "129" {
+			t.Fatalf("Back from where: %s", a.Screen())
+		}
 		tap(t, a, "Menu")
 		check("menu")
 		tap(t, a, "All readings")

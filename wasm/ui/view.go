@@ -97,6 +97,10 @@ func (a *App) layout() *view {
 		a.historyView(lay)
 	case Menu:
 		a.menuView(lay)
+	case Where:
+		f := a.fields[a.fi]
+		lay.muted(f.Label + ": the engine as drawn, about where it stands for this reading. Drag sideways to turn the wheel.")
+		v.body = render.Rect{Min: render.Point{X: margin, Y: lay.y}, Max: render.Point{X: a.w - margin, Y: a.h - margin}}
 	}
 	v.bottom = lay.y
 	a.scrolled(v)
@@ -106,7 +110,7 @@ func (a *App) layout() *view {
 // scrolled moves the content (not the top bar) up by the scroll.
 func (a *App) scrolled(v *view) {
 	maxS := math.Max(0, v.bottom+margin-a.h)
-	if v.keypad != nil || a.screen == Plan {
+	if v.keypad != nil || a.screen == Plan || a.screen == Where {
 		maxS = 0 // fitted to the screen
 	}
 	a.scroll = math.Max(0, math.Min(a.scroll, maxS))
@@ -306,8 +310,8 @@ func (a *App) keypadView(l *layouter) {
 	}
 	l.para(note, render.BodySize, false, true, false)
 	if a.screen == Measure {
-		labels := []string{"All readings"}
-		acts := []func(){func() { a.navigate(Readings) }}
+		labels := []string{"Where", "All readings"}
+		acts := []func(){a.showWhere, func() { a.navigate(Readings) }}
 		if f.Optional {
 			labels = append(labels, "Skip")
 			acts = append(acts, a.skipStep)
@@ -512,7 +516,7 @@ func (a *App) Handle(in Intent) {
 			_ = a.SetWhatIf(a.what.step, a.what.lo+math.Max(0, math.Min(1, t))*(a.what.hi-a.what.lo))
 			return
 		}
-		if a.screen == Plan && a.diagram == render.MotionDiagram {
+		if a.screen == Plan && a.diagram == render.MotionDiagram || a.screen == Where {
 			a.crankDeg = math.Mod(a.crankDeg+in.Delta.X+360, 360)
 			return
 		}

@@ -14,6 +14,15 @@
 // evenbeatDrawn, evenbeatFirstFrame, evenbeatFirstScreen, evenbeatAck,
 // evenbeatBox, evenbeatAckSaved, evenbeatTheme, evenbeatGoStart).
 //
+// With "?flow" in the page's address the app runs the whole measuring flow
+// of package ui instead (flow_js.go): the engines list, set-up, cautions,
+// readings on the on-canvas keypad, the plan and its what-if, with every
+// entry saved through the IndexedDB store, the back gesture moving back a
+// step (History API), the plan's words mirrored into a hidden live region,
+// and file export and import. It publishes evenbeatState, evenbeatStatus,
+// evenbeatField, evenbeatTargets (JSON: label and rect of every touch
+// target) and evenbeatPlanText for tests.
+//
 // Units: logical units are CSS pixels, origin top-left, y down, as in
 // render; the screen has scale device pixels per logical unit
 // (ebiten.Monitor().DeviceScaleFactor()). It may import setting, render

@@ -159,7 +159,7 @@ func TestFullDemoSessionByTaps(t *testing.T) {
 	ref := demoSession(t)
 	ref.Cylinders[0].Rounds = ref.Cylinders[0].Rounds[:1]
 	setUpDemo(t, a, st)
-	entries := 0
+	entries, writes := 0, len(st.puts)
 	for a.Screen() == Measure {
 		f := a.fields[a.fi]
 		v, ok := f.get(ref)
@@ -169,6 +169,9 @@ func TestFullDemoSessionByTaps(t *testing.T) {
 		typeKeys(t, a, formatNumber(v, false))
 		tap(t, a, "Next")
 		entries++
+		if len(st.puts) != writes+entries || st.puts[len(st.puts)-1] != a.cur.Key {
+			t.Fatalf("%s: %d writes for %d entries", f.Key, len(st.puts)-writes, entries)
+		}
 		if a.Note() != "" && a.fields[a.fi].Key == f.Key {
 			t.Fatalf("%s: entry refused: %s", f.Key, a.Note())
 		}

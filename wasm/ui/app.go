@@ -337,8 +337,9 @@ func (a *App) unitLabel() string {
 	return "mm"
 }
 
-// openSession makes a stored session current and goes where its next
-// entry is: the first reading not yet taken, or the plan.
+// openSession makes a stored session current and goes to its plan when
+// the readings are enough for one, else to the first reading not yet
+// taken.
 func (a *App) openSession(e *Stored) {
 	a.cur = e
 	s := e.Session
@@ -348,7 +349,12 @@ func (a *App) openSession(e *Stored) {
 	}
 	a.round = len(s.Cylinders[0].Rounds) - 1
 	a.fields = measureFields(s, a.round)
+	a.setField(0)
+	ready := !hasBlocking(s.Readiness(0)) // enough for a plan: show it; every reading is a tap away
 	for i, f := range a.fields {
+		if ready {
+			break
+		}
 		if _, ok := f.get(s); !ok && !f.Optional {
 			a.fi = i
 			a.navigate(Measure)

@@ -58,6 +58,14 @@ func runFlow(st *store, th render.Theme) error {
 	}
 	g.ui = ui.New(opt)
 	g.live = liveRegion()
+	// The page (a dropped file, a test) may hand over a session file's
+	// text: it is imported on the next tick like a chosen file.
+	g.window.Set("evenbeatImport", js.FuncOf(func(_ js.Value, args []js.Value) any {
+		if len(args) > 0 {
+			g.queueImport([]byte(args[0].String()))
+		}
+		return nil
+	}))
 	// One guard entry in the page's history: the back gesture pops it, the
 	// app moves back a step and puts it back; when the app has nowhere to
 	// go back to, the browser leaves.
@@ -184,6 +192,13 @@ func download(name string, data []byte) {
 	js.Global().Get("URL").Call("revokeObjectURL", url)
 }
 
+// queueImport keeps a file's bytes for the next tick to import.
+func (g *flowGame) queueImport(b []byte) {
+	g.mu.Lock()
+	g.imports = append(g.imports, b)
+	g.mu.Unlock()
+}
+
 // chooseFile opens the browser's file chooser; the chosen file's bytes are
 // imported on the next tick.
 func (g *flowGame) chooseFile() {
@@ -204,9 +219,7 @@ func (g *flowGame) chooseFile() {
 			arr := js.Global().Get("Uint8Array").New(args[0])
 			b := make([]byte, arr.Length())
 			js.CopyBytesToGo(b, arr)
-			g.mu.Lock()
-			g.imports = append(g.imports, b)
-			g.mu.Unlock()
+			g.queueImport(b)
 			return nil
 		})
 		files.Index(0).Call("arrayBuffer").Call("then", then)

@@ -3,6 +3,7 @@ package main
 import (
 	"context"
 	"encoding/json"
+	"os"
 	"strconv"
 	"strings"
 	"testing"
@@ -43,7 +44,8 @@ func tapAndWait(t *testing.T, ctx context.Context, label, want string) {
 // the cautions, one reading typed on the keypad until the app says saved;
 // then the browser is killed outright and started again on the same
 // profile, and the reading must be there; the back gesture moves back a
-// step inside the app.
+// step inside the app; a session file handed to the page opens on its
+// plan, whose words are in the page's live region.
 func TestFlowPhone(t *testing.T) {
 	if testing.Short() {
 		t.Skip("browser test; drop -short to run it")
@@ -85,4 +87,19 @@ func TestFlowPhone(t *testing.T) {
 	// The back gesture: one step back, still in the app.
 	eval[bool](t, ctx, "(history.back(), true)")
 	waitFor(t, ctx, 30*time.Second, `window.evenbeatState === "measure"`)
+
+	// The demo session file imported (as a chosen file would be) opens on
+	// its plan, whose words are in the page's live region. (Typing a
+	// whole round by taps is tested natively in package ui: here each tap
+	// costs seconds.)
+	b, err := os.ReadFile("../../testdata/sessions/brackenfold-stephenson.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	eval[bool](t, ctx, "(window.evenbeatImport("+strconv.Quote(string(b))+"), true)")
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatState === "plan" && window.evenbeatPlanText.includes("Plan for Brackenfold")`)
+	if words := eval[string](t, ctx, `document.getElementById("evenbeat-words").textContent`); !strings.Contains(words, "Plan for Brackenfold") {
+		t.Errorf("the live region does not hold the plan: %q", words)
+	}
+	screenshot(t, ctx, "flow-plan")
 }

@@ -1,30 +1,34 @@
 // Command wasm is the Evenbeat browser app: an ebiten game compiled with
 // GOOS=js GOARCH=wasm and started by site/index.html.
 //
-// Screens and input logic (app.go, input.go) are plain Go and tested
-// natively; everything touching ebiten or syscall/js lives in files built
-// only for js (main.go, *_js.go): the ebiten Canvas backend, the pointer
-// queue fed by JavaScript listeners, and the IndexedDB store.
+// The app is the measuring flow of package ui (flow_js.go): the engines
+// list, set-up, the first-run cautions, readings on the on-canvas keypad,
+// the plan and its what-if, with every entry saved through the IndexedDB
+// store in strict-durability transactions (store_js.go), the back gesture
+// moving back a step (History API), the plan's words mirrored into a
+// hidden live region, and file export and import.
+//
+// Input logic (input.go) is plain Go and tested natively; everything
+// touching ebiten or syscall/js lives in files built only for js (main.go,
+// *_js.go): the ebiten Canvas backend, the pointer queue fed by JavaScript
+// listeners, and the store.
 //
 // Input: pointer events are queued by JavaScript listeners as they happen
 // (ebiten polls once per tick and would lose a quick tap on a slow phone),
 // with ebiten's touches and mouse as the fallback; keys, touches and mouse
-// are folded into intents (tap, scroll, confirm) that the screens handle.
-// The app publishes its state on window for tests (evenbeatState,
-// evenbeatDrawn, evenbeatFirstFrame, evenbeatFirstScreen, evenbeatAck,
-// evenbeatBox, evenbeatAckSaved, evenbeatTheme, evenbeatGoStart).
+// are folded into intents (tap, drag, confirm) that package ui handles.
 //
-// With "?flow" in the page's address the app runs the whole measuring flow
-// of package ui instead (flow_js.go): the engines list, set-up, cautions,
-// readings on the on-canvas keypad, the plan and its what-if, with every
-// entry saved through the IndexedDB store, the back gesture moving back a
-// step (History API), the plan's words mirrored into a hidden live region,
-// and file export and import. It publishes evenbeatState, evenbeatStatus,
-// evenbeatField, evenbeatTargets (JSON: label and rect of every touch
-// target) and evenbeatPlanText for tests.
+// The app publishes its state on window for tests and the page:
+// evenbeatState (the screen shown), evenbeatDrawn (the screen of the last
+// drawn frame), evenbeatFirstFrame and evenbeatFirstScreen (when the first
+// frame was drawn and what it showed), evenbeatGoStart (when the program
+// started), evenbeatTheme ("light" or "dark"), evenbeatStatus (the saving
+// state), evenbeatField (the keypad's field), evenbeatTargets (JSON: label
+// and rect of every touch target) and evenbeatPlanText (the plan's words).
+// The page may hand a session file's text to window.evenbeatImport.
 //
 // Units: logical units are CSS pixels, origin top-left, y down, as in
 // render; the screen has scale device pixels per logical unit
-// (ebiten.Monitor().DeviceScaleFactor()). It may import setting, render
-// and, in js files, ebiten and syscall/js.
+// (ebiten.Monitor().DeviceScaleFactor()). It may import setting, render,
+// package ui and, in js files, ebiten and syscall/js.
 package main

@@ -5,7 +5,6 @@ package main
 import (
 	"encoding/json"
 	"log"
-	"strings"
 	"sync"
 	"syscall/js"
 
@@ -14,14 +13,6 @@ import (
 	"evenbeat/render"
 	"evenbeat/wasm/ui"
 )
-
-// flowMode reports whether the page asked for the whole measuring flow
-// (package ui) with "?flow" in its address. The skeleton (cautions, then
-// the piston diagram) stays the default until the browser tests move to
-// the flow.
-func flowMode() bool {
-	return strings.Contains(js.Global().Get("location").Get("search").String(), "flow")
-}
 
 // uiStore is the IndexedDB store as package ui's Store.
 type uiStore struct{ st *store }
@@ -35,9 +26,8 @@ func (s uiStore) Put(key string, value []byte, done func(error)) {
 	s.st.Put(key, string(value), done)
 }
 
-// flowGame runs package ui's app: the game's input plumbing (pointer
-// queue, taps, polled touches) and canvas, with ui.App in place of the
-// skeleton's screens.
+// flowGame runs package ui's app on the game's plumbing (size, pointer
+// queue, taps, polled touches, keys) and canvas.
 type flowGame struct {
 	*game
 	ui     *ui.App
@@ -49,9 +39,9 @@ type flowGame struct {
 	live    js.Value // the hidden live region mirroring the plan's words
 }
 
-// runFlow starts the flow app.
+// runFlow starts the app.
 func runFlow(st *store, th render.Theme) error {
-	g := &flowGame{game: newGame(nil, st), window: js.Global()}
+	g := &flowGame{game: newGame(), window: js.Global()}
 	opt := ui.Options{Theme: th, OnExport: download, OnImport: g.chooseFile}
 	if st != nil {
 		opt.Store = uiStore{st}
@@ -110,7 +100,7 @@ func (g *flowGame) Update() error {
 	return nil
 }
 
-// uiIntent is the skeleton's intent as package ui's.
+// uiIntent is the glue's intent as package ui's.
 func uiIntent(in intent) ui.Intent {
 	switch in.Kind {
 	case intentScroll:
@@ -122,16 +112,18 @@ func uiIntent(in intent) ui.Intent {
 }
 
 // publish tells the page (and tests) the screen, the saving state, the
-// touch targets in CSS px and the plan's words, and mirrors the words into
+// touch targets in CSS px (and whether each is a chosen option) and the
+// plan's words, and mirrors the words into
 // the live region.
 func (g *flowGame) publish() {
 	type target struct {
 		Label      string
 		X, Y, W, H float64
+		On         bool
 	}
 	var ts []target
 	for _, t := range g.ui.Targets() {
-		ts = append(ts, target{t.Label, t.Rect.Min.X, t.Rect.Min.Y, t.Rect.W(), t.Rect.H()})
+		ts = append(ts, target{t.Label, t.Rect.Min.X, t.Rect.Min.Y, t.Rect.W(), t.Rect.H(), t.On})
 	}
 	b, _ := json.Marshal(ts)
 	g.window.Set("evenbeatState", g.ui.Screen().String())

@@ -3,9 +3,7 @@
 package main
 
 import (
-	"log"
 	"math"
-	"syscall/js"
 
 	"github.com/hajimehoshi/ebiten/v2"
 	"github.com/hajimehoshi/ebiten/v2/inpututil"
@@ -13,43 +11,28 @@ import (
 	"evenbeat/render"
 )
 
-// noScreen is no screen at all: nothing has been published yet.
-const noScreen screen = 255
-
-// ackKey is the store key of the cautions acknowledgement.
-const ackKey = "cautions-acknowledged"
-
-// game is the ebiten side of the app: it turns ticks, input and the screen
-// size into calls on app, and draws app through the ebiten canvas only when
-// something changed.
+// game is the ebiten plumbing the app runs on: the screen size, the
+// pointer queue, taps folded from pointer events or ebiten's polled touches
+// and mouse, the keys, and the ebiten canvas.
 type game struct {
-	app    *app
 	canvas *ebitenCanvas
 	queue  *pointerQueue
 	taps   tapper
-	store  *store // nil when the browser gives no storage
 
 	outW, outH int     // outside size (CSS px) from Layout
 	scale      float64 // device pixels per CSS px
 	events     []pointerEvent
 	touches    []ebiten.TouchID
 	held       map[ebiten.TouchID]render.Point
-
-	window       js.Value
-	published    screen
-	publishedAck render.Rect
-	drawn        bool
+	drawn      bool // the first frame is drawn
 }
 
-func newGame(a *app, st *store) *game {
+// newGame returns the plumbing for a new app.
+func newGame() *game {
 	return &game{
-		app:       a,
-		canvas:    newEbitenCanvas(),
-		queue:     newPointerQueue(),
-		store:     st,
-		held:      map[ebiten.TouchID]render.Point{},
-		window:    js.Global(),
-		published: noScreen,
+		canvas: newEbitenCanvas(),
+		queue:  newPointerQueue(),
+		held:   map[ebiten.TouchID]render.Point{},
 	}
 }
 
@@ -60,16 +43,6 @@ func (g *game) Layout(outW, outH int) (int, int) {
 	g.outW, g.outH = outW, outH
 	g.scale = ebiten.Monitor().DeviceScaleFactor()
 	return int(math.Ceil(float64(outW) * g.scale)), int(math.Ceil(float64(outH) * g.scale))
-}
-
-// Update runs the logic of one tick: size, input, saving, state for the page.
-func (g *game) Update() error {
-	if g.scale > 0 {
-		g.app.Resize(float64(g.outW), float64(g.outH))
-	}
-	g.feed(g.handle)
-	g.publish()
-	return nil
 }
 
 // feed passes this tick's input to handle as intents: the pointer events
@@ -89,13 +62,6 @@ func (g *game) feed(handle func(intent)) {
 	}
 	for _, in := range keyIntents() {
 		handle(in)
-	}
-}
-
-// handle passes one intent to the app and saves what it asks to save.
-func (g *game) handle(in intent) {
-	if g.app.Handle(in) {
-		g.saveAck()
 	}
 }
 
@@ -148,58 +114,4 @@ func (g *game) polled(dst []pointerEvent) []pointerEvent {
 		dst = append(dst, pointerEvent{Kind: pointerUp, ID: mouseID, At: at(ebiten.CursorPosition())})
 	}
 	return dst
-}
-
-// saveAck stores the acknowledgement; window.evenbeatAckSaved turns true
-// when the browser has it on disk.
-func (g *game) saveAck() {
-	if g.store == nil {
-		return
-	}
-	g.store.Put(ackKey, "yes", func(err error) {
-		if err != nil {
-			log.Print(err)
-			return
-		}
-		g.window.Set("evenbeatAckSaved", true)
-	})
-}
-
-// publish tells the page (and tests) which screen shows and where the
-// acknowledgement button is, in CSS px.
-func (g *game) publish() {
-	ack := g.app.AckButton()
-	if g.app.screen == g.published && ack == g.publishedAck {
-		return
-	}
-	g.published, g.publishedAck = g.app.screen, ack
-	g.window.Set("evenbeatState", g.app.screen.String())
-	g.window.Set("evenbeatAck", jsRect(ack))
-	g.window.Set("evenbeatBox", jsRect(g.app.content()))
-}
-
-// Draw draws the app when it changed; otherwise the last frame stays (the
-// screen is not cleared between frames).
-func (g *game) Draw(screen *ebiten.Image) {
-	if !g.app.dirty || g.app.w == 0 {
-		return
-	}
-	g.canvas.Begin(screen, g.scale)
-	g.app.Draw(g.canvas)
-	g.app.dirty = false
-	// For tests and the page: what the last drawn frame shows.
-	g.window.Set("evenbeatDrawn", g.app.screen.String())
-	if !g.drawn {
-		g.drawn = true
-		g.window.Set("evenbeatFirstFrame", g.window.Get("performance").Call("now"))
-		g.window.Set("evenbeatFirstScreen", g.app.screen.String())
-		if el := g.window.Get("document").Call("getElementById", "loading"); el.Truthy() {
-			el.Get("style").Set("display", "none")
-		}
-	}
-}
-
-// jsRect is r as a plain object {x, y, w, h} in CSS px.
-func jsRect(r render.Rect) map[string]any {
-	return map[string]any{"x": r.Min.X, "y": r.Min.Y, "w": r.W(), "h": r.H()}
 }

@@ -92,8 +92,3 @@ func (t *tapper) Feed(ev pointerEvent) (intent, bool) {
 	}
 	return intent{}, false
 }
-
-// contains reports whether r holds pt (edges included).
-func contains(r render.Rect, pt render.Point) bool {
-	return pt.X >= r.Min.X && pt.X <= r.Max.X && pt.Y >= r.Min.Y && pt.Y <= r.Max.Y
-}

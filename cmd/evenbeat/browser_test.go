@@ -1,16 +1,21 @@
 package main
 
 import (
+	"context"
+	"encoding/json"
 	"fmt"
 	"image"
 	"image/color"
 	"math"
 	"net/http"
+	"os"
+	"strconv"
+	"strings"
 	"testing"
 	"time"
 
 	"evenbeat/render"
-	"evenbeat/setting"
+	"evenbeat/wasm/ui"
 )
 
 // capture is a render.Canvas that only notes where things go, so a test
@@ -19,20 +24,11 @@ import (
 type capture struct {
 	w, h    float64
 	strokes map[color.RGBA]render.Rect // bounding box of all strokes per colour
-	texts   []capturedText
 }
 
-type capturedText struct {
-	at   render.Point
-	text string
-	s    render.TextStyle
-}
-
-func (c *capture) Size() (w, h float64)               { return c.w, c.h }
-func (c *capture) Fill(render.Path, render.FillStyle) {}
-func (c *capture) Text(at render.Point, text string, s render.TextStyle) {
-	c.texts = append(c.texts, capturedText{at, text, s})
-}
+func (c *capture) Size() (w, h float64)                        { return c.w, c.h }
+func (c *capture) Fill(render.Path, render.FillStyle)          {}
+func (c *capture) Text(render.Point, string, render.TextStyle) {}
 func (c *capture) Stroke(p render.Path, s render.LineStyle) {
 	if c.strokes == nil {
 		c.strokes = map[color.RGBA]render.Rect{}
@@ -57,66 +53,133 @@ func devicePx(r render.Rect) image.Rectangle {
 	return image.Rect(int(math.Floor(r.Min.X*k)), int(math.Floor(r.Min.Y*k)), int(math.Ceil(r.Max.X*k)), int(math.Ceil(r.Max.Y*k)))
 }
 
-// browserDemoEngine is the engine the app draws: the crank and cylinder of
-// setting's invented demo engine.
-func browserDemoEngine() setting.Engine {
-	return setting.DemoStephenson().Engine
+// demoSessionFile is the invented demo engine's session file.
+const demoSessionFile = "../../testdata/sessions/brackenfold-stephenson.json"
+
+// flowTarget is one touch target the app publishes (CSS px).
+type flowTarget struct {
+	Label      string
+	X, Y, W, H float64
+	On         bool
 }
 
-// checkDiagram fails t unless shot shows the piston diagram.
-func checkDiagram(t *testing.T, shot image.Image, box render.Rect, th render.Theme) {
+// targets returns the touch targets the app publishes.
+func targets(t *testing.T, ctx context.Context) []flowTarget {
 	t.Helper()
-	for _, p := range diagramProblems(t, shot, box, th) {
-		t.Error(p)
+	var ts []flowTarget
+	if err := json.Unmarshal([]byte(eval[string](t, ctx, "window.evenbeatTargets")), &ts); err != nil {
+		t.Fatal(err)
 	}
+	return ts
 }
 
-// diagramProblems lists what is wrong with shot as a picture of the piston
-// diagram: the theme's curve colour must run along the curve, the card and
-// page colours must cover most of the screen, and dark title text must sit
-// where the layout puts the title.
-func diagramProblems(t *testing.T, shot image.Image, box render.Rect, th render.Theme) []string {
+// tapLabel taps the published target whose label starts with label: a
+// finger held longer than a frame.
+func tapLabel(t *testing.T, ctx context.Context, label string) {
+	t.Helper()
+	ts := targets(t, ctx)
+	for _, tg := range ts {
+		if strings.HasPrefix(tg.Label, label) {
+			tap(t, ctx, tg.X+tg.W/2, tg.Y+tg.H/2, 150*time.Millisecond)
+			return
+		}
+	}
+	t.Fatalf("no target %q on %s: %+v", label, eval[string](t, ctx, "window.evenbeatState"), ts)
+}
+
+// tapAndWait taps label and waits until the page state is want.
+func tapAndWait(t *testing.T, ctx context.Context, label, want string) {
+	t.Helper()
+	tapLabel(t, ctx, label)
+	waitFor(t, ctx, 30*time.Second, "window.evenbeatState === "+strconv.Quote(want))
+}
+
+// ackStoredJS is a promise of whether the page's IndexedDB holds the
+// cautions acknowledgement. A read transaction sees only committed
+// writes.
+const ackStoredJS = `new Promise((ok, no) => {
+	const r = indexedDB.open("evenbeat", 1);
+	r.onerror = () => no(r.error);
+	r.onsuccess = () => {
+		const g = r.result.transaction("kv").objectStore("kv").get(` + "`" + ui.AckKey + "`" + `);
+		g.onsuccess = () => { r.result.close(); ok(g.result !== undefined); };
+		g.onerror = () => no(g.error);
+	};
+})`
+
+// curveLayout draws the demo session's valve curve (the plan's Curve tab)
+// natively, as the app lays it out on the phone, and returns where it
+// puts its strokes.
+func curveLayout(t *testing.T, th render.Theme) *capture {
+	t.Helper()
+	b, err := os.ReadFile(demoSessionFile)
+	if err != nil {
+		t.Fatal(err)
+	}
+	a := ui.New(ui.Options{Theme: th})
+	a.Resize(phoneW, phoneH)
+	if err := a.Import(b); err != nil {
+		t.Fatal(err)
+	}
+	a.Update()
+	for _, tg := range a.Targets() {
+		if tg.Label == "Curve" {
+			a.Handle(ui.Intent{Kind: ui.Tap, At: render.Point{X: (tg.Rect.Min.X + tg.Rect.Max.X) / 2, Y: (tg.Rect.Min.Y + tg.Rect.Max.Y) / 2}})
+		}
+	}
+	a.Update()
+	c := &capture{w: phoneW, h: phoneH}
+	a.Draw(c)
+	if a.Screen() != ui.Plan {
+		t.Fatalf("the demo session opens on %v; want the plan", a.Screen())
+	}
+	return c
+}
+
+// curveProblems lists what is wrong with shot as a picture of the plan's
+// valve curve: the theme's front and back colours must run along the
+// curves where the native layout puts them, and the card and page colours
+// must cover most of the screen.
+func curveProblems(t *testing.T, shot image.Image, layout *capture, th render.Theme) []string {
 	t.Helper()
 	var problems []string
-	c := &capture{w: phoneW, h: phoneH}
-	render.PistonCurve(c, browserDemoEngine(), box, th)
-	curve, ok := c.strokes[th.Accent]
-	if !ok {
-		t.Fatal("the piston diagram strokes nothing in the accent colour; the check needs updating")
-	}
-	// Along the curve's bounding box: a 3-unit line at 3 px per unit over
-	// some 300 units of curve is thousands of pixels; a missing curve is 0.
-	if n := count(shot, devicePx(curve), th.Accent, 24); n < 2000 {
-		problems = append(problems, fmt.Sprintf("curve colour %v: %d pixels inside the plot %v; want at least 2000 (no curve drawn?)", th.Accent, n, devicePx(curve)))
+	screen := render.Rect{Max: render.Point{X: phoneW, Y: phoneH}}
+	for _, end := range []struct {
+		name string
+		col  color.RGBA
+	}{{"front", th.Front}, {"back", th.Back}} {
+		r, ok := layout.strokes[end.col]
+		if !ok {
+			t.Fatalf("the valve curve strokes nothing in the %s colour; the check needs updating", end.name)
+		}
+		r = render.Rect{Min: render.Point{X: math.Max(r.Min.X, 0), Y: math.Max(r.Min.Y, 0)}, Max: render.Point{X: math.Min(r.Max.X, screen.Max.X), Y: math.Min(r.Max.Y, screen.Max.Y)}}
+		// A line 2 units wide at 3 px per unit along some 300 units of
+		// curve is thousands of pixels; a missing curve is none.
+		if n := count(shot, devicePx(r), end.col, 24); n < 1500 {
+			problems = append(problems, fmt.Sprintf("%s colour %v: %d pixels inside the plot %v; want at least 1500 (no curve drawn?)", end.name, end.col, n, devicePx(r)))
+		}
 	}
 	all := shot.Bounds()
 	ground := count(shot, all, th.Surface, 6) + count(shot, all, th.Background, 6)
 	if frac := float64(ground) / float64(all.Dx()*all.Dy()); frac < 0.6 {
 		problems = append(problems, fmt.Sprintf("card and page colours cover %.0f %% of the screen; want at least 60 %% (blank or wrong theme?)", 100*frac))
 	}
-	var title render.Rect
-	found := false
-	for _, tx := range c.texts {
-		if tx.s.Bold && tx.s.Size == render.TitleSize {
-			title, found = render.TextBox(tx.at, tx.text, tx.s), true
-			break
-		}
-	}
-	if !found {
-		t.Fatal("the piston diagram draws no bold title; the check needs updating")
-	}
-	if n := count(shot, devicePx(title), th.Ink, 40); n < 300 {
-		problems = append(problems, fmt.Sprintf("title area %v: %d ink pixels; want at least 300 (no title text?)", devicePx(title), n))
-	}
 	return problems
 }
 
-// TestPhone runs the app in Chromium as a 3x phone with touch: the cautions
-// card comes first; a tap on its button shows the diagram and stores the
-// acknowledgement; the browser is then killed outright and started again on
-// the same profile, and must go straight to the diagram (the entry was on
-// disk when the app called it saved); finally, with the server stopped, a
-// reload still starts the app from the service worker's cache.
+// TestPhone runs the app in Chromium as a 3x phone with touch, from the
+// page's plain address: the engines list first; set-up of the invented
+// demo engine by taps held longer than a frame; the first-run cautions
+// when the flow reaches them, their acknowledgement in IndexedDB; one
+// reading typed on the keypad until the app says saved. Then the browser
+// is killed outright and started again on the same profile: the
+// acknowledgement and the reading must be there, and the session goes
+// straight to measuring. The back gesture moves back a step inside the
+// app; a session file handed to the page opens on its plan, whose words
+// are in the page's live region, and whose valve curve shows in the
+// theme's colours where the natively computed layout puts it (a check that
+// fails on the plan's steps). Finally, with the server stopped, a reload
+// still starts the app from the service worker's cache.
 func TestPhone(t *testing.T) {
 	if testing.Short() {
 		t.Skip("browser test; drop -short to run it")
@@ -127,7 +190,7 @@ func TestPhone(t *testing.T) {
 	ctx, _ := newBrowser(t, profile, noTierUp())
 
 	within(t, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
-	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "cautions"`)
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
 	if got := eval[float64](t, ctx, "window.devicePixelRatio"); got != phoneScale {
 		t.Fatalf("devicePixelRatio = %v; want %d", got, phoneScale)
 	}
@@ -135,38 +198,73 @@ func TestPhone(t *testing.T) {
 	if eval[string](t, ctx, "window.evenbeatTheme") == "dark" {
 		th = render.Dark()
 	}
-	type rect struct{ X, Y, W, H float64 }
-	ack := eval[rect](t, ctx, "window.evenbeatAck")
-	box := eval[rect](t, ctx, "window.evenbeatBox")
-	content := render.Rect{Min: render.Point{X: box.X, Y: box.Y}, Max: render.Point{X: box.X + box.W, Y: box.Y + box.H}}
-	// The button the app hit-tests is the one render lays out natively.
-	want := render.Cautions(&capture{w: phoneW, h: phoneH}, content, th)
-	if math.Abs(want.Min.X-ack.X) > 0.01 || math.Abs(want.Min.Y-ack.Y) > 0.01 || math.Abs(want.W()-ack.W) > 0.01 || math.Abs(want.H()-ack.H) > 0.01 {
-		t.Fatalf("app's button %+v differs from render's layout %+v", ack, want)
+	tapAndWait(t, ctx, "Brackenfold (Stephenson) (invented demo)", "units")
+	tapAndWait(t, ctx, "Next", "sizes")
+	for eval[string](t, ctx, "window.evenbeatState") == "sizes" {
+		tapLabel(t, ctx, "Next")
+		time.Sleep(300 * time.Millisecond)
 	}
-	shot := screenshot(t, ctx, "phone-cautions")
-	// The diagram check must be able to fail: the cautions card is not
-	// the diagram.
-	if len(diagramProblems(t, shot, content, th)) == 0 {
-		t.Error("the diagram check passes on the cautions card; it cannot tell a missing diagram")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatState === "adjust"`)
+	tapAndWait(t, ctx, "Next: start measuring", "cautions")
+	if eval[bool](t, ctx, ackStoredJS) {
+		t.Fatal("the acknowledgement is stored before the cautions were acknowledged")
 	}
-	if n := count(shot, devicePx(want), th.Accent, 6); n < int(want.W()*want.H()*phoneScale*phoneScale/2) {
-		t.Errorf("the acknowledgement button %v shows only %d accent pixels", devicePx(want), n)
+	tapAndWait(t, ctx, "I understand", "measure")
+	for _, k := range []string{"2", ".", "4", "8"} {
+		tapLabel(t, ctx, k)
 	}
-
-	// A real tap: finger down, held longer than a frame, finger up.
-	tap(t, ctx, ack.X+ack.W/2, ack.Y+ack.H/2, 200*time.Millisecond)
-	waitFor(t, ctx, 30*time.Second, `window.evenbeatDrawn === "diagram" && window.evenbeatAckSaved === true`)
+	tapLabel(t, ctx, "Next")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatStatus === "Saved" && window.evenbeatField === "Back port mark"`)
+	waitFor(t, ctx, 30*time.Second, ackStoredJS)
+	measure := screenshot(t, ctx, "phone-measure")
 
 	// Saved means on disk: kill the browser at once and start it again.
 	killBrowser(t, ctx)
 	ctx, _ = newBrowser(t, profile, noTierUp())
 	within(t, ctx, 90*time.Second, "opening "+m.URL+" after the kill", chromedpNavigate(m.URL))
-	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "diagram"`)
-	if first := eval[string](t, ctx, "window.evenbeatFirstScreen"); first != "diagram" {
-		t.Errorf("after the kill the first frame showed %q; want the diagram (acknowledgement lost?)", first)
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
+	if !eval[bool](t, ctx, ackStoredJS) {
+		t.Error("after the kill the acknowledgement is not in IndexedDB")
 	}
-	checkDiagram(t, screenshot(t, ctx, "phone-diagram"), content, th)
+	// Acknowledged once: the session goes straight to measuring.
+	tapAndWait(t, ctx, "Brackenfold (Stephenson), 1 round", "measure")
+	tapAndWait(t, ctx, "All readings", "readings")
+	if ts := eval[string](t, ctx, "window.evenbeatTargets"); !strings.Contains(ts, "Front port mark: 2.48 mm") {
+		t.Fatalf("after the kill the reading is missing: %s", ts)
+	}
+	// The back gesture: one step back, still in the app.
+	eval[bool](t, ctx, "(history.back(), true)")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatState === "measure"`)
+
+	// The demo session file imported (as a chosen file would be) opens on
+	// its plan, whose words are in the page's live region. (Typing a
+	// whole round by taps is tested natively in package ui: here each tap
+	// costs seconds.)
+	b, err := os.ReadFile(demoSessionFile)
+	if err != nil {
+		t.Fatal(err)
+	}
+	eval[bool](t, ctx, "(window.evenbeatImport("+strconv.Quote(string(b))+"), true)")
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatState === "plan" && window.evenbeatPlanText.includes("Plan for Brackenfold")`)
+	if words := eval[string](t, ctx, `document.getElementById("evenbeat-words").textContent`); !strings.Contains(words, "Plan for Brackenfold") {
+		t.Errorf("the live region does not hold the plan: %q", words)
+	}
+	layout := curveLayout(t, th)
+	// The curve check must be able to fail: the plan's steps and the
+	// keypad are not the curve.
+	if len(curveProblems(t, measure, layout, th)) == 0 {
+		t.Error("the curve check passes on the measuring screen; it cannot tell a missing curve")
+	}
+	steps := screenshot(t, ctx, "phone-plan-steps")
+	if len(curveProblems(t, steps, layout, th)) == 0 {
+		t.Error("the curve check passes on the plan's steps; it cannot tell a missing curve")
+	}
+	tapLabel(t, ctx, "Curve")
+	waitFor(t, ctx, 30*time.Second, `JSON.parse(window.evenbeatTargets).some(t => t.Label === "Curve" && t.On)`)
+	time.Sleep(time.Second) // let the frame drawn in that tick reach the screen
+	for _, p := range curveProblems(t, screenshot(t, ctx, "phone-plan-curve"), layout, th) {
+		t.Error(p)
+	}
 
 	waitFor(t, ctx, 90*time.Second, `navigator.serviceWorker.controller !== null && navigator.serviceWorker.controller.state === "activated"`)
 
@@ -179,9 +277,11 @@ func TestPhone(t *testing.T) {
 		t.Fatal("the server still answers after Close")
 	}
 	within(t, ctx, 90*time.Second, "reloading with the server stopped", chromedpReload())
-	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "diagram"`)
-	if first := eval[string](t, ctx, "window.evenbeatFirstScreen"); first != "diagram" {
-		t.Errorf("offline, the first frame showed %q; want the diagram", first)
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
+	if first := eval[string](t, ctx, "window.evenbeatFirstScreen"); first != "engines" {
+		t.Errorf("offline, the first frame showed %q; want the engines list", first)
 	}
-	checkDiagram(t, screenshot(t, ctx, "phone-offline-diagram"), content, th)
+	if ts := eval[string](t, ctx, "window.evenbeatTargets"); !strings.Contains(ts, "Brackenfold (Stephenson), 1 round") {
+		t.Errorf("offline, the stored session is not listed: %s", ts)
+	}
 }

@@ -3,8 +3,6 @@
 package main
 
 import (
-	"encoding/json"
-	"log"
 	"sync"
 	"syscall/js"
 
@@ -90,7 +88,7 @@ func (g *flowGame) Update() error {
 	}
 	for _, b := range files {
 		if err := g.ui.Import(b); err != nil {
-			log.Print(err)
+			println(err.Error())
 		}
 	}
 	g.feed(func(in intent) { g.ui.Handle(uiIntent(in)) })
@@ -116,20 +114,10 @@ func uiIntent(in intent) ui.Intent {
 // plan's words, and mirrors the words into
 // the live region.
 func (g *flowGame) publish() {
-	type target struct {
-		Label      string
-		X, Y, W, H float64
-		On         bool
-	}
-	var ts []target
-	for _, t := range g.ui.Targets() {
-		ts = append(ts, target{t.Label, t.Rect.Min.X, t.Rect.Min.Y, t.Rect.W(), t.Rect.H(), t.On})
-	}
-	b, _ := json.Marshal(ts)
 	g.window.Set("evenbeatState", g.ui.Screen().String())
 	g.window.Set("evenbeatStatus", g.ui.Status())
 	g.window.Set("evenbeatField", g.ui.Field())
-	g.window.Set("evenbeatTargets", string(b))
+	g.window.Set("evenbeatTargets", targetsJSON(g.ui.Targets()))
 	words := ""
 	if g.ui.Screen() == ui.Plan {
 		words = g.ui.PlanText()

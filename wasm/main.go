@@ -3,7 +3,6 @@
 package main
 
 import (
-	"log"
 	"syscall/js"
 
 	"github.com/hajimehoshi/ebiten/v2"
@@ -16,7 +15,7 @@ func main() {
 	js.Global().Set("evenbeatGoStart", js.Global().Get("performance").Call("now"))
 	st, err := openStore()
 	if err != nil {
-		log.Print(err) // run without remembering anything
+		println(err.Error()) // run without remembering anything
 	}
 	th, name := render.Light(), "light"
 	if js.Global().Call("matchMedia", "(prefers-color-scheme: dark)").Get("matches").Bool() {
@@ -26,6 +25,6 @@ func main() {
 	ebiten.SetScreenClearedEveryFrame(false)
 	ebiten.SetWindowTitle("Evenbeat")
 	if err := runFlow(st, th); err != nil {
-		log.Print(err)
+		println(err.Error())
 	}
 }

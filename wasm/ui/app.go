@@ -1,7 +1,6 @@
 package ui
 
 import (
-	"encoding/json"
 	"fmt"
 	"math"
 	"strconv"
@@ -286,8 +285,7 @@ func (a *App) addSession(s *session.Session) {
 	a.index = append(a.index, e.Key)
 	a.cur = e
 	a.save()
-	idx, _ := json.Marshal(a.index)
-	a.put(IndexKey, idx)
+	a.put(IndexKey, encodeIndex(a.index))
 }
 
 // navigate shows screen s, remembering where Back returns to.

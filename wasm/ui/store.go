@@ -86,6 +86,12 @@ func sentence(err error) string {
 	return err.Error()
 }
 
+// encodeIndex returns the stored form of the list of session keys.
+func encodeIndex(keys []string) []byte {
+	b, _ := json.Marshal(keys) // a list of strings always encodes
+	return b
+}
+
 // loadAll reads every stored session listed in the index.
 func loadAll(st Store) ([]*Stored, []string, error) {
 	raw, ok, err := st.Get(IndexKey)

@@ -35,6 +35,7 @@ type flowGame struct {
 	backs   int      // popstate events not yet handled
 	imports [][]byte // files chosen, not yet imported
 	live    js.Value // the hidden live region mirroring the plan's words
+	draws   int      // frames really drawn, published as evenbeatDraws
 }
 
 // runFlow starts the app.
@@ -46,6 +47,8 @@ func runFlow(st *store, th render.Theme) error {
 	}
 	g.ui = ui.New(opt)
 	g.live = liveRegion()
+	g.window.Set("evenbeatDraws", 0)
+	g.window.Set("evenbeatPlanMs", -1)
 	// The page (a dropped file, a test) may hand over a session file's
 	// text: it is imported on the next tick like a chosen file.
 	g.window.Set("evenbeatImport", js.FuncOf(func(_ js.Value, args []js.Value) any {
@@ -123,6 +126,8 @@ func (g *flowGame) publish() {
 		words = g.ui.PlanText()
 	}
 	g.window.Set("evenbeatPlanText", words)
+	// How long the last plan took, in ms; -1 until the app reports it.
+	g.window.Set("evenbeatPlanMs", -1)
 	if g.live.Truthy() && g.live.Get("textContent").String() != words {
 		g.live.Set("textContent", words)
 	}
@@ -135,6 +140,8 @@ func (g *flowGame) Draw(screen *ebiten.Image) {
 	}
 	g.canvas.Begin(screen, g.scale)
 	g.ui.Draw(g.canvas)
+	g.draws++
+	g.window.Set("evenbeatDraws", g.draws)
 	g.window.Set("evenbeatDrawn", g.ui.Screen().String())
 	if !g.drawn {
 		g.drawn = true

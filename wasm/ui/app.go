@@ -75,6 +75,17 @@ type Options struct {
 	// OnImport, when set, is called when the user asks to import a file;
 	// the glue opens a file chooser and hands the bytes to App.Import.
 	OnImport func()
+	// OnName, when set, is called with the engine's current name when the
+	// user asks to rename it; the glue shows a text box over the canvas,
+	// then calls App.Rename.
+	OnName func(current string)
+	// OnShare, when set, is called with a file name and the report to
+	// draw when the user asks to share the plan; the glue draws
+	// render.Report and shares or downloads the PNG.
+	OnShare func(fileName string, m render.ReportModel)
+	// OnUpdate, when set, is called when the user chose to restart into
+	// the new version (after SetUpdateReady(true)).
+	OnUpdate func()
 }
 
 // App is the phone app's screens and flow. Handle, Update, Back, Resize,
@@ -128,6 +139,9 @@ type App struct {
 	importErr string
 	engine    *render.Model // the engine as drawn, for the drawing of where
 	engineOf  *session.Session
+
+	updateReady bool          // a new version waits: the banner shows
+	planTime    time.Duration // how long the last fit, plan and model took
 }
 
 // whatIf is the plan screen's what-if: one step's amount changed by a
@@ -284,6 +298,7 @@ func (a *App) addSession(s *session.Session) {
 	a.stored = append(a.stored, e)
 	a.index = append(a.index, e.Key)
 	a.cur = e
+	a.clearPlan()
 	a.save()
 	a.put(IndexKey, encodeIndex(a.index))
 }
@@ -340,6 +355,7 @@ func (a *App) unitLabel() string {
 // taken.
 func (a *App) openSession(e *Stored) {
 	a.cur = e
+	a.clearPlan()
 	s := e.Session
 	if len(s.Cylinders[0].Rounds) == 0 {
 		a.navigate(Adjust)
@@ -529,10 +545,9 @@ func (a *App) skipStep() {
 // makePlan fits and plans the round chosen and builds the diagrams'
 // model, or says why it cannot.
 func (a *App) makePlan() {
-	a.fit, a.plan, a.model, a.planNote = nil, nil, nil, nil
-	a.what = whatIf{}
-	a.diagram, a.position = render.PlanDiagram, 0
-	a.dirty = true
+	start := time.Now()
+	defer func() { a.planTime = time.Since(start) }()
+	a.clearPlan()
 	s := a.Session()
 	if s == nil {
 		return
@@ -563,6 +578,14 @@ func (a *App) makePlan() {
 	}
 	a.fit, a.plan, a.model = fit, p, m
 	a.setWhatStep(0)
+}
+
+// clearPlan forgets the plan shown.
+func (a *App) clearPlan() {
+	a.fit, a.plan, a.model, a.planNote = nil, nil, nil, nil
+	a.what = whatIf{}
+	a.diagram, a.position = render.PlanDiagram, 0
+	a.dirty = true
 }
 
 // PlanText returns the plan in words, as plain text (for the page's live

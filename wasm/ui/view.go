@@ -66,6 +66,7 @@ func (a *App) layout() *view {
 	if a.saveErr != "" && a.screen != Plan && a.screen != Cautions {
 		lay.text(a.saveErr, true)
 	}
+	a.updateBanner(lay)
 	switch a.screen {
 	case Engines:
 		a.enginesView(lay)
@@ -402,6 +403,12 @@ func (a *App) menuView(l *layouter) {
 		l.button("Plan", false, func() { a.planRound = 0; a.navigate(Plan); a.makePlan() })
 		l.button("History of rounds", false, func() { a.navigate(History) })
 		l.button("Export the session file", false, a.export)
+		if a.opt.OnName != nil {
+			l.button("Rename engine", false, a.rename)
+		}
+		if a.opt.OnShare != nil && a.model != nil {
+			l.button("Share report", false, a.share)
+		}
 	}
 	if a.opt.OnImport != nil {
 		l.button("Import a session file", false, a.opt.OnImport)

@@ -1,0 +1,78 @@
+package ui
+
+import (
+	"fmt"
+	"strings"
+	"time"
+	"unicode/utf8"
+
+	"evenbeat/render"
+)
+
+// maxNameRunes is the longest engine name taken.
+const maxNameRunes = 60
+
+// Rename sets the session's name (trimmed) and saves it. An empty name or
+// one longer than 60 characters is refused with a sentence naming the
+// field "name", and nothing changes.
+func (a *App) Rename(name string) error {
+	a.dirty = true
+	s := a.Session()
+	if s == nil {
+		return fmt.Errorf("name: there is no engine open to rename.")
+	}
+	name = strings.TrimSpace(name)
+	switch n := utf8.RuneCountInString(name); {
+	case n == 0:
+		return fmt.Errorf("name: the engine's name is empty; type at least one letter.")
+	case n > maxNameRunes:
+		return fmt.Errorf("name: the engine's name has %d characters; at most %d are kept.", n, maxNameRunes)
+	}
+	s.Name = name
+	a.save()
+	return nil
+}
+
+// SetUpdateReady shows (or hides) the banner saying a new version is
+// ready, with a Restart button that calls Options.OnUpdate.
+func (a *App) SetUpdateReady(ready bool) {
+	if ready != a.updateReady {
+		a.updateReady, a.dirty = ready, true
+	}
+}
+
+// PlanTime returns how long the last fit, plan and diagram model took.
+func (a *App) PlanTime() time.Duration { return a.planTime }
+
+// reportName is the file name of the shared report.
+func (a *App) reportName() string {
+	return strings.TrimSuffix(a.exportName(), ".json") + "-report.png"
+}
+
+// share hands the plan's report to the glue's OnShare.
+func (a *App) share() {
+	if a.opt.OnShare == nil || a.model == nil {
+		return
+	}
+	a.opt.OnShare(a.reportName(), render.ReportModel{Model: a.model, Session: a.Session()})
+}
+
+// rename asks the glue for a new name.
+func (a *App) rename() {
+	if a.opt.OnName != nil && a.Session() != nil {
+		a.opt.OnName(a.Session().Name)
+	}
+}
+
+// updateBanner adds the new-version banner at the top of a screen.
+func (a *App) updateBanner(l *layouter) {
+	if !a.updateReady {
+		return
+	}
+	l.text("A new version is ready.", false)
+	l.button("Restart", false, func() {
+		if a.opt.OnUpdate != nil {
+			a.opt.OnUpdate()
+		}
+	})
+}

@@ -113,8 +113,11 @@ type App struct {
 	round  int    // the round being measured (index)
 	text   string // what has been typed for fields[fi]
 	typed  bool
-	note   string // a sentence under the entry: implausible, or an error
-	warn   string // a warning about the entry just committed
+	// editing is set while one reading chosen from a round's list is
+	// typed again: Next saves it and returns to the list.
+	editing bool
+	note    string // a sentence under the entry: implausible, or an error
+	warn    string // a warning about the entry just committed
 
 	// Saving.
 	mu      sync.Mutex
@@ -310,6 +313,7 @@ func (a *App) navigate(s Screen) {
 	}
 	a.stack = append(a.stack, a.screen)
 	a.screen, a.scroll, a.dirty = s, 0, true
+	a.editing = false
 }
 
 // Back moves one step back: the previous field on the keypad, else the
@@ -317,7 +321,7 @@ func (a *App) navigate(s Screen) {
 // (the glue then lets the browser leave the app).
 func (a *App) Back() bool {
 	a.dirty = true
-	if (a.screen == Measure || a.screen == Sizes) && a.fi > 0 {
+	if (a.screen == Measure || a.screen == Sizes) && a.fi > 0 && !a.editing {
 		a.setField(a.fi - 1)
 		return true
 	}
@@ -325,6 +329,7 @@ func (a *App) Back() bool {
 		return false
 	}
 	from := a.screen
+	a.editing = false
 	a.screen = a.stack[len(a.stack)-1]
 	a.stack = a.stack[:len(a.stack)-1]
 	a.scroll = 0
@@ -515,8 +520,13 @@ func (a *App) commit() {
 	a.advance()
 }
 
-// advance goes to the next field, or on from the last one.
+// advance goes to the next field, or on from the last one; a reading
+// chosen from a round's list goes back to the list.
 func (a *App) advance() {
+	if a.editing {
+		a.Back()
+		return
+	}
 	if a.fi+1 < len(a.fields) {
 		a.setField(a.fi + 1)
 		return
@@ -731,4 +741,24 @@ func (a *App) shownModel() *render.Model {
 		return a.what.model
 	}
 	return a.model
+}
+
+// showRound lists round ri's readings, to edit any of them or to see its
+// plan.
+func (a *App) showRound(ri int) {
+	a.round = ri
+	a.fields = measureFields(a.Session(), ri)
+	a.setField(0)
+	a.navigate(Readings)
+}
+
+// showRoundPlan fits and plans the round listed, as its readings now
+// stand.
+func (a *App) showRoundPlan() {
+	a.planRound = a.round + 1
+	if a.round == len(a.Session().Cylinders[0].Rounds)-1 {
+		a.planRound = 0 // the latest round: the plan to act on
+	}
+	a.navigate(Plan)
+	a.makePlan()
 }

@@ -542,10 +542,11 @@ func TestNextRoundAndHistory(t *testing.T) {
 		t.Fatalf("rounds list:\n%s", text)
 	}
 	tap(t, a, "Round 1")
+	tap(t, a, "Plan from round 1")
 	if a.Screen() != Plan || a.plan == nil {
 		t.Fatalf("round 1's plan: screen %s, %q", a.Screen(), a.planNote)
 	}
-	if !a.Back() || a.Screen() != History {
+	if !a.Back() || a.Screen() != Readings || !a.Back() || a.Screen() != History {
 		t.Fatalf("Back from the plan: %s", a.Screen())
 	}
 }

@@ -343,7 +343,8 @@ func hasBlocking(ps []session.Problem) bool {
 func (a *App) readingsView(l *layouter) {
 	s := a.Session()
 	l.title(fmt.Sprintf("Round %d: every reading", a.round+1))
-	l.muted("Tap a reading to type it again.")
+	l.button(fmt.Sprintf("Plan from round %d", a.round+1), false, a.showRoundPlan)
+	l.muted("Tap a reading to type it again; Next saves it and comes back here.")
 	inch := a.unit() == session.UnitInch
 	for i, f := range a.fields {
 		i := i
@@ -354,6 +355,7 @@ func (a *App) readingsView(l *layouter) {
 		l.button(f.Label+": "+val, false, func() {
 			a.setField(i)
 			a.navigate(Measure)
+			a.editing = true
 		})
 	}
 }
@@ -377,11 +379,7 @@ func (a *App) historyView(l *layouter) {
 		if len(ws) > 0 {
 			label += ": " + strings.Join(ws, ", ")
 		}
-		l.button(label, false, func() {
-			a.planRound = ri + 1
-			a.navigate(Plan)
-			a.makePlan()
-		})
+		l.button(label, false, func() { a.showRound(ri) })
 	}
 }
 

@@ -110,6 +110,7 @@ type App struct {
 	// The keypad form: set-up dimensions or a round's readings.
 	fields []field
 	fi     int
+	cyl    int    // the cylinder being measured or planned (index)
 	round  int    // the round being measured (index)
 	text   string // what has been typed for fields[fi]
 	typed  bool
@@ -362,14 +363,15 @@ func (a *App) openSession(e *Stored) {
 	a.cur = e
 	a.clearPlan()
 	s := e.Session
+	a.cyl = 0
 	if len(s.Cylinders[0].Rounds) == 0 {
 		a.navigate(Adjust)
 		return
 	}
 	a.round = len(s.Cylinders[0].Rounds) - 1
-	a.fields = measureFields(s, a.round)
+	a.fields = measureFields(s, a.cyl, a.round)
 	a.setField(0)
-	ready := !hasBlocking(s.Readiness(0)) // enough for a plan: show it; every reading is a tap away
+	ready := !hasBlocking(s.Readiness(a.cyl)) // enough for a plan: show it; every reading is a tap away
 	for i, f := range a.fields {
 		if ready {
 			break
@@ -396,14 +398,8 @@ func (a *App) startSetUp(spec setting.EngineSpec) {
 // startMeasuring opens round ri's first field, after the cautions when
 // they were never acknowledged.
 func (a *App) startMeasuring() {
-	s := a.Session()
-	if len(s.Cylinders[0].Rounds) == 0 {
-		s.Cylinders[0].Rounds = append(s.Cylinders[0].Rounds, session.Round{Date: a.today()})
-		a.save()
-	}
-	a.round = len(s.Cylinders[0].Rounds) - 1
-	a.fields = measureFields(s, a.round)
-	a.setField(0)
+	a.cyl = min(a.cyl, len(a.Session().Cylinders)-1)
+	a.latestRound()
 	if !a.acked {
 		a.after = Measure
 		a.navigate(Cautions)
@@ -433,11 +429,11 @@ func (a *App) nextRound() {
 			}
 		}
 	}
-	c := &s.Cylinders[0]
+	c := &s.Cylinders[a.cyl]
 	c.Rounds = append(c.Rounds, r)
 	a.save()
 	a.round = len(c.Rounds) - 1
-	a.fields = measureFields(s, a.round)
+	a.fields = measureFields(s, a.cyl, a.round)
 	a.setField(0)
 	a.navigate(Measure)
 }
@@ -562,7 +558,7 @@ func (a *App) makePlan() {
 	if s == nil {
 		return
 	}
-	for _, p := range s.Readiness(0) {
+	for _, p := range s.Readiness(a.cyl) {
 		if p.Blocking {
 			a.planNote = append(a.planNote, p.Message)
 		}
@@ -571,17 +567,18 @@ func (a *App) makePlan() {
 		return
 	}
 	a.planNote = nil
-	fit, err := plan.FitSession(s, 0, plan.FitOptions{Round: a.planRound})
+	fit, err := plan.FitSession(s, a.cyl, plan.FitOptions{Round: a.planRound})
 	if err != nil {
 		a.planNote = []string{sentence(err)}
 		return
 	}
-	p, err := plan.FromFit(fit, s.Adjustments, plan.Options{Unit: a.unit(), Fit: plan.FitOptions{Round: a.planRound}})
+	p, err := plan.FromFit(fit, s.Adjustments, plan.Options{Unit: a.unit(), Cylinder: a.cyl, Fit: plan.FitOptions{Round: a.planRound}})
 	if err != nil {
 		a.planNote = []string{sentence(err)}
 		return
 	}
-	m, err := render.NewModel(s, 0, fit, p)
+	p.Cylinder = s.Cylinders[a.cyl].Name
+	m, err := render.NewModel(s, a.cyl, fit, p)
 	if err != nil {
 		a.planNote = []string{sentence(err)}
 		return
@@ -699,7 +696,7 @@ func (a *App) SetWhatIf(i int, amount float64) error {
 	p := *a.plan
 	p.Steps = append([]plan.Step(nil), a.plan.Steps...)
 	p.Steps[i].Amount = amount
-	m, err := render.NewModel(a.Session(), 0, a.fit, &p)
+	m, err := render.NewModel(a.Session(), a.cyl, a.fit, &p)
 	if err != nil {
 		return err
 	}
@@ -747,7 +744,7 @@ func (a *App) shownModel() *render.Model {
 // plan.
 func (a *App) showRound(ri int) {
 	a.round = ri
-	a.fields = measureFields(a.Session(), ri)
+	a.fields = measureFields(a.Session(), a.cyl, ri)
 	a.setField(0)
 	a.navigate(Readings)
 }
@@ -756,7 +753,7 @@ func (a *App) showRound(ri int) {
 // stand.
 func (a *App) showRoundPlan() {
 	a.planRound = a.round + 1
-	if a.round == len(a.Session().Cylinders[0].Rounds)-1 {
+	if a.round == len(a.Session().Cylinders[a.cyl].Rounds)-1 {
 		a.planRound = 0 // the latest round: the plan to act on
 	}
 	a.navigate(Plan)

@@ -171,12 +171,12 @@ func positions(s *session.Session) []position {
 // degrees (common practice, no source).
 const sweepSteps = 12
 
-// measureFields lists every reading of round ri of cylinder 0 in the order
-// the setter takes them. Dead centres belong to the cylinder and are asked
-// only in the first round.
-func measureFields(s *session.Session, ri int) []field {
-	rp := fmt.Sprintf("cylinders[0].rounds[%d]", ri)
-	round := func(s *session.Session) *session.Round { return &s.Cylinders[0].Rounds[ri] }
+// measureFields lists every reading of round ri of cylinder ci in the
+// order the setter takes them. Dead centres belong to the cylinder and are
+// asked only in the first round.
+func measureFields(s *session.Session, ci, ri int) []field {
+	rp := fmt.Sprintf("cylinders[%d].rounds[%d]", ci, ri)
+	round := func(s *session.Session) *session.Round { return &s.Cylinders[ci].Rounds[ri] }
 	var fs []field
 	// Port marks.
 	pm := func(end session.End, label, other, say string) field {
@@ -221,7 +221,7 @@ func measureFields(s *session.Session, ri int) []field {
 		for _, dir := range []session.Direction{session.Forward, session.Backward} {
 			for _, end := range []session.End{session.Front, session.Back} {
 				for k := 0; k < 2; k++ {
-					fs = append(fs, deadCentreField(end, dir, k, circ))
+					fs = append(fs, deadCentreField(ci, end, dir, k, circ))
 				}
 			}
 		}
@@ -244,14 +244,14 @@ func measureFields(s *session.Session, ri int) []field {
 
 // deadCentreField is mark k (0 first, 1 second) of the dead centre at end
 // found turning dir.
-func deadCentreField(end session.End, dir session.Direction, k int, circ float64) field {
+func deadCentreField(ci int, end session.End, dir session.Direction, k int, circ float64) field {
 	which := [2]string{"first", "second"}[k]
 	say := fmt.Sprintf("Turn the wheel %s until the crosshead is a little short of the %s end of its travel; scribe the crosshead on the slide bar and type the tyre mark (mm round the tyre) at the pointer.", dir, end)
 	if k == 1 {
 		say = fmt.Sprintf("Keep turning %s past dead centre until the crosshead comes back to the scribed line, and type the tyre mark again.", dir)
 	}
 	find := func(s *session.Session) int {
-		for i, d := range s.Cylinders[0].DeadCentres {
+		for i, d := range s.Cylinders[ci].DeadCentres {
 			if d.End == end && d.Direction == dir {
 				return i
 			}
@@ -265,18 +265,18 @@ func deadCentreField(end session.End, dir session.Direction, k int, circ float64
 	if end == session.Back {
 		crank += 180
 	}
-	return field{CrankDeg: crank, Key: fmt.Sprintf("cylinders[0].dead_centres[%s %s].marks_tyre_mm[%d]", end, dir, k),
+	return field{CrankDeg: crank, Key: fmt.Sprintf("cylinders[%d].dead_centres[%s %s].marks_tyre_mm[%d]", ci, end, dir, k),
 		Step: "Dead centres", Label: fmt.Sprintf("%s dead centre turning %s, %s mark", title(string(end)), dir, which), Say: say,
 		Lo: 0, Hi: circ,
 		path: func(s *session.Session) string {
-			return fmt.Sprintf("cylinders[0].dead_centres[%d]", find(s))
+			return fmt.Sprintf("cylinders[%d].dead_centres[%d]", ci, find(s))
 		},
 		get: func(s *session.Session) (float64, bool) {
 			i := find(s)
 			if i < 0 {
 				return 0, false
 			}
-			d := s.Cylinders[0].DeadCentres[i]
+			d := s.Cylinders[ci].DeadCentres[i]
 			if d.Note == notTaken(which+" mark") {
 				return 0, false
 			}
@@ -284,7 +284,7 @@ func deadCentreField(end session.End, dir session.Direction, k int, circ float64
 		},
 		set: func(s *session.Session, v float64) {
 			i := find(s)
-			c := &s.Cylinders[0]
+			c := &s.Cylinders[ci]
 			if i < 0 {
 				c.DeadCentres = append(c.DeadCentres, session.DeadCentre{End: end, Direction: dir, Scale: session.TyreMM,
 					Note: notTaken([2]string{"second", "first"}[k] + " mark")})

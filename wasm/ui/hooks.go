@@ -64,15 +64,21 @@ func (a *App) rename() {
 	}
 }
 
-// updateBanner adds the new-version banner at the top of a screen.
+// updateBanner adds the new-version banner at the top of a screen: the
+// sentence beside its Restart button, one row tall.
 func (a *App) updateBanner(l *layouter) {
 	if !a.updateReady {
 		return
 	}
-	l.text("A new version is ready.", false)
-	l.button("Restart", false, func() {
+	const bw = 112 // the Restart button's width
+	lines := render.Wrap("A new version is ready.", l.w-bw-gap, render.BodySize, true)
+	h := max(rowH, float64(len(lines))*render.BodySize*render.LineHeight)
+	top := l.y + (h-float64(len(lines))*render.BodySize*render.LineHeight)/2
+	l.v.paras = append(l.v.paras, para{lines: lines, at: render.Point{X: l.x, Y: top}, size: render.BodySize, bold: true})
+	l.v.targets = append(l.v.targets, Target{Label: "Restart", Rect: rect(l.x+l.w-bw, l.y+(h-rowH)/2, bw, rowH), act: func() {
 		if a.opt.OnUpdate != nil {
 			a.opt.OnUpdate()
 		}
-	})
+	}})
+	l.y += h + gap
 }

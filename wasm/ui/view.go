@@ -215,7 +215,10 @@ func (a *App) enginesView(l *layouter) {
 			})
 			continue
 		}
-		n := len(e.Session.Cylinders[0].Rounds)
+		n := 0
+		for _, c := range e.Session.Cylinders {
+			n = max(n, len(c.Rounds))
+		}
 		label := fmt.Sprintf("%s, %d round", e.Session.Name, n)
 		if n != 1 {
 			label += "s"
@@ -252,6 +255,7 @@ func (a *App) unitsView(l *layouter) {
 	}
 	l.row(labels[:2], on[:2], acts[:2])
 	l.row(labels[2:], on[2:], acts[2:])
+	a.cylinderCountRow(l)
 	l.button("Next", false, func() {
 		a.fields = dimensionFields()
 		a.setField(0)
@@ -299,6 +303,9 @@ func (a *App) keypadView(l *layouter) {
 	head := f.Step
 	if a.screen == Measure {
 		head = fmt.Sprintf("Round %d: %s", a.round+1, f.Step)
+		if len(s.Cylinders) > 1 {
+			head = fmt.Sprintf("%s, round %d: %s", a.cylinderName(), a.round+1, f.Step)
+		}
 	}
 	l.title(head)
 	l.text(f.Say, false)
@@ -317,11 +324,12 @@ func (a *App) keypadView(l *layouter) {
 			labels = append(labels, "Skip")
 			acts = append(acts, a.skipStep)
 		}
-		if !hasBlocking(s.Readiness(0)) {
+		if !hasBlocking(s.Readiness(a.cyl)) {
 			labels = append(labels, "Plan")
 			acts = append(acts, func() { a.planRound = 0; a.navigate(Plan); a.makePlan() })
 		}
 		l.row(labels, make([]bool, len(labels)), acts)
+		a.cylinderRow(l)
 	}
 	l.v.keypad = LayoutKeypad(render.Rect{Min: render.Point{X: margin, Y: margin}, Max: render.Point{X: a.w - margin, Y: a.h - margin}})
 	for _, k := range l.v.keypad {
@@ -342,7 +350,12 @@ func hasBlocking(ps []session.Problem) bool {
 
 func (a *App) readingsView(l *layouter) {
 	s := a.Session()
-	l.title(fmt.Sprintf("Round %d: every reading", a.round+1))
+	if len(s.Cylinders) > 1 {
+		l.title(fmt.Sprintf("%s, round %d: every reading", a.cylinderName(), a.round+1))
+	} else {
+		l.title(fmt.Sprintf("Round %d: every reading", a.round+1))
+	}
+	a.cylinderRow(l)
 	l.button(fmt.Sprintf("Plan from round %d", a.round+1), false, a.showRoundPlan)
 	l.muted("Tap a reading to type it again; Next saves it and comes back here.")
 	inch := a.unit() == session.UnitInch
@@ -366,8 +379,9 @@ func (a *App) historyView(l *layouter) {
 	if s == nil {
 		return
 	}
-	leads, _ := s.Leads(0)
-	for ri, r := range s.Cylinders[0].Rounds {
+	a.cylinderRow(l)
+	leads, _ := s.Leads(a.cyl)
+	for ri, r := range s.Cylinders[a.cyl].Rounds {
 		ri := ri
 		var ws []string
 		for _, ld := range leads {
@@ -390,11 +404,11 @@ func (a *App) menuView(l *layouter) {
 	if a.Session() != nil {
 		l.button("All readings", false, func() {
 			if a.fields == nil || a.screen == Sizes {
-				a.round = len(a.Session().Cylinders[0].Rounds) - 1
+				a.round = len(a.Session().Cylinders[a.cyl].Rounds) - 1
 				if a.round < 0 {
 					return
 				}
-				a.fields = measureFields(a.Session(), a.round)
+				a.fields = measureFields(a.Session(), a.cyl, a.round)
 			}
 			a.navigate(Readings)
 		})
@@ -438,6 +452,7 @@ func planTabs() [4]render.Diagram {
 }
 
 func (a *App) planView(l *layouter) {
+	a.cylinderRow(l)
 	if a.model == nil {
 		l.title("Plan")
 		if len(a.planNote) == 0 {

@@ -15,7 +15,9 @@ func main() {
 	js.Global().Set("evenbeatGoStart", js.Global().Get("performance").Call("now"))
 	st, err := openStore()
 	if err != nil {
-		println(err.Error()) // run without remembering anything
+		// Run without remembering anything; the app says so.
+		println(err.Error())
+		js.Global().Set("evenbeatStoreError", err.Error())
 	}
 	th, name := render.Light(), "light"
 	if js.Global().Call("matchMedia", "(prefers-color-scheme: dark)").Get("matches").Bool() {

@@ -5,6 +5,7 @@ package main
 import (
 	"errors"
 	"fmt"
+	"strings"
 	"syscall/js"
 )
 
@@ -21,20 +22,68 @@ const (
 	storeTable = "kv"
 )
 
-// jsError turns a DOMException-like value into an error.
+// jsError turns a DOMException-like value into an error whose text says
+// what failed and why in words the user can act on, naming the
+// exception (QuotaExceededError, ...) so it can be looked up.
 func jsError(what string, v js.Value) error {
 	if v.IsUndefined() || v.IsNull() {
-		return errors.New(what)
+		return errors.New(what + " failed for a reason the browser did not give")
 	}
-	return errors.New(what + ": " + v.Get("name").String() + ": " + v.Get("message").String())
+	name, msg := "", ""
+	if n := v.Get("name"); n.Type() == js.TypeString {
+		name = n.String()
+	}
+	if m := v.Get("message"); m.Type() == js.TypeString {
+		msg = m.String()
+	}
+	return errors.New(what + ": " + storeReason(name, msg))
+}
+
+// storeReason words an IndexedDB failure by its exception name.
+func storeReason(name, msg string) string {
+	why := ""
+	switch name {
+	case "QuotaExceededError":
+		why = "the browser's storage for this app is full; free space on the phone or delete old sessions"
+	case "UnknownError":
+		why = "the browser's database failed, perhaps damaged or on a disk it cannot read"
+	case "VersionError":
+		why = "the database on this phone was written by a newer version of the app"
+	case "InvalidStateError":
+		why = "the browser has closed the database"
+	case "AbortError", "TransactionInactiveError":
+		why = "the browser stopped the write before it finished"
+	case "SecurityError", "NotAllowedError":
+		why = "the browser does not let this page keep data (as in some private windows)"
+	case "DataError", "DataCloneError", "ConstraintError", "ReadOnlyError", "NotFoundError":
+		why = "the browser refused the data"
+	case "":
+		name = "Error"
+	}
+	if why == "" {
+		why = strings.TrimSuffix(msg, ".")
+		if why == "" {
+			why = "the browser gave no reason"
+		}
+	}
+	return why + " (" + name + ")"
 }
 
 // openStore opens (creating on first use) the app's database. It blocks
 // until the browser answers, so call it before the game loop starts.
-func openStore() (*store, error) {
+//
+// A browser that refuses storage (the indexedDB getter or open throws, as
+// in some private windows) gives an error, never a panic: the app then
+// runs without storage and says so.
+func openStore() (st *store, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			st, err = nil, thrownError("opening the browser database", r)
+		}
+	}()
 	idb := js.Global().Get("indexedDB")
 	if idb.IsUndefined() || idb.IsNull() {
-		return nil, errors.New("this browser has no IndexedDB")
+		return nil, errors.New("opening the browser database: this browser has no IndexedDB")
 	}
 	req := idb.Call("open", storeDB, 1)
 	done := make(chan error, 1)
@@ -46,16 +95,25 @@ func openStore() (*store, error) {
 		}
 		return nil
 	})
-	success = js.FuncOf(func(js.Value, []js.Value) any { done <- nil; return nil })
+	answer := func(err error) {
+		select {
+		case done <- err:
+		default: // the first answer counts
+		}
+	}
+	success = js.FuncOf(func(js.Value, []js.Value) any { answer(nil); return nil })
 	failure = js.FuncOf(func(js.Value, []js.Value) any {
-		done <- jsError("opening the browser database", req.Get("error"))
+		answer(jsError("opening the browser database", req.Get("error")))
 		return nil
 	})
 	req.Set("onupgradeneeded", upgrade)
 	req.Set("onsuccess", success)
 	req.Set("onerror", failure)
 	req.Set("onblocked", failure)
-	err := <-done
+	err = <-done
+	for _, h := range []string{"onupgradeneeded", "onsuccess", "onerror", "onblocked"} {
+		req.Set(h, js.Null()) // a late event must not call a released function
+	}
 	upgrade.Release()
 	success.Release()
 	failure.Release()
@@ -97,7 +155,7 @@ func (s *store) Put(key, value string, done func(error)) {
 	defer func() {
 		// A closed database makes transaction() throw.
 		if r := recover(); r != nil {
-			done(fmt.Errorf("saving %s in the browser database: %v", key, r))
+			done(thrownError("saving "+key+" in the browser database", r))
 		}
 	}()
 	tx := s.db.Call("transaction", storeTable, "readwrite", map[string]any{"durability": "strict"})
@@ -121,4 +179,12 @@ func (s *store) Put(key, value string, done func(error)) {
 	tx.Set("onerror", failure)
 	tx.Set("onabort", failure)
 	tx.Call("objectStore", storeTable).Call("put", value, key)
+}
+
+// thrownError words what a recovered JavaScript exception says.
+func thrownError(what string, r any) error {
+	if e, ok := r.(js.Error); ok {
+		return jsError(what, e.Value)
+	}
+	return fmt.Errorf("%s: %v", what, r)
 }

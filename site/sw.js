@@ -1,8 +1,9 @@
 // Evenbeat service worker: keeps one complete, consistent version of the app
 // for offline use. Every asset is precached under ONE cache named after the
 // content hash of all assets, so a page is always served entirely from one
-// version: a new worker waits until no page uses the old one (no
-// skipWaiting), then deletes the old cache.
+// version: a new worker waits until no page uses the old one, or until the
+// user restarts into it from the app's banner (the page then posts
+// {type: "activate"} and reloads), then deletes the old cache.
 "use strict";
 
 const VERSION = "__EVENBEAT_VERSION__";
@@ -32,6 +33,15 @@ self.addEventListener("activate", (event) => {
       )
       .then(() => self.clients.claim())
   );
+});
+
+// The page asks a waiting worker to take over only when the user chose to
+// restart into the new version, and reloads as soon as it has: old and new
+// files never serve one page.
+self.addEventListener("message", (event) => {
+  if (event.data && event.data.type === "activate") {
+    self.skipWaiting();
+  }
 });
 
 self.addEventListener("fetch", (event) => {

@@ -36,12 +36,20 @@ type flowGame struct {
 	imports [][]byte // files chosen, not yet imported
 	live    js.Value // the hidden live region mirroring the plan's words
 	draws   int      // frames really drawn, published as evenbeatDraws
+
+	name        *nameBox       // the engine-name box, when open (under mu)
+	names       []string       // names typed in the box, not yet taken (under mu)
+	shares      []shareRequest // reports to draw and share (game loop only)
+	updateWaits bool           // the page reported a new version waiting (under mu)
+	bannerShown bool           // the app shows the new-version banner
+	restart     bool           // the user chose Restart; waits for the writes
 }
 
 // runFlow starts the app.
 func runFlow(st *store, th render.Theme) error {
 	g := &flowGame{game: newGame(), window: js.Global()}
-	opt := ui.Options{Theme: th, OnExport: download, OnImport: g.chooseFile}
+	opt := ui.Options{Theme: th, OnExport: download, OnImport: g.chooseFile,
+		OnName: g.openName, OnShare: g.queueShare, OnUpdate: g.askRestart}
 	if st != nil {
 		opt.Store = uiStore{st}
 	}
@@ -49,6 +57,7 @@ func runFlow(st *store, th render.Theme) error {
 	g.live = liveRegion()
 	g.window.Set("evenbeatDraws", 0)
 	g.window.Set("evenbeatPlanMs", -1)
+	g.listenForUpdate()
 	// The page (a dropped file, a test) may hand over a session file's
 	// text: it is imported on the next tick like a chosen file.
 	g.window.Set("evenbeatImport", js.FuncOf(func(_ js.Value, args []js.Value) any {
@@ -59,10 +68,15 @@ func runFlow(st *store, th render.Theme) error {
 	}))
 	// One guard entry in the page's history: the back gesture pops it, the
 	// app moves back a step and puts it back; when the app has nowhere to
-	// go back to, the browser leaves.
+	// go back to, the browser leaves. With the name box open, the gesture
+	// closes the box.
 	hist := g.window.Get("history")
 	hist.Call("pushState", "evenbeat", "")
 	g.window.Call("addEventListener", "popstate", js.FuncOf(func(js.Value, []js.Value) any {
+		if g.closeName() {
+			hist.Call("pushState", "evenbeat", "")
+			return nil
+		}
 		g.mu.Lock()
 		g.backs++
 		g.mu.Unlock()
@@ -94,7 +108,10 @@ func (g *flowGame) Update() error {
 			println(err.Error())
 		}
 	}
+	g.renameTick()
 	g.feed(func(in intent) { g.ui.Handle(uiIntent(in)) })
+	g.shareTick()
+	g.updateTick()
 	if g.ui.Update() {
 		g.publish()
 	}
@@ -126,8 +143,18 @@ func (g *flowGame) publish() {
 		words = g.ui.PlanText()
 	}
 	g.window.Set("evenbeatPlanText", words)
-	// How long the last plan took, in ms; -1 until the app reports it.
-	g.window.Set("evenbeatPlanMs", -1)
+	g.window.Set("evenbeatSettled", g.settled())
+	// How long the last plan took, in ms; -1 before the first.
+	planMs := -1.0
+	if d := g.ui.PlanTime(); d > 0 {
+		planMs = float64(d.Microseconds()) / 1000
+	}
+	g.window.Set("evenbeatPlanMs", planMs)
+	name := ""
+	if s := g.ui.Session(); s != nil {
+		name = s.Name
+	}
+	g.window.Set("evenbeatName", name)
 	if g.live.Truthy() && g.live.Get("textContent").String() != words {
 		g.live.Set("textContent", words)
 	}

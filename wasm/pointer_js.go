@@ -20,7 +20,8 @@ type pointerQueue struct {
 }
 
 // newPointerQueue listens on the document (capture phase, passive), so it
-// hears the canvas ebiten adds later too.
+// hears the canvas ebiten adds later too; events on a DOM box shown over
+// the canvas (class overClass) are not the app's.
 func newPointerQueue() *pointerQueue {
 	q := &pointerQueue{}
 	doc := js.Global().Get("document")
@@ -34,6 +35,9 @@ func newPointerQueue() *pointerQueue {
 		kind := kind
 		f := js.FuncOf(func(this js.Value, args []js.Value) any {
 			ev := args[0]
+			if onOverlay(ev.Get("target")) {
+				return nil // a DOM box over the canvas has it
+			}
 			q.push(pointerEvent{
 				Kind: kind,
 				ID:   ev.Get("pointerId").Int(),
@@ -62,4 +66,13 @@ func (q *pointerQueue) Drain(dst []pointerEvent) ([]pointerEvent, bool) {
 	dst = append(dst, q.events...)
 	q.events = q.events[:0]
 	return dst, q.seen
+}
+
+// onOverlay reports whether an event's target lies inside a DOM box shown
+// over the canvas.
+func onOverlay(target js.Value) bool {
+	if target.Type() != js.TypeObject || target.Get("closest").Type() != js.TypeFunction {
+		return false
+	}
+	return target.Call("closest", "."+overClass).Truthy()
 }

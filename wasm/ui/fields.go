@@ -178,13 +178,14 @@ func measureFields(s *session.Session, ci, ri int) []field {
 	rp := fmt.Sprintf("cylinders[%d].rounds[%d]", ci, ri)
 	round := func(s *session.Session) *session.Round { return &s.Cylinders[ci].Rounds[ri] }
 	var fs []field
-	// Port marks.
+	// Port marks: optional when an earlier round's still hold.
+	_, _, keep := keptMarks(&s.Cylinders[ci], ri)
 	pm := func(end session.End, label, other, say string) field {
 		crank := 0.0
 		if end == session.Back {
 			crank = 180
 		}
-		return field{CrankDeg: crank, Key: rp + ".port_marks." + string(end) + "_gauge_mm", path: func(*session.Session) string { return rp + ".port_marks" }, Step: "Port marks", Label: label, Say: say, Lo: -50, Hi: 50,
+		return field{CrankDeg: crank, Key: rp + ".port_marks." + string(end) + "_gauge_mm", path: func(*session.Session) string { return rp + ".port_marks" }, Step: portMarksStep, Label: label, Say: say, Lo: -50, Hi: 50, Optional: keep,
 			get: func(s *session.Session) (float64, bool) {
 				p := round(s).PortMarks
 				if p == nil {

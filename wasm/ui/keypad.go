@@ -64,6 +64,9 @@ const (
 	KeyGap = 8
 	// KeypadHeight is the keypad's height: four rows of keys.
 	KeypadHeight = 4*KeyHeight + 3*KeyGap
+	// KeypadMinHeight is the keypad's least height: four rows of keys a
+	// fingertip (render.HitMin) tall.
+	KeypadMinHeight = 4*render.HitMin + 3*KeyGap
 )
 
 // KeyRect is one key's place on the screen.
@@ -73,13 +76,16 @@ type KeyRect struct {
 }
 
 // LayoutKeypad lays the keypad out across the bottom of box: four columns
-// of keys KeyHeight tall (Next two columns wide), the whole KeypadHeight.
+// of keys (Next two columns wide), KeyHeight tall when box has the room
+// (KeypadHeight in all), shorter in a lower box, but never under
+// render.HitMin (KeypadMinHeight in all).
 func LayoutKeypad(box render.Rect) []KeyRect {
 	w := (box.W() - 3*KeyGap) / 4
-	top := box.Max.Y - KeypadHeight
+	kh := max(render.HitMin, min(KeyHeight, (box.H()-3*KeyGap)/4))
+	top := box.Max.Y - (4*kh + 3*KeyGap)
 	var out []KeyRect
 	for r, row := range keyRows() {
-		y := top + float64(r)*(KeyHeight+KeyGap)
+		y := top + float64(r)*(kh+KeyGap)
 		for col := 0; col < 4; col++ {
 			k := row[col]
 			if col > 0 && row[col-1] == k {
@@ -92,7 +98,7 @@ func LayoutKeypad(box render.Rect) []KeyRect {
 			x := box.Min.X + float64(col)*(w+KeyGap)
 			out = append(out, KeyRect{k, render.Rect{
 				Min: render.Point{X: x, Y: y},
-				Max: render.Point{X: x + float64(span)*w + float64(span-1)*KeyGap, Y: y + KeyHeight}}})
+				Max: render.Point{X: x + float64(span)*w + float64(span-1)*KeyGap, Y: y + kh}}})
 		}
 	}
 	return out

@@ -12,37 +12,11 @@ import (
 // the screen's width, no two labels of the app's own screens overlap, and
 // every target is a fingertip tall.
 func TestScreensFit(t *testing.T) {
-	for _, sz := range [][2]float64{{360, 740}, {390, 844}} {
+	for _, sz := range [][2]float64{{360, 740}, {390, 844}, {844, 390}} {
 		st := newMemStore()
 		a := newTestApp(t, st)
 		a.Resize(sz[0], sz[1])
-		check := func(what string) {
-			t.Helper()
-			c := recorder.New(sz[0], sz[1])
-			a.Draw(c)
-			if err := c.CheckTextSize(14); err != nil {
-				t.Errorf("%v %s: %v", sz, what, err)
-			}
-			if err := c.CheckInside(render.Rect{Max: render.Point{X: sz[0], Y: 1e6}}); err != nil {
-				t.Errorf("%v %s: %v", sz, what, err)
-			}
-			if a.Screen() != Plan && a.Screen() != Cautions {
-				if err := c.CheckLabels(); err != nil {
-					t.Errorf("%v %s: %v", sz, what, err)
-				}
-			}
-			tgs := a.Targets()
-			for i, tg := range tgs {
-				for _, o := range tgs[i+1:] {
-					if tg.Rect.Overlaps(o.Rect) {
-						t.Errorf("%v %s: targets %q and %q overlap", sz, what, tg.Label, o.Label)
-					}
-				}
-				if tg.Rect.H() < render.HitMin || tg.Rect.W() < render.HitMin {
-					t.Errorf("%v %s: target %q is %.0f x %.0f", sz, what, tg.Label, tg.Rect.W(), tg.Rect.H())
-				}
-			}
-		}
+		check := func(what string) { t.Helper(); checkFits(t, a, sz, what) }
 		check("engines")
 		tap(t, a, "New engine")
 		check("gear")
@@ -82,6 +56,38 @@ func TestScreensFit(t *testing.T) {
 		for _, tab := range planTabNames() {
 			tap(t, a, tab)
 			check("plan " + tab)
+		}
+	}
+}
+
+// checkFits draws the screen shown at size sz and checks that the text is
+// at least 14 units, nothing reaches off the screen's width, no two labels
+// of the app's own screens overlap, and every target is a fingertip tall
+// and clear of the others.
+func checkFits(t *testing.T, a *App, sz [2]float64, what string) {
+	t.Helper()
+	c := recorder.New(sz[0], sz[1])
+	a.Draw(c)
+	if err := c.CheckTextSize(14); err != nil {
+		t.Errorf("%v %s: %v", sz, what, err)
+	}
+	if err := c.CheckInside(render.Rect{Max: render.Point{X: sz[0], Y: 1e6}}); err != nil {
+		t.Errorf("%v %s: %v", sz, what, err)
+	}
+	if a.Screen() != Plan && a.Screen() != Cautions {
+		if err := c.CheckLabels(); err != nil {
+			t.Errorf("%v %s: %v", sz, what, err)
+		}
+	}
+	tgs := a.Targets()
+	for i, tg := range tgs {
+		for _, o := range tgs[i+1:] {
+			if tg.Rect.Overlaps(o.Rect) {
+				t.Errorf("%v %s: targets %q and %q overlap", sz, what, tg.Label, o.Label)
+			}
+		}
+		if tg.Rect.H() < render.HitMin || tg.Rect.W() < render.HitMin {
+			t.Errorf("%v %s: target %q is %.0f x %.0f", sz, what, tg.Label, tg.Rect.W(), tg.Rect.H())
 		}
 	}
 }

@@ -294,10 +294,51 @@ func findAdjustment(list []session.Adjustment, adj session.Adjustment) int {
 	return -1
 }
 
+// keypadLevels is how many ways the keypad screens have to make their
+// words fit above the keypad: as laid out, then the instructions in the
+// smaller size, then the rows of buttons merged into one.
+const keypadLevels = 3
+
+// keypadView lays out a keypad screen (set-up sizes, a reading): the
+// step's words and the entry above the keypad on a phone held upright,
+// beside it on one held sideways. The keys shrink from KeyHeight to
+// render.HitMin when the words need the room, and the words tighten (see
+// keypadLevels) when that is not enough.
 func (a *App) keypadView(l *layouter) {
 	if len(a.fields) == 0 {
 		return
 	}
+	side := a.w > a.h // landscape: the keypad in the right half
+	if side {
+		l.w = (a.w - 3*margin) / 2
+	}
+	y0, nt, np := l.y, len(l.v.targets), len(l.v.paras)
+	var box render.Rect
+	for level := 0; level < keypadLevels; level++ {
+		l.y, l.v.targets, l.v.paras = y0, l.v.targets[:nt], l.v.paras[:np]
+		a.keypadWords(l, level)
+		if side {
+			box = render.Rect{Min: render.Point{X: a.w/2 + margin/2, Y: y0}, Max: render.Point{X: a.w - margin, Y: a.h - margin}}
+			if l.y <= a.h-margin {
+				break
+			}
+		} else {
+			box = render.Rect{Min: render.Point{X: margin, Y: l.y}, Max: render.Point{X: a.w - margin, Y: a.h - margin}}
+			if box.H() >= KeypadMinHeight {
+				break
+			}
+		}
+	}
+	l.v.keypad = LayoutKeypad(box)
+	for _, k := range l.v.keypad {
+		k := k
+		l.v.targets = append(l.v.targets, Target{Label: k.Key.Label(), Rect: k.Rect, act: func() { a.key(k.Key) }})
+	}
+}
+
+// keypadWords lays out what a keypad screen says above the keys, tighter
+// at each level.
+func (a *App) keypadWords(l *layouter, level int) {
 	f := a.fields[a.fi]
 	s := a.Session()
 	head := f.Step
@@ -308,7 +349,11 @@ func (a *App) keypadView(l *layouter) {
 		}
 	}
 	l.title(head)
-	l.text(f.Say, false)
+	if level == 0 {
+		l.text(f.Say, false)
+	} else {
+		l.para(f.Say, render.BodySize, false, false, false)
+	}
 	l.para(fmt.Sprintf("%s (%d of %d)", f.Label, a.fi+1, len(a.fields)), render.BodySize+2, true, false, false)
 	l.v.entry = rect(l.x, l.y, l.w, entryH)
 	l.y += entryH + gap
@@ -317,25 +362,39 @@ func (a *App) keypadView(l *layouter) {
 		note = "Check the last entry: " + a.warn
 	}
 	l.para(note, render.BodySize, false, true, false)
-	if a.screen == Measure {
-		labels := []string{"Where", "All readings"}
-		acts := []func(){a.showWhere, func() { a.navigate(Readings) }}
-		if f.Optional {
-			labels = append(labels, "Skip")
-			acts = append(acts, a.skipStep)
-		}
-		if !hasBlocking(s.Readiness(a.cyl)) {
-			labels = append(labels, "Plan")
-			acts = append(acts, func() { a.planRound = 0; a.navigate(Plan); a.makePlan() })
-		}
-		l.row(labels, make([]bool, len(labels)), acts)
-		a.cylinderRow(l)
+	if a.screen != Measure {
+		return
 	}
-	l.v.keypad = LayoutKeypad(render.Rect{Min: render.Point{X: margin, Y: margin}, Max: render.Point{X: a.w - margin, Y: a.h - margin}})
-	for _, k := range l.v.keypad {
-		k := k
-		l.v.targets = append(l.v.targets, Target{Label: k.Key.Label(), Rect: k.Rect, act: func() { a.key(k.Key) }})
+	if f.Step == portMarksStep {
+		say, keep := a.marksAdvice()
+		l.muted(say)
+		if keep != "" {
+			l.button(keep, false, a.keepMarks)
+		}
 	}
+	labels := []string{"Where", "All readings"}
+	acts := []func(){a.showWhere, func() { a.navigate(Readings) }}
+	if f.Optional {
+		labels = append(labels, "Skip")
+		acts = append(acts, a.skipStep)
+	}
+	if !hasBlocking(s.Readiness(a.cyl)) {
+		labels = append(labels, "Plan")
+		acts = append(acts, func() { a.planRound = 0; a.navigate(Plan); a.makePlan() })
+	}
+	on := make([]bool, len(labels))
+	if level >= 2 && len(s.Cylinders) > 1 && len(labels)+len(s.Cylinders) <= 6 {
+		labels[1] = "Readings"
+		for i, c := range s.Cylinders {
+			labels = append(labels, title(c.Name))
+			on = append(on, i == a.cyl)
+			acts = append(acts, func() { a.switchCylinder(i) })
+		}
+		l.row(labels, on, acts)
+		return
+	}
+	l.row(labels, on, acts)
+	a.cylinderRow(l)
 }
 
 // hasBlocking reports whether any problem stops a plan.
@@ -473,8 +532,17 @@ func (a *App) planView(l *layouter) {
 		on[i] = a.diagram == d
 		acts[i] = func() { a.diagram = d; a.dirty = true }
 	}
+	side := a.w > a.h // landscape: one row of tabs and actions, the most room for the diagram
+	if side {
+		labels = append(labels, "Next round", "Rounds")
+		on = append(on, false, false)
+		acts = append(acts, a.nextRound, func() { a.navigate(History) })
+	}
 	l.row(labels, on, acts)
 	bottom := a.h - margin - rowH
+	if side {
+		bottom = a.h
+	}
 	if a.diagram == render.BalanceDiagram && len(a.plan.Steps) > 0 {
 		st := a.plan.Steps[a.what.step]
 		l.button(fmt.Sprintf("What if: %s %s (tap: next part)", st.Part, a.whatAmountText()), false, func() {
@@ -485,6 +553,9 @@ func (a *App) planView(l *layouter) {
 		l.y += sliderH + gap
 	}
 	l.v.body = render.Rect{Min: render.Point{X: margin, Y: l.y}, Max: render.Point{X: a.w - margin, Y: bottom - gap}}
+	if side {
+		return
+	}
 	y := l.y
 	l.y = bottom
 	l.row([]string{"Next round", "Rounds"}, []bool{false, false}, []func(){a.nextRound, func() { a.navigate(History) }})

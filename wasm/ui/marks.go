@@ -1,0 +1,75 @@
+package ui
+
+import (
+	"fmt"
+
+	"evenbeat/setting/session"
+)
+
+// portMarksStep is the heading of the port marks' fields.
+const portMarksStep = "Port marks"
+
+// marksOf reports whether a round has its own steam edges: port marks or
+// laps.
+func marksOf(r session.Round) bool { return r.PortMarks != nil || r.Laps != nil }
+
+// keptMarks finds the earlier round whose port marks still hold in round
+// ri of cylinder c: the latest earlier round with marks, as long as the
+// valve has not been moved on its spindle since. Moving the valve on its
+// spindle moves the steam edges as the gauge on the spindle sees them;
+// turning an eccentric or changing a rod's length moves the spindle and
+// valve together and leaves the marks where they were (the session file's
+// rule, docs/session-format.md, "rounds[]"). moved is the round (counting
+// from 0) whose spindle change ended the search, or -1.
+func keptMarks(c *session.Cylinder, ri int) (from, moved int, ok bool) {
+	for k := ri; k > 0; k-- {
+		for _, ch := range c.Rounds[k].AdjustmentsBefore {
+			if ch.Kind == session.ValveOnSpindle {
+				return 0, k, false
+			}
+		}
+		if marksOf(c.Rounds[k-1]) {
+			return k - 1, -1, true
+		}
+	}
+	return 0, -1, false
+}
+
+// marksAdvice is the sentence and the one-tap choice the port marks' step
+// shows in a later round: keep an earlier round's marks when they still
+// hold, or why they must be taken again. label is "" when there is nothing
+// to offer.
+func (a *App) marksAdvice() (say, label string) {
+	s := a.Session()
+	c := &s.Cylinders[a.cyl]
+	if a.round == 0 || a.round >= len(c.Rounds) {
+		return "", ""
+	}
+	if r := c.Rounds[a.round]; r.Laps != nil || r.PortMarks != nil && r.PortMarks.Note == "" { // its own, both taken
+		return "", ""
+	}
+	from, moved, ok := keptMarks(c, a.round)
+	if !ok {
+		if moved >= 0 {
+			return fmt.Sprintf("Take the port marks again: the valve was moved on its spindle before round %d, and that moves the marks as the gauge sees them.", moved+1), ""
+		}
+		return "", ""
+	}
+	return fmt.Sprintf("The marks of round %d still hold: only the valve moved on its spindle (or a moved gauge) would shift them, and neither happened since. If the gauge was moved, take them again.", from+1),
+		fmt.Sprintf("Keep the marks from round %d", from+1)
+}
+
+// keepMarks uses the earlier round's port marks for this round (the round
+// is left without its own, as the file format reads it) and goes on past
+// the port marks.
+func (a *App) keepMarks() {
+	s := a.Session()
+	r := &s.Cylinders[a.cyl].Rounds[a.round]
+	r.PortMarks, r.Laps = nil, nil
+	a.save()
+	for a.fi < len(a.fields) && a.fields[a.fi].Step == portMarksStep {
+		a.fi++
+	}
+	a.fi--
+	a.advance()
+}

@@ -117,6 +117,10 @@ type App struct {
 	// editing is set while one reading chosen from a round's list is
 	// typed again: Next saves it and returns to the list.
 	editing bool
+	// The forms new readings are asked in: cut-offs as tyre marks rather
+	// than crosshead travel, steam edges as laps rather than port marks
+	// (app state: the session file keeps each reading in its own form).
+	tyreCutOffs, lapsForm bool
 	note    string // a sentence under the entry: implausible, or an error
 	warn    string // a warning about the entry just committed
 
@@ -369,7 +373,7 @@ func (a *App) openSession(e *Stored) {
 		return
 	}
 	a.round = len(s.Cylinders[0].Rounds) - 1
-	a.fields = measureFields(s, a.cyl, a.round)
+	a.fields = a.roundFields(a.round)
 	a.setField(0)
 	ready := !hasBlocking(s.Readiness(a.cyl)) // enough for a plan: show it; every reading is a tap away
 	for i, f := range a.fields {
@@ -433,7 +437,7 @@ func (a *App) nextRound() {
 	c.Rounds = append(c.Rounds, r)
 	a.save()
 	a.round = len(c.Rounds) - 1
-	a.fields = measureFields(s, a.cyl, a.round)
+	a.fields = a.roundFields(a.round)
 	a.setField(0)
 	a.navigate(Measure)
 }
@@ -744,7 +748,7 @@ func (a *App) shownModel() *render.Model {
 // plan.
 func (a *App) showRound(ri int) {
 	a.round = ri
-	a.fields = measureFields(a.Session(), a.cyl, ri)
+	a.fields = a.roundFields(ri)
 	a.setField(0)
 	a.navigate(Readings)
 }
@@ -758,4 +762,10 @@ func (a *App) showRoundPlan() {
 	}
 	a.navigate(Plan)
 	a.makePlan()
+}
+
+// roundFields lists round ri's readings of the cylinder shown, in the
+// forms chosen.
+func (a *App) roundFields(ri int) []field {
+	return measureFields(a.Session(), a.cyl, ri, a.tyreCutOffs, a.lapsForm)
 }

@@ -110,7 +110,7 @@ func (a *App) latestRound() {
 		a.save()
 	}
 	a.round = len(c.Rounds) - 1
-	a.fields = measureFields(s, a.cyl, a.round)
+	a.fields = a.roundFields(a.round)
 	a.setField(0)
 	for i, f := range a.fields {
 		if _, ok := f.get(s); !ok {

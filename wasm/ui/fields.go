@@ -3,6 +3,7 @@ package ui
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"evenbeat/setting"
 	"evenbeat/setting/session"
@@ -167,6 +168,34 @@ func positions(s *session.Session) []position {
 	return append(ps, position{session.FullBack, session.Backward})
 }
 
+// morePositions returns the reverser positions a link gear may also be
+// read in, each optional: mid gear (turned forward) and the backward
+// running notches. A single eccentric has none.
+func morePositions(s *session.Session) []position {
+	if s.Engine.Gear.Kind == setting.KindSingleEccentric {
+		return nil
+	}
+	ps := []position{{session.MidGear, session.Forward}}
+	for _, n := range s.Engine.Notches {
+		if n.Reverser < 0 {
+			ps = append(ps, position{n.Name, session.Backward})
+		}
+	}
+	return ps
+}
+
+// everyPosition is every reverser position read, in the order of the
+// reverser's travel from full forward to full back.
+func everyPosition(s *session.Session) []position {
+	ps := positions(s)
+	if len(ps) == 1 {
+		return ps
+	}
+	more := morePositions(s)
+	out := append([]position(nil), ps[:len(ps)-1]...)
+	return append(append(out, more...), ps[len(ps)-1])
+}
+
 // sweepSteps is the number of sweep readings round one turn: every 30
 // degrees (common practice, no source).
 const sweepSteps = 12
@@ -174,7 +203,12 @@ const sweepSteps = 12
 // measureFields lists every reading of round ri of cylinder ci in the
 // order the setter takes them. Dead centres belong to the cylinder and are
 // asked only in the first round.
-func measureFields(s *session.Session, ci, ri int) []field {
+//
+// tyreCutOffs asks for cut-offs not yet taken as tyre marks rather than as
+// crosshead travel; lapsForm asks for the steam edges as laps and the
+// gauge at valve centre rather than as port marks, unless the round has
+// port marks already.
+func measureFields(s *session.Session, ci, ri int, tyreCutOffs, lapsForm bool) []field {
 	rp := fmt.Sprintf("cylinders[%d].rounds[%d]", ci, ri)
 	round := func(s *session.Session) *session.Round { return &s.Cylinders[ci].Rounds[ri] }
 	var fs []field
@@ -213,9 +247,13 @@ func measureFields(s *session.Session, ci, ri int) []field {
 				}
 			}}
 	}
-	fs = append(fs,
-		pm(session.Front, "Front port mark", "Back port mark", "Move the valve forward until its front steam edge is just line-on-line with the front port edge, and type the dial gauge reading."),
-		pm(session.Back, "Back port mark", "Front port mark", "Now move the valve back until the back steam edge just cracks the back port, and type the gauge reading."))
+	if r := s.Cylinders[ci].Rounds[ri]; r.Laps != nil || r.PortMarks == nil && lapsForm {
+		fs = append(fs, lapsFields(rp, round, keep)...)
+	} else {
+		fs = append(fs,
+			pm(session.Front, "Front port mark", "Back port mark", "Move the valve forward until its front steam edge is just line-on-line with the front port edge, and type the dial gauge reading."),
+			pm(session.Back, "Back port mark", "Front port mark", "Now move the valve back until the back steam edge just cracks the back port, and type the gauge reading."))
+	}
 	// Dead centres from tyre marks, first round only.
 	if ri == 0 {
 		circ := s.Measuring.WheelDiameterMM * math.Pi
@@ -227,20 +265,49 @@ func measureFields(s *session.Session, ci, ri int) []field {
 			}
 		}
 	}
-	// Dead-centre readings and sweeps per position.
+	// Dead-centre readings: full forward, the forward notches and full
+	// back are needed; mid gear and the backward notches may be skipped.
+	ends := []session.End{session.Front, session.Back}
 	for _, p := range positions(s) {
-		for _, end := range []session.End{session.Front, session.Back} {
-			fs = append(fs, dcReadingField(rp, round, p, end))
+		for _, end := range ends {
+			fs = append(fs, dcReadingField(rp, round, p, end, "Readings at dead centre", false))
 		}
 	}
-	ff := positions(s)[0]
-	for k := 0; k < sweepSteps; k++ {
-		fs = append(fs, sweepField(rp, round, ff, k, false), sweepField(rp, round, ff, k, true))
+	for _, p := range morePositions(s) {
+		for _, end := range ends {
+			fs = append(fs, dcReadingField(rp, round, p, end, "Dead centres, "+p.Notch, true))
+		}
 	}
-	for _, end := range []session.End{session.Front, session.Back} {
-		fs = append(fs, cutOffField(rp, round, ff, end))
+	// Per position, each a step that may be skipped: the sweep, the
+	// cut-offs and (a slide valve with the chest open) feeler openings.
+	external := s.Engine.Valve.Admission != setting.Internal
+	r := &s.Cylinders[ci].Rounds[ri]
+	for _, p := range everyPosition(s) {
+		for k := 0; k < sweepSteps; k++ {
+			fs = append(fs, sweepField(rp, round, p, k, false), sweepField(rp, round, p, k, true))
+		}
+		for _, end := range ends {
+			fs = append(fs, cutOffField(rp, round, p, end, cutOffByTyre(r, p, end, tyreCutOffs)))
+		}
+		if external {
+			for _, end := range ends {
+				fs = append(fs, feelerField(rp, round, p, end))
+			}
+		}
 	}
 	return fs
+}
+
+// cutOffByTyre reports whether round r's cut-off at end in position p is
+// (or is to be) given as a tyre mark rather than as crosshead travel: as
+// it was typed, else as the user chose for new ones.
+func cutOffByTyre(r *session.Round, p position, end session.End, tyre bool) bool {
+	for _, c := range r.CutOffs {
+		if c.End == end && c.Reverser.Notch == p.Notch && c.Direction == p.Dir {
+			return c.At.Scale == session.TyreMM
+		}
+	}
+	return tyre
 }
 
 // deadCentreField is mark k (0 first, 1 second) of the dead centre at end
@@ -301,8 +368,9 @@ func deadCentreField(ci int, end session.End, dir session.Direction, k int, circ
 		}}
 }
 
-// dcReadingField is the gauge reading at end's dead centre in position p.
-func dcReadingField(rp string, round func(*session.Session) *session.Round, p position, end session.End) field {
+// dcReadingField is the gauge reading at end's dead centre in position p,
+// in the step named step.
+func dcReadingField(rp string, round func(*session.Session) *session.Round, p position, end session.End, step string, optional bool) field {
 	find := func(r *session.Round) int {
 		for i, d := range r.DeadCentreReadings {
 			if d.End == end && d.Reverser.Notch == p.Notch && d.Direction == p.Dir {
@@ -316,7 +384,7 @@ func dcReadingField(rp string, round func(*session.Session) *session.Round, p po
 		crank = 180
 	}
 	return field{Notch: p.Notch, CrankDeg: crank, Key: fmt.Sprintf("%s.dead_centre_readings[%s %s].gauge_mm", rp, p.Notch, end),
-		Step: "Readings at dead centre", Label: fmt.Sprintf("%s dead centre, %s", title(string(end)), p.Notch),
+		Step: step, Optional: optional, Label: fmt.Sprintf("%s dead centre, %s", title(string(end)), p.Notch),
 		Say: fmt.Sprintf("Put the reverser in %s. Turn the wheel %s to the %s dead centre mark, taking up backlash as you go, and type the gauge reading.", p.Notch, p.Dir, end),
 		Lo:  -50, Hi: 50,
 		path: func(s *session.Session) string {
@@ -407,9 +475,10 @@ func sweepField(rp string, round func(*session.Session) *session.Round, p positi
 	return f
 }
 
-// cutOffField is the crosshead's distance from end's dead centre where the
-// valve closes end's steam port in position p.
-func cutOffField(rp string, round func(*session.Session) *session.Round, p position, end session.End) field {
+// cutOffField is where the valve closes end's steam port in position p:
+// the crosshead's distance from end's dead centre along the slide bar, or
+// (tyre) the tyre mark at the pointer.
+func cutOffField(rp string, round func(*session.Session) *session.Round, p position, end session.End, tyre bool) field {
 	find := func(r *session.Round) int {
 		for i, c := range r.CutOffs {
 			if c.End == end && c.Reverser.Notch == p.Notch && c.Direction == p.Dir {
@@ -422,17 +491,75 @@ func cutOffField(rp string, round func(*session.Session) *session.Round, p posit
 	if end == session.Back {
 		crank = 300
 	}
-	return field{Notch: p.Notch, CrankDeg: crank, Key: fmt.Sprintf("%s.cut_offs[%s %s].crosshead_mm", rp, p.Notch, end),
-		Step: "Cut-off points", Label: fmt.Sprintf("%s cut-off, %s", title(string(end)), p.Notch), Optional: true,
-		Say: fmt.Sprintf("Turn %s from the %s dead centre until the gauge is back at the %s port mark; type how far the crosshead has moved from its dead-centre line on the slide bar.", p.Dir, end, end),
+	f := field{Notch: p.Notch, CrankDeg: crank, Key: fmt.Sprintf("%s.cut_offs[%s %s].crosshead_mm", rp, p.Notch, end),
+		Step: "Cut-off points, " + p.Notch, Label: fmt.Sprintf("%s cut-off, %s", title(string(end)), p.Notch), Optional: true,
+		Say: fmt.Sprintf("Put the reverser in %s. Turn %s from the %s dead centre until the gauge is back at the %s port mark; type how far the crosshead has moved from its dead-centre line on the slide bar.", p.Notch, p.Dir, end, end),
 		Lo:  0, Hi: 2000,
 		path: func(s *session.Session) string {
 			return fmt.Sprintf("%s.cut_offs[%d]", rp, find(round(s)))
+		}}
+	if tyre {
+		f.Key = fmt.Sprintf("%s.cut_offs[%s %s].tyre_mm", rp, p.Notch, end)
+		f.Label += ", tyre mark"
+		f.Say = fmt.Sprintf("Put the reverser in %s. Turn %s from the %s dead centre until the gauge is back at the %s port mark; type the tyre mark at the pointer.", p.Notch, p.Dir, end, end)
+		f.Hi = 8000
+	}
+	f.get = func(s *session.Session) (float64, bool) {
+		r := round(s)
+		i := find(r)
+		if i < 0 {
+			return 0, false
+		}
+		if c := r.CutOffs[i]; tyre {
+			return c.At.Value, c.At.Scale == session.TyreMM
+		} else {
+			return c.CrossheadMM, c.At.Scale == ""
+		}
+	}
+	f.set = func(s *session.Session, v float64) {
+		r := round(s)
+		i := find(r)
+		if i < 0 {
+			r.CutOffs = append(r.CutOffs, session.CutOff{End: end, Reverser: session.ReverserPosition{Notch: p.Notch}, Direction: p.Dir})
+			i = len(r.CutOffs) - 1
+		}
+		c := &r.CutOffs[i]
+		if tyre {
+			c.At, c.CrossheadMM = session.Mark{Scale: session.TyreMM, Value: v}, 0
+		} else {
+			c.At, c.CrossheadMM = session.Mark{}, v
+		}
+	}
+	return f
+}
+
+// feelerField is the opening of end's steam port measured with feelers at
+// end's dead centre in position p (a slide valve with the chest cover
+// off); negative when the port is still covered by that much.
+func feelerField(rp string, round func(*session.Session) *session.Round, p position, end session.End) field {
+	find := func(r *session.Round) int {
+		for i, o := range r.FeelerOpenings {
+			if o.Port == end && o.DeadCentre == end && o.Reverser.Notch == p.Notch && o.Direction == p.Dir {
+				return i
+			}
+		}
+		return -1
+	}
+	crank := 0.0
+	if end == session.Back {
+		crank = 180
+	}
+	return field{Notch: p.Notch, CrankDeg: crank, Key: fmt.Sprintf("%s.feeler_openings[%s %s].opening_mm", rp, p.Notch, end),
+		Step: "Feeler openings, " + p.Notch, Label: fmt.Sprintf("%s port open at %s dead centre, %s", title(string(end)), end, p.Notch), Optional: true,
+		Say: fmt.Sprintf("With the steam-chest cover off: reverser in %s, turn %s to the %s dead centre and measure the %s port's opening with feelers (the lead); type it negative if the valve still covers the port by that much. Skip if the chest is closed.", p.Notch, p.Dir, end, end),
+		Lo:  -3, Hi: 10,
+		path: func(s *session.Session) string {
+			return fmt.Sprintf("%s.feeler_openings[%d]", rp, find(round(s)))
 		},
 		get: func(s *session.Session) (float64, bool) {
 			r := round(s)
 			if i := find(r); i >= 0 {
-				return r.CutOffs[i].CrossheadMM, true
+				return r.FeelerOpenings[i].OpeningMM, true
 			}
 			return 0, false
 		},
@@ -440,11 +567,66 @@ func cutOffField(rp string, round func(*session.Session) *session.Round, p posit
 			r := round(s)
 			i := find(r)
 			if i < 0 {
-				r.CutOffs = append(r.CutOffs, session.CutOff{End: end, Reverser: session.ReverserPosition{Notch: p.Notch}, Direction: p.Dir})
-				i = len(r.CutOffs) - 1
+				r.FeelerOpenings = append(r.FeelerOpenings, session.FeelerOpening{Port: end, DeadCentre: end,
+					Reverser: session.ReverserPosition{Notch: p.Notch}, Direction: p.Dir})
+				i = len(r.FeelerOpenings) - 1
 			}
-			r.CutOffs[i].CrossheadMM = v
+			r.FeelerOpenings[i].OpeningMM = v
 		}}
+}
+
+// lapsFields are the steam edges given the other way: the two steam laps
+// and the gauge reading with the valve central (the round's laps). Each
+// value not yet typed is named in the laps' note.
+func lapsFields(rp string, round func(*session.Session) *session.Round, optional bool) []field {
+	names := [3]string{"Front steam lap", "Back steam lap", "Gauge at valve centre"}
+	says := [3]string{
+		"Laps instead of port marks: the front steam lap as measured on this valve and port face (cover off, or from the valve and liner dimensions).",
+		"The back steam lap, measured the same way.",
+		"Set the valve central between its two port edges and type the dial gauge reading there.",
+	}
+	ptr := func(l *session.Laps, k int) *float64 {
+		return [3]*float64{&l.FrontMM, &l.BackMM, &l.CentreGaugeMM}[k]
+	}
+	var fs []field
+	for k, name := range names {
+		lo, hi := -5.0, 60.0 // a lap (mm): small negative laps happen
+		if k == 2 {
+			lo, hi = -50, 50 // a gauge reading
+		}
+		fs = append(fs, field{Key: rp + ".laps." + [3]string{"front_lap_mm", "back_lap_mm", "centre_gauge_mm"}[k], path: func(*session.Session) string { return rp + ".laps" },
+			Step: portMarksStep, Label: name, Say: says[k], Lo: lo, Hi: hi, Optional: optional, CrankDeg: 90,
+			get: func(s *session.Session) (float64, bool) {
+				l := round(s).Laps
+				if l == nil || strings.Contains(l.Note, notTaken(name)) {
+					return 0, false
+				}
+				return *ptr(l, k), true
+			},
+			set: func(s *session.Session, v float64) {
+				r := round(s)
+				if r.Laps == nil {
+					var missing []string
+					for _, n := range names {
+						if n != name {
+							missing = append(missing, notTaken(n))
+						}
+					}
+					r.Laps = &session.Laps{Note: strings.Join(missing, "; ")}
+				}
+				l := r.Laps
+				parts := strings.Split(l.Note, "; ")
+				kept := parts[:0]
+				for _, p := range parts {
+					if p != notTaken(name) && p != "" {
+						kept = append(kept, p)
+					}
+				}
+				l.Note = strings.Join(kept, "; ")
+				*ptr(l, k) = v
+			}})
+	}
+	return fs
 }
 
 // notTaken is the note a pair of values carries while one of them, named

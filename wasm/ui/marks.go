@@ -2,6 +2,7 @@ package ui
 
 import (
 	"fmt"
+	"strings"
 
 	"evenbeat/setting/session"
 )
@@ -45,7 +46,7 @@ func (a *App) marksAdvice() (say, label string) {
 	if a.round == 0 || a.round >= len(c.Rounds) {
 		return "", ""
 	}
-	if r := c.Rounds[a.round]; r.Laps != nil || r.PortMarks != nil && r.PortMarks.Note == "" { // its own, both taken
+	if r := c.Rounds[a.round]; r.Laps != nil && r.Laps.Note == "" || r.PortMarks != nil && r.PortMarks.Note == "" { // its own, all taken
 		return "", ""
 	}
 	from, moved, ok := keptMarks(c, a.round)
@@ -72,4 +73,43 @@ func (a *App) keepMarks() {
 	}
 	a.fi--
 	a.advance()
+}
+
+// formChoice is the button that asks the step shown in its other form:
+// the steam edges as laps or as port marks (while the round has neither),
+// a cut-off as a tyre mark or as crosshead travel (while it is not taken).
+// label is "" when there is no choice.
+func (a *App) formChoice() (label string, act func()) {
+	f := a.fields[a.fi]
+	s := a.Session()
+	r := s.Cylinders[a.cyl].Rounds[a.round]
+	switch {
+	case f.Step == portMarksStep && r.PortMarks == nil && r.Laps == nil:
+		label = "Laps instead"
+		if a.lapsForm {
+			label = "Port marks instead"
+		}
+		return label, func() {
+			a.lapsForm = !a.lapsForm
+			a.fields = a.roundFields(a.round)
+			for a.fi > 0 && a.fields[min(a.fi, len(a.fields)-1)].Step != portMarksStep {
+				a.fi--
+			}
+			a.setField(min(a.fi, len(a.fields)-1))
+		}
+	case strings.HasPrefix(f.Step, "Cut-off points"):
+		if _, ok := f.get(s); ok {
+			return "", nil
+		}
+		label = "As a tyre mark"
+		if strings.HasSuffix(f.Key, "tyre_mm") {
+			label = "As crosshead travel"
+		}
+		return label, func() {
+			a.tyreCutOffs = !strings.HasSuffix(f.Key, "tyre_mm")
+			a.fields = a.roundFields(a.round)
+			a.setField(a.fi)
+		}
+	}
+	return "", nil
 }

@@ -365,12 +365,20 @@ func (a *App) keypadWords(l *layouter, level int) {
 	if a.screen != Measure {
 		return
 	}
+	var extra []string
+	var extraActs []func()
 	if f.Step == portMarksStep {
 		say, keep := a.marksAdvice()
 		l.muted(say)
 		if keep != "" {
-			l.button(keep, false, a.keepMarks)
+			extra, extraActs = append(extra, keep), append(extraActs, a.keepMarks)
 		}
+	}
+	if label, act := a.formChoice(); label != "" {
+		extra, extraActs = append(extra, label), append(extraActs, act)
+	}
+	if len(extra) > 0 {
+		l.row(extra, make([]bool, len(extra)), extraActs)
 	}
 	labels := []string{"Where", "All readings"}
 	acts := []func(){a.showWhere, func() { a.navigate(Readings) }}
@@ -467,7 +475,7 @@ func (a *App) menuView(l *layouter) {
 				if a.round < 0 {
 					return
 				}
-				a.fields = measureFields(a.Session(), a.cyl, a.round)
+				a.fields = a.roundFields(a.round)
 			}
 			a.navigate(Readings)
 		})

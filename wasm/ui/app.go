@@ -121,8 +121,8 @@ type App struct {
 	// than crosshead travel, steam edges as laps rather than port marks
 	// (app state: the session file keeps each reading in its own form).
 	tyreCutOffs, lapsForm bool
-	note    string // a sentence under the entry: implausible, or an error
-	warn    string // a warning about the entry just committed
+	note                  string // a sentence under the entry: implausible, or an error
+	warn                  string // a warning about the entry just committed
 
 	// Saving.
 	mu      sync.Mutex

@@ -215,11 +215,7 @@ func measureFields(s *session.Session, ci, ri int, tyreCutOffs, lapsForm bool) [
 	// Port marks: optional when an earlier round's still hold.
 	_, _, keep := keptMarks(&s.Cylinders[ci], ri)
 	pm := func(end session.End, label, other, say string) field {
-		crank := 0.0
-		if end == session.Back {
-			crank = 180
-		}
-		return field{CrankDeg: crank, Key: rp + ".port_marks." + string(end) + "_gauge_mm", path: func(*session.Session) string { return rp + ".port_marks" }, Step: portMarksStep, Label: label, Say: say, Lo: -50, Hi: 50, Optional: keep,
+		return field{CrankDeg: deadCentreCrank(end), Key: rp + ".port_marks." + string(end) + "_gauge_mm", path: func(*session.Session) string { return rp + ".port_marks" }, Step: portMarksStep, Label: label, Say: say, Lo: -50, Hi: 50, Optional: keep,
 			get: func(s *session.Session) (float64, bool) {
 				p := round(s).PortMarks
 				if p == nil {
@@ -372,18 +368,11 @@ func deadCentreField(ci int, end session.End, dir session.Direction, k int, circ
 // in the step named step.
 func dcReadingField(rp string, round func(*session.Session) *session.Round, p position, end session.End, step string, optional bool) field {
 	find := func(r *session.Round) int {
-		for i, d := range r.DeadCentreReadings {
-			if d.End == end && d.Reverser.Notch == p.Notch && d.Direction == p.Dir {
-				return i
-			}
-		}
-		return -1
+		return indexWhere(r.DeadCentreReadings, func(d session.DeadCentreReading) bool {
+			return d.End == end && d.Reverser.Notch == p.Notch && d.Direction == p.Dir
+		})
 	}
-	crank := 0.0
-	if end == session.Back {
-		crank = 180
-	}
-	return field{Notch: p.Notch, CrankDeg: crank, Key: fmt.Sprintf("%s.dead_centre_readings[%s %s].gauge_mm", rp, p.Notch, end),
+	return field{Notch: p.Notch, CrankDeg: deadCentreCrank(end), Key: fmt.Sprintf("%s.dead_centre_readings[%s %s].gauge_mm", rp, p.Notch, end),
 		Step: step, Optional: optional, Label: fmt.Sprintf("%s dead centre, %s", title(string(end)), p.Notch),
 		Say: fmt.Sprintf("Put the reverser in %s. Turn the wheel %s to the %s dead centre mark, taking up backlash as you go, and type the gauge reading.", p.Notch, p.Dir, end),
 		Lo:  -50, Hi: 50,
@@ -480,12 +469,9 @@ func sweepField(rp string, round func(*session.Session) *session.Round, p positi
 // (tyre) the tyre mark at the pointer.
 func cutOffField(rp string, round func(*session.Session) *session.Round, p position, end session.End, tyre bool) field {
 	find := func(r *session.Round) int {
-		for i, c := range r.CutOffs {
-			if c.End == end && c.Reverser.Notch == p.Notch && c.Direction == p.Dir {
-				return i
-			}
-		}
-		return -1
+		return indexWhere(r.CutOffs, func(c session.CutOff) bool {
+			return c.End == end && c.Reverser.Notch == p.Notch && c.Direction == p.Dir
+		})
 	}
 	crank := 120.0 // about three quarters of the stroke
 	if end == session.Back {
@@ -538,18 +524,11 @@ func cutOffField(rp string, round func(*session.Session) *session.Round, p posit
 // off); negative when the port is still covered by that much.
 func feelerField(rp string, round func(*session.Session) *session.Round, p position, end session.End) field {
 	find := func(r *session.Round) int {
-		for i, o := range r.FeelerOpenings {
-			if o.Port == end && o.DeadCentre == end && o.Reverser.Notch == p.Notch && o.Direction == p.Dir {
-				return i
-			}
-		}
-		return -1
+		return indexWhere(r.FeelerOpenings, func(o session.FeelerOpening) bool {
+			return o.Port == end && o.DeadCentre == end && o.Reverser.Notch == p.Notch && o.Direction == p.Dir
+		})
 	}
-	crank := 0.0
-	if end == session.Back {
-		crank = 180
-	}
-	return field{Notch: p.Notch, CrankDeg: crank, Key: fmt.Sprintf("%s.feeler_openings[%s %s].opening_mm", rp, p.Notch, end),
+	return field{Notch: p.Notch, CrankDeg: deadCentreCrank(end), Key: fmt.Sprintf("%s.feeler_openings[%s %s].opening_mm", rp, p.Notch, end),
 		Step: "Feeler openings, " + p.Notch, Label: fmt.Sprintf("%s port open at %s dead centre, %s", title(string(end)), end, p.Notch), Optional: true,
 		Say: fmt.Sprintf("With the steam-chest cover off: reverser in %s, turn %s to the %s dead centre and measure the %s port's opening with feelers (the lead); type it negative if the valve still covers the port by that much. Skip if the chest is closed.", p.Notch, p.Dir, end, end),
 		Lo:  -3, Hi: 10,
@@ -627,6 +606,26 @@ func lapsFields(rp string, round func(*session.Session) *session.Round, optional
 			}})
 	}
 	return fs
+}
+
+// indexWhere returns the index of the first element of list that match
+// accepts, or -1.
+func indexWhere[T any](list []T, match func(T) bool) int {
+	for i, x := range list {
+		if match(x) {
+			return i
+		}
+	}
+	return -1
+}
+
+// deadCentreCrank is about where the crank stands at end's dead centre
+// (degrees from front dead centre), for the drawing of where.
+func deadCentreCrank(end session.End) float64 {
+	if end == session.Back {
+		return 180
+	}
+	return 0
 }
 
 // notTaken is the note a pair of values carries while one of them, named

@@ -2,10 +2,15 @@ package render
 
 import (
 	"math"
+	"math/rand/v2"
 	"strings"
 	"testing"
 
-	"golang.org/x/image/font"
+	"github.com/golang/freetype/truetype"
+	"golang.org/x/image/math/fixed"
+
+	"evenbeat/render/font"
+	"evenbeat/render/font/fontfile"
 )
 
 func TestTextWidthScalesLinearly(t *testing.T) {
@@ -25,18 +30,82 @@ func TestTextWidthScalesLinearly(t *testing.T) {
 	}
 }
 
-// The backends draw with NewFace at size*scale; its advances must agree
-// with TextWidth*scale, or centred labels would drift with the device scale.
-func TestTextWidthMatchesFace(t *testing.T) {
-	const text = "crank angle, degrees 0 90 180 270 360 %"
-	for _, scale := range []float64{1, 2, 3} {
-		for _, bold := range []bool{false, true} {
-			f := NewFace(14*scale, bold)
-			got := float64(font.MeasureString(f, text)) / 64
-			want := TextWidth(text, 14, bold) * scale
-			// Each advance is rounded to 1/64 px by the face.
-			if math.Abs(got-want) > float64(len(text))/64 {
-				t.Errorf("scale %g bold %v: face measures %g px, TextWidth*scale %g", scale, bold, got, want)
+// ftFonts parses Go Regular and Go Bold with freetype: the reference the
+// glyph tables were made from.
+func ftFonts(t testing.TB) [2]*truetype.Font {
+	t.Helper()
+	fs, err := fontfile.Parse()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return fs
+}
+
+// ftWidth measures text as render did when it read the TrueType files with
+// freetype: unhinted advances and kerning in font units, scaled once. A
+// rune outside the tables' set is measured as the font's glyph 0, the
+// missing-glyph box the tables draw for it (as freetype did for a rune the
+// font lacks).
+func ftWidth(f *truetype.Font, text string, size float64) float64 {
+	upe := fixed.Int26_6(f.FUnitsPerEm())
+	var units fixed.Int26_6
+	prev, first := truetype.Index(0), true
+	for _, r := range text {
+		i := f.Index(r)
+		if font.Index(r) == font.Fallback {
+			i = 0
+		}
+		if !first {
+			units += f.Kern(upe, prev, i)
+		}
+		units += f.HMetric(upe, i).AdvanceWidth
+		prev, first = i, false
+	}
+	return float64(units) * size / float64(upe)
+}
+
+// The glyph tables measure as freetype reading the fonts did, to 1e-9:
+// widths of every rune of the set, every pair, labels, random strings and
+// runes outside the set (the font's missing glyph both ways), the vertical
+// metrics and the origins alignment derives from them.
+func TestTextMeasuresAsFreetype(t *testing.T) {
+	fs := ftFonts(t)
+	set := font.Runes()
+	texts := []string{"", "crank angle, degrees 0 90 180 270 360 %", "Lead 1.5 mm ± 0.1", "Cut-off 75 % — back gear", "AVAWAy Te To", "中文", "ß\uFFFD\x00"}
+	for _, a := range set {
+		texts = append(texts, string(a))
+		for _, b := range set {
+			texts = append(texts, string([]rune{a, b}))
+		}
+	}
+	rng := rand.New(rand.NewPCG(1, 2))
+	for range 200 {
+		rs := make([]rune, 1+rng.IntN(40))
+		for i := range rs {
+			rs[i] = set[rng.IntN(len(set))]
+		}
+		texts = append(texts, string(rs))
+	}
+	for bi, bold := range []bool{false, true} {
+		f := fs[bi]
+		upe := fontfile.Units(f)
+		ia, id := fontfile.VMetrics(f)
+		for _, size := range []float64{14, 17.5, 42} {
+			asc, desc := float64(ia)*size/float64(upe), float64(id)*size/float64(upe)
+			if math.Abs(Ascent(size, bold)-asc) > 1e-9 || math.Abs(Descent(size, bold)-desc) > 1e-9 {
+				t.Errorf("bold %v size %g: ascent %g descent %g, freetype %g %g", bold, size, Ascent(size, bold), Descent(size, bold), asc, desc)
+			}
+			for _, text := range texts {
+				want := ftWidth(f, text, size)
+				if got := TextWidth(text, size, bold); math.Abs(got-want) > 1e-9 {
+					t.Errorf("bold %v size %g: TextWidth(%q) = %.12g, freetype %.12g", bold, size, text, got, want)
+				}
+			}
+			st := TextStyle{Size: size, Bold: bold, HAlign: Right, VAlign: Middle}
+			const text = "Valve travel 62.5 mm"
+			o := TextOrigin(Point{200, 100}, text, st)
+			if want := (Point{200 - ftWidth(f, text, size), 100 + (asc-desc)/2}); !near(o, want) {
+				t.Errorf("bold %v size %g: origin %v, freetype %v", bold, size, o, want)
 			}
 		}
 	}

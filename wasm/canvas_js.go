@@ -9,8 +9,6 @@ import (
 
 	"github.com/hajimehoshi/ebiten/v2"
 	"github.com/hajimehoshi/ebiten/v2/vector"
-	"golang.org/x/image/font"
-	"golang.org/x/image/math/fixed"
 
 	"evenbeat/render"
 )
@@ -19,9 +17,11 @@ import (
 // (CSS px) times scale give device pixels. Fills go through ebiten's
 // triangle rasteriser with the non-zero rule and anti-aliasing; strokes are
 // filled outlines from render.Outline, so they match the PNG backend; text
-// is drawn from glyph masks of render.NewFace kept as ebiten images (ebiten
-// packs them into its texture atlas), which costs far less wasm than
-// ebiten's text package and draws the same glyphs as the PNG backend.
+// is the font's own outlines (render.GlyphPath, from the tables in
+// render/font) filled the same way, once per rune, size and weight, into a
+// white glyph image that DrawImage tints (ebiten packs the images into its
+// texture atlas). No font file or font parser reaches the wasm build, and
+// the PNG backend fills the very same outlines.
 //
 // One canvas lives for the whole run so the glyph cache survives frames;
 // Begin points it at the frame's target.
@@ -31,24 +31,20 @@ type ebitenCanvas struct {
 	w, h  float64 // logical size
 
 	white  *ebiten.Image // a white pixel, the source of every fill
-	faces  map[faceKey]font.Face
 	glyphs map[glyphKey]*glyph
 	vs     []ebiten.Vertex
 	is     []uint16
 }
 
-// faceKey names one cached face: device pixels per em (in 1/64 px) and weight.
-type faceKey struct {
+// glyphKey names one cached glyph: its rune, its em size in device pixels
+// (in 1/64 px) and its weight.
+type glyphKey struct {
+	r      rune
 	size64 int
 	bold   bool
 }
 
-type glyphKey struct {
-	face faceKey
-	r    rune
-}
-
-// glyph is one rasterised glyph: img is nil for blank glyphs (space).
+// glyph is one filled glyph: img is nil for blank glyphs (space).
 type glyph struct {
 	img *ebiten.Image
 	off image.Point // top-left of img relative to the pen on the baseline
@@ -60,7 +56,6 @@ func newEbitenCanvas() *ebitenCanvas {
 	return &ebitenCanvas{
 		// The inner pixel: sampling never bleeds into a neighbour on the atlas.
 		white:  src.SubImage(image.Rect(1, 1, 2, 2)).(*ebiten.Image),
-		faces:  map[faceKey]font.Face{},
 		glyphs: map[glyphKey]*glyph{},
 	}
 }
@@ -80,7 +75,11 @@ func (c *ebitenCanvas) Clear(col color.RGBA) { c.dst.Fill(col) }
 
 // Fill fills p with the non-zero winding rule.
 func (c *ebitenCanvas) Fill(p render.Path, s render.FillStyle) {
-	k := float32(c.scale)
+	c.fill(c.dst, p, float32(c.scale), s.Color)
+}
+
+// fill fills p, scaled by k, on dst.
+func (c *ebitenCanvas) fill(dst *ebiten.Image, p render.Path, k float32, col color.RGBA) {
 	c.vs, c.is = c.vs[:0], c.is[:0]
 	var sub vector.Path
 	open := false
@@ -94,7 +93,7 @@ func (c *ebitenCanvas) Fill(p render.Path, s render.FillStyle) {
 		// came before this sub-path and start again with it.
 		if nv > 0 && (len(c.vs) > 60000 || len(c.is) > ebiten.MaxIndicesCount-3) {
 			c.vs, c.is = c.vs[:nv], c.is[:ni]
-			c.draw(s.Color)
+			c.draw(dst, col)
 			c.vs, c.is = sub.AppendVerticesAndIndicesForFilling(c.vs[:0], c.is[:0])
 		}
 		sub = vector.Path{}
@@ -124,11 +123,11 @@ func (c *ebitenCanvas) Fill(p render.Path, s render.FillStyle) {
 		}
 	}
 	flushSub()
-	c.draw(s.Color)
+	c.draw(dst, col)
 }
 
-// draw fills the pending triangles in col.
-func (c *ebitenCanvas) draw(col color.RGBA) {
+// draw fills the pending triangles in col on dst.
+func (c *ebitenCanvas) draw(dst *ebiten.Image, col color.RGBA) {
 	if len(c.is) == 0 {
 		return
 	}
@@ -144,7 +143,7 @@ func (c *ebitenCanvas) draw(col color.RGBA) {
 		AntiAlias:      true,
 		ColorScaleMode: ebiten.ColorScaleModePremultipliedAlpha,
 	}
-	c.dst.DrawTriangles(c.vs, c.is, c.white, op)
+	dst.DrawTriangles(c.vs, c.is, c.white, op)
 }
 
 // Stroke fills the outline render.Outline makes of p.
@@ -152,67 +151,48 @@ func (c *ebitenCanvas) Stroke(p render.Path, s render.LineStyle) {
 	c.Fill(render.Outline(p, s), render.FillStyle{Color: s.Color})
 }
 
-// Text draws one line of text anchored at at.
+// Text draws one line of text anchored at at: each glyph from the cache,
+// its pen point (render.PlaceGlyphs) rounded to a whole device pixel.
 func (c *ebitenCanvas) Text(at render.Point, text string, s render.TextStyle) {
 	size := s.Size
 	if !(size > 0) || math.IsInf(size, 0) {
 		size = render.DefaultTextSize
 	}
-	key := faceKey{size64: int(math.Round(size * c.scale * 64)), bold: s.Bold}
-	face := c.face(key)
-	o := render.TextOrigin(at, text, s)
-	x := fixed.Int26_6(math.Round(o.X * c.scale * 64))
-	y := math.Round(o.Y * c.scale)
+	size64 := int(math.Round(size * c.scale * 64))
 	var op ebiten.DrawImageOptions
 	op.ColorScale.ScaleWithColor(s.Color)
-	prev := rune(-1)
-	for _, r := range text {
-		if prev >= 0 {
-			x += face.Kern(prev, r)
+	for _, pg := range render.PlaceGlyphs(at, text, s) {
+		x, y := pg.At.X*c.scale, pg.At.Y*c.scale
+		if math.IsNaN(x) || math.IsNaN(y) || math.Abs(x) > 1<<20 || math.Abs(y) > 1<<20 {
+			continue
 		}
-		g := c.glyph(face, key, r)
-		if g.img != nil {
-			op.GeoM.Reset()
-			op.GeoM.Translate(float64(x.Round()+g.off.X), y+float64(g.off.Y))
-			c.dst.DrawImage(g.img, &op)
+		g := c.glyph(glyphKey{r: pg.Rune, size64: size64, bold: s.Bold})
+		if g.img == nil {
+			continue
 		}
-		adv, _ := face.GlyphAdvance(r)
-		x += adv
-		prev = r
+		op.GeoM.Reset()
+		op.GeoM.Translate(math.Round(x)+float64(g.off.X), math.Round(y)+float64(g.off.Y))
+		c.dst.DrawImage(g.img, &op)
 	}
 }
 
-func (c *ebitenCanvas) face(key faceKey) font.Face {
-	f, ok := c.faces[key]
-	if !ok {
-		f = render.NewFace(float64(key.size64)/64, key.bold)
-		c.faces[key] = f
-	}
-	return f
-}
-
-// glyph returns the cached image of r in face, rasterising it on first use.
-func (c *ebitenCanvas) glyph(face font.Face, key faceKey, r rune) *glyph {
-	gk := glyphKey{key, r}
-	if g, ok := c.glyphs[gk]; ok {
+// glyph returns the cached image of a glyph, filling its outline on first
+// use: white, anti-aliased, with a pixel of margin on every side.
+func (c *ebitenCanvas) glyph(key glyphKey) *glyph {
+	if g, ok := c.glyphs[key]; ok {
 		return g
 	}
 	g := &glyph{}
-	dr, mask, mp, _, ok := face.Glyph(fixed.Point26_6{}, r)
-	if ok && !dr.Empty() {
-		// White, premultiplied by the mask's coverage; DrawImage tints it.
-		rgba := image.NewRGBA(image.Rect(0, 0, dr.Dx(), dr.Dy()))
-		for y := 0; y < dr.Dy(); y++ {
-			for x := 0; x < dr.Dx(); x++ {
-				_, _, _, a := mask.At(mp.X+x, mp.Y+y).RGBA()
-				v := uint8(a >> 8)
-				i := rgba.PixOffset(x, y)
-				rgba.Pix[i], rgba.Pix[i+1], rgba.Pix[i+2], rgba.Pix[i+3] = v, v, v, v
-			}
-		}
-		g.img = ebiten.NewImageFromImage(rgba)
-		g.off = dr.Min
+	size := float64(key.size64) / 64
+	b := render.GlyphBounds(key.r, size, key.bold)
+	if b.W() > 0 && b.H() > 0 {
+		off := image.Pt(int(math.Floor(b.Min.X))-1, int(math.Floor(b.Min.Y))-1)
+		w, h := int(math.Ceil(b.Max.X))+1-off.X, int(math.Ceil(b.Max.Y))+1-off.Y
+		g.img = ebiten.NewImage(w, h)
+		p := render.GlyphPath(key.r, size, key.bold, render.Point{X: -float64(off.X), Y: -float64(off.Y)})
+		c.fill(g.img, p, 1, color.RGBA{0xff, 0xff, 0xff, 0xff})
+		g.off = off
 	}
-	c.glyphs[gk] = g
+	c.glyphs[key] = g
 	return g
 }

@@ -9,8 +9,6 @@ import (
 	"io"
 	"math"
 
-	"golang.org/x/image/font"
-	"golang.org/x/image/math/fixed"
 	"golang.org/x/image/vector"
 
 	"evenbeat/render"
@@ -24,12 +22,6 @@ type Canvas struct {
 	z     vector.Rasterizer
 	mask  []byte // coverage of the current fill, reused between fills
 	solid []byte // a row of the current opaque colour, reused between fills
-	faces map[faceKey]font.Face
-}
-
-type faceKey struct {
-	size float64
-	bold bool
 }
 
 // New returns a transparent canvas of wPx by hPx device pixels drawing
@@ -43,7 +35,6 @@ func New(wPx, hPx int, scale float64) *Canvas {
 	return &Canvas{
 		img:   image.NewRGBA(image.Rect(0, 0, wPx, hPx)),
 		scale: scale,
-		faces: map[faceKey]font.Face{},
 	}
 }
 
@@ -258,28 +249,12 @@ func (c *Canvas) Stroke(p render.Path, s render.LineStyle) {
 	}
 }
 
-// Text draws one line of text with the embedded font at the style's size
-// times the scale, from render.TextOrigin.
+// Text fills the outline of one line of text (render.TextPath) with the
+// non-zero rule, as any other fill: the browser fills the very same
+// outlines, so both backends draw the same glyphs.
 func (c *Canvas) Text(at render.Point, text string, s render.TextStyle) {
 	if text == "" || s.Color.A == 0 || !finitePt(at) {
 		return
 	}
-	size := s.Size
-	if !(size > 0) || math.IsInf(size, 0) {
-		size = render.DefaultTextSize
-	}
-	key := faceKey{size * c.scale, s.Bold}
-	f, ok := c.faces[key]
-	if !ok {
-		f = render.NewFace(key.size, s.Bold)
-		c.faces[key] = f
-	}
-	o := render.TextOrigin(at, text, s)
-	d := font.Drawer{
-		Dst:  c.img,
-		Src:  image.NewUniform(s.Color),
-		Face: f,
-		Dot:  fixed.Point26_6{X: fixed.Int26_6(math.Round(o.X * c.scale * 64)), Y: fixed.Int26_6(math.Round(o.Y * c.scale * 64))},
-	}
-	d.DrawString(text)
+	c.Fill(render.TextPath(at, text, s), render.FillStyle{Color: s.Color})
 }

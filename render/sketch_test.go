@@ -49,15 +49,23 @@ var sketchKeys = []string{
 	"engine.gear.walschaerts.union_link",
 }
 
-// sketchBoxes span the sizes the set-up screens use, 120x80 to 390x200,
-// with the extremes of aspect, placed away from the origin.
+// sketchBoxes span the sizes the set-up screens use, 120x80 to 390x200:
+// a grid over that range and a few odd sizes, placed away from the origin.
 func sketchBoxes() []render.Rect {
 	var out []render.Rect
-	for _, wh := range [][2]float64{
-		{120, 80}, {390, 200}, {120, 200}, {390, 80}, {200, 120}, {320, 160}, {155.5, 93.25},
-	} {
-		out = append(out, render.Rect{Min: render.Point{X: 20, Y: 30}, Max: render.Point{X: 20 + wh[0], Y: 30 + wh[1]}})
+	add := func(w, h float64) {
+		out = append(out, render.Rect{Min: render.Point{X: 20.5, Y: 30.25}, Max: render.Point{X: 20.5 + w, Y: 30.25 + h}})
 	}
+	add(120, 80)
+	add(390, 200)
+	for w := 120.0; w <= 390; w += 45 {
+		for h := 80.0; h <= 200; h += 30 {
+			add(w, h)
+		}
+	}
+	add(155.5, 93.25)
+	add(121, 199)
+	add(389, 81)
 	return out
 }
 
@@ -125,17 +133,60 @@ func TestDimensionSketchDrawsADimension(t *testing.T) {
 	}
 }
 
-// The front and back variants of a valve dimension are different
-// drawings: the dimension sits at its own end of the valve.
-func TestDimensionSketchEndsDiffer(t *testing.T) {
-	for _, which := range []string{"steam_lap", "exhaust_lap", "port_width"} {
-		draw := func(end string) string {
-			c := recorder.New(500, 300)
-			render.DimensionSketch(c, sketchBoxes()[1], "engine.valve."+end+"."+which, render.Light())
-			return c.String()
+// accentBounds returns the box of the accent strokes (the dimension) of
+// key's sketch drawn in box.
+func accentBounds(key string, box render.Rect, th render.Theme) render.Rect {
+	c := recorder.New(box.Max.X, box.Max.Y)
+	render.DimensionSketch(c, box, key, th)
+	d := recorder.New(box.Max.X, box.Max.Y)
+	for _, op := range c.Ops() {
+		if op.Kind == recorder.Stroke && op.Line.Color == th.Accent {
+			d.Stroke(op.Path, op.Line)
 		}
-		if draw("front") == draw("back") {
-			t.Errorf("%s: front and back sketches are the same", which)
+	}
+	return d.Bounds()
+}
+
+// The front and back variants of a valve dimension sit at their own end
+// of the valve: screen right is the front (cover) end, as in the motion
+// drawing, so the front's dimension lies right of the middle and the
+// back's left of it.
+func TestDimensionSketchEndsDiffer(t *testing.T) {
+	box := render.Rect{Max: render.Point{X: 390, Y: 200}}
+	for _, which := range []string{"steam_lap", "exhaust_lap", "port_width"} {
+		for _, end := range []string{"front", "back"} {
+			b := accentBounds("engine.valve."+end+"."+which, box, render.Light())
+			mid := (b.Min.X + b.Max.X) / 2
+			if right := mid > box.W()/2; right != (end == "front") {
+				t.Errorf("%s %s: dimension centred at x = %.1f in a box %g wide", end, which, mid, box.W())
+			}
+		}
+	}
+}
+
+// The angle of advance is taken in the eccentric's running direction:
+// with the crank at front dead centre pointing at the cylinder (screen
+// right), forward running turns clockwise on screen, so the forward
+// eccentric's angle lies below the crank and the backward one's above.
+func TestDimensionSketchAdvanceFollowsRunning(t *testing.T) {
+	box := render.Rect{Max: render.Point{X: 390, Y: 200}}
+	crankY := map[bool]float64{}
+	for _, fwd := range []bool{true, false} {
+		key := "engine.gear.stephenson.backward.advance"
+		if fwd {
+			key = "engine.gear.stephenson.forward.advance"
+		}
+		// The crank is the one heavy ink stroke.
+		c := recorder.New(390, 200)
+		render.DimensionSketch(c, box, key, render.Light())
+		for _, op := range c.Ops() {
+			if op.Kind == recorder.Stroke && op.Line.Color == render.Light().Ink && op.Line.Width > 4 {
+				crankY[fwd] = op.Path[0].Pts[0].Y
+			}
+		}
+		b := accentBounds(key, box, render.Light())
+		if below := b.Min.Y > crankY[fwd]; below != fwd {
+			t.Errorf("%s: angle spans y %.1f to %.1f, crank at y %.1f", key, b.Min.Y, b.Max.Y, crankY[fwd])
 		}
 	}
 }

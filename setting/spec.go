@@ -2,15 +2,15 @@ package setting
 
 import (
 	"bytes"
-	"encoding"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
 	"math"
-	"reflect"
-	"sort"
+	"slices"
+	"strconv"
 	"strings"
+
+	"evenbeat/internal/jsonx"
 )
 
 // EngineSpec is a whole engine as the tools read and write it: one cylinder's
@@ -227,18 +227,34 @@ func checkNames(list, what string, names []string) error {
 // DecodeEngineSpec reads an engine spec from JSON and validates every value.
 // Errors are *Error values whose Field is the key path of the value at fault
 // ("valve.front.port_width", "gear.walschaerts"), with a sentence saying
-// what is wrong.
+// what is wrong. A key written twice counts once, its last value.
 func DecodeEngineSpec(r io.Reader) (EngineSpec, error) {
 	var spec EngineSpec
 	data, err := io.ReadAll(r)
 	if err != nil {
 		return spec, &Error{"", fmt.Sprintf("The engine file could not be read: %v.", err)}
 	}
-	if err := checkJSON("", json.RawMessage(data), reflect.TypeOf(spec)); err != nil {
-		return spec, err
+	raw := bytes.TrimSpace(data)
+	if len(raw) == 0 {
+		return spec, &Error{"", describePath("") + " is empty; it must be a JSON object."}
 	}
-	if err := json.Unmarshal(data, &spec); err != nil {
-		return spec, &Error{"", fmt.Sprintf("The engine file is not valid: %v.", err)}
+	v, err := jsonx.Parse(raw, jsonx.Options{})
+	if err != nil || v.Kind != jsonx.Object {
+		return spec, &Error{"", describePath("") + fmt.Sprintf(" must be an object {...} (got %s).", short(raw))}
+	}
+	d := specDecoder{data: raw}
+	if err := d.read("", v, &spec); err != nil {
+		return EngineSpec{}, err
+	}
+	if len(raw) != len(bytes.Trim(data, " \t\r\n")) {
+		// White space outside JSON's own (a no-break space, say) around
+		// the object: the file itself is not JSON.
+		if _, err := jsonx.Parse(data, jsonx.Options{}); err != nil {
+			return EngineSpec{}, &Error{"", fmt.Sprintf("The engine file is not valid: %v.", err)}
+		}
+	}
+	if d.wholeErr != nil {
+		return EngineSpec{}, d.wholeErr
 	}
 	return spec, spec.Validate()
 }
@@ -248,7 +264,7 @@ func (s EngineSpec) Encode(w io.Writer) error {
 	if err := s.Validate(); err != nil {
 		return err
 	}
-	b, err := json.MarshalIndent(s, "", "  ")
+	b, err := s.write(&jsonx.Writer{Indent: "  ", EscapeHTML: true})
 	if err != nil {
 		return err
 	}
@@ -256,117 +272,353 @@ func (s EngineSpec) Encode(w io.Writer) error {
 	return err
 }
 
-var textUnmarshaler = reflect.TypeFor[encoding.TextUnmarshaler]()
+// AppendJSON appends the spec as compact JSON, keys in the engine format's
+// order, without validating it (the bytes json.Marshal gave). A number JSON
+// cannot hold (NaN, an infinity) or an admission that is neither kind is an
+// error.
+func (s EngineSpec) AppendJSON(dst []byte) ([]byte, error) {
+	b, err := s.write(&jsonx.Writer{EscapeHTML: true})
+	if err != nil {
+		return dst, err
+	}
+	return append(dst, b...), nil
+}
 
-// checkJSON walks the raw JSON against the Go type it will be decoded into,
-// so that every problem is reported with its key path: a value of the wrong
-// JSON kind, an unknown key, a missing required key.
-func checkJSON(path string, raw json.RawMessage, t reflect.Type) error {
-	raw = bytes.TrimSpace(raw)
-	at := func(msg string, args ...any) error {
-		return &Error{path, describePath(path) + " " + fmt.Sprintf(msg, args...)}
+func (s EngineSpec) write(w *jsonx.Writer) ([]byte, error) {
+	writeSpecValue(w, &s)
+	return w.Bytes()
+}
+
+// specField is one key of the engine format: its name, whether it is
+// optional (left out when zero on writing, may be missing on reading), and
+// a pointer to the Go value it holds. The tables below, one per type in
+// struct order, serve both reading and writing; the json tags on the types
+// say the same for encoding/json (a test keeps them agreeing).
+type specField struct {
+	key      string
+	optional bool
+	ptr      any // *float64, *Reverser, *int, *bool, *string, *Admission, a pointer to a spec struct, *[]Notch, *[]Cylinder, or a pointer to a *Gear-struct or *Rocker
+}
+
+// specFields lists the keys of the struct ptr points to; nil for a leaf.
+func specFields(ptr any) []specField {
+	switch p := ptr.(type) {
+	case *EngineSpec:
+		return []specField{{"name", false, &p.Name}, {"invented", false, &p.Invented}, {"notes", true, &p.Notes},
+			{"engine", false, &p.Engine}, {"valve", false, &p.Valve}, {"gear", false, &p.Gear},
+			{"notches", true, &p.Notches}, {"cylinders", true, &p.Cylinders}}
+	case *Notch:
+		return []specField{{"name", false, &p.Name}, {"reverser", false, &p.Reverser}}
+	case *Cylinder:
+		return []specField{{"name", false, &p.Name}, {"crank_angle", false, &p.CrankAngle}}
+	case *Engine:
+		return []specField{{"crank_radius", false, &p.CrankRadius}, {"rod_length", false, &p.RodLength},
+			{"inclination", false, &p.Inclination}, {"offset", false, &p.Offset}}
+	case *Valve:
+		return []specField{{"admission", false, &p.Admission}, {"front", false, &p.Front}, {"back", false, &p.Back},
+			{"liner_diameter", true, &p.LinerDiameter}}
+	case *End:
+		return []specField{{"steam_lap", false, &p.SteamLap}, {"exhaust_lap", false, &p.ExhaustLap},
+			{"port_width", false, &p.PortWidth}, {"port_length", true, &p.PortLength}, {"holes", true, &p.Holes},
+			{"hole_diameter", true, &p.HoleDiameter}}
+	case *GearSpec:
+		return []specField{{"kind", false, &p.Kind}, {"single_eccentric", true, &p.SingleEccentric},
+			{"stephenson", true, &p.Stephenson}, {"walschaerts", true, &p.Walschaerts}}
+	case *Point:
+		return []specField{{"u", false, &p.U}, {"w", false, &p.W}}
+	case *Eccentric:
+		return []specField{{"throw", false, &p.Throw}, {"advance", false, &p.Advance}, {"rod", false, &p.Rod}}
+	case *Rocker:
+		return []specField{{"pivot", false, &p.Pivot}, {"drive_arm", false, &p.DriveArm},
+			{"valve_arm", false, &p.ValveArm}, {"valve_rod", false, &p.ValveRod}}
+	case *SingleEccentric:
+		return []specField{{"eccentric", false, &p.Eccentric}, {"slip", false, &p.Slip},
+			{"admission", false, &p.Admission}, {"rocker", true, &p.Rocker}, {"guide", false, &p.Guide},
+			{"valve_centre_u", false, &p.ValveCentreU}}
+	case *ExpansionLink:
+		return []specField{{"radius", false, &p.Radius}, {"pin_spacing", false, &p.PinSpacing},
+			{"suspension", false, &p.Suspension}}
+	case *Stephenson:
+		return []specField{{"forward", false, &p.Forward}, {"backward", false, &p.Backward},
+			{"crossed", false, &p.Crossed}, {"admission", false, &p.Admission}, {"link", false, &p.Link},
+			{"weighshaft", false, &p.Weighshaft}, {"reverse_arm", false, &p.ReverseArm},
+			{"mid_arm_angle", false, &p.MidArmAngle}, {"arm_swing", false, &p.ArmSwing},
+			{"lifting_link", false, &p.LiftingLink}, {"guide", false, &p.Guide},
+			{"valve_centre_u", false, &p.ValveCentreU}}
+	case *CombinationLever:
+		return []specField{{"valve_pin", false, &p.ValvePin}, {"union_pin", false, &p.UnionPin}}
+	case *Walschaerts:
+		return []specField{{"return_crank", false, &p.ReturnCrank}, {"return_angle", false, &p.ReturnAngle},
+			{"eccentric_rod", false, &p.EccentricRod}, {"trunnion", false, &p.Trunnion},
+			{"link_foot", false, &p.LinkFoot}, {"link_radius", false, &p.LinkRadius},
+			{"full_gear_die", false, &p.FullGearDie}, {"radius_rod", false, &p.RadiusRod},
+			{"lever", false, &p.Lever}, {"union_link", false, &p.UnionLink},
+			{"crosshead_arm", false, &p.CrossheadArm}, {"guide", false, &p.Guide},
+			{"valve_centre_u", false, &p.ValveCentreU}}
 	}
-	if len(raw) == 0 {
-		return at("is empty; it must be a JSON object.")
+	return nil
+}
+
+// specDecoder reads a parsed engine file into Go values, checking each
+// value's JSON kind and naming its key path when it is wrong.
+type specDecoder struct {
+	data []byte // the file, for quoting values as written
+	// wholeErr is the first count (Holes) written as a whole number that
+	// is not an integer literal ("1.0", "1e2"); it is reported only once
+	// everything else reads, where the final decoding used to find it.
+	wholeErr error
+}
+
+// read reads v, found at path, into the value ptr points to (a specField
+// ptr). A null leaves a number, word, list or optional object at zero, as
+// encoding/json does.
+func (d *specDecoder) read(path string, v *jsonx.Value, ptr any) error {
+	at := func(msg string) error {
+		return &Error{path, describePath(path) + " " + fmt.Sprintf(msg, short(d.data[v.Start:v.End]))}
 	}
-	if t.Kind() == reflect.Pointer {
-		if string(raw) == "null" {
-			return nil
+	switch p := ptr.(type) {
+	case *float64:
+		return d.number(v, p, at)
+	case *Reverser:
+		f := float64(*p)
+		err := d.number(v, &f, at)
+		*p = Reverser(f)
+		return err
+	case *int:
+		var f float64
+		if err := d.number(v, &f, at); err != nil {
+			return err
 		}
-		t = t.Elem()
-	}
-	if reflect.PointerTo(t).Implements(textUnmarshaler) {
-		var s string
-		if json.Unmarshal(raw, &s) != nil {
-			return at("must be a quoted word (got %s).", short(raw))
+		if f != math.Trunc(f) {
+			return at("must be a whole number (got %s).")
 		}
-		if err := reflect.New(t).Interface().(encoding.TextUnmarshaler).UnmarshalText([]byte(s)); err != nil {
+		if v.Kind == jsonx.Number {
+			n, err := strconv.ParseInt(v.Text, 10, 0)
+			if err != nil && d.wholeErr == nil {
+				d.wholeErr = at("must be a whole number written without a point or exponent (got %s).")
+			}
+			*p = int(n)
+		}
+	case *bool:
+		if v.Kind != jsonx.Bool && v.Kind != jsonx.Null {
+			return at("must be true or false (got %s).")
+		}
+		*p = v.Bool
+	case *string:
+		if v.Kind != jsonx.String && v.Kind != jsonx.Null {
+			return at("must be a quoted text (got %s).")
+		}
+		if v.Kind == jsonx.String {
+			*p = v.Text
+		}
+	case *Admission:
+		if v.Kind != jsonx.String && v.Kind != jsonx.Null {
+			return at("must be a quoted word (got %s).")
+		}
+		if err := p.UnmarshalText([]byte(v.Text)); err != nil {
 			var e *Error
 			if errors.As(err, &e) {
 				return &Error{path, e.Message}
 			}
-			return at("is not valid: %v.", err)
+			return &Error{path, describePath(path) + " is not valid: " + err.Error() + "."}
 		}
-		return nil
-	}
-	switch t.Kind() {
-	case reflect.Float64, reflect.Float32, reflect.Int, reflect.Int64, reflect.Int32:
-		var f float64
-		if raw[0] == '"' || json.Unmarshal(raw, &f) != nil {
-			return at("must be a number (got %s).", short(raw))
-		}
-		if t.Kind() != reflect.Float64 && t.Kind() != reflect.Float32 && f != math.Trunc(f) {
-			return at("must be a whole number (got %s).", short(raw))
-		}
-	case reflect.Bool:
-		var b bool
-		if json.Unmarshal(raw, &b) != nil {
-			return at("must be true or false (got %s).", short(raw))
-		}
-	case reflect.String:
-		var s string
-		if json.Unmarshal(raw, &s) != nil {
-			return at("must be a quoted text (got %s).", short(raw))
-		}
-	case reflect.Slice:
-		var items []json.RawMessage
-		if json.Unmarshal(raw, &items) != nil {
-			return at("must be a list [...] (got %s).", short(raw))
-		}
-		for i, it := range items {
-			if err := checkJSON(fmt.Sprintf("%s[%d]", path, i), it, t.Elem()); err != nil {
-				return err
-			}
-		}
-	case reflect.Struct:
-		var obj map[string]json.RawMessage
-		if raw[0] != '{' || json.Unmarshal(raw, &obj) != nil {
-			return at("must be an object {...} (got %s).", short(raw))
-		}
-		known := map[string]bool{}
-		var keys []string
-		for i := range t.NumField() {
-			f := t.Field(i)
-			name, opts, _ := strings.Cut(f.Tag.Get("json"), ",")
-			if !f.IsExported() || name == "-" {
-				continue
-			}
-			if name == "" {
-				name = f.Name
-			}
-			known[name] = true
-			keys = append(keys, name)
-			sub := name
-			if path != "" {
-				sub = path + "." + name
-			}
-			v, ok := obj[name]
-			if !ok {
-				if !strings.Contains(opts, "omitempty") {
-					return &Error{sub, describePath(sub) + " is missing; it must be given."}
-				}
-				continue
-			}
-			if err := checkJSON(sub, v, f.Type); err != nil {
-				return err
-			}
-		}
-		var unknown []string
-		for k := range obj {
-			if !known[k] {
-				unknown = append(unknown, k)
-			}
-		}
-		if len(unknown) > 0 {
-			sort.Strings(unknown)
-			sub := unknown[0]
-			if path != "" {
-				sub = path + "." + sub
-			}
-			return &Error{sub, fmt.Sprintf("The key %q is not known here; the keys here are: %s.", unknown[0], strings.Join(keys, ", "))}
-		}
+	case *[]Notch:
+		return readList(d, path, v, p, at)
+	case *[]Cylinder:
+		return readList(d, path, v, p, at)
+	case **SingleEccentric:
+		return readOptional(d, path, v, p)
+	case **Stephenson:
+		return readOptional(d, path, v, p)
+	case **Walschaerts:
+		return readOptional(d, path, v, p)
+	case **Rocker:
+		return readOptional(d, path, v, p)
+	default:
+		return d.object(path, v, specFields(ptr), at)
 	}
 	return nil
+}
+
+// number reads a JSON number that float64 holds, or null.
+func (d *specDecoder) number(v *jsonx.Value, p *float64, at func(string) error) error {
+	switch v.Kind {
+	case jsonx.Null:
+		return nil
+	case jsonx.Number:
+		f, err := strconv.ParseFloat(v.Text, 64)
+		if err == nil {
+			*p = f
+			return nil
+		}
+	}
+	return at("must be a number (got %s).")
+}
+
+// object reads the members of an object in the order of fields: the first
+// wrong or missing one is the error; keys not among them are refused after.
+func (d *specDecoder) object(path string, v *jsonx.Value, fields []specField, at func(string) error) error {
+	if v.Kind != jsonx.Object {
+		return at("must be an object {...} (got %s).")
+	}
+	keys := make([]string, len(fields))
+	for i, f := range fields {
+		keys[i] = f.key
+		sub := f.key
+		if path != "" {
+			sub = path + "." + f.key
+		}
+		m := v.Last(f.key)
+		if m == nil {
+			if !f.optional {
+				return &Error{sub, describePath(sub) + " is missing; it must be given."}
+			}
+			continue
+		}
+		if err := d.read(sub, m, f.ptr); err != nil {
+			return err
+		}
+	}
+	var unknown []string
+	for _, k := range v.Keys {
+		if !slices.Contains(keys, k) {
+			unknown = append(unknown, k)
+		}
+	}
+	if len(unknown) > 0 {
+		slices.Sort(unknown)
+		sub := unknown[0]
+		if path != "" {
+			sub = path + "." + sub
+		}
+		return &Error{sub, fmt.Sprintf("The key %q is not known here; the keys here are: %s.", unknown[0], strings.Join(keys, ", "))}
+	}
+	return nil
+}
+
+// readList reads a list of objects, or null.
+func readList[T any](d *specDecoder, path string, v *jsonx.Value, list *[]T, at func(string) error) error {
+	switch v.Kind {
+	case jsonx.Null:
+		*list = nil
+		return nil
+	case jsonx.Array:
+	default:
+		return at("must be a list [...] (got %s).")
+	}
+	out := make([]T, len(v.Elems))
+	for i, e := range v.Elems {
+		if err := d.read(fmt.Sprintf("%s[%d]", path, i), e, &out[i]); err != nil {
+			return err
+		}
+	}
+	*list = out
+	return nil
+}
+
+// readOptional reads an optional object, nil for null.
+func readOptional[T any](d *specDecoder, path string, v *jsonx.Value, p **T) error {
+	if v.Kind == jsonx.Null {
+		*p = nil
+		return nil
+	}
+	x := new(T)
+	if err := d.read(path, v, x); err != nil {
+		return err
+	}
+	*p = x
+	return nil
+}
+
+// writeSpecValue writes the value ptr points to (a specField ptr) as
+// encoding/json would: optional members left out when zero.
+func writeSpecValue(w *jsonx.Writer, ptr any) {
+	switch p := ptr.(type) {
+	case *float64:
+		w.Float(*p)
+	case *Reverser:
+		w.Float(float64(*p))
+	case *int:
+		w.Int(int64(*p))
+	case *bool:
+		w.Bool(*p)
+	case *string:
+		w.String(*p)
+	case *Admission:
+		b, err := p.MarshalText()
+		if err != nil {
+			w.Fail(fmt.Errorf("json: error calling MarshalText for type setting.Admission: %w", err))
+		}
+		w.String(string(b))
+	case *[]Notch:
+		writeList(w, *p)
+	case *[]Cylinder:
+		writeList(w, *p)
+	case **SingleEccentric:
+		writeOptional(w, *p)
+	case **Stephenson:
+		writeOptional(w, *p)
+	case **Walschaerts:
+		writeOptional(w, *p)
+	case **Rocker:
+		writeOptional(w, *p)
+	default:
+		w.BeginObject()
+		for _, f := range specFields(ptr) {
+			if f.optional && isZeroSpecValue(f.ptr) {
+				continue
+			}
+			w.Key(f.key)
+			writeSpecValue(w, f.ptr)
+		}
+		w.EndObject()
+	}
+}
+
+func writeList[T any](w *jsonx.Writer, list []T) {
+	if list == nil {
+		w.Null()
+		return
+	}
+	w.BeginArray()
+	for i := range list {
+		writeSpecValue(w, &list[i])
+	}
+	w.EndArray()
+}
+
+func writeOptional[T any](w *jsonx.Writer, p *T) {
+	if p == nil {
+		w.Null()
+		return
+	}
+	writeSpecValue(w, p)
+}
+
+// isZeroSpecValue reports whether an optional member is left out: zero,
+// empty or nil.
+func isZeroSpecValue(ptr any) bool {
+	switch p := ptr.(type) {
+	case *float64:
+		return *p == 0
+	case *int:
+		return *p == 0
+	case *string:
+		return *p == ""
+	case *[]Notch:
+		return len(*p) == 0
+	case *[]Cylinder:
+		return len(*p) == 0
+	case **SingleEccentric:
+		return *p == nil
+	case **Stephenson:
+		return *p == nil
+	case **Walschaerts:
+		return *p == nil
+	case **Rocker:
+		return *p == nil
+	}
+	return false
 }
 
 // describePath names a value in a sentence by its last key in words and its
@@ -383,8 +635,9 @@ func describePath(p string) string {
 	return "The " + strings.ReplaceAll(last, "_", " ") + " (" + p + ")"
 }
 
-// short quotes a JSON value for a message, cut to a readable length.
-func short(raw json.RawMessage) string {
+// short quotes a JSON value as written for a message, cut to a readable
+// length.
+func short(raw []byte) string {
 	s := string(raw)
 	if len(s) > 40 {
 		s = s[:37] + "..."

@@ -315,21 +315,14 @@ func (p *parser) object() (*Value, error) {
 		p.path = p.path[:len(p.path)-1]
 		v.Keys = append(v.Keys, key)
 		v.Vals = append(v.Vals, val)
-		p.space()
-		if p.i >= len(p.data) {
-			return nil, p.end()
+		more, err := p.more('}', "after object key:value pair")
+		if err != nil {
+			return nil, err
 		}
-		switch p.data[p.i] {
-		case ',':
-			p.i++
-			p.space()
-			continue
-		case '}':
-			p.i++
+		if !more {
 			v.End = p.i
 			return v, nil
 		}
-		return nil, p.fail("after object key:value pair")
 	}
 }
 
@@ -359,23 +352,35 @@ func (p *parser) array() (*Value, error) {
 			return nil, err
 		}
 		v.Elems = append(v.Elems, e)
-		p.space()
-		if p.i >= len(p.data) {
-			return nil, p.end()
+		more, err := p.more(']', "after array element")
+		if err != nil {
+			return nil, err
 		}
-		switch p.data[p.i] {
-		case ',':
-			p.i++
-			p.space()
-			continue
-		case ']':
-			p.i++
+		if !more {
 			v.End = p.i
 			p.path = p.path[:len(p.path)-1]
 			return v, nil
 		}
-		return nil, p.fail("after array element")
 	}
+}
+
+// more reads what follows a member of an array or object: a comma (true)
+// or the closing byte (false).
+func (p *parser) more(closing byte, context string) (bool, error) {
+	p.space()
+	if p.i >= len(p.data) {
+		return false, p.end()
+	}
+	switch p.data[p.i] {
+	case ',':
+		p.i++
+		p.space()
+		return true, nil
+	case closing:
+		p.i++
+		return false, nil
+	}
+	return false, p.fail(context)
 }
 
 // number checks the number at p.i and moves past it.

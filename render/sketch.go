@@ -40,7 +40,8 @@ const (
 // wraps in a narrow box; the part is drawn in the theme's ink and muted
 // colours and the measured distance or angle as a dimension in its accent
 // colour. A box smaller than SketchMinW by SketchMinH, or not finite,
-// draws nothing (and still returns true for a known key).
+// draws nothing and still returns true for a known key, so a screen can
+// ask with the zero Rect whether to make room for a sketch.
 func DimensionSketch(c Canvas, box Rect, key string, th Theme) bool {
 	label, draw, ok := sketchFor(key)
 	if !ok {
@@ -525,9 +526,9 @@ func (s sketch) sheave(a, sc Point, r float64, end Point) {
 
 // eccentricThrow: axle centre to sheave centre.
 func (s sketch) eccentricThrow() {
-	a := Point{70, 54}
-	sc := polar(a, 22, -35)
-	s.sheave(a, sc, 36, Point{205, sc.Y})
+	a := Point{70, 62}
+	sc := polar(a, 30, -35)
+	s.sheave(a, sc, 34, Point{205, sc.Y})
 	s.dim(a, sc, 0)
 }
 

@@ -12,8 +12,8 @@ import "math"
 // nothing: the one-line label (14 units, the smallest text a phone reader
 // is given) would leave no room for the drawing.
 const (
-	SketchMinW = 120
-	SketchMinH = 80
+	SketchMinW = 120 // narrowest box DimensionSketch draws in
+	SketchMinH = 80  // shortest box DimensionSketch draws in
 )
 
 // The design frame every sketch is drawn in: sketchW by sketchH design

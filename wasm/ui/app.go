@@ -474,13 +474,13 @@ func (a *App) check() {
 		return
 	}
 	f := a.fields[a.fi]
-	mm, err := session.ParseLength(a.text, a.unit())
+	v, err := a.parseEntry(f, a.text)
 	if err != nil {
 		return
 	}
-	if mm < f.Lo || mm > f.Hi {
-		a.note = fmt.Sprintf("%s: %s %s is unusual here (between %s and %s is usual); check it before Next.", f.Label, a.text, a.unitLabel(),
-			formatNumber(f.Lo, a.unit() == session.UnitInch), formatNumber(f.Hi, a.unit() == session.UnitInch))
+	if v < f.Lo || v > f.Hi {
+		a.note = fmt.Sprintf("%s: %s %s is unusual here (between %s and %s is usual); check it before Next.", f.Label, a.text, a.fieldUnit(f),
+			a.showValue(f, f.Lo), a.showValue(f, f.Hi))
 	}
 }
 
@@ -496,17 +496,29 @@ func (a *App) commit() {
 			a.note = f.Label + ": type the value with the keypad, then Next."
 			return
 		}
+		if a.screen == Sizes && a.fi == len(a.fields)-1 {
+			if why := a.assembles(); why != "" {
+				a.note = f.Label + ": " + why
+				return
+			}
+		}
 		a.advance()
 		return
 	}
-	mm, err := session.ParseLength(a.text, a.unit())
+	v, err := a.parseEntry(f, a.text)
 	if err != nil {
 		a.note = f.Label + ": " + sentence(err)
 		return
 	}
-	f.set(s, mm)
+	f.set(s, v)
 	if a.screen == Sizes {
 		a.engine = nil // drawn again with the new size
+		if why := a.assembles(); why != "" {
+			// The value is kept; the engine is saved once it assembles.
+			a.text, a.typed = "", false
+			a.note = f.Label + ": " + why + " The value is kept but not saved until the gear fits together."
+			return
+		}
 	}
 	a.save()
 	a.warn = ""

@@ -4,7 +4,6 @@ import (
 	"image/color"
 
 	"evenbeat/render"
-	"evenbeat/setting/session"
 )
 
 // Draw draws the screen shown on c; it only draws.
@@ -34,6 +33,9 @@ func (a *App) Draw(c render.Canvas) {
 		for i, line := range p.lines {
 			c.Text(render.Point{X: p.at.X, Y: p.at.Y + float64(i)*p.size*render.LineHeight}, line, st)
 		}
+	}
+	if v.sketch.W() > 0 {
+		render.DimensionSketch(c, v.sketch, a.fields[a.fi].Key, th)
 	}
 	if v.entry.W() > 0 {
 		a.drawEntry(c, v.entry)
@@ -112,13 +114,13 @@ func (a *App) drawEntry(c render.Canvas, r render.Rect) {
 	if !a.typed || a.text == "" {
 		f := a.fields[a.fi]
 		if v, ok := f.get(a.Session()); ok {
-			text, col = formatNumber(v, a.unit() == session.UnitInch), th.Muted
+			text, col = a.showValue(f, v), th.Muted
 		} else {
 			text, col = "", th.Muted
 		}
 	}
 	mid := (r.Min.Y + r.Max.Y) / 2
-	c.Text(render.Point{X: r.Max.X - 16, Y: mid}, a.unitLabel(), render.TextStyle{Color: th.Muted, Size: 18, HAlign: render.Right, VAlign: render.Middle})
+	c.Text(render.Point{X: r.Max.X - 16, Y: mid}, a.fieldUnit(a.fields[a.fi]), render.TextStyle{Color: th.Muted, Size: 18, HAlign: render.Right, VAlign: render.Middle})
 	c.Text(render.Point{X: r.Min.X + 16, Y: mid}, text, render.TextStyle{Color: col, Size: 30, Bold: true, VAlign: render.Middle})
 }
 

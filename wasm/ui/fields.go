@@ -22,6 +22,9 @@ type field struct {
 	Lo, Hi float64
 	// Optional fields may be skipped with the rest of their step.
 	Optional bool
+	// Angle marks a value in degrees (typed and shown as such, whatever the
+	// display unit); Lo and Hi are then degrees too.
+	Angle bool
 	// Notch and CrankDeg say where the engine stands for this reading, for
 	// the drawing of where: the reverser position ("" for full forward) and
 	// about where the crank is (degrees from front dead centre).
@@ -121,28 +124,6 @@ func adjustmentName(a session.Adjustment) string {
 		return "Length of the lifting link"
 	}
 	return string(a.Kind)
-}
-
-// dimensionFields are the engine's dimensions asked at set-up, each with
-// the demo engine's value as its default.
-func dimensionFields() []field {
-	dim := func(key, label, say string, lo, hi float64, p func(s *session.Session) *float64) field {
-		return field{Key: key, Step: "The engine", Label: label, Say: say, Lo: lo, Hi: hi,
-			get: func(s *session.Session) (float64, bool) { return *p(s), true },
-			set: func(s *session.Session, v float64) { *p(s) = v }}
-	}
-	return []field{
-		dim("engine.engine.crank_radius", "Crank radius", "Half the piston stroke: measure the stroke on the slide bar between the two dead centres and halve it.", 5, 600,
-			func(s *session.Session) *float64 { return &s.Engine.Engine.CrankRadius }),
-		dim("engine.engine.rod_length", "Connecting rod", "Centre to centre of the connecting rod, crosshead pin to crank pin.", 20, 4000,
-			func(s *session.Session) *float64 { return &s.Engine.Engine.RodLength }),
-		dim("engine.valve.front.steam_lap", "Front steam lap", "How far the valve's front steam edge overlaps the front port with the valve central, from the drawing or measured with the cover off.", 0, 60,
-			func(s *session.Session) *float64 { return &s.Engine.Valve.Front.SteamLap }),
-		dim("engine.valve.back.steam_lap", "Back steam lap", "The same overlap at the back port.", 0, 60,
-			func(s *session.Session) *float64 { return &s.Engine.Valve.Back.SteamLap }),
-		dim("measuring.wheel_diameter_mm", "Wheel diameter", "Diameter of the driving wheel on the tread, where you will mark the tyre.", 40, 2500,
-			func(s *session.Session) *float64 { return &s.Measuring.WheelDiameterMM }),
-	}
 }
 
 // position is a reverser position the setter reads in, with the way the

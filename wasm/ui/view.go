@@ -39,6 +39,7 @@ type view struct {
 	entry   render.Rect // the typed entry's box (keypad screens)
 	body    render.Rect // the diagram's box (plan, cautions)
 	slider  render.Rect // the what-if track (plan, balance)
+	sketch  render.Rect // the set-up value's sketch (sizes)
 	bottom  float64     // the lowest y of the content, for scrolling
 }
 
@@ -257,7 +258,7 @@ func (a *App) unitsView(l *layouter) {
 	l.row(labels[2:], on[2:], acts[2:])
 	a.cylinderCountRow(l)
 	l.button("Next", false, func() {
-		a.fields = dimensionFields()
+		a.fields = dimensionFields(s)
 		a.setField(0)
 		a.navigate(Sizes)
 	})
@@ -354,6 +355,11 @@ func (a *App) keypadWords(l *layouter, level int) {
 	} else {
 		l.para(f.Say, render.BodySize, false, false, false)
 	}
+	if a.screen == Sizes && hasSketch(f.Key, a.theme) {
+		h := [keypadLevels]float64{150, 110, render.SketchMinH}[level]
+		l.v.sketch = rect(l.x, l.y, l.w, h)
+		l.y += h + gap
+	}
 	l.para(fmt.Sprintf("%s (%d of %d)", f.Label, a.fi+1, len(a.fields)), render.BodySize+2, true, false, false)
 	l.v.entry = rect(l.x, l.y, l.w, entryH)
 	l.y += entryH + gap
@@ -425,12 +431,11 @@ func (a *App) readingsView(l *layouter) {
 	a.cylinderRow(l)
 	l.button(fmt.Sprintf("Plan from round %d", a.round+1), false, a.showRoundPlan)
 	l.muted("Tap a reading to type it again; Next saves it and comes back here.")
-	inch := a.unit() == session.UnitInch
 	for i, f := range a.fields {
 		i := i
 		val := "not taken"
 		if v, ok := f.get(s); ok {
-			val = formatNumber(v, inch) + " " + a.unitLabel()
+			val = a.showValue(f, v) + " " + a.fieldUnit(f)
 		}
 		l.button(f.Label+": "+val, false, func() {
 			a.setField(i)

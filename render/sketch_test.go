@@ -50,7 +50,8 @@ var sketchKeys = []string{
 }
 
 // sketchBoxes span the sizes the set-up screens use, 120x80 to 390x200:
-// a grid over that range and a few odd sizes, placed away from the origin.
+// a grid over that range, a few odd sizes and one wider box, placed away
+// from the origin.
 func sketchBoxes() []render.Rect {
 	var out []render.Rect
 	add := func(w, h float64) {
@@ -66,6 +67,7 @@ func sketchBoxes() []render.Rect {
 	add(155.5, 93.25)
 	add(121, 199)
 	add(389, 81)
+	add(812, 150) // a landscape phone's full width
 	return out
 }
 
@@ -92,7 +94,7 @@ func TestDimensionSketchEveryKeyInsideBox(t *testing.T) {
 	for _, key := range sketchKeys {
 		for _, box := range sketchBoxes() {
 			for _, th := range []render.Theme{render.Light(), render.Dark()} {
-				c := recorder.New(500, 300)
+				c := recorder.New(900, 300)
 				if !render.DimensionSketch(c, box, key, th) {
 					t.Fatalf("%s: no sketch", key)
 				}

@@ -231,7 +231,7 @@ func hasSketch(key string, th render.Theme) bool {
 // sketch with it.
 type nopCanvas struct{}
 
-func (nopCanvas) Size() (float64, float64)                   { return 0, 0 }
-func (nopCanvas) Fill(render.Path, render.FillStyle)         {}
-func (nopCanvas) Stroke(render.Path, render.LineStyle)       {}
+func (nopCanvas) Size() (float64, float64)                    { return 0, 0 }
+func (nopCanvas) Fill(render.Path, render.FillStyle)          {}
+func (nopCanvas) Stroke(render.Path, render.LineStyle)        {}
 func (nopCanvas) Text(render.Point, string, render.TextStyle) {}

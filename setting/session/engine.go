@@ -2,7 +2,6 @@ package session
 
 import (
 	"bytes"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"strings"
@@ -97,7 +96,7 @@ func infoOf(spec setting.EngineSpec) specInfo {
 // encodeTree writes an engine spec as a tree, in the engine format's own
 // key order.
 func encodeTree(spec setting.EngineSpec) (*node, error) {
-	raw, err := json.Marshal(spec)
+	raw, err := spec.AppendJSON(nil)
 	if err != nil {
 		return nil, err
 	}

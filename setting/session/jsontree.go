@@ -2,12 +2,12 @@ package session
 
 import (
 	"bytes"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
 	"strconv"
-	"strings"
+
+	"evenbeat/internal/jsonx"
 )
 
 // The decoder reads the file into a small tree first (keys kept in order,
@@ -40,6 +40,17 @@ type node struct {
 // hundred kilobytes; anything near this is not a session.
 const maxFileBytes = 16 << 20
 
+// maxDepth bounds how deeply lists and objects may nest: a session nests
+// about ten deep; a deeper file is not a session, and the bound keeps the
+// reader's recursion small.
+const maxDepth = 64
+
+// treeOptions: a key written twice is refused, nesting is bounded, and text
+// after the value is left for readTree to report.
+func treeOptions() jsonx.Options {
+	return jsonx.Options{MaxDepth: maxDepth, NoDuplicates: true, Prefix: true}
+}
+
 // readTree reads one JSON value and nothing after it.
 func readTree(r io.Reader) (*node, []byte, error) {
 	data, err := io.ReadAll(io.LimitReader(r, maxFileBytes+1))
@@ -52,26 +63,44 @@ func readTree(r io.Reader) (*node, []byte, error) {
 	if len(bytes.TrimSpace(data)) == 0 {
 		return nil, nil, userError("", "The file is empty; a session file starts with {\"format\": \"evenbeat-session\", ...}.")
 	}
-	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.UseNumber()
-	n, err := readValue(dec, nil)
+	v, err := jsonx.Parse(data, treeOptions())
 	if err != nil {
-		return nil, nil, syntaxError(data, dec, err)
+		return nil, nil, syntaxError(data, err)
 	}
-	if _, err := dec.Token(); err != io.EOF {
-		line, col := lineCol(data, dec.InputOffset())
+	if rest := bytes.TrimLeft(data[v.End:], " \t\r\n"); len(rest) > 0 {
+		line, col := lineCol(data, int64(len(data)-len(rest)))
 		return nil, nil, userError("", fmt.Sprintf("The file has more text after the end of the session (line %d, column %d); a session file holds one JSON object.", line, col))
 	}
-	return n, data, nil
+	return treeOf(v), data, nil
 }
 
-// maxDepth bounds how deeply lists and objects may nest: a session nests
-// about ten deep; a deeper file is not a session, and the bound keeps the
-// reader's recursion small.
-const maxDepth = 64
-
-// errTooDeep reports nesting beyond maxDepth.
-var errTooDeep = errors.New("lists and objects nested too deeply")
+// treeOf copies a parsed value into a node tree.
+func treeOf(v *jsonx.Value) *node {
+	n := &node{text: v.Text, b: v.Bool, keys: v.Keys}
+	switch v.Kind {
+	case jsonx.Null:
+		n.kind = nodeNull
+	case jsonx.Bool:
+		n.kind = nodeBool
+	case jsonx.Number:
+		n.kind = nodeNumber
+	case jsonx.String:
+		n.kind = nodeString
+	case jsonx.Array:
+		n.kind = nodeArray
+		n.elems = make([]*node, len(v.Elems))
+		for i, e := range v.Elems {
+			n.elems[i] = treeOf(e)
+		}
+	case jsonx.Object:
+		n.kind = nodeObject
+		n.vals = make([]*node, len(v.Vals))
+		for i, e := range v.Vals {
+			n.vals[i] = treeOf(e)
+		}
+	}
+	return n
+}
 
 // step is one step of the way to a value: an object key, or a list index
 // when key is empty. The path is only spelt out for a message.
@@ -93,101 +122,33 @@ func spell(steps []step) string {
 	return path
 }
 
-// readValue reads one value from the token stream; steps lead to it.
-func readValue(dec *json.Decoder, steps []step) (*node, error) {
-	if len(steps) > maxDepth {
-		return nil, errTooDeep
-	}
-	tok, err := dec.Token()
-	if err != nil {
-		if err == io.EOF {
-			err = io.ErrUnexpectedEOF
-		}
-		return nil, err
-	}
-	switch t := tok.(type) {
-	case nil:
-		return &node{kind: nodeNull}, nil
-	case bool:
-		return &node{kind: nodeBool, b: t}, nil
-	case json.Number:
-		return &node{kind: nodeNumber, text: string(t)}, nil
-	case string:
-		return &node{kind: nodeString, text: t}, nil
-	case json.Delim:
-		switch t {
-		case '[':
-			n := &node{kind: nodeArray}
-			for dec.More() {
-				e, err := readValue(dec, append(steps, step{index: len(n.elems)}))
-				if err != nil {
-					return nil, err
-				}
-				n.elems = append(n.elems, e)
-			}
-			if _, err := dec.Token(); err != nil {
-				return nil, err
-			}
-			return n, nil
-		case '{':
-			n := &node{kind: nodeObject}
-			for dec.More() {
-				kt, err := dec.Token()
-				if err != nil {
-					return nil, err
-				}
-				key, ok := kt.(string)
-				if !ok {
-					return nil, errors.New("object key is not a string")
-				}
-				if n.get(key) != nil {
-					return nil, &dupKeyError{path: spell(append(steps, step{key: key}))}
-				}
-				v, err := readValue(dec, append(steps, step{key: key}))
-				if err != nil {
-					return nil, err
-				}
-				n.keys = append(n.keys, key)
-				n.vals = append(n.vals, v)
-			}
-			if _, err := dec.Token(); err != nil {
-				return nil, err
-			}
-			return n, nil
-		}
-	}
-	return nil, fmt.Errorf("unexpected token %v", tok)
-}
-
-// dupKeyError reports a key written twice in one object.
-type dupKeyError struct{ path string }
-
-// Error names the key.
-func (e *dupKeyError) Error() string { return "duplicate key " + e.path }
-
 // syntaxError turns a JSON reading error into a sentence with a line and
-// column.
-func syntaxError(data []byte, dec *json.Decoder, err error) error {
-	if errors.Is(err, errTooDeep) {
-		line, col := lineCol(data, dec.InputOffset())
+// column: where the offending byte is, or where the text stops.
+func syntaxError(data []byte, err error) error {
+	var deep *jsonx.DepthError
+	if errors.As(err, &deep) {
+		line, col := lineCol(data, deep.Offset)
 		return userError("", fmt.Sprintf("The file nests lists and objects more than %d deep (line %d, column %d); it is not a session file.", maxDepth, line, col))
 	}
-	var dup *dupKeyError
+	var dup *jsonx.DuplicateKeyError
 	if errors.As(err, &dup) {
-		return userError(dup.path, "This field is written twice; keep one of them.")
+		steps := make([]step, len(dup.Path))
+		for i, s := range dup.Path {
+			steps[i] = step{key: s.Key, index: s.Index}
+		}
+		return userError(spell(steps), "This field is written twice; keep one of them.")
 	}
-	off := dec.InputOffset()
-	var se *json.SyntaxError
-	if errors.As(err, &se) {
-		off = se.Offset
-	}
-	line, col := lineCol(data, off)
-	if errors.Is(err, io.ErrUnexpectedEOF) {
+	var se *jsonx.SyntaxError
+	if errors.As(err, &se) && se.EOF {
+		line, col := lineCol(data, int64(len(bytes.TrimRight(data, " \t\r\n"))))
 		return userError("", fmt.Sprintf("The file ends too early (line %d, column %d): it is cut short or a bracket is missing.", line, col))
 	}
-	msg := err.Error()
-	msg = strings.TrimPrefix(msg, "json: ")
-	return userError("", fmt.Sprintf("The file is not valid JSON at line %d, column %d: %s.", line, col, msg))
+	off := int64(len(data))
+	if se != nil {
+		off = se.Offset - 1 // the offending byte
+	}
+	line, col := lineCol(data, off)
+	return userError("", fmt.Sprintf("The file is not valid JSON at line %d, column %d: %s.", line, col, err.Error()))
 }
 
 // lineCol converts a byte offset to a 1-based line and column.
@@ -326,11 +287,7 @@ func newline(b *bytes.Buffer, prefix, indent string) {
 
 // writeString writes s as a JSON string (HTML characters left alone).
 func writeString(b *bytes.Buffer, s string) {
-	var tmp bytes.Buffer
-	enc := json.NewEncoder(&tmp)
-	enc.SetEscapeHTML(false)
-	_ = enc.Encode(s) // a Go string always encodes
-	b.Write(bytes.TrimRight(tmp.Bytes(), "\n"))
+	b.Write(jsonx.AppendString(b.AvailableBuffer(), s, false))
 }
 
 // mergePatch applies an RFC 7396 JSON Merge Patch to target and returns the
@@ -370,9 +327,12 @@ func mergePatch(target, patch *node) *node {
 	return out
 }
 
-// parseCompact parses JSON bytes known to be valid into a tree.
+// parseCompact parses JSON bytes known to be valid into a tree (text after
+// the value is ignored).
 func parseCompact(data []byte) (*node, error) {
-	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.UseNumber()
-	return readValue(dec, nil)
+	v, err := jsonx.Parse(data, treeOptions())
+	if err != nil {
+		return nil, err
+	}
+	return treeOf(v), nil
 }

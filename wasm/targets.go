@@ -1,24 +1,33 @@
 package main
 
 import (
-	"encoding/json"
-
+	"evenbeat/internal/jsonx"
 	"evenbeat/wasm/ui"
 )
 
 // targetsJSON returns the touch targets in CSS px as the JSON list the
 // page and the browser tests read: label, x, y, w, h and whether each is a
-// chosen option.
+// chosen option, as {"Label": ..., "X": ..., "Y": ..., "W": ..., "H": ...,
+// "On": ...}. A number JSON cannot hold gives "".
 func targetsJSON(ts []ui.Target) string {
-	type target struct {
-		Label      string
-		X, Y, W, H float64
-		On         bool
-	}
-	out := []target{}
+	w := &jsonx.Writer{EscapeHTML: true}
+	w.BeginArray()
 	for _, t := range ts {
-		out = append(out, target{t.Label, t.Rect.Min.X, t.Rect.Min.Y, t.Rect.W(), t.Rect.H(), t.On})
+		w.BeginObject()
+		w.Key("Label")
+		w.String(t.Label)
+		for _, f := range []struct {
+			key string
+			v   float64
+		}{{"X", t.Rect.Min.X}, {"Y", t.Rect.Min.Y}, {"W", t.Rect.W()}, {"H", t.Rect.H()}} {
+			w.Key(f.key)
+			w.Float(f.v)
+		}
+		w.Key("On")
+		w.Bool(t.On)
+		w.EndObject()
 	}
-	b, _ := json.Marshal(out) // strings and finite numbers always encode
+	w.EndArray()
+	b, _ := w.Bytes()
 	return string(b)
 }

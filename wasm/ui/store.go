@@ -2,11 +2,11 @@ package ui
 
 import (
 	"bytes"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"strings"
 
+	"evenbeat/internal/jsonx"
 	"evenbeat/setting"
 	"evenbeat/setting/session"
 )
@@ -86,10 +86,47 @@ func sentence(err error) string {
 	return err.Error()
 }
 
-// encodeIndex returns the stored form of the list of session keys.
+// encodeIndex returns the stored form of the list of session keys: a JSON
+// list of strings, null when there are none yet.
 func encodeIndex(keys []string) []byte {
-	b, _ := json.Marshal(keys) // a list of strings always encodes
+	if keys == nil {
+		return []byte("null")
+	}
+	w := &jsonx.Writer{EscapeHTML: true}
+	w.BeginArray()
+	for _, k := range keys {
+		w.String(k)
+	}
+	w.EndArray()
+	b, _ := w.Bytes() // strings always encode
 	return b
+}
+
+// decodeIndex reads the list of session keys. Its errors say what is
+// wrong in encoding/json's words, as the stored list was always read so.
+func decodeIndex(raw []byte) ([]string, error) {
+	v, err := jsonx.Parse(raw, jsonx.Options{})
+	if err != nil {
+		return nil, err
+	}
+	switch v.Kind {
+	case jsonx.Null:
+		return nil, nil
+	case jsonx.Array:
+	default:
+		return nil, fmt.Errorf("json: cannot unmarshal %s into Go value of type []string", v.Kind)
+	}
+	keys := make([]string, len(v.Elems))
+	for i, e := range v.Elems {
+		switch e.Kind {
+		case jsonx.String:
+			keys[i] = e.Text
+		case jsonx.Null:
+		default:
+			return nil, fmt.Errorf("json: cannot unmarshal %s into Go value of type string", e.Kind)
+		}
+	}
+	return keys, nil
 }
 
 // loadAll reads every stored session listed in the index.
@@ -101,8 +138,8 @@ func loadAll(st Store) ([]*Stored, []string, error) {
 	if !ok {
 		return nil, nil, nil
 	}
-	var keys []string
-	if err := json.Unmarshal(raw, &keys); err != nil {
+	keys, err := decodeIndex(raw)
+	if err != nil {
 		return nil, nil, fmt.Errorf("The list of saved engines is damaged (%v); nothing was changed.", err)
 	}
 	var out []*Stored

@@ -5,6 +5,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"runtime"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -48,5 +49,39 @@ func TestDomainAndDrawingStayPortable(t *testing.T) {
 		if n < 3 {
 			t.Fatalf("go list listed only %d packages: %s", n, out)
 		}
+	}
+}
+
+// TestBrowserBuildLeavesOutEncodingJSON: encoding/json and the reflection
+// it brings cost the app about 100 KB gzipped, so the js/wasm build of the
+// app must not depend on it; internal/jsonx reads and writes the app's
+// JSON instead. Command-line-only code may use encoding/json.
+func TestBrowserBuildLeavesOutEncodingJSON(t *testing.T) {
+	root, err := moduleRoot(".")
+	if err != nil {
+		t.Fatal(err)
+	}
+	goBin := filepath.Join(runtime.GOROOT(), "bin", "go") //nolint:staticcheck // the toolchain running this test
+	cmd := exec.Command(goBin, "list", "-deps", "-f", "{{.ImportPath}} {{join .Imports \" \"}}", "./wasm")
+	cmd.Dir = root
+	cmd.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm")
+	out, err := cmd.CombinedOutput()
+	if err != nil {
+		t.Fatalf("go list: %v\n%s", err, out)
+	}
+	var importers []string
+	n := 0
+	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
+		f := strings.Fields(line)
+		n++
+		if slices.Contains(f[1:], "encoding/json") {
+			importers = append(importers, f[0])
+		}
+	}
+	if n < 10 {
+		t.Fatalf("go list listed only %d packages: %s", n, out)
+	}
+	if len(importers) > 0 {
+		t.Errorf("the browser build depends on encoding/json through %s; read and write JSON there with evenbeat/internal/jsonx, or keep command-line-only JSON code out of the js build (a //go:build !js file)", strings.Join(importers, ", "))
 	}
 }

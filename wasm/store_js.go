@@ -81,7 +81,9 @@ func openStore() (st *store, err error) {
 			st, err = nil, thrownError("opening the browser database", r)
 		}
 	}()
-	idb := js.Global().Get("indexedDB")
+	// Through Reflect.get: a getter that throws is caught by Call (a plain
+	// Get would let the exception end the program).
+	idb := js.Global().Get("Reflect").Call("get", js.Global(), "indexedDB")
 	if idb.IsUndefined() || idb.IsNull() {
 		return nil, errors.New("opening the browser database: this browser has no IndexedDB")
 	}

@@ -1,0 +1,347 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/base64"
+	"image"
+	"image/png"
+	"math"
+	"os"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/input"
+	"github.com/chromedp/cdproto/page"
+	"github.com/chromedp/chromedp"
+
+	"evenbeat/render"
+	"evenbeat/wasm/ui"
+)
+
+// stubShareJS replaces the page's share sheet with one that keeps the
+// shared file on window.evenbeatSharedFile (name, type, base64 bytes), as
+// a phone's sheet would receive it.
+const stubShareJS = `(() => {
+	navigator.canShare = () => true;
+	navigator.share = (d) => new Promise((ok, no) => {
+		const f = d.files[0], r = new FileReader();
+		r.onload = () => {
+			window.evenbeatSharedFile = {Name: f.name, Type: f.type, Data: r.result.slice(r.result.indexOf(",") + 1)};
+			ok();
+		};
+		r.onerror = () => no(r.error);
+		r.readAsDataURL(f);
+	});
+	return true;
+})()`
+
+// storedNamesJS is a promise of every value in the page's IndexedDB that
+// is a string, joined: the stored session files.
+const storedNamesJS = `new Promise((ok, no) => {
+	const r = indexedDB.open("evenbeat", 1);
+	r.onerror = () => no(r.error);
+	r.onsuccess = () => {
+		const g = r.result.transaction("kv").objectStore("kv").getAll();
+		g.onsuccess = () => { r.result.close(); ok(g.result.filter(v => typeof v === "string").join("\n")); };
+		g.onerror = () => no(g.error);
+	};
+})`
+
+// TestNameAndShare runs the app in Chromium as a 3x phone with touch, on
+// the demo session's plan: Share report hands the share sheet a PNG the
+// browser encoded, as wide as the report at 1.5 pixels per unit and as
+// tall as the report the app lays out natively, showing the report (its
+// ground and ink); Rename engine shows a labelled text box over the canvas
+// (no zoom on focus, targets of at least 48 CSS px), which the back
+// gesture and Escape close, which refuses an empty name with a sentence,
+// and whose OK renames the engine: shown by the app, saved in IndexedDB.
+func TestNameAndShare(t *testing.T) {
+	if testing.Short() {
+		t.Skip("browser test; drop -short to run it")
+	}
+	needChromium(t)
+	demo, err := os.ReadFile(demoSessionFile)
+	if err != nil {
+		t.Fatal(err)
+	}
+	wantName, wantReport := nativeShare(t, demo)
+	wantW, wantH := int(math.Ceil(render.ReportWidth*1.5)), int(math.Ceil(render.ReportHeight(render.ReportWidth, wantReport)*1.5))
+
+	m := startServer(t)
+	ctx, _ := newBrowser(t, t.TempDir(), noTierUp())
+	within(t, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
+	eval[bool](t, ctx, "(window.evenbeatImport("+strconv.Quote(string(demo))+"), true)")
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatState === "plan"`)
+	if ms := eval[float64](t, ctx, "window.evenbeatPlanMs"); !(ms > 0) {
+		t.Errorf("window.evenbeatPlanMs = %v after a plan; want the plan's time in ms", ms)
+	}
+
+	// Share: the PNG reaches the share sheet.
+	eval[bool](t, ctx, stubShareJS)
+	slowTapLabel(t, ctx, "Menu")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatState === "menu"`)
+	slowTapLabel(t, ctx, "Share report")
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatShare === "shared" || (window.evenbeatShare || "").startsWith("failed")`)
+	if how := eval[string](t, ctx, "window.evenbeatShare"); how != "shared" {
+		t.Fatalf("sharing the report: %s", how)
+	}
+	type sharedFile struct{ Name, Type, Data string }
+	f := eval[sharedFile](t, ctx, "window.evenbeatSharedFile")
+	if f.Name != wantName || f.Type != "image/png" {
+		t.Errorf("shared %q of type %q; want %q, image/png", f.Name, f.Type, wantName)
+	}
+	b, err := base64.StdEncoding.DecodeString(f.Data)
+	if err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(bytes.NewReader(b))
+	if err != nil {
+		t.Fatalf("the shared file is not a PNG: %v", err)
+	}
+	if dir := os.Getenv("EVENBEAT_SHOTS"); dir != "" {
+		os.WriteFile(dir+"/shared-report.png", b, 0o644)
+	}
+	t.Logf("shared report: %v, %d bytes", img.Bounds(), len(b))
+	if got := img.Bounds(); got.Dx() != wantW || got.Dy() != wantH {
+		t.Errorf("the shared report is %dx%d pixels; want %dx%d (render.ReportWidth and the report's height at 1.5 px per unit)", got.Dx(), got.Dy(), wantW, wantH)
+	}
+	th := render.Light() // the report is for paper
+	all := img.Bounds()
+	if n := count(img, all, th.Background, 4) + count(img, all, th.Surface, 4); float64(n) < 0.6*float64(all.Dx()*all.Dy()) {
+		t.Errorf("the report's page and card colours cover %d of %d pixels; want at least 60 %% (blank or wrong theme?)", n, all.Dx()*all.Dy())
+	}
+	// Text and lines in ink all down the report, strip joins included:
+	// every 500-pixel band below the header holds some.
+	for y := 0; y+500 <= all.Dy()-200; y += 500 {
+		if n := count(img, image.Rect(0, y, all.Dx(), y+500), th.Ink, 40); n < 200 {
+			t.Errorf("rows %d to %d of the report hold %d ink pixels; want at least 200 (a strip not drawn?)", y, y+500, n)
+		}
+	}
+
+	// The name box: shown over the canvas, focused, labelled, big enough.
+	slowTapLabel(t, ctx, "Rename engine")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatNaming === true`)
+	checkNameBox(t, ctx)
+	// The back gesture closes it and stays in the app.
+	eval[bool](t, ctx, "(history.back(), true)")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatNaming === false && !document.getElementById("evenbeat-name-box")`)
+	time.Sleep(500 * time.Millisecond)
+	if s := eval[string](t, ctx, "window.evenbeatState"); s != "menu" {
+		t.Errorf("the back gesture with the name box open moved the app to %q; want it to close the box only", s)
+	}
+	// Escape closes it too.
+	slowTapLabel(t, ctx, "Rename engine")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatNaming === true`)
+	key(t, ctx, "Escape", "Escape", 27, "")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatNaming === false`)
+	// Cancel closes it, and the tap does not reach the app under the box.
+	slowTapLabel(t, ctx, "Rename engine")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatNaming === true`)
+	tapElement(t, ctx, "evenbeat-name-cancel")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatNaming === false`)
+	time.Sleep(500 * time.Millisecond)
+	if s := eval[string](t, ctx, "window.evenbeatState"); s != "menu" {
+		t.Errorf("tapping Cancel on the name box moved the app to %q; the tap went through the box", s)
+	}
+
+	// An empty name is refused with a sentence; the box stays.
+	slowTapLabel(t, ctx, "Rename engine")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatNaming === true`)
+	old := eval[string](t, ctx, "window.evenbeatName")
+	eval[bool](t, ctx, `(document.getElementById("evenbeat-name").value = "   ", true)`)
+	key(t, ctx, "Enter", "Enter", 13, "\r")
+	msg := waitValue[string](t, ctx, 30*time.Second, `document.getElementById("evenbeat-name-msg").textContent`)
+	if !strings.Contains(msg, "empty") || !eval[bool](t, ctx, "window.evenbeatNaming") {
+		t.Errorf("an empty name: the box says %q and open=%v; want a sentence about the empty name, box open", msg, eval[bool](t, ctx, "window.evenbeatNaming"))
+	}
+	if got := eval[string](t, ctx, "window.evenbeatName"); got != old {
+		t.Errorf("an empty name changed the engine's name to %q", got)
+	}
+	// Typed and confirmed with the keyboard's Enter: renamed, shown, saved.
+	const name = "Ravensdale No. 3 (invented)"
+	eval[bool](t, ctx, `(document.getElementById("evenbeat-name").select(), true)`)
+	within(t, ctx, 10*time.Second, "typing the name", chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		_, err := cdp.Call(ctx, tg, input.InsertText, input.InsertTextParams{Text: name})
+		return err
+	}))
+	key(t, ctx, "Enter", "Enter", 13, "\r")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatNaming === false && window.evenbeatName === `+strconv.Quote(name)+` && window.evenbeatStatus === "Saved"`)
+	if stored := eval[string](t, ctx, storedNamesJS); !strings.Contains(stored, name) {
+		t.Errorf("the new name %q is not in IndexedDB", name)
+	}
+	slowTapLabel(t, ctx, "Engines")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatState === "engines"`)
+	if ts := eval[string](t, ctx, "window.evenbeatTargets"); !strings.Contains(ts, name) {
+		t.Errorf("the engines list does not show the new name %q: %s", name, ts)
+	}
+}
+
+// checkNameBox checks the open name box: focused text input of at most 60
+// characters with a done key, a label screen readers read, text of at
+// least 16 CSS px (iOS zooms into smaller), buttons of at least 48 CSS px.
+func checkNameBox(t *testing.T, ctx context.Context) {
+	t.Helper()
+	type box struct {
+		Focused, Labelled          bool
+		Type, Hint, Label          string
+		MaxLength                  int
+		Font                       float64
+		OKW, OKH, CancelW, CancelH float64
+		Dialog, Modal              string
+	}
+	b := eval[box](t, ctx, `(() => {
+		const i = document.getElementById("evenbeat-name");
+		const r = id => document.getElementById(id).getBoundingClientRect();
+		const form = i.closest("form");
+		return {
+			Focused: document.activeElement === i,
+			Labelled: i.labels.length === 1,
+			Type: i.type, Hint: i.getAttribute("enterkeyhint") || "", Label: i.labels.length ? i.labels[0].textContent : "",
+			MaxLength: i.maxLength,
+			Font: parseFloat(getComputedStyle(i).fontSize),
+			OKW: r("evenbeat-name-ok").width, OKH: r("evenbeat-name-ok").height,
+			CancelW: r("evenbeat-name-cancel").width, CancelH: r("evenbeat-name-cancel").height,
+			Dialog: form.getAttribute("role") || "", Modal: form.getAttribute("aria-modal") || "",
+		};
+	})()`)
+	t.Logf("name box: %+v", b)
+	if !b.Focused {
+		t.Error("the name box's input is not focused")
+	}
+	if !b.Labelled || b.Label != "Engine name" {
+		t.Errorf("the input's label is %q (labelled %v); want one label, Engine name", b.Label, b.Labelled)
+	}
+	if b.Type != "text" || b.Hint != "done" || b.MaxLength != 60 {
+		t.Errorf("input type %q, enterkeyhint %q, maxlength %d; want text, done, 60", b.Type, b.Hint, b.MaxLength)
+	}
+	if b.Font < 16 {
+		t.Errorf("the input's text is %v CSS px; want at least 16 (iOS zooms into smaller)", b.Font)
+	}
+	if b.OKW < 48 || b.OKH < 48 || b.CancelW < 48 || b.CancelH < 48 {
+		t.Errorf("OK is %.0fx%.0f and Cancel %.0fx%.0f CSS px; want at least 48x48", b.OKW, b.OKH, b.CancelW, b.CancelH)
+	}
+	if b.Dialog != "dialog" || b.Modal != "true" {
+		t.Errorf("the box's role %q, aria-modal %q; want dialog, true", b.Dialog, b.Modal)
+	}
+}
+
+// nativeShare runs package ui natively on the demo session as the phone
+// does (import, Menu, Share report) and returns what it hands OnShare.
+func nativeShare(t *testing.T, demo []byte) (string, render.ReportModel) {
+	t.Helper()
+	var name string
+	var rm render.ReportModel
+	a := ui.New(ui.Options{OnShare: func(n string, m render.ReportModel) { name, rm = n, m }})
+	a.Resize(phoneW, phoneH)
+	if err := a.Import(demo); err != nil {
+		t.Fatal(err)
+	}
+	a.Update()
+	for _, label := range []string{"Menu", "Share report"} {
+		found := false
+		for _, tg := range a.Targets() {
+			if tg.Label == label {
+				a.Handle(ui.Intent{Kind: ui.Tap, At: render.Point{X: (tg.Rect.Min.X + tg.Rect.Max.X) / 2, Y: (tg.Rect.Min.Y + tg.Rect.Max.Y) / 2}})
+				found = true
+				break
+			}
+		}
+		if !found {
+			t.Fatalf("natively, no target %q on %v", label, a.Screen())
+		}
+		a.Update()
+	}
+	if rm.Model == nil {
+		t.Fatal("natively, Share report handed no report")
+	}
+	return name, rm
+}
+
+// key presses and releases one key in the focused element.
+func key(t *testing.T, ctx context.Context, k, code string, vk int64, text string) {
+	t.Helper()
+	within(t, ctx, 10*time.Second, "pressing "+k, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		for _, typ := range []input.DispatchKeyEventType{input.DispatchKeyEventTypeKeyDown, input.DispatchKeyEventTypeKeyUp} {
+			p := input.DispatchKeyEventParams{Type: typ, Key: k, Code: code, WindowsVirtualKeyCode: vk, NativeVirtualKeyCode: vk}
+			if typ == input.DispatchKeyEventTypeKeyDown {
+				p.Text = text
+			}
+			if _, err := cdp.Call(ctx, tg, input.DispatchKeyEvent, p); err != nil {
+				return err
+			}
+		}
+		return nil
+	}))
+}
+
+// slowTapLabel taps the target whose label starts with label, allowing
+// the page a minute to take the touch (a busy machine draws the 3x phone
+// slowly).
+func slowTapLabel(t *testing.T, ctx context.Context, label string) {
+	t.Helper()
+	for _, tg := range targets(t, ctx) {
+		if strings.HasPrefix(tg.Label, label) {
+			touch(t, ctx, tg.X+tg.W/2, tg.Y+tg.H/2)
+			return
+		}
+	}
+	t.Fatalf("no target %q on %s", label, eval[string](t, ctx, "window.evenbeatState"))
+}
+
+// touch presses one finger at (x, y) CSS px for 150 ms, allowing a minute.
+func touch(t *testing.T, ctx context.Context, x, y float64) {
+	t.Helper()
+	start := time.Now()
+	ev := func(typ input.DispatchTouchEventType, pts []*input.TouchPoint) chromedp.Action[chromedp.Void] {
+		return chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+			_, err := cdp.Call(ctx, tg, input.DispatchTouchEvent, input.DispatchTouchEventParams{Type: typ, TouchPoints: pts})
+			return err
+		})
+	}
+	within(t, ctx, time.Minute, "touching", ev(input.DispatchTouchEventTypeTouchStart, []*input.TouchPoint{{X: x, Y: y}}),
+		chromedp.Sleep(150*time.Millisecond), ev(input.DispatchTouchEventTypeTouchEnd, []*input.TouchPoint{}))
+	t.Logf("touch at %.0f,%.0f took %v", x, y, time.Since(start).Round(time.Millisecond))
+}
+
+// tapElement taps the middle of the element with the given id.
+func tapElement(t *testing.T, ctx context.Context, id string) {
+	t.Helper()
+	r := eval[[]float64](t, ctx, `(r => [r.x + r.width / 2, r.y + r.height / 2])(document.getElementById(`+strconv.Quote(id)+`).getBoundingClientRect())`)
+	touch(t, ctx, r[0], r[1])
+}
+
+// TestNoStorage runs the app in a browser whose indexedDB refuses this
+// page (the getter throws SecurityError, as some private windows do): the
+// app still starts, says why nothing is kept, and the first entry that
+// would be saved says it is not.
+func TestNoStorage(t *testing.T) {
+	if testing.Short() {
+		t.Skip("browser test; drop -short to run it")
+	}
+	needChromium(t)
+	m := startServer(t)
+	ctx, _ := newBrowser(t, t.TempDir(), noTierUp())
+	within(t, ctx, 10*time.Second, "refusing storage", chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		_, err := cdp.Call(ctx, tg, page.AddScriptToEvaluateOnNewDocument, page.AddScriptToEvaluateOnNewDocumentParams{
+			Source: `Object.defineProperty(window, "indexedDB", {configurable: true, get() {
+				throw new DOMException("The user denied permission to access the database.", "SecurityError");
+			}});`,
+		})
+		return err
+	}))
+	within(t, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
+	if e := eval[string](t, ctx, "window.evenbeatStoreError || ''"); !strings.Contains(e, "does not let this page keep data") || !strings.Contains(e, "SecurityError") {
+		t.Errorf("window.evenbeatStoreError = %q; want the refusal in words, naming SecurityError", e)
+	}
+	slowTapLabel(t, ctx, "Brackenfold (Stephenson) (invented demo)")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatState === "units"`)
+	if st := eval[string](t, ctx, "window.evenbeatStatus"); !strings.HasPrefix(st, "Not saved") || !strings.Contains(st, "no storage") {
+		t.Errorf("the saving state with no storage is %q; want it to say nothing is saved", st)
+	}
+}

@@ -31,11 +31,12 @@ const (
 	History                // the rounds so far
 	Menu                   // everywhere else from anywhere
 	Where                  // the engine drawn where it stands for the reading asked
+	Lead                   // the plan's target lead, on the keypad
 )
 
 // String names the screen for the page's state (tests, the History API).
 func (s Screen) String() string {
-	names := [...]string{"engines", "gear", "units", "sizes", "adjust", "cautions", "measure", "readings", "plan", "history", "menu", "where"}
+	names := [...]string{"engines", "gear", "units", "sizes", "adjust", "cautions", "measure", "readings", "plan", "history", "menu", "where", "lead"}
 	if int(s) < len(names) {
 		return names[s]
 	}
@@ -150,15 +151,14 @@ type App struct {
 
 	updateReady bool          // a new version waits: the banner shows
 	planTime    time.Duration // how long the last fit, plan and model took
-}
 
-// whatIf is the plan screen's what-if: one step's amount changed by a
-// drag, with the model after it.
-type whatIf struct {
-	step   int
-	amount float64
-	lo, hi float64
-	model  *render.Model // nil until a drag; then the model with the amount
+	// What the plan aims for: kept in the app while it runs, since the
+	// session file has no place for them.
+	prio       plan.Priority
+	targetLead *float64 // mm; nil for none
+	// The keypad's fields while the target lead is typed, given back after.
+	leadFields []field
+	leadFi     int
 }
 
 // New starts the app: it loads the stored sessions (keeping any that
@@ -196,7 +196,7 @@ func (a *App) Note() string { return a.note }
 // Field returns the label of the value the keypad is entering ("" off
 // the keypad screens).
 func (a *App) Field() string {
-	if (a.screen != Measure && a.screen != Sizes) || len(a.fields) == 0 {
+	if !a.keypadScreen() || len(a.fields) == 0 {
 		return ""
 	}
 	return a.fields[a.fi].Label
@@ -326,7 +326,7 @@ func (a *App) navigate(s Screen) {
 // (the glue then lets the browser leave the app).
 func (a *App) Back() bool {
 	a.dirty = true
-	if (a.screen == Measure || a.screen == Sizes) && a.fi > 0 && !a.editing {
+	if a.keypadScreen() && a.fi > 0 && !a.editing {
 		a.setField(a.fi - 1)
 		return true
 	}
@@ -335,10 +335,13 @@ func (a *App) Back() bool {
 	}
 	from := a.screen
 	a.editing = false
+	if from == Lead {
+		a.leaveLead()
+	}
 	a.screen = a.stack[len(a.stack)-1]
 	a.stack = a.stack[:len(a.stack)-1]
 	a.scroll = 0
-	if (a.screen == Measure || a.screen == Sizes) && from != Where { // the drawing keeps what was typed
+	if a.keypadScreen() && from != Where { // the drawing keeps what was typed
 		a.setField(a.fi)
 	}
 	return true
@@ -511,6 +514,11 @@ func (a *App) commit() {
 		return
 	}
 	f.set(s, v)
+	if a.screen == Lead {
+		a.Back() // the plan, made again for the target
+		a.makePlan()
+		return
+	}
 	if a.screen == Sizes {
 		a.engine = nil // drawn again with the new size
 		if why := a.assembles(); why != "" {
@@ -544,6 +552,9 @@ func (a *App) advance() {
 		return
 	}
 	switch a.screen {
+	case Lead:
+		a.Back()
+		a.makePlan()
 	case Sizes:
 		a.navigate(Adjust)
 	case Measure:
@@ -588,7 +599,7 @@ func (a *App) makePlan() {
 		a.planNote = []string{sentence(err)}
 		return
 	}
-	p, err := plan.FromFit(fit, s.Adjustments, plan.Options{Unit: a.unit(), Cylinder: a.cyl, Fit: plan.FitOptions{Round: a.planRound}})
+	p, err := plan.FromFit(fit, s.Adjustments, plan.Options{Unit: a.unit(), Cylinder: a.cyl, Priority: a.prio, TargetLeadMM: a.targetLead, Fit: plan.FitOptions{Round: a.planRound}})
 	if err != nil {
 		a.planNote = []string{sentence(err)}
 		return
@@ -600,7 +611,7 @@ func (a *App) makePlan() {
 		return
 	}
 	a.fit, a.plan, a.model = fit, p, m
-	a.setWhatStep(0)
+	a.resetWhatIf()
 }
 
 // clearPlan forgets the plan shown.
@@ -678,46 +689,6 @@ func (a *App) Import(b []byte) error {
 	a.importErr = ""
 	a.addSession(s)
 	a.openSession(a.cur)
-	return nil
-}
-
-// setWhatStep chooses the plan step the what-if changes.
-func (a *App) setWhatStep(i int) {
-	a.what = whatIf{}
-	if a.plan == nil || len(a.plan.Steps) == 0 {
-		return
-	}
-	i %= len(a.plan.Steps)
-	st := a.plan.Steps[i]
-	a.what.step, a.what.amount = i, st.Amount
-	a.what.lo, a.what.hi = -1, 1
-	for _, adj := range a.Session().Adjustments {
-		if adj.Kind == st.Kind && adj.Eccentric == st.Eccentric {
-			a.what.lo, a.what.hi = adj.Min, adj.Max
-		}
-	}
-}
-
-// SetWhatIf sets the what-if amount of plan step i (mm, or degrees for
-// angular steps, signed as the step) and rebuilds the model after it.
-// Amounts are held within the adjustment's limits.
-func (a *App) SetWhatIf(i int, amount float64) error {
-	if a.plan == nil || i < 0 || i >= len(a.plan.Steps) {
-		return fmt.Errorf("There is no plan step %d to change.", i+1)
-	}
-	if i != a.what.step {
-		a.setWhatStep(i)
-	}
-	amount = max(a.what.lo, min(a.what.hi, amount))
-	p := *a.plan
-	p.Steps = append([]plan.Step(nil), a.plan.Steps...)
-	p.Steps[i].Amount = amount
-	m, err := render.NewModel(a.Session(), a.cyl, a.fit, &p)
-	if err != nil {
-		return err
-	}
-	a.what.amount, a.what.model = amount, m
-	a.dirty = true
 	return nil
 }
 

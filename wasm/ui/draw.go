@@ -139,12 +139,12 @@ func (a *App) drawSlider(c render.Canvas, r render.Rect) {
 		}
 		return r.Min.X + (v-a.what.lo)/(a.what.hi-a.what.lo)*r.W()
 	}
-	if a.plan != nil && len(a.plan.Steps) > 0 {
-		x := at(a.plan.Steps[a.what.step].Amount)
+	if a.plan != nil {
+		x := at(a.planAmount())
 		var tick render.Path
 		tick.MoveTo(render.Point{X: x, Y: r.Min.Y + 8})
 		tick.LineTo(render.Point{X: x, Y: r.Max.Y - 8})
 		c.Stroke(tick, render.LineStyle{Color: th.Muted, Width: 2})
 	}
-	c.Fill(render.Circle(render.Point{X: at(a.what.amount), Y: mid}, 16), render.FillStyle{Color: th.Accent})
+	c.Fill(render.Circle(render.Point{X: at(a.what.amounts[a.what.adj]), Y: mid}, 16), render.FillStyle{Color: th.Accent})
 }

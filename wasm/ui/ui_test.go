@@ -487,8 +487,8 @@ func TestWhatIfMovesBalance(t *testing.T) {
 	}
 	before := a.shownModel().Positions[0].AfterEvents
 	a.Handle(Intent{Kind: Drag, At: render.Point{X: v.slider.Max.X - 1, Y: (v.slider.Min.Y + v.slider.Max.Y) / 2}})
-	if a.what.model == nil || a.what.amount <= a.plan.Steps[a.what.step].Amount {
-		t.Fatalf("drag to the right end left amount %v (plan %v)", a.what.amount, a.plan.Steps[a.what.step].Amount)
+	if a.what.model == nil || a.what.amounts[a.what.adj] <= a.planAmount() {
+		t.Fatalf("drag to the right end left amount %v (plan %v)", a.what.amounts[a.what.adj], a.planAmount())
 	}
 	after := a.shownModel().Positions[0].AfterEvents
 	if before == after {

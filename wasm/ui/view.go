@@ -79,7 +79,7 @@ func (a *App) layout() *view {
 		}
 	case Units:
 		a.unitsView(lay)
-	case Sizes, Measure:
+	case Sizes, Measure, Lead:
 		a.keypadView(lay)
 	case Adjust:
 		a.adjustView(lay)
@@ -368,6 +368,9 @@ func (a *App) keypadWords(l *layouter, level int) {
 		note = "Check the last entry: " + a.warn
 	}
 	l.para(note, render.BodySize, false, true, false)
+	if a.screen == Lead {
+		l.button("No target lead", false, a.clearTargetLead)
+	}
 	if a.screen != Measure {
 		return
 	}
@@ -556,14 +559,11 @@ func (a *App) planView(l *layouter) {
 	if side {
 		bottom = a.h
 	}
-	if a.diagram == render.BalanceDiagram && len(a.plan.Steps) > 0 {
-		st := a.plan.Steps[a.what.step]
-		l.button(fmt.Sprintf("What if: %s %s (tap: next part)", st.Part, a.whatAmountText()), false, func() {
-			a.setWhatStep(a.what.step + 1)
-			a.dirty = true
-		})
-		l.v.slider = rect(l.x, l.y, l.w, sliderH)
-		l.y += sliderH + gap
+	switch a.diagram {
+	case render.BalanceDiagram:
+		a.whatIfRows(l)
+	case render.PlanDiagram:
+		a.priorityRows(l)
 	}
 	l.v.body = render.Rect{Min: render.Point{X: margin, Y: l.y}, Max: render.Point{X: a.w - margin, Y: bottom - gap}}
 	if side {
@@ -573,15 +573,6 @@ func (a *App) planView(l *layouter) {
 	l.y = bottom
 	l.row([]string{"Next round", "Rounds"}, []bool{false, false}, []func(){a.nextRound, func() { a.navigate(History) }})
 	l.y = math.Max(l.y, y)
-}
-
-// whatAmountText is the what-if amount in the step's unit.
-func (a *App) whatAmountText() string {
-	st := a.plan.Steps[a.what.step]
-	if st.Unit == "deg" {
-		return fmt.Sprintf("%+.2f deg", a.what.amount)
-	}
-	return "by " + session.FormatLength(a.what.amount, a.unit())
 }
 
 // Targets returns the touch targets of the screen shown, in drawing
@@ -608,7 +599,7 @@ func (a *App) Handle(in Intent) {
 	switch in.Kind {
 	case Confirm:
 		switch a.screen {
-		case Sizes, Measure:
+		case Sizes, Measure, Lead:
 			a.key(KeyNext)
 		case Cautions:
 			a.acknowledge()
@@ -617,7 +608,7 @@ func (a *App) Handle(in Intent) {
 		a.dirty = true
 		if a.screen == Plan && v.slider.Inset(-gap).Contains(in.At) && v.slider.W() > 0 {
 			t := (in.At.X - v.slider.Min.X) / v.slider.W()
-			_ = a.SetWhatIf(a.what.step, a.what.lo+math.Max(0, math.Min(1, t))*(a.what.hi-a.what.lo))
+			_ = a.SetWhatIfAdjustment(a.what.adj, a.what.lo+math.Max(0, math.Min(1, t))*(a.what.hi-a.what.lo))
 			return
 		}
 		if a.screen == Plan && a.diagram == render.MotionDiagram || a.screen == Where {

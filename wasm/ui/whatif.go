@@ -1,0 +1,272 @@
+package ui
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"evenbeat/render"
+	"evenbeat/setting/plan"
+	"evenbeat/setting/session"
+)
+
+// whatIf is the plan screen's what-if: an amount for every adjustment the
+// engine allows (the plan's at first, nought for those the plan leaves
+// alone), one of them chosen to drag, and the model and plan after them
+// all once a drag changed one.
+type whatIf struct {
+	adj     int       // the adjustment dragged, an index of the session's Adjustments
+	amounts []float64 // per adjustment: mm, or degrees for angular kinds
+	lo, hi  float64   // the chosen adjustment's limits
+	plan    *plan.Plan
+	model   *render.Model // nil until a drag; then the model after the amounts
+}
+
+// resetWhatIf starts the what-if from the plan's amounts, on the plan's
+// first step (or the first adjustment when the plan changes nothing).
+func (a *App) resetWhatIf() {
+	a.what = whatIf{}
+	s := a.Session()
+	if a.plan == nil || s == nil || len(s.Adjustments) == 0 {
+		return
+	}
+	a.what.amounts = make([]float64, len(s.Adjustments))
+	for _, st := range a.plan.Steps {
+		if j := adjustmentOf(s.Adjustments, st); j >= 0 {
+			a.what.amounts[j] = st.Amount
+		}
+	}
+	first := 0
+	if len(a.plan.Steps) > 0 {
+		first = max(0, adjustmentOf(s.Adjustments, a.plan.Steps[0]))
+	}
+	a.chooseAdjustment(first)
+}
+
+// adjustmentOf returns the index in adjs of the adjustment a plan step
+// changes, or -1.
+func adjustmentOf(adjs []session.Adjustment, st plan.Step) int {
+	return findAdjustment(adjs, session.Adjustment{Kind: st.Kind, Eccentric: st.Eccentric})
+}
+
+// chooseAdjustment makes adjustment j the one the what-if drags.
+func (a *App) chooseAdjustment(j int) {
+	adjs := a.Session().Adjustments
+	if len(a.what.amounts) == 0 || len(adjs) == 0 {
+		return
+	}
+	j = (j%len(adjs) + len(adjs)) % len(adjs)
+	a.what.adj = j
+	a.what.lo, a.what.hi = adjs[j].Min, adjs[j].Max
+	a.dirty = true
+}
+
+// setWhatStep chooses the adjustment plan step i changes.
+func (a *App) setWhatStep(i int) {
+	if a.plan == nil || i < 0 || i >= len(a.plan.Steps) {
+		return
+	}
+	if j := adjustmentOf(a.Session().Adjustments, a.plan.Steps[i]); j >= 0 {
+		a.chooseAdjustment(j)
+	}
+}
+
+// SetWhatIf sets the what-if amount of the part plan step i changes (mm,
+// or degrees for angular steps, signed as the step) and rebuilds the
+// model after every what-if amount. Amounts are held within the
+// adjustment's limits.
+func (a *App) SetWhatIf(i int, amount float64) error {
+	if a.plan == nil || i < 0 || i >= len(a.plan.Steps) {
+		return fmt.Errorf("There is no plan step %d to change.", i+1)
+	}
+	j := adjustmentOf(a.Session().Adjustments, a.plan.Steps[i])
+	if j < 0 {
+		return fmt.Errorf("Plan step %d changes a part this engine does not list as adjustable.", i+1)
+	}
+	return a.SetWhatIfAdjustment(j, amount)
+}
+
+// SetWhatIfAdjustment sets the what-if amount of the session's adjustment
+// j (any the engine allows, whether the plan changes it or not), held
+// within its limits, and rebuilds the model after every what-if amount:
+// the events and balance move with it.
+func (a *App) SetWhatIfAdjustment(j int, amount float64) error {
+	s := a.Session()
+	if a.plan == nil || s == nil || j < 0 || j >= len(s.Adjustments) {
+		return fmt.Errorf("There is no adjustment %d to change.", j+1)
+	}
+	if len(a.what.amounts) != len(s.Adjustments) {
+		a.resetWhatIf()
+	}
+	if j != a.what.adj {
+		a.chooseAdjustment(j)
+	}
+	if math.IsNaN(amount) {
+		return fmt.Errorf("The what-if amount of %s is not a number.", adjustmentName(s.Adjustments[j]))
+	}
+	a.what.amounts[j] = max(a.what.lo, min(a.what.hi, amount))
+	p := a.whatIfPlan()
+	m, err := render.NewModel(s, a.cyl, a.fit, p)
+	if err != nil {
+		return err
+	}
+	a.what.plan, a.what.model = p, m
+	a.dirty = true
+	return nil
+}
+
+// whatIfPlan is the plan with the what-if amounts: the plan's steps in
+// their order with their amounts changed, then any other part given an
+// amount, each worded again where its amount differs from the plan's.
+func (a *App) whatIfPlan() *plan.Plan {
+	s := a.Session()
+	p := *a.plan
+	p.Steps = nil
+	done := make([]bool, len(s.Adjustments))
+	for _, st := range a.plan.Steps {
+		j := adjustmentOf(s.Adjustments, st)
+		if j < 0 {
+			p.Steps = append(p.Steps, st)
+			continue
+		}
+		done[j] = true
+		if amt := a.what.amounts[j]; amt != st.Amount {
+			st = a.whatIfStep(s.Adjustments[j], amt, st.Part)
+		}
+		if st.Amount != 0 {
+			p.Steps = append(p.Steps, st)
+		}
+	}
+	for j, adj := range s.Adjustments {
+		if !done[j] && a.what.amounts[j] != 0 {
+			p.Steps = append(p.Steps, a.whatIfStep(adj, a.what.amounts[j], ""))
+		}
+	}
+	return &p
+}
+
+// whatIfStep is a what-if change of adj by amount, in workshop words.
+func (a *App) whatIfStep(adj session.Adjustment, amount float64, part string) plan.Step {
+	if part == "" {
+		part = strings.ToLower(adjustmentName(adj))
+	}
+	st := plan.Step{Part: part, Kind: adj.Kind, Eccentric: adj.Eccentric, Unit: "mm", IdealAmount: amount, Amount: amount}
+	if adj.Kind.Angular() {
+		st.Unit = "deg"
+	}
+	st.Words = "What if: " + a.changeWords(adj, amount) + "."
+	return st
+}
+
+// changeWords says a change of adj by amount as the hands make it.
+func (a *App) changeWords(adj session.Adjustment, amount float64) string {
+	name := adjustmentName(adj)
+	if adj.Kind.Angular() {
+		way := "ahead (more advance)"
+		if adj.Kind == session.ReturnCrankAngle {
+			way = "in the forward running direction"
+		}
+		if amount < 0 {
+			way = "back (less advance)"
+			if adj.Kind == session.ReturnCrankAngle {
+				way = "against the forward running direction"
+			}
+		}
+		w := fmt.Sprintf("%s %.2f deg %s", name, math.Abs(amount), way)
+		if adj.SheaveDiameterMM > 0 {
+			w += ", " + session.FormatLength(math.Abs(adj.RimMM(amount)), a.unit()) + " round the sheave's rim"
+		}
+		return w
+	}
+	way := "longer"
+	if adj.Kind == session.ValveOnSpindle {
+		way = "toward the front cover"
+		if amount < 0 {
+			way = "toward the back"
+		}
+	} else if amount < 0 {
+		way = "shorter"
+	}
+	w := fmt.Sprintf("%s: %s %s", name, session.FormatLength(math.Abs(amount), a.unit()), way)
+	if adj.Thread.Pitch() > 0 && adj.Thread.FlatsPerTurn > 0 {
+		w += fmt.Sprintf(", %.2f turns", math.Abs(adj.Thread.Turns(amount)))
+	}
+	return w
+}
+
+// whatAmountText is the chosen adjustment's what-if amount in its unit.
+func (a *App) whatAmountText() string {
+	adj := a.Session().Adjustments[a.what.adj]
+	v := a.what.amounts[a.what.adj]
+	if adj.Kind.Angular() {
+		return fmt.Sprintf("%+.2f deg", v)
+	}
+	sign := "+"
+	if v < 0 {
+		sign = "-"
+	}
+	return sign + session.FormatLength(math.Abs(v), a.unit())
+}
+
+// planAmount is the plan's amount for the chosen adjustment (nought when
+// the plan leaves it alone), marked on the what-if track.
+func (a *App) planAmount() float64 {
+	adjs := a.Session().Adjustments
+	for _, st := range a.plan.Steps {
+		if adjustmentOf(adjs, st) == a.what.adj {
+			return st.Amount
+		}
+	}
+	return 0
+}
+
+// shortAdjustmentName names an adjustment in a few letters, for the row
+// that chooses which the what-if drags.
+func shortAdjustmentName(adj session.Adjustment) string {
+	e := ""
+	switch adj.Eccentric {
+	case session.ForwardEccentric:
+		e = "Fwd "
+	case session.BackwardEccentric:
+		e = "Back "
+	}
+	switch adj.Kind {
+	case session.ValveOnSpindle:
+		return "Valve"
+	case session.EccentricAngle:
+		return e + "sheave"
+	case session.EccentricRodLength:
+		return e + "rod"
+	case session.ReturnCrankAngle:
+		return "Ret. crank"
+	case session.RadiusRodLength:
+		return "Radius rod"
+	case session.LiftingLinkLength:
+		return "Lift link"
+	}
+	return string(adj.Kind)
+}
+
+// whatIfRows lays out the what-if's controls on the balance tab: a row
+// choosing the part, the part's amount (tap: the next part) and the track
+// to drag.
+func (a *App) whatIfRows(l *layouter) {
+	adjs := a.Session().Adjustments
+	if len(a.what.amounts) == 0 {
+		return
+	}
+	labels := make([]string, len(adjs))
+	on := make([]bool, len(adjs))
+	acts := make([]func(), len(adjs))
+	for j, adj := range adjs {
+		labels[j] = shortAdjustmentName(adj)
+		on[j] = j == a.what.adj
+		acts[j] = func() { a.chooseAdjustment(j) }
+	}
+	l.row(labels, on, acts)
+	l.button(fmt.Sprintf("What if: %s %s (tap: next part)", strings.ToLower(adjustmentName(adjs[a.what.adj])), a.whatAmountText()), false, func() {
+		a.chooseAdjustment(a.what.adj + 1)
+	})
+	l.v.slider = rect(l.x, l.y, l.w, sliderH)
+	l.y += sliderH + gap
+}

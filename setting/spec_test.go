@@ -3,9 +3,13 @@ package setting
 import (
 	"bytes"
 	"errors"
+	"os"
+	"path/filepath"
 	"reflect"
 	"strings"
 	"testing"
+
+	"evenbeat/internal/cpubench"
 )
 
 // specJSON is a small invented single-eccentric engine (invented for this
@@ -120,4 +124,20 @@ func FuzzDecodeEngineSpec(f *testing.F) {
 			t.Fatalf("round trip: %v\n%+v\n%+v", err, spec, again)
 		}
 	})
+}
+
+// Reading an engine file (the Stephenson demo engine), validation included.
+func BenchmarkDecodeEngineSpec(b *testing.B) {
+	defer cpubench.Report(b, cpubench.Now())
+	data, err := os.ReadFile(filepath.Join("..", "testdata", "engines", "brackenfold-stephenson.json"))
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.SetBytes(int64(len(data)))
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := DecodeEngineSpec(bytes.NewReader(data)); err != nil {
+			b.Fatal(err)
+		}
+	}
 }

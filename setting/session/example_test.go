@@ -7,6 +7,8 @@ import (
 	"os"
 	"strings"
 	"testing"
+
+	"evenbeat/internal/cpubench"
 )
 
 func readExample(t testing.TB) []byte {
@@ -98,6 +100,7 @@ func TestExampleObservationsMatchTheEngine(t *testing.T) {
 
 // Decoding the example session: the figure for the app opening a file.
 func BenchmarkDecode(b *testing.B) {
+	defer cpubench.Report(b, cpubench.Now())
 	data := readExample(b)
 	b.SetBytes(int64(len(data)))
 	b.ReportAllocs()
@@ -110,6 +113,7 @@ func BenchmarkDecode(b *testing.B) {
 
 // Encoding the example session: the figure for saving after each entry.
 func BenchmarkEncode(b *testing.B) {
+	defer cpubench.Report(b, cpubench.Now())
 	s, err := Decode(bytes.NewReader(readExample(b)))
 	if err != nil {
 		b.Fatal(err)

@@ -159,6 +159,31 @@ type App struct {
 	// The keypad's fields while the target lead is typed, given back after.
 	leadFields []field
 	leadFi     int
+
+	// gen counts changes to the session; readiness is worked out again
+	// only when it, the session or the cylinder changes.
+	gen    int
+	readyK readyKey
+	readyV bool
+}
+
+// readyKey is what the cached readiness was worked out for.
+type readyKey struct {
+	s        *session.Session
+	cyl, gen int
+}
+
+// ready reports whether the shown cylinder's readings are enough for a
+// plan (no blocking problem), worked out once per change.
+func (a *App) ready() bool {
+	k := readyKey{a.Session(), a.cyl, a.gen}
+	if k.s == nil {
+		return false
+	}
+	if k != a.readyK {
+		a.readyK, a.readyV = k, !hasBlocking(k.s.Readiness(a.cyl))
+	}
+	return a.readyV
 }
 
 // New starts the app: it loads the stored sessions (keeping any that
@@ -261,6 +286,7 @@ func (a *App) setStatus() {
 // save writes the current session through the store as a whole session
 // file.
 func (a *App) save() {
+	a.gen++
 	if a.cur == nil || a.cur.Session == nil {
 		return
 	}
@@ -514,6 +540,7 @@ func (a *App) commit() {
 		return
 	}
 	f.set(s, v)
+	a.gen++
 	if a.screen == Lead {
 		a.Back() // the plan, made again for the target
 		a.makePlan()

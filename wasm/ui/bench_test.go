@@ -3,6 +3,7 @@ package ui
 import (
 	"testing"
 
+	"evenbeat/internal/cpubench"
 	"evenbeat/render"
 	"evenbeat/render/recorder"
 )
@@ -17,6 +18,7 @@ func BenchmarkFramePlan(b *testing.B) {
 	}
 	c := recorder.New(phoneW, phoneH)
 	b.ReportAllocs()
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		c.Reset()
 		a.Draw(c)
@@ -29,6 +31,7 @@ func BenchmarkFrameMotion(b *testing.B) {
 	tap(b, a, "Motion")
 	c := recorder.New(phoneW, phoneH)
 	b.ReportAllocs()
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		a.Handle(Intent{Kind: Drag, At: render.Point{X: 200, Y: 400}, Delta: render.Point{X: 3}})
 		c.Reset()
@@ -42,6 +45,7 @@ func BenchmarkWhatIf(b *testing.B) {
 	a := planApp(b)
 	amt := a.plan.Steps[0].Amount
 	b.ReportAllocs()
+	defer cpubench.Report(b, cpubench.Now())
 	i := 0
 	for b.Loop() {
 		i++
@@ -60,6 +64,7 @@ func BenchmarkFrameMeasure(b *testing.B) {
 	tap(b, a, "Back dead centre, full back")
 	c := recorder.New(phoneW, phoneH)
 	b.ReportAllocs()
+	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		c.Reset()
 		a.Draw(c)

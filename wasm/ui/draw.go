@@ -72,8 +72,9 @@ func (a *App) drawTarget(c render.Canvas, t Target) {
 // chosen option (filled) stands out.
 func (a *App) drawPlain(c render.Canvas, t Target) {
 	th := a.theme
-	c.Fill(render.RoundRect(t.Rect, 10), render.FillStyle{Color: th.Surface})
-	c.Stroke(render.RoundRect(t.Rect, 10), render.LineStyle{Color: th.Grid, Width: 1.5})
+	rr := render.RoundRect(t.Rect, 10) // one path for the fill and the frame
+	c.Fill(rr, render.FillStyle{Color: th.Surface})
+	c.Stroke(rr, render.LineStyle{Color: th.Grid, Width: 1.5})
 	size := float64(render.ButtonSize)
 	label := t.Label
 	for size > render.BodySize && render.TextWidth(label, size, true) > t.Rect.W()-16 {
@@ -108,8 +109,9 @@ func (a *App) statusColour() color.RGBA {
 // typed.
 func (a *App) drawEntry(c render.Canvas, r render.Rect) {
 	th := a.theme
-	c.Fill(render.RoundRect(r, 8), render.FillStyle{Color: th.Surface})
-	c.Stroke(render.RoundRect(r, 8), render.LineStyle{Color: th.Accent, Width: 2})
+	rr := render.RoundRect(r, 8)
+	c.Fill(rr, render.FillStyle{Color: th.Surface})
+	c.Stroke(rr, render.LineStyle{Color: th.Accent, Width: 2})
 	text, col := a.text, th.Ink
 	if !a.typed || a.text == "" {
 		f := a.fields[a.fi]

@@ -395,7 +395,7 @@ func (a *App) keypadWords(l *layouter, level int) {
 		labels = append(labels, "Skip")
 		acts = append(acts, a.skipStep)
 	}
-	if !hasBlocking(s.Readiness(a.cyl)) {
+	if a.ready() {
 		labels = append(labels, "Plan")
 		acts = append(acts, func() { a.planRound = 0; a.navigate(Plan); a.makePlan() })
 	}

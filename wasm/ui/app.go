@@ -333,6 +333,7 @@ func (a *App) addSession(s *session.Session) {
 	a.index = append(a.index, e.Key)
 	a.cur = e
 	a.clearPlan()
+	a.prio, a.targetLead = "", nil
 	a.save()
 	a.put(IndexKey, encodeIndex(a.index))
 }
@@ -395,6 +396,7 @@ func (a *App) unitLabel() string {
 func (a *App) openSession(e *Stored) {
 	a.cur = e
 	a.clearPlan()
+	a.prio, a.targetLead = "", nil // the aims belong to the engine they were set for
 	s := e.Session
 	a.cyl = 0
 	if len(s.Cylinders[0].Rounds) == 0 {

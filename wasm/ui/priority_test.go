@@ -130,3 +130,24 @@ func TestWhatIfAnyAdjustment(t *testing.T) {
 		t.Fatalf("the plan's steps still show the what-if:\n%s", text)
 	}
 }
+
+// TestWhatIfRowOnNarrowPhone: six adjustments on a 320-wide phone wrap
+// the row that chooses the part, each button still a fingertip wide.
+func TestWhatIfRowOnNarrowPhone(t *testing.T) {
+	a := planApp(t)
+	s := a.Session()
+	s.Adjustments = append(s.Adjustments, session.Adjustment{Kind: session.LiftingLinkLength, Min: -1, Max: 1,
+		Thread: session.Thread{PitchMM: 0.5, FlatsPerTurn: 6}})
+	a.resetWhatIf()
+	tap(t, a, "Balance")
+	if len(s.Adjustments) < 6 {
+		t.Fatalf("%d adjustments", len(s.Adjustments))
+	}
+	sz := [2]float64{320, 640}
+	a.Resize(sz[0], sz[1])
+	checkFits(t, a, sz, "what-if with six parts")
+	tap(t, a, "Lift link")
+	if a.what.adj != len(s.Adjustments)-1 {
+		t.Fatalf("chose %d", a.what.adj)
+	}
+}

@@ -178,8 +178,14 @@ func (l *layouter) button(label string, on bool, act func()) {
 	l.row([]string{label}, []bool{on}, []func(){act})
 }
 
-// row adds buttons side by side sharing the width.
+// row adds buttons side by side sharing the width, in as many rows as it
+// takes to keep each a fingertip (render.HitMin) wide.
 func (l *layouter) row(labels []string, on []bool, acts []func()) {
+	if per := max(1, int((l.w+gap)/(render.HitMin+gap))); len(labels) > per {
+		l.row(labels[:per], on[:per], acts[:per])
+		l.row(labels[per:], on[per:], acts[per:])
+		return
+	}
 	n := float64(len(labels))
 	w := (l.w - (n-1)*gap) / n
 	for i, lab := range labels {

@@ -4,6 +4,26 @@
 // on-canvas keypad, the plan with its what-if, the next round and the
 // history of rounds.
 //
+// Set-up takes the gear kind, the units and gauge, how many cylinders (1
+// to 3: right, left, middle), then the engine's dimensions and the gear's
+// own (each beside render.DimensionSketch's drawing of what to measure;
+// a gear that does not fit together is named on the field changed), then
+// the adjustments. Each cylinder is measured, listed and planned on its
+// own, switched by a row of buttons. A round asks the port marks (or the
+// laps; a later round may keep an earlier round's marks while the valve
+// has not moved on its spindle), the dead centres in the first round, the
+// dead-centre readings, and per reverser position the sweep, the cut-offs
+// (as crosshead travel or tyre marks) and feeler openings, each a step
+// that may be skipped. Every reading of any round can be typed again from
+// the history; its round's plan is made again. The plan screen chooses
+// the priority and a target lead (kept in the app: the session file has
+// no place for them) and drags a what-if amount of any adjustment the
+// engine allows.
+//
+// The glue's hooks: Options.OnName (a text box, then App.Rename),
+// Options.OnShare (the report PNG), Options.OnUpdate with
+// App.SetUpdateReady (the new-version banner), App.PlanTime.
+//
 // The app draws only through render.Canvas (the ebiten backend in the
 // browser, render/recorder in tests) and takes input as plain intents (Tap,
 // Drag, Confirm) that the browser glue folds from pointer events and keys.

@@ -7,12 +7,15 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"os"
 	"path/filepath"
 	"reflect"
 	"sort"
 	"strings"
 	"testing"
+
+	"evenbeat/internal/jsonx/jsonxtest"
 )
 
 // The engine decoder used to be encoding/json with a reflection walk
@@ -269,26 +272,13 @@ func TestDecodeMatchesReference(t *testing.T) {
 	for _, base := range append([]string{}, string(inputs[0]), string(inputs[6]), string(inputs[7]), string(inputs[8])) {
 		for _, m := range specMutations {
 			for n := 1; n <= strings.Count(base, m[0]) && n <= 3; n++ {
-				inputs = append(inputs, []byte(replaceNth(base, m[0], m[1], n)))
+				inputs = append(inputs, []byte(jsonxtest.ReplaceNth(base, m[0], m[1], n)))
 			}
 		}
 	}
 	for _, in := range inputs {
 		compareWithReference(t, in)
 	}
-}
-
-// replaceNth replaces the nth occurrence of old in s.
-func replaceNth(s, old, new string, n int) string {
-	i := -1
-	for ; n > 0; n-- {
-		j := strings.Index(s[i+1:], old)
-		if j < 0 {
-			return s
-		}
-		i += 1 + j
-	}
-	return s[:i] + new + s[i+len(old):]
 }
 
 func FuzzDecodeMatchesReference(f *testing.F) {
@@ -325,6 +315,24 @@ func TestSpecFieldsMatchTags(t *testing.T) {
 		}
 		if !reflect.DeepEqual(got, want) {
 			t.Errorf("%s: fields %v, tags %v", rt.Name(), got, want)
+		}
+	}
+}
+
+// TestDecodeMatchesReferenceOnRandomEdits compares the two decoders on
+// byte-level edits of the demo engine files (a fixed seed, so a failure
+// repeats).
+func TestDecodeMatchesReferenceOnRandomEdits(t *testing.T) {
+	files, _ := filepath.Glob(filepath.Join("..", "testdata", "engines", "*.json"))
+	rng := rand.New(rand.NewPCG(3, 4))
+	for _, f := range files {
+		base, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for range 700 {
+			b := jsonxtest.Edit(rng, base, 2)
+			compareWithReference(t, b)
 		}
 	}
 }

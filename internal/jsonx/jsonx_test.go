@@ -5,9 +5,12 @@ import (
 	"encoding/json"
 	"errors"
 	"math"
+	"math/rand/v2"
 	"reflect"
 	"strings"
 	"testing"
+
+	"evenbeat/internal/jsonx/jsonxtest"
 )
 
 // The reference throughout is the standard library's encoding/json, a
@@ -323,5 +326,17 @@ func TestDuplicatesAndDepth(t *testing.T) {
 	v, err := Parse([]byte(`{"a": 1} tail`), Options{Prefix: true})
 	if err != nil || v.End != 8 {
 		t.Errorf("prefix: %v, end %d", err, v.End)
+	}
+}
+
+// TestAgreesWithEncodingJSONOnRandomEdits compares with encoding/json on
+// byte-level edits of the RFC 8259 examples (a fixed seed, so a failure
+// repeats).
+func TestAgreesWithEncodingJSONOnRandomEdits(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 6))
+	for _, c := range rfc8259[:2] {
+		for range 3000 {
+			compareWithStandard(t, jsonxtest.Edit(rng, []byte(c), 3))
+		}
 	}
 }

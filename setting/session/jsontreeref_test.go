@@ -6,9 +6,12 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"math/rand/v2"
 	"regexp"
 	"strings"
 	"testing"
+
+	"evenbeat/internal/jsonx/jsonxtest"
 )
 
 // The session file used to be read through encoding/json's token stream.
@@ -218,5 +221,17 @@ func TestSyntaxErrorPositions(t *testing.T) {
 		if err == nil || !strings.Contains(err.Error(), want) {
 			t.Errorf("%q: %v, want %s", in, err, want)
 		}
+	}
+}
+
+// TestTreeMatchesReferenceOnRandomEdits compares the two readers on
+// thousands of byte-level edits of the test session (a fixed seed, so a
+// failure repeats).
+func TestTreeMatchesReferenceOnRandomEdits(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	base := []byte(testJSON)
+	for range 3000 {
+		b := jsonxtest.Edit(rng, base, 3)
+		compareTreeWithReference(t, b)
 	}
 }

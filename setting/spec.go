@@ -297,7 +297,11 @@ func (s EngineSpec) write(w *jsonx.Writer) ([]byte, error) {
 type specField struct {
 	key      string
 	optional bool
-	ptr      any // *float64, *Reverser, *int, *bool, *string, *Admission, a pointer to a spec struct, *[]Notch, *[]Cylinder, or a pointer to a *Gear-struct or *Rocker
+	// ptr is *float64, *Reverser, *int, *bool, *string or *Admission (a
+	// leaf); a pointer to one of the structs specFields lists; *[]Notch or
+	// *[]Cylinder; or **SingleEccentric, **Stephenson, **Walschaerts or
+	// **Rocker (an optional object, nil when absent).
+	ptr any
 }
 
 // specFields lists the keys of the struct ptr points to; nil for a leaf.

@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"io/fs"
 	"net"
 	"net/http"
@@ -29,7 +30,7 @@ func TestNewVersionNeverMixes(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	v2 := changedPage(t, v1)
+	v2 := changedPage(t, v1, "v2")
 	if v1.Version == v2.Version {
 		t.Fatal("a changed page kept the version key")
 	}
@@ -87,6 +88,77 @@ func TestNewVersionNeverMixes(t *testing.T) {
 		}
 	}
 	waitFor(t, ctx, 90*time.Second, `caches.keys().then(k => k.length === 1 && k[0] === "`+v2.Version+`")`)
+	if eval[bool](t, ctx, "window.evenbeatUpdateReady") {
+		t.Error("the app offers a new version while none waits")
+	}
+
+	// Offered in the app: a third version deployed while the second runs
+	// waits, the page notices and the app shows its banner; Restart makes
+	// the waiting worker take over and reloads into the third version,
+	// every file of it.
+	v3 := changedPage(t, v1, "v3")
+	current.Store(v3)
+	within(t, ctx, 90*time.Second, "reloading after the third deploy", chromedpReload())
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn !== undefined`)
+	waitFor(t, ctx, 90*time.Second, `navigator.serviceWorker.getRegistration().then(r => r && r.waiting !== null)`)
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatUpdateReady === true && JSON.parse(window.evenbeatTargets).some(t => t.Label === "Restart")`)
+	if tag := eval[string](t, ctx, pageTagJS); tag != "v2" {
+		t.Fatalf("with the third version waiting the page is %q; want v2 until Restart", tag)
+	}
+	if keys := eval[[]string](t, ctx, `caches.keys()`); !contains2(keys, v2.Version) || !contains2(keys, v3.Version) {
+		t.Errorf("caches while the third version waits: %v; want both %s and %s", keys, v2.Version, v3.Version)
+	}
+	eval[bool](t, ctx, "(window.evenbeatBefore = true)")
+	tapRestart(t, ctx)
+	// The page reloads by itself (evenbeatBefore is gone) into the third
+	// version, served whole from its own cache, the second's deleted.
+	waitThroughReload(t, ctx, 90*time.Second, `window.evenbeatBefore === undefined && window.evenbeatDrawn !== undefined`)
+	if tag := eval[string](t, ctx, pageTagJS); tag != "v3" {
+		t.Fatalf("after Restart the page is %q; want v3", tag)
+	}
+	waitFor(t, ctx, 90*time.Second, `caches.keys().then(k => k.length === 1 && k[0] === "`+v3.Version+`")`)
+	if !eval[bool](t, ctx, `caches.open("`+v3.Version+`").then(c => c.match("./")).then(r => r.text()).then(s => s.includes('content="v3"'))`) {
+		t.Error("the third version's cache does not hold its own page")
+	}
+	if eval[bool](t, ctx, "window.evenbeatUpdateReady") {
+		t.Error("after Restart the app still offers a new version")
+	}
+}
+
+// pageTagJS is the version marker of the page shown ("" for the first).
+const pageTagJS = `(document.querySelector('meta[name="evenbeat-test"]') || {content: ""}).content`
+
+// waitThroughReload polls a JavaScript condition until it holds, across
+// the page reloading (which ends an evaluation in flight).
+func waitThroughReload(t *testing.T, ctx context.Context, d time.Duration, cond string) {
+	t.Helper()
+	start := time.Now()
+	var last error
+	for time.Since(start) < d {
+		ectx, cancel := context.WithTimeout(ctx, 10*time.Second)
+		ok, err := chromedp.Run(ectx, chromedp.Evaluate[bool](cond))
+		cancel()
+		if err == nil && ok {
+			t.Logf("%s after %v", cond, time.Since(start).Round(time.Millisecond))
+			return
+		}
+		last = err
+		time.Sleep(200 * time.Millisecond)
+	}
+	t.Fatalf("waiting for %s: not true after %v (last error: %v)", cond, d, last)
+}
+
+// tapRestart taps the app's Restart button, allowing the busy page a
+// minute to take the touch.
+func tapRestart(t *testing.T, ctx context.Context) {
+	t.Helper()
+	for _, tg := range targets(t, ctx) {
+		if tg.Label == "Restart" {
+			touch(t, ctx, tg.X+tg.W/2, tg.Y+tg.H/2)
+			return
+		}
+	}
+	t.Fatal("no Restart target")
 }
 
 func contains2(list []string, s string) bool {
@@ -98,8 +170,9 @@ func contains2(list []string, s string) bool {
 	return false
 }
 
-// changedPage returns b with a marker added to index.html: a new version.
-func changedPage(t *testing.T, b *bundle) *bundle {
+// changedPage returns b with a marker (meta evenbeat-test, content tag)
+// added to index.html: a new version.
+func changedPage(t *testing.T, b *bundle, tag string) *bundle {
 	t.Helper()
 	static := fstest.MapFS{}
 	err := fs.WalkDir(site.Files, ".", func(p string, d fs.DirEntry, err error) error {
@@ -108,7 +181,7 @@ func changedPage(t *testing.T, b *bundle) *bundle {
 		}
 		data, err := fs.ReadFile(site.Files, p)
 		if p == "index.html" {
-			data = bytes.Replace(data, []byte("<title>"), []byte(`<meta name="evenbeat-test" content="v2"><title>`), 1)
+			data = bytes.Replace(data, []byte("<title>"), []byte(`<meta name="evenbeat-test" content="`+tag+`"><title>`), 1)
 		}
 		static[p] = &fstest.MapFile{Data: data}
 		return err

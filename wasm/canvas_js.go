@@ -18,10 +18,9 @@ import (
 // triangle rasteriser with the non-zero rule and anti-aliasing; strokes are
 // filled outlines from render.Outline, so they match the PNG backend; text
 // is the font's own outlines (render.GlyphPath, from the tables in
-// render/font) filled the same way, once per rune, size and weight, into a
-// white glyph image that DrawImage tints (ebiten packs the images into its
-// texture atlas). No font file or font parser reaches the wasm build, and
-// the PNG backend fills the very same outlines.
+// render/font) filled the same way, once per rune, size and weight, white
+// into a page of glyphs that DrawImage tints. No font file or font parser
+// reaches the wasm build, and the PNG backend fills the very same outlines.
 //
 // One canvas lives for the whole run so the glyph cache survives frames;
 // Begin points it at the frame's target.
@@ -32,6 +31,7 @@ type ebitenCanvas struct {
 
 	white  *ebiten.Image // a white pixel, the source of every fill
 	glyphs map[glyphKey]*glyph
+	page   *glyphPage // the page new glyphs go into
 	vs     []ebiten.Vertex
 	is     []uint16
 }
@@ -44,7 +44,8 @@ type glyphKey struct {
 	bold   bool
 }
 
-// glyph is one filled glyph: img is nil for blank glyphs (space).
+// glyph is one filled glyph, a part of a glyph page: img is nil for blank
+// glyphs (space).
 type glyph struct {
 	img *ebiten.Image
 	off image.Point // top-left of img relative to the pen on the baseline
@@ -159,15 +160,17 @@ func (c *ebitenCanvas) Text(at render.Point, text string, s render.TextStyle) {
 		size = render.DefaultTextSize
 	}
 	size64 := int(math.Round(size * c.scale * 64))
+	placed := render.PlaceGlyphs(at, text, s)
+	c.cacheGlyphs(placed, size64, s.Bold)
 	var op ebiten.DrawImageOptions
 	op.ColorScale.ScaleWithColor(s.Color)
-	for _, pg := range render.PlaceGlyphs(at, text, s) {
+	for _, pg := range placed {
 		x, y := pg.At.X*c.scale, pg.At.Y*c.scale
 		if math.IsNaN(x) || math.IsNaN(y) || math.Abs(x) > 1<<20 || math.Abs(y) > 1<<20 {
 			continue
 		}
-		g := c.glyph(glyphKey{r: pg.Rune, size64: size64, bold: s.Bold})
-		if g.img == nil {
+		g := c.glyphs[glyphKey{r: pg.Rune, size64: size64, bold: s.Bold}]
+		if g == nil || g.img == nil {
 			continue
 		}
 		op.GeoM.Reset()
@@ -176,23 +179,71 @@ func (c *ebitenCanvas) Text(at render.Point, text string, s render.TextStyle) {
 	}
 }
 
-// glyph returns the cached image of a glyph, filling its outline on first
-// use: white, anti-aliased, with a pixel of margin on every side.
-func (c *ebitenCanvas) glyph(key glyphKey) *glyph {
-	if g, ok := c.glyphs[key]; ok {
-		return g
+// glyphPageSize is the side of a glyph page in pixels: a 1024 square holds
+// some six hundred glyphs of 14 CSS px text at 3x.
+const glyphPageSize = 1024
+
+// glyphPage is one image glyphs are packed into, in rows, a pixel apart.
+type glyphPage struct {
+	img        *ebiten.Image
+	x, y, rowH int
+}
+
+// place reserves a w by h slot, or reports that the page is full.
+func (p *glyphPage) place(w, h int) (image.Point, bool) {
+	if p.x+w > glyphPageSize {
+		p.x, p.y, p.rowH = 0, p.y+p.rowH+1, 0
 	}
-	g := &glyph{}
-	size := float64(key.size64) / 64
-	b := render.GlyphBounds(key.r, size, key.bold)
-	if b.W() > 0 && b.H() > 0 {
-		off := image.Pt(int(math.Floor(b.Min.X))-1, int(math.Floor(b.Min.Y))-1)
-		w, h := int(math.Ceil(b.Max.X))+1-off.X, int(math.Ceil(b.Max.Y))+1-off.Y
-		g.img = ebiten.NewImage(w, h)
-		p := render.GlyphPath(key.r, size, key.bold, render.Point{X: -float64(off.X), Y: -float64(off.Y)})
-		c.fill(g.img, p, 1, color.RGBA{0xff, 0xff, 0xff, 0xff})
-		g.off = off
+	if w > glyphPageSize || p.y+h > glyphPageSize {
+		return image.Point{}, false
 	}
-	c.glyphs[key] = g
-	return g
+	at := image.Pt(p.x, p.y)
+	p.x += w + 1
+	p.rowH = max(p.rowH, h)
+	return at, true
+}
+
+// cacheGlyphs fills the glyphs of placed that are not cached yet: each
+// outline (render.GlyphPath) white and anti-aliased, with a pixel of
+// margin, into a slot of the current glyph page. All of one call's new
+// glyphs go in one fill, since every anti-aliased fill of an image costs
+// ebiten an offscreen of its own. A glyph wider or taller than a page is
+// left blank.
+func (c *ebitenCanvas) cacheGlyphs(placed []render.PlacedGlyph, size64 int, bold bool) {
+	size := float64(size64) / 64
+	var batch render.Path
+	white := color.RGBA{0xff, 0xff, 0xff, 0xff}
+	for _, pg := range placed {
+		key := glyphKey{r: pg.Rune, size64: size64, bold: bold}
+		if _, ok := c.glyphs[key]; ok {
+			continue
+		}
+		g := &glyph{}
+		c.glyphs[key] = g
+		b := render.GlyphBounds(pg.Rune, size, bold)
+		if !(b.W() > 0 && b.H() > 0) {
+			continue
+		}
+		g.off = image.Pt(int(math.Floor(b.Min.X))-1, int(math.Floor(b.Min.Y))-1)
+		w, h := int(math.Ceil(b.Max.X))+1-g.off.X, int(math.Ceil(b.Max.Y))+1-g.off.Y
+		if c.page == nil {
+			c.page = &glyphPage{img: ebiten.NewImage(glyphPageSize, glyphPageSize)}
+		}
+		at, ok := c.page.place(w, h)
+		if !ok {
+			if w > glyphPageSize || h > glyphPageSize {
+				continue
+			}
+			c.fill(c.page.img, batch, 1, white)
+			batch = batch[:0]
+			c.page = &glyphPage{img: ebiten.NewImage(glyphPageSize, glyphPageSize)}
+			at, _ = c.page.place(w, h)
+		}
+		g.img = c.page.img.SubImage(image.Rectangle{Min: at, Max: at.Add(image.Pt(w, h))}).(*ebiten.Image)
+		origin := render.Point{X: float64(at.X - g.off.X), Y: float64(at.Y - g.off.Y)}
+		batch = append(batch, render.GlyphPath(pg.Rune, size, bold, origin)...)
+	}
+	if len(batch) > 0 {
+		c.fill(c.page.img, batch, 1, white)
+	}
 }

@@ -146,8 +146,29 @@ func TestWhatIfRowOnNarrowPhone(t *testing.T) {
 	sz := [2]float64{320, 640}
 	a.Resize(sz[0], sz[1])
 	checkFits(t, a, sz, "what-if with six parts")
-	tap(t, a, "Lift link")
+	tap(t, a, "Lifting link")
 	if a.what.adj != len(s.Adjustments)-1 {
 		t.Fatalf("chose %d", a.what.adj)
+	}
+}
+
+// TestPlanScrollsToItsActions: when the balance card is taller than the
+// room under the what-if controls, the card keeps its height, a drag
+// outside the track scrolls, and Next round comes into reach.
+func TestPlanScrollsToItsActions(t *testing.T) {
+	a := planApp(t)
+	tap(t, a, "Balance")
+	if !a.layout().scrolls {
+		t.Skip("the balance card fits this screen")
+	}
+	a.Handle(Intent{Kind: Drag, At: render.Point{X: 200, Y: 700}, Delta: render.Point{Y: -2000}})
+	for _, tg := range a.Targets() {
+		if tg.Label == "Next round" && tg.Rect.Max.Y > phoneH {
+			t.Fatalf("Next round at %v, below the screen after scrolling", tg.Rect)
+		}
+	}
+	tap(t, a, "Next round")
+	if a.Screen() != Measure {
+		t.Fatalf("Next round went to %s", a.Screen())
 	}
 }

@@ -16,7 +16,7 @@ func TestShots(t *testing.T) {
 		t.Skip("set EVENBEAT_UI_SHOTS to a directory to write the screens")
 	}
 	shot := func(a *App, name string) {
-		c := raster.New(phoneW, phoneH, 1)
+		c := raster.New(int(a.w), int(a.h), 1)
 		a.Draw(c)
 		f, err := os.Create(filepath.Join(dir, name+".png"))
 		if err != nil {
@@ -30,6 +30,19 @@ func TestShots(t *testing.T) {
 	st := newMemStore()
 	a := newTestApp(t, st)
 	shot(a, "engines")
+	tap(t, a, "Brackenfold (Stephenson) (invented demo)")
+	tap(t, a, "2")
+	shot(a, "units")
+	tap(t, a, "Next")
+	shot(a, "sizes")
+	for a.Field() != "Forward eccentric: advance" {
+		tap(t, a, "Next")
+	}
+	shot(a, "sizes-gear")
+	a.Resize(844, 390)
+	shot(a, "sizes-landscape")
+	a.Resize(phoneW, phoneH)
+	a = newTestApp(t, st)
 	setUpDemo(t, a, st)
 	typeKeys(t, a, "129.1")
 	shot(a, "measure")
@@ -40,4 +53,13 @@ func TestShots(t *testing.T) {
 	shot(p, "plan")
 	tap(t, p, "Balance")
 	shot(p, "balance")
+	p.Resize(844, 390)
+	shot(p, "balance-landscape")
+	p.Resize(phoneW, phoneH)
+	tap(t, p, "Next round")
+	shot(p, "measure-round2")
+	tap(t, p, "Menu")
+	tap(t, p, "History of rounds")
+	tap(t, p, "Round 1")
+	shot(p, "round1-readings")
 }

@@ -40,6 +40,7 @@ type view struct {
 	body    render.Rect // the diagram's box (plan, cautions)
 	slider  render.Rect // the what-if track (plan, balance)
 	sketch  render.Rect // the set-up value's sketch (sizes)
+	scrolls bool        // the plan's card is taller than the room left: the screen scrolls
 	bottom  float64     // the lowest y of the content, for scrolling
 }
 
@@ -112,7 +113,7 @@ func (a *App) layout() *view {
 // scrolled moves the content (not the top bar) up by the scroll.
 func (a *App) scrolled(v *view) {
 	maxS := math.Max(0, v.bottom+margin-a.h)
-	if v.keypad != nil || a.screen == Plan || a.screen == Where {
+	if v.keypad != nil || a.screen == Plan && !v.scrolls || a.screen == Where {
 		maxS = 0 // fitted to the screen
 	}
 	a.scroll = math.Max(0, math.Min(a.scroll, maxS))
@@ -129,6 +130,20 @@ func (a *App) scrolled(v *view) {
 		}
 	}
 	v.body = shift(v.body, dy)
+	v.slider = shift(v.slider, dy)
+}
+
+// cardNeed is the height the plan screen's card needs in box: the balance
+// card and the plan's steps have a height of their own; the curves and
+// the motion fill any box.
+func (a *App) cardNeed(box render.Rect) float64 {
+	switch m := a.shownModel(); a.diagram {
+	case render.BalanceDiagram:
+		return render.LayoutBalance(box, m).NeedH
+	case render.PlanDiagram:
+		return render.LayoutPlan(box, m).NeedH
+	}
+	return 0
 }
 
 // layouter stacks a screen's parts down the page.
@@ -533,7 +548,10 @@ func planTabs() [4]render.Diagram {
 }
 
 func (a *App) planView(l *layouter) {
-	a.cylinderRow(l)
+	side := a.w > a.h // landscape: one row of cylinders, tabs and actions, the most room for the diagram
+	if !side || a.model == nil {
+		a.cylinderRow(l)
+	}
 	if a.model == nil {
 		l.title("Plan")
 		if len(a.planNote) == 0 {
@@ -554,11 +572,19 @@ func (a *App) planView(l *layouter) {
 		on[i] = a.diagram == d
 		acts[i] = func() { a.diagram = d; a.dirty = true }
 	}
-	side := a.w > a.h // landscape: one row of tabs and actions, the most room for the diagram
 	if side {
 		labels = append(labels, "Next round", "Rounds")
 		on = append(on, false, false)
 		acts = append(acts, a.nextRound, func() { a.navigate(History) })
+		if cs := a.Session().Cylinders; len(cs) > 1 {
+			var cl []string
+			var con []bool
+			var cact []func()
+			for i, c := range cs {
+				cl, con, cact = append(cl, title(c.Name)), append(con, i == a.cyl), append(cact, func() { a.switchCylinder(i) })
+			}
+			labels, on, acts = append(cl, labels...), append(con, on...), append(cact, acts...)
+		}
 	}
 	l.row(labels, on, acts)
 	bottom := a.h - margin - rowH
@@ -572,6 +598,16 @@ func (a *App) planView(l *layouter) {
 		a.priorityRows(l)
 	}
 	l.v.body = render.Rect{Min: render.Point{X: margin, Y: l.y}, Max: render.Point{X: a.w - margin, Y: bottom - gap}}
+	if need := a.cardNeed(l.v.body); need > l.v.body.H() {
+		// The card keeps its height and the screen scrolls to it.
+		l.v.body.Max.Y = l.v.body.Min.Y + need
+		l.v.scrolls = true
+		l.y = l.v.body.Max.Y + gap
+		if !side {
+			l.row([]string{"Next round", "Rounds"}, []bool{false, false}, []func(){a.nextRound, func() { a.navigate(History) }})
+		}
+		return
+	}
 	if side {
 		return
 	}

@@ -238,18 +238,18 @@ func shortAdjustmentName(adj session.Adjustment) string {
 	case session.EccentricRodLength:
 		return e + "rod"
 	case session.ReturnCrankAngle:
-		return "Ret. crank"
+		return "Return crank"
 	case session.RadiusRodLength:
 		return "Radius rod"
 	case session.LiftingLinkLength:
-		return "Lift link"
+		return "Lifting link"
 	}
 	return string(adj.Kind)
 }
 
-// whatIfRows lays out the what-if's controls on the balance tab: a row
-// choosing the part, the part's amount (tap: the next part) and the track
-// to drag.
+// whatIfRows lays out the what-if's controls on the balance tab: rows
+// choosing the part, the part's amount (a tap there chooses the next
+// part) and the track to drag.
 func (a *App) whatIfRows(l *layouter) {
 	adjs := a.Session().Adjustments
 	if len(a.what.amounts) == 0 {
@@ -263,8 +263,15 @@ func (a *App) whatIfRows(l *layouter) {
 		on[j] = j == a.what.adj
 		acts[j] = func() { a.chooseAdjustment(j) }
 	}
-	l.row(labels, on, acts)
-	l.button(fmt.Sprintf("What if: %s %s (tap: next part)", strings.ToLower(adjustmentName(adjs[a.what.adj])), a.whatAmountText()), false, func() {
+	per := 3 // a row of three keeps "Back sheave" whole on a phone
+	if l.w > 600 {
+		per = len(labels)
+	}
+	for i := 0; i < len(labels); i += per {
+		k := min(i+per, len(labels))
+		l.row(labels[i:k], on[i:k], acts[i:k])
+	}
+	l.button(fmt.Sprintf("What if: %s %s", strings.ToLower(adjustmentName(adjs[a.what.adj])), a.whatAmountText()), false, func() {
 		a.chooseAdjustment(a.what.adj + 1)
 	})
 	l.v.slider = rect(l.x, l.y, l.w, sliderH)

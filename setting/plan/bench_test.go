@@ -1,12 +1,9 @@
 package plan
 
 import (
-	"bytes"
 	"testing"
 
 	"evenbeat/internal/cpubench"
-	"evenbeat/setting"
-	"evenbeat/setting/session"
 )
 
 // Speed goal (issue 4): fit + plan for a full session (sweeps every 15
@@ -28,65 +25,6 @@ func BenchmarkFitAndPlan(b *testing.B) {
 			}
 		})
 	}
-}
-
-// FuzzFitAndPlan feeds the planner perturbed sessions: readings scaled,
-// shifted, knocked or made the same, marks moved, limits narrowed. It
-// must give a plan or an error, never panic, and never write NaN or Inf.
-func FuzzFitAndPlan(f *testing.F) {
-	f.Add(uint8(0), 1.0, 0.0, 0.0, 3.0, uint8(0))
-	f.Add(uint8(1), -1.0, 2.0, 0.5, 0.0, uint8(3))
-	f.Add(uint8(2), 0.0, 1e6, 90.0, 1e-3, uint8(7))
-	f.Fuzz(func(t *testing.T, gear uint8, scale, shift, markShift, limit float64, mode uint8) {
-		kind := gears[int(gear)%len(gears)]
-		sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
-		s := sim.session(t, 30, testAdjustments(kind))
-		r := &s.Cylinders[0].Rounds[0]
-		for i := range r.Sweeps {
-			for j := range r.Sweeps[i].Readings {
-				rd := &r.Sweeps[i].Readings[j]
-				rd.GaugeMM = rd.GaugeMM*scale + shift
-				if mode&1 != 0 && j%5 == 0 {
-					rd.GaugeMM += shift
-				}
-				if mode&2 != 0 {
-					rd.At.Value += markShift
-				}
-			}
-		}
-		if mode&4 != 0 {
-			r.Sweeps = nil
-		}
-		for i := range s.Adjustments {
-			s.Adjustments[i].Min, s.Adjustments[i].Max = -limit, limit
-		}
-		var buf bytes.Buffer
-		if err := session.Encode(&buf, s); err != nil {
-			return // not a valid session: the decoder's fuzz covers it
-		}
-		s2, err := session.Decode(&buf)
-		if err != nil {
-			return
-		}
-		make := Make
-		if mode&8 != 0 {
-			make = MakeWithoutDimensions
-		}
-		p, err := make(s2, Options{Priority: []Priority{EqualLeads, EqualCutOffs, Balanced}[int(mode)%3]})
-		if err != nil {
-			var se *setting.Error
-			_ = se
-			if err.Error() == "" {
-				t.Fatal("empty error")
-			}
-			return
-		}
-		var out bytes.Buffer
-		if err := WriteJSON(&out, p, session.UnitMM); err != nil {
-			t.Fatal(err)
-		}
-		scanFinite(t, out.Bytes())
-	})
 }
 
 // BenchmarkLinkage is one linkage solution of each test gear: the unit the

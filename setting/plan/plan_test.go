@@ -249,44 +249,6 @@ func scanFinite(t testing.TB, data []byte) {
 	}
 }
 
-func TestJSONAndTextHaveNoNaN(t *testing.T) {
-	for _, kind := range gears {
-		sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
-		p, err := Make(sim.session(t, 30, testAdjustments(kind)), Options{})
-		if err != nil {
-			t.Fatal(err)
-		}
-		var j, txt, ev bytes.Buffer
-		if err := WriteJSON(&j, p, session.UnitInch); err != nil {
-			t.Fatal(err)
-		}
-		scanFinite(t, j.Bytes())
-		if err := WriteText(&txt, p, session.UnitMM); err != nil {
-			t.Fatal(err)
-		}
-		if strings.Contains(txt.String(), "NaN") || strings.Contains(txt.String(), "Inf") {
-			t.Errorf("text holds NaN/Inf:\n%s", txt.String())
-		}
-		if err := WriteEventsJSON(&ev, sim.spec); err != nil {
-			t.Fatal(err)
-		}
-		scanFinite(t, ev.Bytes())
-		// The sign conventions travel with every step.
-		var doc struct {
-			Steps []struct {
-				Sign, Unit string
-				Amount     float64
-			}
-		}
-		json.Unmarshal(j.Bytes(), &doc)
-		for _, s := range doc.Steps {
-			if !strings.HasPrefix(s.Sign, "+ = ") || (s.Unit != "mm" && s.Unit != "deg") {
-				t.Errorf("step without its sign convention: %+v", s)
-			}
-		}
-	}
-}
-
 // Bad readings give a clear sentence, never a panic.
 func TestBadReadings(t *testing.T) {
 	kind := setting.KindStephenson

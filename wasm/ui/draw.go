@@ -2,6 +2,7 @@ package ui
 
 import (
 	"image/color"
+	"strings"
 
 	"evenbeat/render"
 )
@@ -80,9 +81,7 @@ func (a *App) drawPlain(c render.Canvas, t Target) {
 	for size > render.BodySize && render.TextWidth(label, size, true) > t.Rect.W()-16 {
 		size--
 	}
-	for len(label) > 4 && render.TextWidth(label, size, true) > t.Rect.W()-16 {
-		label = label[:len(label)-4] + "..."
-	}
+	label = fitLabel(label, size, t.Rect.W()-16)
 	c.Text(render.Point{X: (t.Rect.Min.X + t.Rect.Max.X) / 2, Y: (t.Rect.Min.Y + t.Rect.Max.Y) / 2}, label,
 		render.TextStyle{Color: th.Ink, Size: size, Bold: true, HAlign: render.Center, VAlign: render.Middle})
 }
@@ -149,4 +148,23 @@ func (a *App) drawSlider(c render.Canvas, r render.Rect) {
 		c.Stroke(tick, render.LineStyle{Color: th.Muted, Width: 2})
 	}
 	c.Fill(render.Circle(render.Point{X: at(a.what.amounts[a.what.adj]), Y: mid}, 16), render.FillStyle{Color: th.Accent})
+}
+
+// fitLabel shortens a button's label to width w at size: a label "what:
+// value" with a short value (a number and its unit) loses letters from
+// what, so the value stays whole; any other from its end. The cut is
+// marked "...".
+func fitLabel(label string, size, w float64) string {
+	fits := func(s string) bool { return render.TextWidth(s, size, true) <= w }
+	if fits(label) {
+		return label
+	}
+	head, tail := []rune(label), ""
+	if i := strings.LastIndex(label, ": "); i > 0 && len(label)-i <= 18 && fits("...: "+label[i+2:]) { // a value with its unit
+		head, tail = []rune(label[:i]), ": "+label[i+2:]
+	}
+	for len(head) > 1 && !fits(string(head)+"..."+tail) {
+		head = head[:len(head)-1]
+	}
+	return strings.TrimRight(string(head), " ,") + "..." + tail
 }

@@ -1,6 +1,7 @@
 package ui
 
 import (
+	"strings"
 	"testing"
 
 	"evenbeat/render"
@@ -89,5 +90,23 @@ func checkFits(t *testing.T, a *App, sz [2]float64, what string) {
 		if tg.Rect.H() < render.HitMin || tg.Rect.W() < render.HitMin {
 			t.Errorf("%v %s: target %q is %.0f x %.0f", sz, what, tg.Label, tg.Rect.W(), tg.Rect.H())
 		}
+	}
+}
+
+// TestFitLabelKeepsTheValue: a reading's row too long for its button
+// loses letters from its name, never from its value; other labels are cut
+// at the end; a label that fits is left alone.
+func TestFitLabelKeepsTheValue(t *testing.T) {
+	long := "Front dead centre turning backward, second mark: 13.7402 in"
+	got := fitLabel(long, 16, 300)
+	if !strings.HasSuffix(got, "...: 13.7402 in") || render.TextWidth(got, 16, true) > 300 {
+		t.Errorf("fitLabel(%q) = %q", long, got)
+	}
+	plain := "Round 1, 2026-11-21: front lead 0.003 in, back lead 0.013 in"
+	if got := fitLabel(plain, 16, 200); !strings.HasPrefix(got, "Round 1, 2026") || !strings.HasSuffix(got, "...") {
+		t.Errorf("fitLabel(%q) = %q", plain, got)
+	}
+	if got := fitLabel("Next", 16, 300); got != "Next" {
+		t.Errorf("fitLabel(Next) = %q", got)
 	}
 }

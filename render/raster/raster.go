@@ -17,11 +17,12 @@ import (
 // Canvas draws into an RGBA image. Use New. It is not safe for concurrent
 // use.
 type Canvas struct {
-	img   *image.RGBA
-	scale float64
-	z     vector.Rasterizer
-	mask  []byte // coverage of the current fill, reused between fills
-	solid []byte // a row of the current opaque colour, reused between fills
+	img    *image.RGBA
+	scale  float64
+	z      vector.Rasterizer
+	mask   []byte // coverage of the current fill, reused between fills
+	solid  []byte // a row of the current opaque colour, reused between fills
+	glyphs map[glyphKey]*glyphMask
 }
 
 // New returns a transparent canvas of wPx by hPx device pixels drawing
@@ -33,8 +34,9 @@ func New(wPx, hPx int, scale float64) *Canvas {
 		scale = 1
 	}
 	return &Canvas{
-		img:   image.NewRGBA(image.Rect(0, 0, wPx, hPx)),
-		scale: scale,
+		img:    image.NewRGBA(image.Rect(0, 0, wPx, hPx)),
+		scale:  scale,
+		glyphs: map[glyphKey]*glyphMask{},
 	}
 }
 
@@ -101,7 +103,7 @@ func (c *Canvas) Fill(p render.Path, s render.FillStyle) {
 	for y0 := r.Min.Y; y0 < r.Max.Y; y0 += tileSize {
 		for x0 := r.Min.X; x0 < r.Max.X; x0 += tileSize {
 			tile := image.Rect(x0, y0, min(x0+tileSize, r.Max.X), min(y0+tileSize, r.Max.Y))
-			c.rasterize(p, tile)
+			c.rasterize(p, tile, c.scale)
 			c.composite(tile, s.Color)
 		}
 	}
@@ -111,9 +113,9 @@ func (c *Canvas) Fill(p render.Path, s render.FillStyle) {
 // largest x/image/vector keeps on its integer path.
 const tileSize = 512
 
-// rasterize loads the rasterizer with p, in device pixels relative to r.
-func (c *Canvas) rasterize(p render.Path, r image.Rectangle) {
-	k := c.scale
+// rasterize loads the rasterizer with p, scaled by k to device pixels,
+// relative to r.
+func (c *Canvas) rasterize(p render.Path, r image.Rectangle, k float64) {
 	ox, oy := float64(r.Min.X), float64(r.Min.Y)
 	c.z.Reset(r.Dx(), r.Dy())
 	tx := func(pt render.Point) (float32, float32) {
@@ -160,13 +162,24 @@ func (c *Canvas) rasterize(p render.Path, r image.Rectangle) {
 // stroke's box; the arithmetic is x/image/vector's own Over formula, so
 // the pixels are the ones vector's RGBA path would give.
 func (c *Canvas) composite(r image.Rectangle, col color.RGBA) {
-	w, h := r.Dx(), r.Dy()
+	c.blend(r, c.coverage(r.Dx(), r.Dy()), r.Dx(), col)
+}
+
+// coverage draws the rasterizer's coverage into the reused w by h mask.
+func (c *Canvas) coverage(w, h int) []byte {
 	if cap(c.mask) < w*h {
 		c.mask = make([]byte, w*h)
 	}
 	mask := &image.Alpha{Pix: c.mask[:w*h], Stride: w, Rect: image.Rect(0, 0, w, h)}
 	c.z.DrawOp = draw.Src
 	c.z.Draw(mask, mask.Rect, image.Opaque, image.Point{})
+	return mask.Pix
+}
+
+// blend blends col over the pixels of r (inside the image) through the
+// coverage mask, whose rows are stride bytes apart.
+func (c *Canvas) blend(r image.Rectangle, mask []byte, stride int, col color.RGBA) {
+	w, h := r.Dx(), r.Dy()
 	sr, sg, sb, sa := uint32(col.R)*0x101, uint32(col.G)*0x101, uint32(col.B)*0x101, uint32(col.A)*0x101
 	opaque := col.A == 0xff
 	full := binary.LittleEndian.Uint32([]byte{col.R, col.G, col.B, col.A})
@@ -184,7 +197,7 @@ func (c *Canvas) composite(r image.Rectangle, col color.RGBA) {
 	}
 	const all = ^uint64(0)
 	for y := 0; y < h; y++ {
-		mrow := mask.Pix[y*w : y*w+w]
+		mrow := mask[y*stride : y*stride+w]
 		drow := c.img.Pix[c.img.PixOffset(r.Min.X, r.Min.Y+y):]
 		for x := 0; x < len(mrow); x++ {
 			// Skip uncovered pixels eight at a time.
@@ -249,12 +262,86 @@ func (c *Canvas) Stroke(p render.Path, s render.LineStyle) {
 	}
 }
 
-// Text fills the outline of one line of text (render.TextPath) with the
-// non-zero rule, as any other fill: the browser fills the very same
-// outlines, so both backends draw the same glyphs.
+// Text draws one line of text: each glyph's outline (render.GlyphPath,
+// the outlines the browser fills too) filled once per rune, size, weight
+// and quarter-pixel phase of its pen point into a coverage mask kept by the
+// canvas, then blended in the style's colour at render.PlaceGlyphs' pen
+// points. A pen point more than maxCoord pixels out is not drawn.
 func (c *Canvas) Text(at render.Point, text string, s render.TextStyle) {
 	if text == "" || s.Color.A == 0 || !finitePt(at) {
 		return
 	}
-	c.Fill(render.TextPath(at, text, s), render.FillStyle{Color: s.Color})
+	size := s.Size
+	if !(size > 0) || math.IsInf(size, 0) {
+		size = render.DefaultTextSize
+	}
+	size64 := int(math.Round(size * c.scale * 64))
+	bounds := c.img.Bounds()
+	for _, pg := range render.PlaceGlyphs(at, text, s) {
+		x, y := pg.At.X*c.scale, pg.At.Y*c.scale
+		if !(math.Abs(x) <= maxCoord && math.Abs(y) <= maxCoord) {
+			continue
+		}
+		// The pen point to a quarter pixel: a whole pixel and a phase.
+		qx, qy := int(math.Round(x*glyphPhases)), int(math.Round(y*glyphPhases))
+		px, fx := floorDiv(qx, glyphPhases)
+		py, fy := floorDiv(qy, glyphPhases)
+		m := c.glyph(glyphKey{r: pg.Rune, size64: size64, bold: s.Bold, fx: fx, fy: fy})
+		r := image.Rect(px+m.off.X, py+m.off.Y, px+m.off.X+m.w, py+m.off.Y+m.h)
+		rc := r.Intersect(bounds)
+		if rc.Empty() {
+			continue
+		}
+		c.blend(rc, m.pix[(rc.Min.Y-r.Min.Y)*m.w+rc.Min.X-r.Min.X:], m.w, s.Color)
+	}
+}
+
+// glyphPhases is how many pen positions per pixel, across and down, the
+// glyph masks are made for: a quarter pixel, as freetype's faces did.
+const glyphPhases = 4
+
+// glyphKey names one cached glyph mask: rune, em size in device pixels (in
+// 1/64 px), weight, and the pen point's phase within its pixel.
+type glyphKey struct {
+	r      rune
+	size64 int
+	bold   bool
+	fx, fy int
+}
+
+// glyphMask is one glyph's coverage, w by h, its top-left corner off from
+// the pixel holding the pen point.
+type glyphMask struct {
+	pix  []byte
+	w, h int
+	off  image.Point
+}
+
+// glyph returns the cached mask for key, filling the outline on first use.
+func (c *Canvas) glyph(key glyphKey) *glyphMask {
+	if m, ok := c.glyphs[key]; ok {
+		return m
+	}
+	size := float64(key.size64) / 64
+	pen := render.Point{X: float64(key.fx) / glyphPhases, Y: float64(key.fy) / glyphPhases}
+	m := &glyphMask{}
+	if b := render.GlyphBounds(key.r, size, key.bold); b.W() > 0 && b.H() > 0 {
+		m.off = image.Pt(int(math.Floor(pen.X+b.Min.X)), int(math.Floor(pen.Y+b.Min.Y)))
+		m.w = int(math.Ceil(pen.X+b.Max.X)) - m.off.X + 1
+		m.h = int(math.Ceil(pen.Y+b.Max.Y)) - m.off.Y + 1
+		p := render.GlyphPath(key.r, size, key.bold, render.Point{X: pen.X - float64(m.off.X), Y: pen.Y - float64(m.off.Y)})
+		c.rasterize(p, image.Rect(0, 0, m.w, m.h), 1)
+		m.pix = append([]byte(nil), c.coverage(m.w, m.h)...)
+	}
+	c.glyphs[key] = m
+	return m
+}
+
+// floorDiv returns q = floor(a/b) and a - q*b, for b > 0.
+func floorDiv(a, b int) (q, r int) {
+	q, r = a/b, a%b
+	if r < 0 {
+		q, r = q-1, r+b
+	}
+	return q, r
 }

@@ -128,6 +128,12 @@ func openStore() (st *store, err error) {
 // Get reads key; ok is false when it was never saved. It blocks until the
 // browser answers: call it outside the game loop.
 func (s *store) Get(key string) (value string, ok bool, err error) {
+	defer func() {
+		// A closed database makes transaction() throw.
+		if r := recover(); r != nil {
+			value, ok, err = "", false, thrownError("reading "+key+" from the browser database", r)
+		}
+	}()
 	tx := s.db.Call("transaction", storeTable, "readonly")
 	req := tx.Call("objectStore", storeTable).Call("get", key)
 	done := make(chan error, 1)
@@ -140,7 +146,7 @@ func (s *store) Get(key string) (value string, ok bool, err error) {
 	defer failure.Release()
 	req.Set("onsuccess", success)
 	req.Set("onerror", failure)
-	if err := <-done; err != nil {
+	if err = <-done; err != nil {
 		return "", false, err
 	}
 	v := req.Get("result")
@@ -154,27 +160,52 @@ func (s *store) Get(key string) (value string, ok bool, err error) {
 // event loop) when the transaction has completed, with nil, or with the
 // reason it failed. Only then is the entry saved.
 func (s *store) Put(key, value string, done func(error)) {
-	defer func() {
-		// A closed database makes transaction() throw.
-		if r := recover(); r != nil {
-			done(thrownError("saving "+key+" in the browser database", r))
-		}
-	}()
-	tx := s.db.Call("transaction", storeTable, "readwrite", map[string]any{"durability": "strict"})
+	what := "saving " + key + " in the browser database"
+	var tx js.Value
 	var complete, failure js.Func
+	var thrown error // put threw: the abort it causes reports this
 	finished := false
 	finish := func(err error) {
 		if finished { // error and abort both fire on failure
 			return
 		}
 		finished = true
+		if !tx.IsUndefined() {
+			for _, h := range []string{"oncomplete", "onerror", "onabort"} {
+				tx.Set(h, js.Null()) // a late event must not call a released function
+			}
+		}
 		complete.Release()
 		failure.Release()
 		done(err)
 	}
+	defer func() {
+		r := recover()
+		if r == nil {
+			return
+		}
+		err := thrownError(what, r)
+		if tx.IsUndefined() {
+			finish(err) // transaction() threw: a closed database, say
+			return
+		}
+		// put threw: end the transaction; its abort event reports err.
+		thrown = err
+		defer func() {
+			if recover() != nil {
+				finish(err) // already ended
+			}
+		}()
+		tx.Call("abort")
+	}()
+	tx = s.db.Call("transaction", storeTable, "readwrite", map[string]any{"durability": "strict"})
 	complete = js.FuncOf(func(js.Value, []js.Value) any { finish(nil); return nil })
 	failure = js.FuncOf(func(js.Value, []js.Value) any {
-		finish(jsError("saving "+key+" in the browser database", tx.Get("error")))
+		if thrown != nil {
+			finish(thrown)
+		} else {
+			finish(jsError(what, tx.Get("error")))
+		}
 		return nil
 	})
 	tx.Set("oncomplete", complete)

@@ -318,7 +318,10 @@ func tapElement(t *testing.T, ctx context.Context, id string) {
 // TestNoStorage runs the app in a browser whose indexedDB refuses this
 // page (the getter throws SecurityError, as some private windows do): the
 // app still starts, says why nothing is kept, and the first entry that
-// would be saved says it is not.
+// would be saved says it is not. Then, on a page whose storage is full
+// (every write transaction aborts with QuotaExceededError, as the browser
+// reports a full quota), the first save says so in words, names the
+// exception and offers the export.
 func TestNoStorage(t *testing.T) {
 	if testing.Short() {
 		t.Skip("browser test; drop -short to run it")
@@ -326,14 +329,9 @@ func TestNoStorage(t *testing.T) {
 	needChromium(t)
 	m := startServer(t)
 	ctx, _ := newBrowser(t, t.TempDir(), noTierUp())
-	within(t, ctx, 10*time.Second, "refusing storage", chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
-		_, err := cdp.Call(ctx, tg, page.AddScriptToEvaluateOnNewDocument, page.AddScriptToEvaluateOnNewDocumentParams{
-			Source: `Object.defineProperty(window, "indexedDB", {configurable: true, get() {
-				throw new DOMException("The user denied permission to access the database.", "SecurityError");
-			}});`,
-		})
-		return err
-	}))
+	refuse := onNewPage(t, ctx, `Object.defineProperty(window, "indexedDB", {configurable: true, get() {
+		throw new DOMException("The user denied permission to access the database.", "SecurityError");
+	}});`)
 	within(t, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
 	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
 	if e := eval[string](t, ctx, "window.evenbeatStoreError || ''"); !strings.Contains(e, "does not let this page keep data") || !strings.Contains(e, "SecurityError") {
@@ -344,4 +342,49 @@ func TestNoStorage(t *testing.T) {
 	if st := eval[string](t, ctx, "window.evenbeatStatus"); !strings.HasPrefix(st, "Not saved") || !strings.Contains(st, "no storage") {
 		t.Errorf("the saving state with no storage is %q; want it to say nothing is saved", st)
 	}
+
+	// Storage full.
+	within(t, ctx, 10*time.Second, "giving storage back", chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		_, err := cdp.Call(ctx, tg, page.RemoveScriptToEvaluateOnNewDocument, page.RemoveScriptToEvaluateOnNewDocumentParams{Identifier: refuse})
+		return err
+	}))
+	onNewPage(t, ctx, `(() => {
+		const put = IDBObjectStore.prototype.put;
+		const errorOf = Object.getOwnPropertyDescriptor(IDBTransaction.prototype, "error").get;
+		Object.defineProperty(IDBTransaction.prototype, "error", {configurable: true, get() {
+			return this.evenbeatFull || errorOf.call(this);
+		}});
+		IDBObjectStore.prototype.put = function (...args) {
+			const req = put.apply(this, args);
+			this.transaction.evenbeatFull = new DOMException("The quota has been exceeded.", "QuotaExceededError");
+			this.transaction.abort();
+			return req;
+		};
+	})();`)
+	within(t, ctx, 90*time.Second, "opening "+m.URL+" again", chromedpNavigate(m.URL))
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
+	if e := eval[string](t, ctx, "window.evenbeatStoreError || ''"); e != "" {
+		t.Fatalf("the database did not open: %s", e)
+	}
+	slowTapLabel(t, ctx, "Brackenfold (Stephenson) (invented demo)")
+	st := waitValue[string](t, ctx, 30*time.Second, `window.evenbeatStatus.startsWith("Not saved") && window.evenbeatStatus`)
+	t.Logf("storage full: %s", st)
+	for _, want := range []string{"storage for this app is full", "QuotaExceededError", "export"} {
+		if !strings.Contains(st, want) {
+			t.Errorf("the saving state with storage full is %q; want it to say %q", st, want)
+		}
+	}
+}
+
+// onNewPage has the browser run script in every page it opens from now
+// on, before the page's own scripts, and returns the script's identifier.
+func onNewPage(t *testing.T, ctx context.Context, script string) page.ScriptIdentifier {
+	t.Helper()
+	var id page.ScriptIdentifier
+	within(t, ctx, 10*time.Second, "adding a script to new pages", chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		res, err := cdp.Call(ctx, tg, page.AddScriptToEvaluateOnNewDocument, page.AddScriptToEvaluateOnNewDocumentParams{Source: script})
+		id = res.Identifier
+		return err
+	}))
+	return id
 }

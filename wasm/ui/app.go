@@ -159,6 +159,7 @@ type App struct {
 	// The keypad's fields while the target lead is typed, given back after.
 	leadFields []field
 	leadFi     int
+	fieldsFor  fieldsKey // what the reading fields were listed for
 
 	// gen counts changes to the session; readiness is worked out again
 	// only when it, the session or the cylinder changes.
@@ -333,7 +334,7 @@ func (a *App) addSession(s *session.Session) {
 	a.index = append(a.index, e.Key)
 	a.cur = e
 	a.clearPlan()
-	a.prio, a.targetLead = "", nil
+	a.cyl, a.prio, a.targetLead = 0, "", nil
 	a.save()
 	a.put(IndexKey, encodeIndex(a.index))
 }
@@ -779,5 +780,29 @@ func (a *App) showRoundPlan() {
 // roundFields lists round ri's readings of the cylinder shown, in the
 // forms chosen.
 func (a *App) roundFields(ri int) []field {
+	a.fieldsFor = fieldsKey{a.Session(), a.cyl, ri}
 	return measureFields(a.Session(), a.cyl, ri, a.tyreCutOffs, a.lapsForm)
+}
+
+// fieldsKey is the session, cylinder and round the keypad's reading
+// fields were listed for.
+type fieldsKey struct {
+	s       *session.Session
+	cyl, ri int
+}
+
+// syncFields lists the readings again when the fields shown belong to
+// another session, cylinder or round than the one open (a Back through
+// screens of an engine since closed, a cylinder dropped): the latest round
+// of the cylinder shown.
+func (a *App) syncFields() {
+	s := a.Session()
+	if s == nil {
+		return
+	}
+	a.cyl = max(0, min(a.cyl, len(s.Cylinders)-1))
+	if a.fieldsFor == (fieldsKey{s, a.cyl, a.round}) && a.round < len(s.Cylinders[a.cyl].Rounds) && len(a.fields) > 0 {
+		return
+	}
+	a.latestRound()
 }

@@ -82,6 +82,9 @@ func (a *App) keepMarks() {
 func (a *App) formChoice() (label string, act func()) {
 	f := a.fields[a.fi]
 	s := a.Session()
+	if a.cyl >= len(s.Cylinders) || a.round >= len(s.Cylinders[a.cyl].Rounds) {
+		return "", nil
+	}
 	r := s.Cylinders[a.cyl].Rounds[a.round]
 	switch {
 	case f.Step == portMarksStep && r.PortMarks == nil && r.Laps == nil:

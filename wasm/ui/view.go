@@ -70,6 +70,15 @@ func (a *App) layout() *view {
 	}
 	a.updateBanner(lay)
 	switch a.screen {
+	case Measure, Readings, Where:
+		a.syncFields()
+	case Sizes:
+		if s := a.Session(); s != nil && (len(a.fields) == 0 || a.fields[0].Step != "The engine") {
+			a.fields = dimensionFields(s) // back from measuring: the last size
+			a.setField(len(a.fields) - 1)
+		}
+	}
+	switch a.screen {
 	case Engines:
 		a.enginesView(lay)
 	case Gear:
@@ -499,7 +508,7 @@ func (a *App) menuView(l *layouter) {
 	l.button("Cautions", false, func() { a.after = 0; a.navigate(Cautions) })
 	if a.Session() != nil {
 		l.button("All readings", false, func() {
-			if a.fields == nil || a.screen == Sizes {
+			if a.fieldsFor.s != a.Session() || a.fieldsFor.cyl != a.cyl || a.screen == Sizes || a.screen == Lead {
 				a.round = len(a.Session().Cylinders[a.cyl].Rounds) - 1
 				if a.round < 0 {
 					return

@@ -2,7 +2,8 @@
 // static files for any HTTPS host.
 //
 // "serve" builds the WebAssembly program with the Go toolchain this command
-// runs under (GOOS=js GOARCH=wasm, -trimpath, stripped), caching the result
+// runs under (GOOS=js GOARCH=wasm, -trimpath, stripped, no inlining in
+// this module's packages), caching the result
 // under the user cache directory keyed by a hash of its inputs, copies
 // wasm_exec.js from the same Go release, draws the icons with render, and
 // serves the site with the right MIME types and precompressed gzip.

@@ -23,5 +23,6 @@
 // unusual; Readiness says what a plan for a cylinder still lacks;
 // Observations turns the readings into the list a fitter works on.
 //
-// The package imports only the standard library and evenbeat/setting.
+// The package imports only the standard library, evenbeat/setting and
+// evenbeat/internal/jsonx.
 package session

@@ -160,6 +160,9 @@ type App struct {
 	leadFields []field
 	leadFi     int
 	fieldsFor  fieldsKey // what the reading fields were listed for
+	needK      needKey   // the plan card's height, worked out for needK
+	needV      float64
+	paths      map[pathKey]render.Path // the buttons' outlines, kept between frames
 
 	// gen counts changes to the session; readiness is worked out again
 	// only when it, the session or the cylinder changes.

@@ -73,7 +73,7 @@ func (a *App) drawTarget(c render.Canvas, t Target) {
 // chosen option (filled) stands out.
 func (a *App) drawPlain(c render.Canvas, t Target) {
 	th := a.theme
-	rr := render.RoundRect(t.Rect, 10) // one path for the fill and the frame
+	rr := a.roundRect(t.Rect, 10) // one path for the fill and the frame
 	c.Fill(rr, render.FillStyle{Color: th.Surface})
 	c.Stroke(rr, render.LineStyle{Color: th.Grid, Width: 1.5})
 	size := float64(render.ButtonSize)
@@ -108,7 +108,7 @@ func (a *App) statusColour() color.RGBA {
 // typed.
 func (a *App) drawEntry(c render.Canvas, r render.Rect) {
 	th := a.theme
-	rr := render.RoundRect(r, 8)
+	rr := a.roundRect(r, 8)
 	c.Fill(rr, render.FillStyle{Color: th.Surface})
 	c.Stroke(rr, render.LineStyle{Color: th.Accent, Width: 2})
 	text, col := a.text, th.Ink
@@ -167,4 +167,29 @@ func fitLabel(label string, size, w float64) string {
 		head = head[:len(head)-1]
 	}
 	return strings.TrimRight(string(head), " ,") + "..." + tail
+}
+
+// roundRect returns render.RoundRect(r, rad), kept from frame to frame:
+// the buttons stand still while the what-if is dragged, so their outlines
+// are built once. The paths are never changed after they are built.
+func (a *App) roundRect(r render.Rect, rad float64) render.Path {
+	k := pathKey{r, rad}
+	if p, ok := a.paths[k]; ok {
+		return p
+	}
+	if a.paths == nil || len(a.paths) >= maxPaths {
+		a.paths = map[pathKey]render.Path{} // a new screen: start afresh
+	}
+	p := render.RoundRect(r, rad)
+	a.paths[k] = p
+	return p
+}
+
+// maxPaths bounds the outlines kept: more than any screen has buttons.
+const maxPaths = 96
+
+// pathKey is what a kept outline was built for.
+type pathKey struct {
+	r   render.Rect
+	rad float64
 }

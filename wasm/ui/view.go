@@ -145,14 +145,27 @@ func (a *App) scrolled(v *view) {
 // cardNeed is the height the plan screen's card needs in box: the balance
 // card and the plan's steps have a height of their own; the curves and
 // the motion fill any box.
+// It is worked out once per model, tab and box.
 func (a *App) cardNeed(box render.Rect) float64 {
-	switch m := a.shownModel(); a.diagram {
-	case render.BalanceDiagram:
-		return render.LayoutBalance(box, m).NeedH
-	case render.PlanDiagram:
-		return render.LayoutPlan(box, m).NeedH
+	k := needKey{a.shownModel(), a.diagram, box}
+	if k == a.needK {
+		return a.needV
 	}
-	return 0
+	a.needK, a.needV = k, 0
+	switch a.diagram {
+	case render.BalanceDiagram:
+		a.needV = render.LayoutBalance(box, k.m).NeedH
+	case render.PlanDiagram:
+		a.needV = render.LayoutPlan(box, k.m).NeedH
+	}
+	return a.needV
+}
+
+// needKey is what the plan card's height was worked out for.
+type needKey struct {
+	m   *render.Model
+	d   render.Diagram
+	box render.Rect
 }
 
 // layouter stacks a screen's parts down the page.

@@ -31,24 +31,39 @@ type ebitenCanvas struct {
 
 	white  *ebiten.Image // a white pixel, the source of every fill
 	glyphs map[glyphKey]*glyph
-	page   *glyphPage // the page new glyphs go into
+	page   *glyphPage    // the page new glyphs go into
+	placed []placedGlyph // the glyphs of the Text call being drawn
 	vs     []ebiten.Vertex
 	is     []uint16
 }
 
 // glyphKey names one cached glyph: its rune, its em size in device pixels
-// (in 1/64 px) and its weight.
+// (in 1/64 px), its weight, and the phase of its pen point within a pixel
+// across, in quarters (as the PNG backend's masks, so letter spacing at
+// one device pixel per CSS pixel is even).
 type glyphKey struct {
 	r      rune
 	size64 int
 	bold   bool
+	fx     int
+}
+
+// glyphPhases is how many pen positions across one pixel glyphs are made
+// for.
+const glyphPhases = 4
+
+// placedGlyph is a glyph to draw: its cache key and the device pixel that
+// holds its pen point.
+type placedGlyph struct {
+	key    glyphKey
+	px, py int
 }
 
 // glyph is one filled glyph, a part of a glyph page: img is nil for blank
 // glyphs (space).
 type glyph struct {
 	img *ebiten.Image
-	off image.Point // top-left of img relative to the pen on the baseline
+	off image.Point // top-left of img from the device pixel holding the pen point
 }
 
 func newEbitenCanvas() *ebitenCanvas {
@@ -153,28 +168,37 @@ func (c *ebitenCanvas) Stroke(p render.Path, s render.LineStyle) {
 }
 
 // Text draws one line of text anchored at at: each glyph from the cache,
-// its pen point (render.PlaceGlyphs) rounded to a whole device pixel.
+// its pen point (render.PlaceGlyphs) taken to a quarter pixel across and a
+// whole pixel down.
 func (c *ebitenCanvas) Text(at render.Point, text string, s render.TextStyle) {
 	size := s.Size
 	if !(size > 0) || math.IsInf(size, 0) {
 		size = render.DefaultTextSize
 	}
 	size64 := int(math.Round(size * c.scale * 64))
-	placed := render.PlaceGlyphs(at, text, s)
-	c.cacheGlyphs(placed, size64, s.Bold)
-	var op ebiten.DrawImageOptions
-	op.ColorScale.ScaleWithColor(s.Color)
-	for _, pg := range placed {
+	c.placed = c.placed[:0]
+	for _, pg := range render.PlaceGlyphs(at, text, s) {
 		x, y := pg.At.X*c.scale, pg.At.Y*c.scale
-		if math.IsNaN(x) || math.IsNaN(y) || math.Abs(x) > 1<<20 || math.Abs(y) > 1<<20 {
+		if !(math.Abs(x) <= 1<<20 && math.Abs(y) <= 1<<20) {
 			continue
 		}
-		g := c.glyphs[glyphKey{r: pg.Rune, size64: size64, bold: s.Bold}]
+		qx := int(math.Round(x * glyphPhases))
+		px, fx := qx/glyphPhases, qx%glyphPhases
+		if fx < 0 {
+			px, fx = px-1, fx+glyphPhases
+		}
+		c.placed = append(c.placed, placedGlyph{key: glyphKey{r: pg.Rune, size64: size64, bold: s.Bold, fx: fx}, px: px, py: int(math.Round(y))})
+	}
+	c.cacheGlyphs(c.placed)
+	var op ebiten.DrawImageOptions
+	op.ColorScale.ScaleWithColor(s.Color)
+	for _, pg := range c.placed {
+		g := c.glyphs[pg.key]
 		if g == nil || g.img == nil {
 			continue
 		}
 		op.GeoM.Reset()
-		op.GeoM.Translate(math.Round(x)+float64(g.off.X), math.Round(y)+float64(g.off.Y))
+		op.GeoM.Translate(float64(pg.px+g.off.X), float64(pg.py+g.off.Y))
 		c.dst.DrawImage(g.img, &op)
 	}
 }
@@ -209,23 +233,24 @@ func (p *glyphPage) place(w, h int) (image.Point, bool) {
 // glyphs go in one fill, since every anti-aliased fill of an image costs
 // ebiten an offscreen of its own. A glyph wider or taller than a page is
 // left blank.
-func (c *ebitenCanvas) cacheGlyphs(placed []render.PlacedGlyph, size64 int, bold bool) {
-	size := float64(size64) / 64
+func (c *ebitenCanvas) cacheGlyphs(placed []placedGlyph) {
 	var batch render.Path
 	white := color.RGBA{0xff, 0xff, 0xff, 0xff}
 	for _, pg := range placed {
-		key := glyphKey{r: pg.Rune, size64: size64, bold: bold}
+		key := pg.key
 		if _, ok := c.glyphs[key]; ok {
 			continue
 		}
 		g := &glyph{}
 		c.glyphs[key] = g
-		b := render.GlyphBounds(pg.Rune, size, bold)
+		size := float64(key.size64) / 64
+		b := render.GlyphBounds(key.r, size, key.bold)
 		if !(b.W() > 0 && b.H() > 0) {
 			continue
 		}
-		g.off = image.Pt(int(math.Floor(b.Min.X))-1, int(math.Floor(b.Min.Y))-1)
-		w, h := int(math.Ceil(b.Max.X))+1-g.off.X, int(math.Ceil(b.Max.Y))+1-g.off.Y
+		pen := float64(key.fx) / glyphPhases
+		g.off = image.Pt(int(math.Floor(pen+b.Min.X))-1, int(math.Floor(b.Min.Y))-1)
+		w, h := int(math.Ceil(pen+b.Max.X))+1-g.off.X, int(math.Ceil(b.Max.Y))+1-g.off.Y
 		if c.page == nil {
 			c.page = &glyphPage{img: ebiten.NewImage(glyphPageSize, glyphPageSize)}
 		}
@@ -240,8 +265,8 @@ func (c *ebitenCanvas) cacheGlyphs(placed []render.PlacedGlyph, size64 int, bold
 			at, _ = c.page.place(w, h)
 		}
 		g.img = c.page.img.SubImage(image.Rectangle{Min: at, Max: at.Add(image.Pt(w, h))}).(*ebiten.Image)
-		origin := render.Point{X: float64(at.X - g.off.X), Y: float64(at.Y - g.off.Y)}
-		batch = append(batch, render.GlyphPath(pg.Rune, size, bold, origin)...)
+		origin := render.Point{X: pen + float64(at.X-g.off.X), Y: float64(at.Y - g.off.Y)}
+		batch = append(batch, render.GlyphPath(key.r, size, key.bold, origin)...)
 	}
 	if len(batch) > 0 {
 		c.fill(c.page.img, batch, 1, white)

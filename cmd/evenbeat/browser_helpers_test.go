@@ -140,7 +140,7 @@ func waitValue[T any](t testing.TB, ctx context.Context, d time.Duration, expr s
 // and decodes its value.
 func eval[T any](t testing.TB, ctx context.Context, expr string) T {
 	t.Helper()
-	tctx, cancel := context.WithTimeout(ctx, 30*time.Second)
+	tctx, cancel := context.WithTimeout(ctx, 90*time.Second)
 	defer cancel()
 	v, err := chromedp.Run(tctx, chromedp.Evaluate[T](expr, chromedp.EvalAwaitPromise))
 	if err != nil {
@@ -149,23 +149,74 @@ func eval[T any](t testing.TB, ctx context.Context, expr string) T {
 	return v
 }
 
+// waitQuiet polls a JavaScript condition until it holds, without logging:
+// for the many small waits of a typed round.
+func waitQuiet(t testing.TB, ctx context.Context, d time.Duration, cond string) {
+	t.Helper()
+	tctx, cancel := context.WithTimeout(ctx, d+5*time.Second)
+	defer cancel()
+	if _, err := chromedp.Run(tctx, chromedp.Poll[chromedp.Void](cond, chromedp.WithPollingTimeout(d), chromedp.WithPollingInterval(10*time.Millisecond))); err != nil {
+		t.Fatalf("waiting for %s: %v", cond, err)
+	}
+}
+
+// touchEvent sends one touch event of one finger at (x, y) CSS px (no point for
+// the end of a touch).
+func touchEvent(typ input.DispatchTouchEventType, x, y float64) chromedp.Action[chromedp.Void] {
+	return chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		pts := []*input.TouchPoint{{X: x, Y: y}}
+		if typ == input.DispatchTouchEventTypeTouchEnd {
+			pts = []*input.TouchPoint{}
+		}
+		_, err := cdp.Call(ctx, tg, input.DispatchTouchEvent, input.DispatchTouchEventParams{Type: typ, TouchPoints: pts})
+		return err
+	})
+}
+
 // tap presses one finger at (x, y) CSS px, holds it for hold, and lifts it.
 func tap(t testing.TB, ctx context.Context, x, y float64, hold time.Duration) {
 	t.Helper()
-	within(t, ctx, 10*time.Second+hold, fmt.Sprintf("tapping at %.0f,%.0f", x, y),
-		chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
-			_, err := cdp.Call(ctx, tg, input.DispatchTouchEvent, input.DispatchTouchEventParams{
-				Type: input.DispatchTouchEventTypeTouchStart, TouchPoints: []*input.TouchPoint{{X: x, Y: y}},
-			})
-			return err
-		}),
+	// The limit only guards against a hung browser: on the shared test
+	// machine a touch event may wait seconds for the software GPU.
+	within(t, ctx, 60*time.Second+hold, fmt.Sprintf("tapping at %.0f,%.0f", x, y),
+		touchEvent(input.DispatchTouchEventTypeTouchStart, x, y),
 		chromedp.Sleep(hold),
-		chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
-			_, err := cdp.Call(ctx, tg, input.DispatchTouchEvent, input.DispatchTouchEventParams{
-				Type: input.DispatchTouchEventTypeTouchEnd, TouchPoints: []*input.TouchPoint{},
-			})
-			return err
-		}))
+		touchEvent(input.DispatchTouchEventTypeTouchEnd, x, y))
+}
+
+// readyForTouch waits until the page takes touch events, and reports how
+// long that took. After the first frame the software GPU here stays busy
+// for a while (about 20 s measured on the shared 2-core machine, with
+// script evaluation answering within milliseconds meanwhile), and the
+// browser holds the first touch event until it is done; later touches
+// pass in tens of milliseconds. A touch in the corner, on no target,
+// waits that out, so the taps that follow are timed on their own.
+func readyForTouch(t testing.TB, ctx context.Context) time.Duration {
+	t.Helper()
+	start := time.Now()
+	within(t, ctx, 120*time.Second, "the first touch",
+		touchEvent(input.DispatchTouchEventTypeTouchStart, 1, phoneH-1),
+		touchEvent(input.DispatchTouchEventTypeTouchEnd, 1, phoneH-1))
+	d := time.Since(start)
+	t.Logf("the page took its first touch after %v", d.Round(time.Millisecond))
+	return d
+}
+
+// fingerStep is the time between a moving finger's touch events: a phone's
+// touch screen reports about 60 times a second.
+const fingerStep = 16 * time.Millisecond
+
+// drag puts a finger down at (x0, y0), moves it to (x1, y1) in steps
+// events fingerStep apart, and lifts it.
+func drag(t testing.TB, ctx context.Context, x0, y0, x1, y1 float64, steps int) {
+	t.Helper()
+	acts := []chromedp.Action[chromedp.Void]{touchEvent(input.DispatchTouchEventTypeTouchStart, x0, y0)}
+	for i := 1; i <= steps; i++ {
+		f := float64(i) / float64(steps)
+		acts = append(acts, chromedp.Sleep(fingerStep), touchEvent(input.DispatchTouchEventTypeTouchMove, x0+f*(x1-x0), y0+f*(y1-y0)))
+	}
+	acts = append(acts, touchEvent(input.DispatchTouchEventTypeTouchEnd, x1, y1))
+	within(t, ctx, 30*time.Second, fmt.Sprintf("dragging from %.0f,%.0f to %.0f,%.0f", x0, y0, x1, y1), acts...)
 }
 
 // screenshot captures the viewport at device resolution and keeps a copy in

@@ -1,8 +1,24 @@
 package main
 
 import (
+	"context"
+	"math"
+	"net/http"
+	"net/http/httptest"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"sort"
+	"strconv"
+	"strings"
 	"testing"
 	"time"
+
+	"github.com/chromedp/cdproto/input"
+	"github.com/chromedp/chromedp"
+
+	"evenbeat/render"
+	"evenbeat/wasm/ui"
 )
 
 // BenchmarkFirstFrame prints the figures of the browser app: main.wasm raw
@@ -44,4 +60,240 @@ func BenchmarkFirstFrame(b *testing.B) {
 	b.ReportMetric(float64(start.Milliseconds())/float64(b.N), "ms-go-start-cold")
 	b.ReportMetric(float64(cold.Milliseconds())/float64(b.N), "ms-first-frame-cold")
 	b.ReportMetric(float64(warm.Milliseconds())/float64(b.N), "ms-first-frame-warm")
+}
+
+// serveBare builds the bare ebiten app (testdata/bare) with the app's
+// toolchain and flags and serves it with the same wasm_exec.js on a free
+// loopback port, from a page that gives its canvas the whole body as the
+// app's page does. It returns the page's address and the wasm's size.
+func serveBare(b *testing.B) (string, int) {
+	b.Helper()
+	tc, err := defaultFinder().find()
+	if err != nil {
+		b.Fatal(err)
+	}
+	root, err := moduleRoot(".")
+	if err != nil {
+		b.Fatal(err)
+	}
+	out := filepath.Join(b.TempDir(), "bare.wasm")
+	args := append([]string{"build"}, wasmBuildFlags()...)
+	cmd := exec.Command(tc.Go, append(args, "-o", out, "./cmd/evenbeat/testdata/bare")...)
+	cmd.Dir, cmd.Env = root, wasmEnv()
+	if msg, err := cmd.CombinedOutput(); err != nil {
+		b.Fatalf("building the bare app: %v\n%s", err, msg)
+	}
+	wasm, err := os.ReadFile(out)
+	if err != nil {
+		b.Fatal(err)
+	}
+	support, err := os.ReadFile(tc.wasmExecPath())
+	if err != nil {
+		b.Fatal(err)
+	}
+	const page = `<!doctype html><html><head><meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<style>html, body { margin: 0; padding: 0; width: 100%; height: 100%; overflow: hidden; touch-action: none; }</style>
+</head><body><script src="wasm_exec.js"></script><script>
+const go = new Go();
+WebAssembly.instantiateStreaming(fetch("main.wasm"), go.importObject).then(r => go.run(r.instance));
+</script></body></html>`
+	files := map[string]struct {
+		typ  string
+		data []byte
+	}{
+		"/":             {"text/html; charset=utf-8", []byte(page)},
+		"/wasm_exec.js": {"text/javascript; charset=utf-8", support},
+		"/main.wasm":    {"application/wasm", wasm},
+	}
+	srv := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		f, ok := files[r.URL.Path]
+		if !ok {
+			http.NotFound(w, r)
+			return
+		}
+		w.Header().Set("Content-Type", f.typ)
+		w.Write(f.data)
+	}))
+	b.Cleanup(srv.Close)
+	return srv.URL + "/", len(wasm)
+}
+
+// drawsNow is the page's count of frames drawn and its clock (ms).
+const drawsNowJS = `[window.evenbeatDraws || 0, performance.now()]`
+
+// dragRate keeps a finger dragging back and forth between x0 and x1 at
+// height y for d, with touch events fingerStep apart, and returns the
+// frames the page drew per second meanwhile, by the page's own count and
+// clock.
+func dragRate(b *testing.B, ctx context.Context, x0, x1, y float64, d time.Duration) float64 {
+	b.Helper()
+	within(b, ctx, 30*time.Second, "putting a finger down", touchEvent(input.DispatchTouchEventTypeTouchStart, x0, y))
+	// Past the tap slop first, so the app sees a drag from the start.
+	within(b, ctx, 30*time.Second, "moving the finger", touchEvent(input.DispatchTouchEventTypeTouchMove, x0+(x1-x0)/4, y))
+	first := eval[[]float64](b, ctx, drawsNowJS)
+	const sweep = 40 // events from one end to the other
+	start := time.Now()
+	for i := 0; time.Since(start) < d; i++ {
+		f := float64(i%(2*sweep)) / sweep
+		if f > 1 {
+			f = 2 - f
+		}
+		within(b, ctx, 30*time.Second, "moving the finger", chromedp.Sleep(fingerStep), touchEvent(input.DispatchTouchEventTypeTouchMove, x0+f*(x1-x0), y))
+	}
+	last := eval[[]float64](b, ctx, drawsNowJS)
+	within(b, ctx, 30*time.Second, "lifting the finger", touchEvent(input.DispatchTouchEventTypeTouchEnd, x1, y))
+	if len(first) != 2 || len(last) != 2 || last[1] <= first[1] {
+		b.Fatalf("frame counts %v then %v", first, last)
+	}
+	return (last[0] - first[0]) / (last[1] - first[1]) * 1000
+}
+
+// whatIfSlider finds, natively, where the plan's Balance card puts its
+// what-if slider for the demo session on the phone: the band under the
+// "What if" button where a drag changes the amount. It returns the band's
+// ends and middle height (CSS px).
+func whatIfSlider(b *testing.B) (x0, x1, y float64) {
+	b.Helper()
+	src, err := os.ReadFile(demoSessionFile)
+	if err != nil {
+		b.Fatal(err)
+	}
+	a := ui.New(ui.Options{})
+	a.Resize(phoneW, phoneH)
+	if err := a.Import(src); err != nil {
+		b.Fatal(err)
+	}
+	a.Update()
+	label := func(prefix string) (render.Rect, string) {
+		for _, tg := range a.Targets() {
+			if strings.HasPrefix(tg.Label, prefix) {
+				return tg.Rect, tg.Label
+			}
+		}
+		b.Fatalf("no target %q on the plan", prefix)
+		return render.Rect{}, ""
+	}
+	r, _ := label("Balance")
+	a.Handle(ui.Intent{Kind: ui.Tap, At: render.Point{X: (r.Min.X + r.Max.X) / 2, Y: (r.Min.Y + r.Max.Y) / 2}})
+	a.Update()
+	btn, before := label("What if")
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for yy := btn.Max.Y; yy < btn.Max.Y+120; yy += 2 {
+		// A drag at the slider's left end sets the least amount; the
+		// label says the amount.
+		a.Handle(ui.Intent{Kind: ui.Drag, At: render.Point{X: btn.Min.X + 1, Y: yy}, Delta: render.Point{X: 1}})
+		a.Update()
+		if _, now := label("What if"); now != before {
+			lo, hi = math.Min(lo, yy), math.Max(hi, yy)
+			if err := a.SetWhatIf(0, 0); err != nil { // back to where it was, for the next probe
+				b.Fatal(err)
+			}
+			_, before = label("What if")
+		}
+	}
+	if math.IsInf(lo, 1) {
+		b.Fatal("no drag under the What if button moves the what-if amount")
+	}
+	return btn.Min.X + 8, btn.Max.X - 8, (lo + hi) / 2
+}
+
+// BenchmarkFrameRate prints the frames really drawn per second on the
+// busiest screen, the plan's Balance card while a finger drags the
+// what-if slider (each move changes the step's amount, rebuilds the model
+// and redraws; wasm/ui's BenchmarkFramePlan and BenchmarkWhatIf make it the
+// costliest frame), against the bare ebiten app (testdata/bare) under the
+// same drag, both as a 390x844 phone at 3x with touch in headless Chromium
+// with WebAssembly tier-up on. Each run drags for 5 s after a 2 s warm-up.
+// Run it alone with
+//
+//	go test -run '^$' -bench FrameRate -benchtime 3x ./cmd/evenbeat
+//
+// Software WebGL on a shared 2-core machine is far slower than a phone's
+// GPU: compare the ratio, not the absolute rates.
+func BenchmarkFrameRate(b *testing.B) {
+	needChromium(b)
+	m := startServer(b)
+	bareURL, _ := serveBare(b)
+	src, err := os.ReadFile(demoSessionFile)
+	if err != nil {
+		b.Fatal(err)
+	}
+	x0, x1, y := whatIfSlider(b)
+	const warm, run = 2 * time.Second, 5 * time.Second
+
+	appCtx, _ := newBrowser(b, b.TempDir())
+	within(b, appCtx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
+	waitFor(b, appCtx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
+	eval[bool](b, appCtx, "(window.evenbeatImport("+strconv.Quote(string(src))+"), true)")
+	waitFor(b, appCtx, 90*time.Second, `window.evenbeatDrawn === "plan"`)
+	bal := waitValue[[]float64](b, appCtx, 30*time.Second, `(t => t && [t.X + t.W/2, t.Y + t.H/2])(JSON.parse(window.evenbeatTargets).find(t => t.Label === "Balance"))`)
+	tap(b, appCtx, bal[0], bal[1], 60*time.Millisecond)
+	waitFor(b, appCtx, 30*time.Second, `JSON.parse(window.evenbeatTargets).some(t => t.Label.startsWith("What if"))`)
+
+	bareCtx, _ := newBrowser(b, b.TempDir())
+	within(b, bareCtx, 90*time.Second, "opening the bare app", chromedpNavigate(bareURL))
+	waitFor(b, bareCtx, 90*time.Second, `window.evenbeatDraws > 0`)
+
+	dragRate(b, appCtx, x0, x1, y, warm)
+	dragRate(b, bareCtx, x0, x1, y, warm)
+	var app, bare float64
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		a := dragRate(b, appCtx, x0, x1, y, run)
+		if !strings.HasPrefix(eval[string](b, appCtx, "window.evenbeatDrawn"), "plan") {
+			b.Fatal("the drag left the plan screen")
+		}
+		r := dragRate(b, bareCtx, x0, x1, y, run)
+		b.Logf("run %d: app %.1f frames/s, bare app %.1f frames/s", i+1, a, r)
+		app += a
+		bare += r
+	}
+	b.StopTimer()
+	if bare == 0 {
+		b.Fatal("the bare app drew no frames")
+	}
+	b.ReportMetric(app/float64(b.N), "app-frames/s")
+	b.ReportMetric(bare/float64(b.N), "bare-frames/s")
+	b.ReportMetric(app/bare, "app/bare")
+}
+
+// BenchmarkPlanLatency prints how long the app takes inside Chromium to
+// fit and plan the demo session (window.evenbeatPlanMs, the app's own
+// measure of its last fit + plan) when the session file is imported: the
+// median and the worst of 5 imports per run (goal: under 16 ms). Run it
+// alone with
+//
+//	go test -run '^$' -bench PlanLatency -benchtime 3x ./cmd/evenbeat
+func BenchmarkPlanLatency(b *testing.B) {
+	needChromium(b)
+	m := startServer(b)
+	src, err := os.ReadFile(demoSessionFile)
+	if err != nil {
+		b.Fatal(err)
+	}
+	ctx, _ := newBrowser(b, b.TempDir())
+	within(b, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
+	waitFor(b, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
+	var ms []float64
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		for range 5 {
+			// Clear what the page shows, so the wait sees this import's
+			// answer and not the last one's.
+			eval[bool](b, ctx, `(window.evenbeatState = "", window.evenbeatPlanMs = undefined, true)`)
+			eval[bool](b, ctx, "(window.evenbeatImport("+strconv.Quote(string(src))+"), true)")
+			waitQuiet(b, ctx, 60*time.Second, `window.evenbeatState === "plan" && window.evenbeatPlanMs !== undefined`)
+			v := eval[float64](b, ctx, "window.evenbeatPlanMs")
+			if v < 0 {
+				b.Skip("the app does not report its plan time yet (window.evenbeatPlanMs is -1)")
+			}
+			ms = append(ms, v)
+		}
+	}
+	b.StopTimer()
+	sort.Float64s(ms)
+	b.Logf("plan ms, sorted: %v", ms)
+	b.ReportMetric(ms[len(ms)/2], "plan-ms-median")
+	b.ReportMetric(ms[len(ms)-1], "plan-ms-worst")
 }

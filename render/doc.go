@@ -15,8 +15,9 @@
 //   - Outline: the one place a stroke becomes a fillable outline (round
 //     joins and caps, dashes applied), so every backend draws the same
 //     lines; Arc, Circle, RectPath, RoundRect build paths.
-//   - Text measurement with the one embedded font (package render/font):
-//     NewFace, TextWidth, TextOrigin, TextBox, Wrap.
+//   - Text measurement and outlines from the glyph tables in render/font
+//     (Go Regular and Go Bold): TextWidth, TextOrigin, TextBox, Wrap,
+//     GlyphPath, TextPath, PlaceGlyphs, GlyphBounds.
 //   - Theme: Light and Dark palettes and the line and marker styles that
 //     tell the front and back ends apart by shape as well as colour.
 //   - Plot pieces shared by diagrams: Axes (scales, grid, ticks, sampled
@@ -49,12 +50,13 @@
 // writes the report of a session as a PNG. The browser's ebiten backend
 // lives with the app.
 //
-// Text is the Go font family (render/font/LICENSE) rasterised with
-// Freetype-Go, used under the FreeType License (render/font/FTL.txt):
-// portions of this software are copyright 2010 The FreeType Project
-// (www.freetype.org). All rights reserved.
+// Text is the Go font family (render/font/LICENSE), drawn from outlines
+// generated once from its TrueType files; Freetype-Go reads those files
+// only in the tests that generate and check the tables, under the FreeType
+// License (render/font/FTL.txt): portions of this software are copyright
+// 2010 The FreeType Project (www.freetype.org). All rights reserved.
 //
-// Imports: setting and its subpackages session and plan, golang.org/x/image and github.com/golang/freetype, and
+// Imports: setting and its subpackages session and plan, render/font, golang.org/x/image, and
 // the standard library. Never ebiten or syscall/js: render must build and
 // test natively with no display.
 package render

@@ -399,21 +399,14 @@ func (a *angles) portMarks(r Round) ([2]float64, bool) {
 }
 
 // edgesIn returns the steam edges (normalised gauge readings, front then
-// back) that hold in round ri: that round's port marks or laps, or those of
-// the latest earlier round if the valve has not been moved on its spindle
-// since; from is the round they were taken in.
+// back) that hold in round ri (see Cylinder.MarksFor); from is the round
+// they were taken in.
 func (a *angles) edgesIn(ri int) (edges [2]float64, from int, ok bool) {
-	for k := ri; k >= 0; k-- {
-		if edges, ok = a.portMarks(a.c.Rounds[k]); ok {
-			return edges, k, true
-		}
-		for _, ch := range a.c.Rounds[k].AdjustmentsBefore {
-			if ch.Kind == ValveOnSpindle {
-				return edges, 0, false
-			}
-		}
+	if from, ok = a.c.MarksFor(ri); !ok {
+		return edges, 0, false
 	}
-	return edges, 0, false
+	edges, ok = a.portMarks(a.c.Rounds[from])
+	return edges, from, ok
 }
 
 // setReverser fills the reverser fields of an observation.

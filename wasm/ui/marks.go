@@ -10,30 +10,12 @@ import (
 // portMarksStep is the heading of the port marks' fields.
 const portMarksStep = "Port marks"
 
-// marksOf reports whether a round has its own steam edges: port marks or
-// laps.
-func marksOf(r session.Round) bool { return r.PortMarks != nil || r.Laps != nil }
-
 // keptMarks finds the earlier round whose port marks still hold in round
-// ri of cylinder c: the latest earlier round with marks, as long as the
-// valve has not been moved on its spindle since. Moving the valve on its
-// spindle moves the steam edges as the gauge on the spindle sees them;
-// turning an eccentric or changing a rod's length moves the spindle and
-// valve together and leaves the marks where they were (the session file's
-// rule, docs/session-format.md, "rounds[]"). moved is the round (counting
-// from 0) whose spindle change ended the search, or -1.
+// ri of cylinder c, by the session file's rule (session.Cylinder.KeptMarks:
+// until the valve is moved on its spindle); moved is the round whose
+// spindle change ended the search, or -1.
 func keptMarks(c *session.Cylinder, ri int) (from, moved int, ok bool) {
-	for k := ri; k > 0; k-- {
-		for _, ch := range c.Rounds[k].AdjustmentsBefore {
-			if ch.Kind == session.ValveOnSpindle {
-				return 0, k, false
-			}
-		}
-		if marksOf(c.Rounds[k-1]) {
-			return k - 1, -1, true
-		}
-	}
-	return 0, -1, false
+	return c.KeptMarks(ri)
 }
 
 // marksAdvice is the sentence and the one-tap choice the port marks' step
@@ -49,7 +31,7 @@ func (a *App) marksAdvice() (say, label string) {
 	if r := c.Rounds[a.round]; r.Laps != nil && r.Laps.Note == "" || r.PortMarks != nil && r.PortMarks.Note == "" { // its own, all taken
 		return "", ""
 	}
-	from, moved, ok := keptMarks(c, a.round)
+	from, moved, ok := c.KeptMarks(a.round)
 	if !ok {
 		if moved >= 0 {
 			return fmt.Sprintf("Take the port marks again: the valve was moved on its spindle before round %d, and that moves the marks as the gauge sees them.", moved+1), ""

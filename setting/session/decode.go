@@ -24,10 +24,11 @@ func Decode(r io.Reader) (*Session, error) {
 	if err != nil {
 		return nil, err
 	}
-	if err := checkHeader(root); err != nil {
+	version, err := checkHeader(root)
+	if err != nil {
 		return nil, err
 	}
-	d := &decoder{}
+	d := &decoder{version: version}
 	s := d.session(root)
 	if d.err != nil {
 		return nil, d.err
@@ -36,44 +37,46 @@ func Decode(r io.Reader) (*Session, error) {
 }
 
 // checkHeader refuses files that are not sessions or are of another version,
-// before any other field is looked at.
-func checkHeader(root *node) error {
+// before any other field is looked at; it returns the file's version.
+func checkHeader(root *node) (int, error) {
 	if root.kind != nodeObject {
-		return userError("", fmt.Sprintf("A session file is one JSON object {...}; this file holds %s.", root.describe()))
+		return 0, userError("", fmt.Sprintf("A session file is one JSON object {...}; this file holds %s.", root.describe()))
 	}
 	f := root.get("format")
 	switch {
 	case f == nil:
-		return userError("format", "This file has no \"format\" field, so it is not an Evenbeat session file (one starts with \"format\": \"evenbeat-session\").")
+		return 0, userError("format", "This file has no \"format\" field, so it is not an Evenbeat session file (one starts with \"format\": \"evenbeat-session\").")
 	case f.kind != nodeString:
-		return userError("format", fmt.Sprintf("The format must be the text \"evenbeat-session\", got %s.", f.describe()))
+		return 0, userError("format", fmt.Sprintf("The format must be the text \"evenbeat-session\", got %s.", f.describe()))
 	case f.text != Format:
 		if strings.HasPrefix(f.text, "evenbeat-") {
 			kind := strings.TrimPrefix(f.text, "evenbeat-")
-			return userError("format", fmt.Sprintf("This is an Evenbeat %s file, not a session; open it where %s files are read.", kind, kind))
+			return 0, userError("format", fmt.Sprintf("This is an Evenbeat %s file, not a session; open it where %s files are read.", kind, kind))
 		}
-		return userError("format", fmt.Sprintf("The format %q is not one Evenbeat reads; a session file says \"evenbeat-session\".", f.text))
+		return 0, userError("format", fmt.Sprintf("The format %q is not one Evenbeat reads; a session file says \"evenbeat-session\".", f.text))
 	}
 	v := root.get("version")
 	if v == nil {
-		return userError("version", "The file has no \"version\" field; a session file says which version of the format it uses (\"version\": 1).")
+		return 0, userError("version", "The file has no \"version\" field; a session file says which version of the format it uses (\"version\": 1).")
 	}
 	n, err := strconv.Atoi(v.text)
 	if v.kind != nodeNumber || err != nil {
-		return userError("version", fmt.Sprintf("The version must be a whole number, got %s.", v.describe()))
+		return 0, userError("version", fmt.Sprintf("The version must be a whole number, got %s.", v.describe()))
 	}
 	switch {
 	case n > Version:
-		return userError("version", fmt.Sprintf("This file was written by a newer Evenbeat (session version %d); this version reads version %d. Update the app.", n, Version))
+		return 0, userError("version", fmt.Sprintf("This file was written by a newer Evenbeat (session version %d); this version reads versions 1 to %d. Update the app.", n, Version))
 	case n < 1:
-		return userError("version", fmt.Sprintf("Version %d is not a session version; versions start at 1.", n))
+		return 0, userError("version", fmt.Sprintf("Version %d is not a session version; versions start at 1.", n))
 	}
-	return nil
+	return n, nil
 }
 
 // decoder turns the tree into a Session, keeping the first error.
 type decoder struct {
 	err *setting.Error
+	// version is the file's version.
+	version int
 	// info holds the engine's facts once the engine object is read (the
 	// cylinder's own, with its differences, while its rounds are read).
 	info specInfo
@@ -110,7 +113,7 @@ func (d *decoder) object(n *node, path, what string, allowed ...string) obj {
 			if near := nearest(k, allowed); near != "" {
 				hint = fmt.Sprintf(" (did you mean %q?)", near)
 			}
-			d.fail(joinPath(path, k), "This field is not part of %s in a version %d session file; remove it or correct its name%s.", what, Version, hint)
+			d.fail(joinPath(path, k), "This field is not part of %s in a version %d session file; remove it or correct its name%s.", what, d.version, hint)
 			return o
 		}
 	}
@@ -326,7 +329,11 @@ const (
 )
 
 func (d *decoder) session(root *node) *Session {
-	o := d.object(root, "", "a session", "format", "version", "name", "invented", "note", "display_unit", "engine", "measuring", "adjustments", "cylinders")
+	keys := []string{"format", "version", "name", "invented", "note", "display_unit", "engine", "measuring", "adjustments", "plan_aims", "cylinders"}
+	if d.version < 2 && root.get("plan_aims") != nil {
+		d.fail("plan_aims", "Plan aims are part of session files from version 2 on, and this file says it is version %d; change its \"version\" to 2, or remove \"plan_aims\".", d.version)
+	}
+	o := d.object(root, "", "a session", keys...)
 	s := &Session{}
 	s.Name = o.text("name", false, "the session's title")
 	s.Invented = o.flag("invented")
@@ -346,6 +353,9 @@ func (d *decoder) session(root *node) *Session {
 				d.fail(fmt.Sprintf("adjustments[%d]", i), "This adjustment is listed twice (also adjustments[%d]); keep one.", j)
 			}
 		}
+	}
+	if a := o.field("plan_aims", false, ""); a != nil {
+		s.Aims = d.aims(a, "plan_aims")
 	}
 	cyls := o.list("cylinders", true, "cylinders")
 	if d.err == nil && len(cyls) == 0 {
@@ -367,6 +377,54 @@ func (d *decoder) session(root *node) *Session {
 		return nil
 	}
 	return s
+}
+
+// Bounds of a target lead: further from zero is a typing slip, not an aim.
+const (
+	minTargetLeadMM = -5
+	maxTargetLeadMM = 25
+)
+
+// priorities lists the plan's priorities in the order documented.
+var priorities = []string{string(PriorityLeads), string(PriorityCutOffs), string(PriorityBalanced)}
+
+func (d *decoder) aims(n *node, path string) PlanAims {
+	o := d.object(n, path, "the plan's aims", "priority", "target_lead_mm", "lead_share", "running_notch")
+	var a PlanAims
+	a.Priority = Priority(o.choice("priority", false, "what the plan makes equal, front against back", priorities...))
+	if o.has("target_lead_mm") {
+		t := o.bounded("target_lead_mm", true, "the lead wanted at both ends in full gear, in mm", minTargetLeadMM, maxTargetLeadMM)
+		a.TargetLeadMM = &t
+	}
+	if o.has("lead_share") {
+		a.LeadShare = o.bounded("lead_share", true, "the share of the balance given to leads", 0, 1)
+		switch {
+		case d.err != nil:
+		case a.LeadShare == 0:
+			d.fail(path+".lead_share", "must be more than zero (the share of the balance given to leads); leave it out for one half, or choose the priority \"cut-offs\".")
+		case a.Priority != PriorityBalanced:
+			d.fail(path+".lead_share", "The share given to leads is used only when the priority is \"balanced\"; set \"priority\": \"balanced\" or remove \"lead_share\".")
+		}
+	}
+	if o.has("running_notch") {
+		a.RunningNotch = o.text("running_notch", true, "the notch whose cut-offs are made equal")
+		if ok := runningNotches(d.info); d.err == nil && !contains(ok, a.RunningNotch) {
+			d.fail(path+".running_notch", "The notch %q is not one the plan works in; use one of %s.", a.RunningNotch, quoteList(ok))
+		}
+	}
+	return a
+}
+
+// runningNotches lists the notches a plan may make its cut-offs equal in:
+// full forward and the engine's own notches.
+func runningNotches(info specInfo) []string {
+	ok := []string{FullForward}
+	for _, n := range info.notchOrder {
+		if n != FullForward && n != MidGear && n != FullBack {
+			ok = append(ok, n)
+		}
+	}
+	return ok
 }
 
 func (d *decoder) measuring(n *node, path string) Measuring {

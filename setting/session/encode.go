@@ -129,11 +129,29 @@ func (e *encoder) session(s *Session) *node {
 		adj = append(adj, e.adjustment(a, fmt.Sprintf("adjustments[%d]", i)))
 	}
 	o.arr("adjustments", adj)
+	if !s.Aims.IsZero() {
+		o.put("plan_aims", e.aims(s.Aims))
+	}
 	var cyl []*node
 	for i, c := range s.Cylinders {
 		cyl = append(cyl, e.cylinder(c, fmt.Sprintf("cylinders[%d]", i)))
 	}
 	o.put("cylinders", &node{kind: nodeArray, elems: cyl})
+	return o.n
+}
+
+func (e *encoder) aims(a PlanAims) *node {
+	o := e.obj("plan_aims")
+	if a.Priority != "" {
+		o.enum("priority", string(a.Priority), priorities...)
+	}
+	if a.TargetLeadMM != nil {
+		o.num("target_lead_mm", *a.TargetLeadMM)
+	}
+	if a.LeadShare != 0 {
+		o.num("lead_share", a.LeadShare)
+	}
+	o.optStr("running_notch", a.RunningNotch)
 	return o.n
 }
 

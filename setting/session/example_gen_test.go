@@ -167,6 +167,9 @@ func buildExample(t *testing.T) *Session {
 			{Kind: EccentricRodLength, Eccentric: ForwardEccentric, Min: -1.5, Max: 1.5, Thread: Thread{TPI: 40, FlatsPerTurn: 2}, Note: "fork end: half turns only"},
 			{Kind: EccentricRodLength, Eccentric: BackwardEccentric, Min: -1.5, Max: 1.5, Thread: Thread{TPI: 40, FlatsPerTurn: 2}, Note: "fork end: half turns only"},
 		},
+		// The plan's defaults, written out: the plan of the example is the
+		// same with or without them.
+		Aims: PlanAims{Priority: PriorityLeads, RunningNotch: "running notch"},
 	}
 	bdc := spec.Engine.BackDeadCentre()
 

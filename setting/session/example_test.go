@@ -168,7 +168,7 @@ func ExampleDecode_newerVersion() {
 	_, err := Decode(strings.NewReader(`{"format": "evenbeat-session", "version": 3, "cylinders": "?"}`))
 	fmt.Println(err)
 	// Output:
-	// version: This file was written by a newer Evenbeat (session version 3); this version reads version 1. Update the app.
+	// version: This file was written by a newer Evenbeat (session version 3); this version reads versions 1 to 2. Update the app.
 }
 
 // Dead centre from two tyre marks either side of the chalk datum, on a

@@ -26,6 +26,9 @@ func FuzzDecode(f *testing.F) {
 	f.Add([]byte(strings.Replace(testJSON, `[350.1, 10.3]`, `[99999, -99999]`, 1)))
 	f.Add([]byte(strings.Replace(testJSON, `"wheel_diameter_mm": 115`, `"wheel_diameter_mm": 1e-300`, 1)))
 	f.Add([]byte(`[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[`))
+	v2 := strings.Replace(testJSON, `"version": 1,`, `"version": 2,`, 1)
+	f.Add([]byte(strings.Replace(v2, `"display_unit": "mm",`, `"display_unit": "mm", "plan_aims": {"priority": "balanced", "target_lead_mm": 0.2, "lead_share": 0.6, "running_notch": "full forward"},`, 1)))
+	f.Add([]byte(strings.Replace(v2, `"display_unit": "mm",`, `"display_unit": "mm", "plan_aims": {"target_lead_mm": -0},`, 1)))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		s, err := Decode(bytes.NewReader(data))
 		if err != nil {

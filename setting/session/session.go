@@ -9,9 +9,10 @@ import (
 // Format is the value of the file's "format" field.
 const Format = "evenbeat-session"
 
-// Version is the session file version this package reads and writes.
-// Files of a newer version are refused, never half-read.
-const Version = 1
+// Version is the session file version this package writes. It reads this
+// version and every older one (version 1 is version 2 without
+// "plan_aims"); files of a newer version are refused, never half-read.
+const Version = 2
 
 // Session is one engine being set: its profile (geometry, what can be
 // adjusted and how, how it is measured) and the readings of every cylinder,
@@ -36,8 +37,47 @@ type Session struct {
 	// and the threads and sheaves the changes are made with. The same list
 	// serves every cylinder.
 	Adjustments []Adjustment
+	// Aims are what the setter asks of the plan (file version 2 on); the
+	// zero value asks for the plan's defaults.
+	Aims PlanAims
 	// Cylinders holds each cylinder's dead centres and rounds of readings.
 	Cylinders []Cylinder
+}
+
+// PlanAims are the setter's choices for the plan, kept with the readings so
+// that the plan made the next time the session is opened is the same. The
+// zero value chooses nothing: the plan's defaults.
+type PlanAims struct {
+	// Priority is what the plan makes equal front against back:
+	// PriorityLeads, PriorityCutOffs or PriorityBalanced; empty when not
+	// chosen (equal leads).
+	Priority Priority
+	// TargetLeadMM, when set, is the lead wanted at both ends in full gear
+	// (mm; zero is line and line).
+	TargetLeadMM *float64
+	// LeadShare is the share of the balance given to leads, more than 0 and
+	// at most 1, with PriorityBalanced; 0 when not chosen (one half).
+	LeadShare float64
+	// RunningNotch names the notch whose cut-offs an equal cut-offs plan
+	// makes equal: "full forward" or one of the engine's notches; empty
+	// for the engine's first notch.
+	RunningNotch string
+}
+
+// Priority is what a plan makes equal, front against back. The values are
+// the names package plan gives its priorities.
+type Priority string
+
+// The priorities a session may ask for.
+const (
+	PriorityLeads    Priority = "leads"    // equal leads in every planned reverser position
+	PriorityCutOffs  Priority = "cut-offs" // equal cut-offs in the running notch
+	PriorityBalanced Priority = "balanced" // leads weighed against cut-offs
+)
+
+// IsZero reports whether the aims choose nothing.
+func (a PlanAims) IsZero() bool {
+	return a.Priority == "" && a.TargetLeadMM == nil && a.LeadShare == 0 && a.RunningNotch == ""
 }
 
 // Unit is a display unit for lengths.

@@ -227,7 +227,7 @@ func TestVersionAndFormatRefused(t *testing.T) {
 		name, from, to, field, msg string
 	}{
 		{"newer version", `"version": 1,`, `"version": 3,`, "version",
-			"This file was written by a newer Evenbeat (session version 3); this version reads version 1. Update the app."},
+			"This file was written by a newer Evenbeat (session version 3); this version reads versions 1 to 2. Update the app."},
 		{"newer version, rest unreadable", `"display_unit": "mm",`, `"display_unit": "mm", "future_field": {"x": [1, 2]},`, "", ""},
 		{"version zero", `"version": 1,`, `"version": 0,`, "version", "Version 0 is not a session version; versions start at 1."},
 		{"version text", `"version": 1,`, `"version": "1",`, "version", "The version must be a whole number, got the text \"1\"."},
@@ -242,9 +242,9 @@ func TestVersionAndFormatRefused(t *testing.T) {
 		t.Run(c.name, func(t *testing.T) {
 			in := strings.Replace(testJSON, c.from, c.to, 1)
 			if c.name == "newer version, rest unreadable" {
-				in = strings.Replace(in, `"version": 1,`, `"version": 2,`, 1)
+				in = strings.Replace(in, `"version": 1,`, `"version": 3,`, 1)
 				c.field = "version"
-				c.msg = "This file was written by a newer Evenbeat (session version 2); this version reads version 1. Update the app."
+				c.msg = "This file was written by a newer Evenbeat (session version 3); this version reads versions 1 to 2. Update the app."
 			}
 			s, err := Decode(strings.NewReader(in))
 			if s != nil {

@@ -407,7 +407,7 @@ func TestImportBadFileNamesField(t *testing.T) {
 	if !strings.Contains(text, "wheel_diameter_mm") {
 		t.Fatalf("the error is not shown:\n%s", text)
 	}
-	newer := strings.Replace(string(b), `"version": 1`, `"version": 99`, 1)
+	newer := strings.Replace(string(b), `"version": 2`, `"version": 99`, 1)
 	if err := a.Import([]byte(newer)); err == nil {
 		t.Fatal("a newer version was imported")
 	}

@@ -73,17 +73,6 @@ func MakeWithoutDimensions(s *session.Session, opt Options) (*Plan, error) {
 		}
 		return knob{}, false
 	}
-	round := func(k knob, x float64) (float64, bool) {
-		r := math.Round(x/k.step) * k.step
-		at := false
-		if r < k.adj.Min {
-			r, at = math.Ceil(k.adj.Min/k.step-1e-9)*k.step, true
-		}
-		if r > k.adj.Max {
-			r, at = math.Floor(k.adj.Max/k.step+1e-9)*k.step, true
-		}
-		return clean(r), at
-	}
 	p := &Plan{Engine: spec.Name, Cylinder: s.Cylinders[opt.Cylinder].Name, Priority: EqualLeads, Recheck: h.Recheck, Cautions: setting.Cautions(),
 		Notes: []string{"Planned without the gear's dimensions, from a curve fitted to each position's readings: only the spindle" + map[bool]string{true: " and the backward rod", false: ""}[spec.Gear.Kind == setting.KindStephenson] + " can be worked out, the readings' errors are not carried through, and cut-offs are not balanced."}}
 	if p.Recheck == nil {
@@ -95,25 +84,12 @@ func MakeWithoutDimensions(s *session.Session, opt Options) (*Plan, error) {
 	shift := make([]float64, len(h.Curves)) // valve movement per curve after the plan
 	var steps []Step
 	add := func(k knob, ideal float64) float64 {
-		amt, at := round(k, ideal)
+		amt, at := handRound(k, ideal)
 		if amt == 0 {
 			return 0
 		}
-		st := Step{Part: partName(k.adj, spec.Gear.Kind), Kind: k.adj.Kind, Eccentric: k.adj.Eccentric, Unit: "mm",
-			Sign: signWords(k.adj.Kind, spec.Gear.Kind), IdealAmount: clean(ideal), Amount: amt, AtLimit: at}
-		if k.adj.Kind.Angular() {
-			st.Unit = "deg"
-			if k.adj.SheaveDiameterMM > 0 {
-				st.RimMM = clean(amt * math.Pi / 180 * k.adj.SheaveDiameterMM / 2)
-			}
-		} else if k.adj.Thread.Pitch() > 0 {
-			f := k.adj.Thread.FlatsPerTurn
-			if f <= 0 {
-				f = defaultFlats
-			}
-			flats := int(math.Round(math.Abs(amt) / k.step))
-			st.Turns, st.Flats, st.perTurn = flats/f, flats%f, f
-		}
+		st := newStep(k, spec.Gear.Kind, ideal, amt)
+		st.AtLimit = at
 		st.Words = stepWords(st, opt.Unit)
 		steps = append(steps, st)
 		return amt

@@ -312,25 +312,8 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 		if rounded[i] == 0 {
 			continue
 		}
-		k := ks[i]
-		st := Step{Part: partName(k.adj, ev.spec.Gear.Kind), Kind: k.adj.Kind, Eccentric: k.adj.Eccentric,
-			Unit: "mm", Sign: signWords(k.adj.Kind, ev.spec.Gear.Kind), IdealAmount: clean(ideal[i]), Amount: clean(rounded[i]), SigmaAmount: clean(sig[i])}
-		if k.adj.Kind.Angular() {
-			st.Unit = "deg"
-			if k.adj.Kind == session.EccentricAngle && k.adj.SheaveDiameterMM > 0 {
-				st.RimMM = clean(rounded[i] * math.Pi / 180 * k.adj.SheaveDiameterMM / 2)
-			}
-		} else {
-			flats := int(math.Round(math.Abs(rounded[i]) / k.step))
-			f := k.adj.Thread.FlatsPerTurn
-			if f <= 0 {
-				f = defaultFlats
-			}
-			if k.adj.Thread.Pitch() > 0 {
-				st.Turns, st.Flats, st.perTurn = flats/f, flats%f, f
-			}
-		}
-		st.AtLimit = rounded[i] <= k.adj.Min+1e-9 || rounded[i] >= k.adj.Max-1e-9
+		st := newStep(ks[i], ev.spec.Gear.Kind, ideal[i], rounded[i])
+		st.SigmaAmount = clean(sig[i])
 		out.steps = append(out.steps, st)
 	}
 	if out.steps == nil {

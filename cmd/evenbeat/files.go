@@ -15,43 +15,63 @@ import (
 	"evenbeat/setting/session"
 )
 
-// planFlags are the setter's choices shared by plan and report.
+// planFlags are the setter's choices shared by plan and report. The plan
+// aims a flag sets override the session file's; those not given come from
+// the file's "plan_aims".
 type planFlags struct {
 	cylinder   string
 	priority   string
 	weight     float64
 	targetLead float64
 	unit       string
+	fs         *flag.FlagSet // to tell which flags were given
 }
 
 func (p *planFlags) register(fs *flag.FlagSet) {
+	p.fs = fs
 	fs.StringVar(&p.cylinder, "cylinder", "", "cylinder to plan, by name (default: the first in the file)")
-	fs.StringVar(&p.priority, "priority", string(plan.EqualLeads), "what to make equal front against back: leads, cut-offs or balanced")
-	fs.Float64Var(&p.weight, "weight", 0, "with -priority balanced: share given to leads, 0 to 1 (0 means one half)")
-	fs.Float64Var(&p.targetLead, "target-lead", -1, "lead wanted at both ends, mm (eccentric gears only; default: keep today's mean)")
+	fs.StringVar(&p.priority, "priority", "", "what to make equal front against back: leads, cut-offs or balanced (default: the file's plan_aims, else leads)")
+	fs.Float64Var(&p.weight, "weight", 0, "with -priority balanced: share given to leads, 0 to 1 (0 means one half; default: the file's plan_aims)")
+	fs.Float64Var(&p.targetLead, "target-lead", -1, "lead wanted at both ends, mm (eccentric gears only; -1: none, whatever the file says; default: the file's plan_aims, else keep today's mean)")
 	fs.StringVar(&p.unit, "unit", "", "units of the words: mm or inch (default: the session's)")
 }
 
-// options turns the flags into plan options for session s, naming the flag
-// at fault.
+// given reports whether flag name was on the command line.
+func (p *planFlags) given(name string) bool {
+	found := false
+	if p.fs != nil {
+		p.fs.Visit(func(f *flag.Flag) { found = found || f.Name == name })
+	}
+	return found
+}
+
+// options turns the session's plan aims and the flags into plan options
+// for session s, naming the flag at fault.
 func (p *planFlags) options(s *session.Session) (plan.Options, error) {
-	var opt plan.Options
-	switch pr := plan.Priority(p.priority); pr {
-	case plan.EqualLeads, plan.EqualCutOffs, plan.Balanced:
-		opt.Priority = pr
-	default:
-		return opt, fmt.Errorf("flag -priority: %q is not a priority; use leads, cut-offs or balanced", p.priority)
-	}
-	if p.weight < 0 || p.weight > 1 {
-		return opt, fmt.Errorf("flag -weight: %g is outside 0 to 1", p.weight)
-	}
-	opt.Weight = p.weight
-	if p.targetLead != -1 {
-		if p.targetLead < -2 || p.targetLead > 5 {
-			return opt, fmt.Errorf("flag -target-lead: %g mm is not a plausible lead; give millimetres, e.g. 0.2", p.targetLead)
+	opt := plan.AimsOptions(s.Aims)
+	if p.given("priority") {
+		switch pr := plan.Priority(p.priority); pr {
+		case plan.EqualLeads, plan.EqualCutOffs, plan.Balanced:
+			opt.Priority = pr
+		default:
+			return opt, fmt.Errorf("flag -priority: %q is not a priority; use leads, cut-offs or balanced", p.priority)
 		}
-		t := p.targetLead
-		opt.TargetLeadMM = &t
+	}
+	if p.given("weight") {
+		if p.weight < 0 || p.weight > 1 {
+			return opt, fmt.Errorf("flag -weight: %g is outside 0 to 1", p.weight)
+		}
+		opt.Weight = p.weight
+	}
+	if p.given("target-lead") {
+		opt.TargetLeadMM = nil
+		if p.targetLead != -1 {
+			if p.targetLead < -2 || p.targetLead > 5 {
+				return opt, fmt.Errorf("flag -target-lead: %g mm is not a plausible lead; give millimetres, e.g. 0.2", p.targetLead)
+			}
+			t := p.targetLead
+			opt.TargetLeadMM = &t
+		}
 	}
 	switch u := session.Unit(p.unit); u {
 	case "", session.UnitMM, session.UnitInch:

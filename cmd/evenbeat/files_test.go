@@ -133,3 +133,90 @@ func TestFileCommandErrors(t *testing.T) {
 		})
 	}
 }
+
+// withAims writes the demo session with its plan_aims replaced by aims (a
+// JSON object) to a temporary file and returns its path.
+func withAims(t *testing.T, aims string) string {
+	t.Helper()
+	b, err := os.ReadFile(demoSession)
+	if err != nil {
+		t.Fatal(err)
+	}
+	i := bytes.Index(b, []byte("\n  \"plan_aims\": {"))
+	j := bytes.Index(b, []byte("\n  \"cylinders\": ["))
+	if i < 0 || j < i {
+		t.Fatal("the demo session has no plan_aims before its cylinders")
+	}
+	out := append(append(append([]byte{}, b[:i]...), "\n  \"plan_aims\": "+aims+","...), b[j:]...)
+	path := filepath.Join(t.TempDir(), "aims.json")
+	if err := os.WriteFile(path, out, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return path
+}
+
+// TestPlanAimsFromFile: without -priority and -target-lead the plan takes
+// the file's plan_aims; the flags override them; the demo session's aims
+// (the defaults written out) plan as its version 1 copy, which has none.
+func TestPlanAimsFromFile(t *testing.T) {
+	aimed := withAims(t, `{"priority": "cut-offs", "target_lead_mm": 0.3}`)
+	plan := func(args ...string) string {
+		t.Helper()
+		out, err := runCmd(t, append([]string{"plan", "-json", "-cylinder", "left"}, args...)...)
+		if err != nil {
+			t.Fatalf("plan %q: %v", args, err)
+		}
+		return out
+	}
+	fromFile := plan(aimed)
+	byFlags := plan("-priority", "cut-offs", "-target-lead", "0.3", demoSession)
+	if fromFile != byFlags {
+		t.Errorf("the file's aims plan otherwise than the same aims as flags:\n%s\n---\n%s", fromFile, byFlags)
+	}
+	if !strings.Contains(fromFile, `"priority": "cut-offs"`) {
+		t.Errorf("the file's priority was not used:\n%s", fromFile)
+	}
+	overridden := plan("-priority", "leads", "-target-lead", "-1", aimed)
+	plain := plan(demoSession)
+	if overridden != plain {
+		t.Errorf("-priority leads -target-lead -1 did not override the file's aims:\n%s\n---\n%s", overridden, plain)
+	}
+	if plain == fromFile {
+		t.Error("the aims change nothing in the plan, so this test proves nothing")
+	}
+	if v1 := plan("../../testdata/sessions/v1/brackenfold-stephenson.json"); v1 != plain {
+		t.Errorf("the version 1 demo session plans otherwise than version 2:\n%s\n---\n%s", v1, plain)
+	}
+}
+
+// TestReportAimsFromFile: the report takes the file's plan_aims too, and
+// the flags override them.
+func TestReportAimsFromFile(t *testing.T) {
+	aimed := withAims(t, `{"priority": "balanced", "lead_share": 0.8, "target_lead_mm": 0.3}`)
+	dir := t.TempDir()
+	report := func(name string, args ...string) []byte {
+		t.Helper()
+		out := filepath.Join(dir, name)
+		if _, err := runCmd(t, append([]string{"report", "-o", out, "-cylinder", "left"}, args...)...); err != nil {
+			t.Fatalf("report %q: %v", args, err)
+		}
+		b, err := os.ReadFile(out)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return b
+	}
+	fromFile := report("file.png", aimed)
+	byFlags := report("flags.png", "-priority", "balanced", "-weight", "0.8", "-target-lead", "0.3", demoSession)
+	plain := report("plain.png", demoSession)
+	overridden := report("over.png", "-priority", "leads", "-target-lead", "-1", aimed)
+	if !bytes.Equal(fromFile, byFlags) {
+		t.Error("the report of the file's aims differs from the report of the same aims as flags")
+	}
+	if bytes.Equal(fromFile, plain) {
+		t.Error("the aims change nothing in the report, so this test proves nothing")
+	}
+	if !bytes.Equal(overridden, plain) {
+		t.Error("the flags did not override the file's aims in the report")
+	}
+}

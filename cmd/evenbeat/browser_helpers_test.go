@@ -137,10 +137,11 @@ func waitValue[T any](t testing.TB, ctx context.Context, d time.Duration, expr s
 }
 
 // eval evaluates a JavaScript expression (awaiting it if it is a promise)
-// and decodes its value.
+// and decodes its value. The limit is long: a promise waiting for an
+// animation frame waits for the software GPU on the shared machine.
 func eval[T any](t testing.TB, ctx context.Context, expr string) T {
 	t.Helper()
-	tctx, cancel := context.WithTimeout(ctx, 90*time.Second)
+	tctx, cancel := context.WithTimeout(ctx, 3*time.Minute)
 	defer cancel()
 	v, err := chromedp.Run(tctx, chromedp.Evaluate[T](expr, chromedp.EvalAwaitPromise))
 	if err != nil {
@@ -178,7 +179,7 @@ func tap(t testing.TB, ctx context.Context, x, y float64, hold time.Duration) {
 	t.Helper()
 	// The limit only guards against a hung browser: on the shared test
 	// machine a touch event may wait seconds for the software GPU.
-	within(t, ctx, 60*time.Second+hold, fmt.Sprintf("tapping at %.0f,%.0f", x, y),
+	within(t, ctx, 3*time.Minute+hold, fmt.Sprintf("tapping at %.0f,%.0f", x, y),
 		touchEvent(input.DispatchTouchEventTypeTouchStart, x, y),
 		chromedp.Sleep(hold),
 		touchEvent(input.DispatchTouchEventTypeTouchEnd, x, y))

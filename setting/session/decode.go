@@ -379,12 +379,6 @@ func (d *decoder) session(root *node) *Session {
 	return s
 }
 
-// Bounds of a target lead: further from zero is a typing slip, not an aim.
-const (
-	minTargetLeadMM = -5
-	maxTargetLeadMM = 25
-)
-
 // priorities lists the plan's priorities in the order documented.
 var priorities = []string{string(PriorityLeads), string(PriorityCutOffs), string(PriorityBalanced)}
 
@@ -393,7 +387,7 @@ func (d *decoder) aims(n *node, path string) PlanAims {
 	var a PlanAims
 	a.Priority = Priority(o.choice("priority", false, "what the plan makes equal, front against back", priorities...))
 	if o.has("target_lead_mm") {
-		t := o.bounded("target_lead_mm", true, "the lead wanted at both ends in full gear, in mm", minTargetLeadMM, maxTargetLeadMM)
+		t := o.bounded("target_lead_mm", true, "the lead wanted at both ends in full gear, in mm", MinTargetLeadMM, MaxTargetLeadMM)
 		a.TargetLeadMM = &t
 	}
 	if o.has("lead_share") {

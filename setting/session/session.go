@@ -64,6 +64,13 @@ type PlanAims struct {
 	RunningNotch string
 }
 
+// Bounds of PlanAims.TargetLeadMM: a lead further from zero is a typing
+// slip, not an aim.
+const (
+	MinTargetLeadMM = -5
+	MaxTargetLeadMM = 25
+)
+
 // Priority is what a plan makes equal, front against back. The values are
 // the names package plan gives its priorities.
 type Priority string

@@ -152,10 +152,6 @@ type App struct {
 	updateReady bool          // a new version waits: the banner shows
 	planTime    time.Duration // how long the last fit, plan and model took
 
-	// What the plan aims for: kept in the app while it runs, since the
-	// session file has no place for them.
-	prio       plan.Priority
-	targetLead *float64 // mm; nil for none
 	// The keypad's fields while the target lead is typed, given back after.
 	leadFields []field
 	leadFi     int
@@ -337,7 +333,7 @@ func (a *App) addSession(s *session.Session) {
 	a.index = append(a.index, e.Key)
 	a.cur = e
 	a.clearPlan()
-	a.cyl, a.prio, a.targetLead = 0, "", nil
+	a.cyl = 0
 	a.save()
 	a.put(IndexKey, encodeIndex(a.index))
 }
@@ -400,7 +396,6 @@ func (a *App) unitLabel() string {
 func (a *App) openSession(e *Stored) {
 	a.cur = e
 	a.clearPlan()
-	a.prio, a.targetLead = "", nil // the aims belong to the engine they were set for
 	s := e.Session
 	a.cyl = 0
 	if len(s.Cylinders[0].Rounds) == 0 {
@@ -632,7 +627,9 @@ func (a *App) makePlan() {
 		a.planNote = []string{sentence(err)}
 		return
 	}
-	p, err := plan.FromFit(fit, s.Adjustments, plan.Options{Unit: a.unit(), Cylinder: a.cyl, Priority: a.prio, TargetLeadMM: a.targetLead, Fit: plan.FitOptions{Round: a.planRound}})
+	opt := plan.AimsOptions(s.Aims) // the session's own aims
+	opt.Unit, opt.Cylinder, opt.Fit = a.unit(), a.cyl, plan.FitOptions{Round: a.planRound}
+	p, err := plan.FromFit(fit, s.Adjustments, opt)
 	if err != nil {
 		a.planNote = []string{sentence(err)}
 		return

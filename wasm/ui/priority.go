@@ -11,9 +11,6 @@ func (a *App) keypadScreen() bool {
 	return a.screen == Measure || a.screen == Sizes || a.screen == Lead
 }
 
-// priorityNote says where the plan's aims are kept.
-const priorityNote = "Kept while the app is open: the session file has no place for the priority or the target lead."
-
 // priorityRows lays out the steps tab's controls: while a what-if is
 // active, that the steps are its amounts and a way back to the plan; else
 // the plan's priority and the target lead.
@@ -24,8 +21,8 @@ func (a *App) priorityRows(l *layouter) {
 		return
 	}
 	lead := "Target lead: none"
-	if a.targetLead != nil {
-		lead = "Target lead: " + session.FormatLength(*a.targetLead, a.unit())
+	if t := a.targetLead(); t != nil {
+		lead = "Target lead: " + session.FormatLength(*t, a.unit())
 	}
 	prios := [3]plan.Priority{plan.EqualLeads, plan.EqualCutOffs, plan.Balanced}
 	labels := []string{"Equal leads", "Equal cut-offs", "Balanced"}
@@ -37,39 +34,74 @@ func (a *App) priorityRows(l *layouter) {
 	}
 	l.row(labels, on, acts)
 	l.button(lead, false, a.enterLead)
-	l.muted(priorityNote)
 }
 
-// priority is the plan's priority: equal leads unless chosen.
-func (a *App) priority() plan.Priority {
-	if a.prio == "" {
-		return plan.EqualLeads
+// aims returns the plan aims of the session open, nil when none is.
+func (a *App) aims() *session.PlanAims {
+	if s := a.Session(); s != nil {
+		return &s.Aims
 	}
-	return a.prio
+	return nil
 }
 
-// setPriority plans again for priority p.
+// priority is the plan's priority as the session's aims say: equal leads
+// unless chosen.
+func (a *App) priority() plan.Priority {
+	if m := a.aims(); m != nil && m.Priority != "" {
+		return plan.Priority(m.Priority)
+	}
+	return plan.EqualLeads
+}
+
+// targetLead is the session's target lead (mm), nil for none.
+func (a *App) targetLead() *float64 {
+	if m := a.aims(); m != nil {
+		return m.TargetLeadMM
+	}
+	return nil
+}
+
+// setPriority keeps priority p in the session's aims, saves the session
+// and plans again.
 func (a *App) setPriority(p plan.Priority) {
-	if p == a.priority() {
+	m := a.aims()
+	if m == nil || p == a.priority() {
 		return
 	}
-	a.prio = p
+	m.Priority = session.Priority(p)
+	if p != plan.Balanced {
+		m.LeadShare = 0 // a share of the balance belongs to a balanced plan only
+	}
+	a.save()
 	a.makePlan()
+}
+
+// setTargetLead keeps target lead t (mm, nil for none) in the session's
+// aims and saves the session. A lead beyond what the file may hold is a
+// typing slip: it is not kept.
+func (a *App) setTargetLead(t *float64) {
+	m := a.aims()
+	same := t == nil && m != nil && m.TargetLeadMM == nil
+	if m == nil || same || (t != nil && (*t < session.MinTargetLeadMM || *t > session.MaxTargetLeadMM)) {
+		return
+	}
+	m.TargetLeadMM = t
+	a.save()
 }
 
 // enterLead opens the keypad for the target lead.
 func (a *App) enterLead() {
 	a.leadFields, a.leadFi = a.fields, a.fi
 	a.fields = []field{{Key: "target_lead_mm", Step: "Target lead", Label: "Target lead",
-		Say: "The lead wanted at both ends in full gear. Only turning an eccentric changes the lead, so the plan meets it only where the engine allows that. " + priorityNote,
+		Say: "The lead wanted at both ends in full gear. Only turning an eccentric changes the lead, so the plan meets it only where the engine allows that. It is saved with this engine's readings.",
 		Lo:  -0.5, Hi: 8, // a lead (mm), 5 in gauge to full size: common practice, no source (from memory)
 		get: func(*session.Session) (float64, bool) {
-			if a.targetLead == nil {
-				return 0, false
+			if t := a.targetLead(); t != nil {
+				return *t, true
 			}
-			return *a.targetLead, true
+			return 0, false
 		},
-		set: func(_ *session.Session, v float64) { a.targetLead = &v }}}
+		set: func(_ *session.Session, v float64) { a.setTargetLead(&v) }}}
 	a.setField(0)
 	a.navigate(Lead)
 }
@@ -84,7 +116,7 @@ func (a *App) leaveLead() {
 
 // clearTargetLead plans again without a target lead.
 func (a *App) clearTargetLead() {
-	a.targetLead = nil
+	a.setTargetLead(nil)
 	a.Back()
 	a.makePlan()
 }

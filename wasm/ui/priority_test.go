@@ -20,13 +20,13 @@ func noNaN(t *testing.T, a *App, what string) {
 }
 
 // TestPriorityAndTargetLead: the steps tab chooses the plan's priority and
-// a target lead typed on the keypad; each plans again, and the screen
-// says where they are kept.
+// a target lead typed on the keypad; each plans again and is kept in the
+// session's plan aims.
 func TestPriorityAndTargetLead(t *testing.T) {
 	a := planApp(t)
 	a.Session().DisplayUnit = session.UnitMM
-	if text, _ := drawText(a); !strings.Contains(text, "Kept while the app is open") {
-		t.Fatalf("the steps tab does not say where the priority is kept:\n%s", text)
+	if text, _ := drawText(a); strings.Contains(text, "Kept while the app is open") || strings.Contains(text, "no place for") {
+		t.Fatalf("the steps tab still says the aims are not saved:\n%s", text)
 	}
 	tap(t, a, "Equal cut-offs")
 	if a.plan == nil || a.plan.Priority != plan.EqualCutOffs {
@@ -54,8 +54,8 @@ func TestPriorityAndTargetLead(t *testing.T) {
 	tap(t, a, KeyDelete.Label())
 	typeKeys(t, a, "0.5")
 	tap(t, a, "Next")
-	if a.Screen() != Plan || a.targetLead == nil || *a.targetLead != 0.5 || a.plan == nil || a.plan == base {
-		t.Fatalf("after the target: screen %s, lead %v, plan %v (%q)", a.Screen(), a.targetLead, a.plan != nil, a.planNote)
+	if lead := a.Session().Aims.TargetLeadMM; a.Screen() != Plan || lead == nil || *lead != 0.5 || a.plan == nil || a.plan == base {
+		t.Fatalf("after the target: screen %s, lead %v, plan %v (%q)", a.Screen(), lead, a.plan != nil, a.planNote)
 	}
 	if len(a.fields) == 0 || a.fields[0].Key == "target_lead_mm" {
 		t.Fatal("the keypad's reading fields were not given back")
@@ -75,8 +75,8 @@ func TestPriorityAndTargetLead(t *testing.T) {
 	}
 	tap(t, a, "Target lead: 0.5")
 	tap(t, a, "No target lead")
-	if a.Screen() != Plan || a.targetLead != nil {
-		t.Fatalf("no target: screen %s, lead %v", a.Screen(), a.targetLead)
+	if a.Screen() != Plan || a.Session().Aims.TargetLeadMM != nil {
+		t.Fatalf("no target: screen %s, lead %v", a.Screen(), a.Session().Aims.TargetLeadMM)
 	}
 }
 

@@ -36,7 +36,11 @@ const (
 
 // Stored is one session as the store holds it. A session that cannot be
 // read (a newer version, a damaged file) keeps its raw bytes and the
-// reason, so it can be exported and is never overwritten.
+// reason, so it can be exported and is never overwritten. A session stored
+// in an older version of the file is read (migrated) into the current
+// Session and its Raw bytes are kept as stored: only the user's next
+// change writes it back, in the current version, so opening it can never
+// destroy the original.
 type Stored struct {
 	Key     string
 	Session *session.Session // nil when Err is set
@@ -129,7 +133,8 @@ func decodeIndex(raw []byte) ([]string, error) {
 	return keys, nil
 }
 
-// loadAll reads every stored session listed in the index.
+// loadAll reads every stored session listed in the index, of any file
+// version the session package reads; it writes nothing.
 func loadAll(st Store) ([]*Stored, []string, error) {
 	raw, ok, err := st.Get(IndexKey)
 	if err != nil {

@@ -18,10 +18,11 @@
 //   - Gauge readings are stored as read. Observations normalise them so
 //     that they grow as the valve moves toward the front cover.
 //
-// Decode validates every value and refuses files of another format or a
-// newer version; Check gives warnings for values that are possible but
-// unusual; Readiness says what a plan for a cylinder still lacks;
-// Observations turns the readings into the list a fitter works on.
+// Decode validates every value, reads files of this version (Version) and
+// every older one, and refuses files of another format or a newer version;
+// Encode always writes this version; Check gives warnings for values that
+// are possible but unusual; Readiness says what a plan for a cylinder still
+// lacks; Observations turns the readings into the list a fitter works on.
 //
 // The package imports only the standard library, evenbeat/setting and
 // evenbeat/internal/jsonx.

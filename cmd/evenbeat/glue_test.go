@@ -106,7 +106,8 @@ func TestNameAndShare(t *testing.T) {
 	if dir := os.Getenv("EVENBEAT_SHOTS"); dir != "" {
 		os.WriteFile(dir+"/shared-report.png", b, 0o644)
 	}
-	t.Logf("shared report: %v, %d bytes", img.Bounds(), len(b))
+	t.Logf("shared report: %v, %d bytes; drawn and read back in %.0f ms, encoded in %.0f ms", img.Bounds(), len(b),
+		eval[float64](t, ctx, "window.evenbeatShareDrawMs"), eval[float64](t, ctx, "window.evenbeatShareEncodeMs"))
 	if got := img.Bounds(); got.Dx() != wantW || got.Dy() != wantH {
 		t.Errorf("the shared report is %dx%d pixels; want %dx%d (render.ReportWidth and the report's height at 1.5 px per unit)", got.Dx(), got.Dy(), wantW, wantH)
 	}

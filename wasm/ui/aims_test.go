@@ -141,3 +141,23 @@ func TestStoredVersion1Opens(t *testing.T) {
 		t.Errorf("plan after Balanced: %+v %q", a.plan, a.planNote)
 	}
 }
+
+// TestAimsTheFileCannotHold: a target lead beyond the file's bounds is not
+// kept (the session stays writable), and leaving the balanced priority
+// drops its share of the balance, which belongs to it alone.
+func TestAimsTheFileCannotHold(t *testing.T) {
+	a := planApp(t)
+	st := a.opt.Store.(*memStore)
+	lead := session.MaxTargetLeadMM + 1.0
+	a.setTargetLead(&lead)
+	if a.targetLead() != nil {
+		t.Fatalf("a %v mm target lead was kept", lead)
+	}
+	a.Session().Aims.Priority, a.Session().Aims.LeadShare = session.PriorityBalanced, 0.7
+	tap(t, a, "Equal cut-offs")
+	st.complete()
+	s, _ := storedSession(t, st, a.cur.Key)
+	if s.Aims.Priority != session.PriorityCutOffs || s.Aims.LeadShare != 0 || a.saveErr != "" {
+		t.Fatalf("stored aims %+v, save error %q", s.Aims, a.saveErr)
+	}
+}

@@ -407,9 +407,12 @@ const fullRoundEnv = "EVENBEAT_FULL_ROUND"
 //
 // By default it imports the demo session file less the last reading of
 // its latest round and types that reading (Menu, All readings, the
-// reading, five keys, Next, the round's plan): on the shared 2-core test
-// machine with software WebGL each tap waits 10-50 s for the app's frame,
-// so the whole round (81 taps) takes about half an hour. With
+// reading, four keys, Next, the round's plan: 9 taps): on the shared
+// 2-core test machine with software WebGL each tap waited 0.5-80 s for the
+// app's frame (43 s on average, 6.5 min for the 9 taps, 2026-12-02), so
+// the whole round (95 taps) would take over an hour. (The antialiased
+// path fills cost the software GPU most: in one trial with the ebiten
+// canvas's AntiAlias off, taps took 1-3 s instead of 7-30 s.) With
 // EVENBEAT_FULL_ROUND=1 it walks the whole way instead: the demo engine's
 // set-up, the cautions, the cylinder's dead centres from the tyre marks and
 // the round's port marks and dead-centre readings (the same script

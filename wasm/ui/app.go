@@ -540,6 +540,11 @@ func (a *App) commit() {
 		a.note = f.Label + ": " + sentence(err)
 		return
 	}
+	if a.screen == Lead && (v < session.MinTargetLeadMM || v > session.MaxTargetLeadMM) {
+		a.note = fmt.Sprintf("%s: %s %s cannot be a lead (a session file holds %s to %s mm); type it again.", f.Label, a.text, a.unitLabel(),
+			formatNumber(session.MinTargetLeadMM, false), formatNumber(session.MaxTargetLeadMM, false))
+		return
+	}
 	f.set(s, v)
 	a.gen++
 	if a.screen == Lead {

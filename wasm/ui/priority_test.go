@@ -51,6 +51,12 @@ func TestPriorityAndTargetLead(t *testing.T) {
 	if !strings.Contains(a.Note(), "Target lead") || !strings.Contains(a.Note(), "unusual") {
 		t.Fatalf("a 9 mm lead gave note %q", a.Note())
 	}
+	typeKeys(t, a, "0")
+	tap(t, a, "Next")
+	if !strings.Contains(a.Note(), "Target lead: 90 mm cannot be a lead") || a.Screen() != Lead || a.Session().Aims.TargetLeadMM != nil {
+		t.Fatalf("a 90 mm lead: note %q, screen %s, kept %v", a.Note(), a.Screen(), a.Session().Aims.TargetLeadMM)
+	}
+	tap(t, a, KeyDelete.Label())
 	tap(t, a, KeyDelete.Label())
 	typeKeys(t, a, "0.5")
 	tap(t, a, "Next")

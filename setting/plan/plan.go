@@ -224,11 +224,11 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 		plan.Notes = append(plan.Notes, fmt.Sprintf("The readings cannot tell the %s apart from other errors that act alike; the plan does not depend on it, but the fitted value is only a guess.", u))
 	}
 	for i := range plan.Steps {
-		plan.Steps[i].Words = stepWords(plan.Steps[i], session.UnitMM)
+		plan.Steps[i].Words = stepWords(plan.Steps[i], opt.Unit)
 	}
 	if plan.Other != nil {
 		for i := range plan.Other.Steps {
-			plan.Other.Steps[i].Words = stepWords(plan.Other.Steps[i], session.UnitMM)
+			plan.Other.Steps[i].Words = stepWords(plan.Other.Steps[i], opt.Unit)
 		}
 	}
 	if plan.Notes == nil {

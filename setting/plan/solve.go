@@ -45,8 +45,8 @@ type Options struct {
 	Fit FitOptions
 	// Cylinder is the index of the cylinder to plan.
 	Cylinder int
-	// Unit is the display unit of the notes' lengths; Make uses the
-	// session's when it is empty, FromFit mm.
+	// Unit is the display unit of the lengths in the notes and in the
+	// steps' words; Make uses the session's when it is empty, FromFit mm.
 	Unit session.Unit
 }
 

@@ -131,7 +131,7 @@ func (a *App) whatIfPlan() *plan.Plan {
 		}
 		done[j] = true
 		if amt := a.what.amounts[j]; amt != st.Amount {
-			st = a.whatIfStep(s.Adjustments[j], amt, st.Part)
+			st = a.whatIfStep(s.Adjustments[j], amt)
 		}
 		if st.Amount != 0 {
 			p.Steps = append(p.Steps, st)
@@ -139,65 +139,36 @@ func (a *App) whatIfPlan() *plan.Plan {
 	}
 	for j, adj := range s.Adjustments {
 		if !done[j] && a.what.amounts[j] != 0 {
-			p.Steps = append(p.Steps, a.whatIfStep(adj, a.what.amounts[j], ""))
+			p.Steps = append(p.Steps, a.whatIfStep(adj, a.what.amounts[j]))
 		}
 	}
 	return &p
 }
 
-// whatIfStep is a what-if change of adj by amount, in workshop words.
-func (a *App) whatIfStep(adj session.Adjustment, amount float64, part string) plan.Step {
-	if part == "" {
-		part = strings.ToLower(adjustmentName(adj))
+// whatIfStep is a what-if change of adj by amount: the step a plan would
+// hold for it (plan.StepFor), so it reads as the plan's steps do (turns
+// and flats of the thread, mm round a sheave's rim) for the nearest change
+// hands can make. The drag moves in continuous amounts and the model
+// follows them: the step's Amount and IdealAmount are the amount dragged,
+// which the words give first when it is not a whole number of steps.
+func (a *App) whatIfStep(adj session.Adjustment, amount float64) plan.Step {
+	st := plan.StepFor(adj, amount, a.unit())
+	if math.Abs(st.Amount-amount) > 1e-9 {
+		st.Words = amountText(adj, amount, a.unit()) + ". Nearest by hand: " + st.Words
 	}
-	st := plan.Step{Part: part, Kind: adj.Kind, Eccentric: adj.Eccentric, Unit: "mm", IdealAmount: amount, Amount: amount}
-	if adj.Kind.Angular() {
-		st.Unit = "deg"
-	}
-	st.Words = "What if: " + a.changeWords(adj, amount) + "."
+	st.Words = "What if: " + st.Words
+	st.Amount, st.IdealAmount = amount, amount
 	return st
-}
-
-// changeWords says a change of adj by amount as the hands make it.
-func (a *App) changeWords(adj session.Adjustment, amount float64) string {
-	name := adjustmentName(adj)
-	if adj.Kind.Angular() {
-		way := "ahead (more advance)"
-		if adj.Kind == session.ReturnCrankAngle {
-			way = "in the forward running direction"
-		}
-		if amount < 0 {
-			way = "back (less advance)"
-			if adj.Kind == session.ReturnCrankAngle {
-				way = "against the forward running direction"
-			}
-		}
-		w := fmt.Sprintf("%s %.2f deg %s", name, math.Abs(amount), way)
-		if adj.SheaveDiameterMM > 0 {
-			w += ", " + session.FormatLength(math.Abs(adj.RimMM(amount)), a.unit()) + " round the sheave's rim"
-		}
-		return w
-	}
-	way := "longer"
-	if adj.Kind == session.ValveOnSpindle {
-		way = "toward the front cover"
-		if amount < 0 {
-			way = "toward the back"
-		}
-	} else if amount < 0 {
-		way = "shorter"
-	}
-	w := fmt.Sprintf("%s: %s %s", name, session.FormatLength(math.Abs(amount), a.unit()), way)
-	if adj.Thread.Pitch() > 0 && adj.Thread.FlatsPerTurn > 0 {
-		w += fmt.Sprintf(", %.2f turns", math.Abs(adj.Thread.Turns(amount)))
-	}
-	return w
 }
 
 // whatAmountText is the chosen adjustment's what-if amount in its unit.
 func (a *App) whatAmountText() string {
-	adj := a.Session().Adjustments[a.what.adj]
-	v := a.what.amounts[a.what.adj]
+	return amountText(a.Session().Adjustments[a.what.adj], a.what.amounts[a.what.adj], a.unit())
+}
+
+// amountText is a signed change of adj in its unit: "+0.37 mm",
+// "-1.20 deg".
+func amountText(adj session.Adjustment, v float64, unit session.Unit) string {
 	if adj.Kind.Angular() {
 		return fmt.Sprintf("%+.2f deg", v)
 	}
@@ -205,7 +176,7 @@ func (a *App) whatAmountText() string {
 	if v < 0 {
 		sign = "-"
 	}
-	return sign + session.FormatLength(math.Abs(v), a.unit())
+	return sign + session.FormatLength(math.Abs(v), unit)
 }
 
 // planAmount is the plan's amount for the chosen adjustment (nought when

@@ -236,9 +236,14 @@ func BenchmarkFrameRate(b *testing.B) {
 	tap(b, appCtx, bal[0], bal[1], 60*time.Millisecond)
 	waitFor(b, appCtx, 60*time.Second, `JSON.parse(window.evenbeatTargets).some(t => t.Label.startsWith("What if"))`)
 
+	const whatIfJS = `JSON.parse(window.evenbeatTargets).find(t => t.Label.startsWith("What if")).Label`
+	before := eval[string](b, appCtx, whatIfJS)
 	var app, bare float64
 	b.ResetTimer()
 	dragRate(b, appCtx, x0, x1, y, warm)
+	if after := eval[string](b, appCtx, whatIfJS); after == before {
+		b.Fatalf("the drag did not move the what-if amount: %q", after)
+	}
 	for i := 0; i < b.N; i++ {
 		r := dragRate(b, appCtx, x0, x1, y, run)
 		b.Logf("run %d: app %.2f frames/s", i+1, r)

@@ -14,8 +14,9 @@ func (r Round) HasMarks() bool { return r.PortMarks != nil || r.Laps != nil }
 // changing a rod's length moves the spindle and the valve together, so the
 // edges stay where the gauge saw them; moving the valve on its spindle
 // moves the edges against the spindle, so the marks taken before no longer
-// hold (common practice, no source). A gauge moved or re-set also ends
-// them, but the file does not record that; the setter is asked.
+// hold (common practice, no source; the file format's rule for rounds
+// without marks, docs/session-format.md, rounds[]). A gauge moved or re-set
+// also ends them, but the file does not record that; the setter is asked.
 //
 // moved is the round (counting from 0) whose change of the valve on its
 // spindle ended the search, or -1. A round out of range has no kept marks.

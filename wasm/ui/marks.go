@@ -13,7 +13,8 @@ const portMarksStep = "Port marks"
 // keptMarks finds the earlier round whose port marks still hold in round
 // ri of cylinder c, by the session file's rule (session.Cylinder.KeptMarks:
 // until the valve is moved on its spindle); moved is the round whose
-// spindle change ended the search, or -1.
+// spindle change ended the search, or -1. The port marks' fields ask
+// through it.
 func keptMarks(c *session.Cylinder, ri int) (from, moved int, ok bool) {
 	return c.KeptMarks(ri)
 }

@@ -194,7 +194,7 @@ func measureFields(s *session.Session, ci, ri int, tyreCutOffs, lapsForm bool) [
 	round := func(s *session.Session) *session.Round { return &s.Cylinders[ci].Rounds[ri] }
 	var fs []field
 	// Port marks: optional when an earlier round's still hold.
-	_, _, keep := keptMarks(&s.Cylinders[ci], ri)
+	_, _, keep := s.Cylinders[ci].KeptMarks(ri)
 	pm := func(end session.End, label, other, say string) field {
 		return field{CrankDeg: deadCentreCrank(end), Key: rp + ".port_marks." + string(end) + "_gauge_mm", path: func(*session.Session) string { return rp + ".port_marks" }, Step: portMarksStep, Label: label, Say: say, Lo: -50, Hi: 50, Optional: keep,
 			get: func(s *session.Session) (float64, bool) {

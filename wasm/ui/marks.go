@@ -3,21 +3,10 @@ package ui
 import (
 	"fmt"
 	"strings"
-
-	"evenbeat/setting/session"
 )
 
 // portMarksStep is the heading of the port marks' fields.
 const portMarksStep = "Port marks"
-
-// keptMarks finds the earlier round whose port marks still hold in round
-// ri of cylinder c, by the session file's rule (session.Cylinder.KeptMarks:
-// until the valve is moved on its spindle); moved is the round whose
-// spindle change ended the search, or -1. The port marks' fields ask
-// through it.
-func keptMarks(c *session.Cylinder, ri int) (from, moved int, ok bool) {
-	return c.KeptMarks(ri)
-}
 
 // marksAdvice is the sentence and the one-tap choice the port marks' step
 // shows in a later round: keep an earlier round's marks when they still

@@ -26,6 +26,13 @@
 // state), evenbeatField (the keypad's field), evenbeatTargets (JSON: label
 // and rect of every touch target) and evenbeatPlanText (the plan's words).
 // The page may hand a session file's text to window.evenbeatImport.
+// The app also publishes evenbeatDraws (frames really drawn), evenbeatPlanMs
+// (the last fit and plan), evenbeatSettled, evenbeatName, evenbeatNaming,
+// evenbeatUpdateReady, evenbeatShare and evenbeatStoreError. The page
+// (site/index.html) offers a waiting new version through evenbeatOnUpdate
+// and evenbeatActivateUpdate, and makes and shares the report PNG with the
+// browser's own encoder in evenbeatSharePNG. The engine-name box is
+// name_js.go, the report share share_js.go, the update offer update_js.go.
 //
 // Units: logical units are CSS pixels, origin top-left, y down, as in
 // render; the screen has scale device pixels per logical unit

@@ -1,10 +1,6 @@
 package main
 
 import (
-	"os"
-	"os/exec"
-	"path/filepath"
-	"runtime"
 	"slices"
 	"strings"
 	"testing"
@@ -16,21 +12,9 @@ import (
 // reached from ./wasm built for js/wasm. Together they cost several
 // hundred kilobytes of gzipped wasm.
 func TestAppCarriesNoFontFiles(t *testing.T) {
-	root, err := moduleRoot(".")
-	if err != nil {
-		t.Fatal(err)
-	}
-	goBin := filepath.Join(runtime.GOROOT(), "bin", "go") //nolint:staticcheck // the toolchain running this test
-	cmd := exec.Command(goBin, "list", "-deps", "./wasm")
-	cmd.Dir = root
-	cmd.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm")
-	out, err := cmd.CombinedOutput()
-	if err != nil {
-		t.Fatalf("go list: %v\n%s", err, out)
-	}
-	pkgs := strings.Fields(string(out))
+	pkgs := goListDeps(t, []string{"GOOS=js", "GOARCH=wasm"}, "{{.ImportPath}}", "./wasm")
 	if len(pkgs) < 20 || !slices.Contains(pkgs, "evenbeat/render/font") {
-		t.Fatalf("go list listed %d packages, without render/font: %s", len(pkgs), out)
+		t.Fatalf("go list listed %d packages, without render/font: %q", len(pkgs), pkgs)
 	}
 	for _, pkg := range pkgs {
 		if strings.HasPrefix(pkg, "github.com/golang/freetype") ||

@@ -17,21 +17,10 @@ import (
 // syscall/js, so there no package of this module may import it directly,
 // and ebiten must still be absent.
 func TestDomainAndDrawingStayPortable(t *testing.T) {
-	root, err := moduleRoot(".")
-	if err != nil {
-		t.Fatal(err)
-	}
-	goBin := filepath.Join(runtime.GOROOT(), "bin", "go") //nolint:staticcheck // the toolchain running this test
 	for _, target := range [][]string{nil, {"GOOS=js", "GOARCH=wasm"}} {
-		cmd := exec.Command(goBin, "list", "-deps", "-f", "{{.ImportPath}} {{join .Imports \" \"}}", "./setting/...", "./render/...")
-		cmd.Dir = root
-		cmd.Env = append(os.Environ(), target...)
-		out, err := cmd.CombinedOutput()
-		if err != nil {
-			t.Fatalf("go list (%v): %v\n%s", target, err, out)
-		}
+		lines := goListDeps(t, target, importsFormat, "./setting/...", "./render/...")
 		n := 0
-		for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
+		for _, line := range lines {
 			f := strings.Fields(line)
 			pkg, imports := f[0], f[1:]
 			n++
@@ -47,7 +36,7 @@ func TestDomainAndDrawingStayPortable(t *testing.T) {
 			}
 		}
 		if n < 3 {
-			t.Fatalf("go list listed only %d packages: %s", n, out)
+			t.Fatalf("go list listed only %d packages: %q", n, lines)
 		}
 	}
 }
@@ -57,21 +46,10 @@ func TestDomainAndDrawingStayPortable(t *testing.T) {
 // app must not depend on it; internal/jsonx reads and writes the app's
 // JSON instead. Command-line-only code may use encoding/json.
 func TestBrowserBuildLeavesOutEncodingJSON(t *testing.T) {
-	root, err := moduleRoot(".")
-	if err != nil {
-		t.Fatal(err)
-	}
-	goBin := filepath.Join(runtime.GOROOT(), "bin", "go") //nolint:staticcheck // the toolchain running this test
-	cmd := exec.Command(goBin, "list", "-deps", "-f", "{{.ImportPath}} {{join .Imports \" \"}}", "./wasm")
-	cmd.Dir = root
-	cmd.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm")
-	out, err := cmd.CombinedOutput()
-	if err != nil {
-		t.Fatalf("go list: %v\n%s", err, out)
-	}
+	lines := goListDeps(t, []string{"GOOS=js", "GOARCH=wasm"}, importsFormat, "./wasm")
 	var importers []string
 	n := 0
-	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
+	for _, line := range lines {
 		f := strings.Fields(line)
 		n++
 		if slices.Contains(f[1:], "encoding/json") {
@@ -79,9 +57,32 @@ func TestBrowserBuildLeavesOutEncodingJSON(t *testing.T) {
 		}
 	}
 	if n < 10 {
-		t.Fatalf("go list listed only %d packages: %s", n, out)
+		t.Fatalf("go list listed only %d packages: %q", n, lines)
 	}
 	if len(importers) > 0 {
 		t.Errorf("the browser build depends on encoding/json through %s; read and write JSON there with evenbeat/internal/jsonx, or keep command-line-only JSON code out of the js build (a //go:build !js file)", strings.Join(importers, ", "))
 	}
 }
+
+// goListDeps runs `go list -deps -f FORMAT PATTERNS...` in the module root
+// with the toolchain running the test and env added, and returns one line
+// per package.
+func goListDeps(t *testing.T, env []string, format string, patterns ...string) []string {
+	t.Helper()
+	root, err := moduleRoot(".")
+	if err != nil {
+		t.Fatal(err)
+	}
+	goBin := filepath.Join(runtime.GOROOT(), "bin", "go") //nolint:staticcheck // the toolchain running this test
+	cmd := exec.Command(goBin, append([]string{"list", "-deps", "-f", format}, patterns...)...)
+	cmd.Dir = root
+	cmd.Env = append(os.Environ(), env...)
+	out, err := cmd.CombinedOutput()
+	if err != nil {
+		t.Fatalf("go list %v (%v): %v\n%s", patterns, env, err, out)
+	}
+	return strings.Split(strings.TrimSpace(string(out)), "\n")
+}
+
+// importsFormat lists a package and its imports on one line.
+const importsFormat = "{{.ImportPath}} {{join .Imports \" \"}}"

@@ -29,7 +29,14 @@ type ebitenCanvas struct {
 	scale float64
 	w, h  float64 // logical size
 
-	white  *ebiten.Image // a white pixel, the source of every fill
+	white *ebiten.Image // a white pixel, the source of every fill
+	// smooth is whether fills on the screen are anti-aliased: only below
+	// two device pixels per CSS pixel. Ebiten anti-aliases through an
+	// offscreen of twice the target's size, flushed whenever anything else
+	// (a glyph) is drawn between fills; at 3x that cost seconds a frame on
+	// a software GPU, and a phone's 3x pixels hide the steps anyway.
+	// Glyph pages are always filled smooth.
+	smooth bool
 	glyphs map[glyphKey]*glyph
 	page   *glyphPage    // the page new glyphs go into
 	placed []placedGlyph // the glyphs of the Text call being drawn
@@ -79,6 +86,7 @@ func newEbitenCanvas() *ebitenCanvas {
 // Begin sets the target image and its scale (device pixels per logical unit).
 func (c *ebitenCanvas) Begin(dst *ebiten.Image, scale float64) {
 	c.dst, c.scale = dst, scale
+	c.smooth = scale < 2
 	b := dst.Bounds()
 	c.w, c.h = float64(b.Dx())/scale, float64(b.Dy())/scale
 }
@@ -91,11 +99,11 @@ func (c *ebitenCanvas) Clear(col color.RGBA) { c.dst.Fill(col) }
 
 // Fill fills p with the non-zero winding rule.
 func (c *ebitenCanvas) Fill(p render.Path, s render.FillStyle) {
-	c.fill(c.dst, p, float32(c.scale), s.Color)
+	c.fill(c.dst, p, float32(c.scale), s.Color, c.smooth)
 }
 
 // fill fills p, scaled by k, on dst.
-func (c *ebitenCanvas) fill(dst *ebiten.Image, p render.Path, k float32, col color.RGBA) {
+func (c *ebitenCanvas) fill(dst *ebiten.Image, p render.Path, k float32, col color.RGBA, smooth bool) {
 	c.vs, c.is = c.vs[:0], c.is[:0]
 	var sub vector.Path
 	open := false
@@ -109,7 +117,7 @@ func (c *ebitenCanvas) fill(dst *ebiten.Image, p render.Path, k float32, col col
 		// came before this sub-path and start again with it.
 		if nv > 0 && (len(c.vs) > 60000 || len(c.is) > ebiten.MaxIndicesCount-3) {
 			c.vs, c.is = c.vs[:nv], c.is[:ni]
-			c.draw(dst, col)
+			c.draw(dst, col, smooth)
 			c.vs, c.is = sub.AppendVerticesAndIndicesForFilling(c.vs[:0], c.is[:0])
 		}
 		sub = vector.Path{}
@@ -139,11 +147,11 @@ func (c *ebitenCanvas) fill(dst *ebiten.Image, p render.Path, k float32, col col
 		}
 	}
 	flushSub()
-	c.draw(dst, col)
+	c.draw(dst, col, smooth)
 }
 
-// draw fills the pending triangles in col on dst.
-func (c *ebitenCanvas) draw(dst *ebiten.Image, col color.RGBA) {
+// draw fills the pending triangles in col on dst, anti-aliased when smooth.
+func (c *ebitenCanvas) draw(dst *ebiten.Image, col color.RGBA, smooth bool) {
 	if len(c.is) == 0 {
 		return
 	}
@@ -156,7 +164,7 @@ func (c *ebitenCanvas) draw(dst *ebiten.Image, col color.RGBA) {
 	// An RGBA value from image/color is premultiplied already.
 	op := &ebiten.DrawTrianglesOptions{
 		FillRule:       ebiten.FillRuleNonZero,
-		AntiAlias:      true,
+		AntiAlias:      smooth,
 		ColorScaleMode: ebiten.ColorScaleModePremultipliedAlpha,
 	}
 	dst.DrawTriangles(c.vs, c.is, c.white, op)
@@ -259,7 +267,7 @@ func (c *ebitenCanvas) cacheGlyphs(placed []placedGlyph) {
 			if w > glyphPageSize || h > glyphPageSize {
 				continue
 			}
-			c.fill(c.page.img, batch, 1, white)
+			c.fill(c.page.img, batch, 1, white, true)
 			batch = batch[:0]
 			c.page = &glyphPage{img: ebiten.NewImage(glyphPageSize, glyphPageSize)}
 			at, _ = c.page.place(w, h)
@@ -269,6 +277,6 @@ func (c *ebitenCanvas) cacheGlyphs(placed []placedGlyph) {
 		batch = append(batch, render.GlyphPath(key.r, size, key.bold, origin)...)
 	}
 	if len(batch) > 0 {
-		c.fill(c.page.img, batch, 1, white)
+		c.fill(c.page.img, batch, 1, white, true)
 	}
 }

@@ -368,7 +368,7 @@ func TestNoStorage(t *testing.T) {
 		t.Fatalf("the database did not open: %s", e)
 	}
 	slowTapLabel(t, ctx, "Brackenfold (Stephenson) (invented demo)")
-	st := waitValue[string](t, ctx, 30*time.Second, `window.evenbeatStatus.startsWith("Not saved") && window.evenbeatStatus`)
+	st := waitValue[string](t, ctx, 30*time.Second, `window.evenbeatStatus.startsWith("Not saved:") && window.evenbeatStatus`)
 	t.Logf("storage full: %s", st)
 	for _, want := range []string{"storage for this app is full", "QuotaExceededError", "export"} {
 		if !strings.Contains(st, want) {

@@ -17,7 +17,7 @@ import (
 // demoSession is the invented Brackenfold session shared by the tests.
 func demoSession(t testing.TB) *session.Session {
 	t.Helper()
-	s, err := report.ReadSession("../testdata/sessions/brackenfold-stephenson.json")
+	s, err := session.ReadFile("../testdata/sessions/brackenfold-stephenson.json")
 	if err != nil {
 		t.Fatal(err)
 	}

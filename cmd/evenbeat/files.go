@@ -97,7 +97,7 @@ func (p *planFlags) options(s *session.Session) (plan.Options, error) {
 
 // load reads the session file at path and the plan options for it.
 func (p *planFlags) load(path string) (*session.Session, plan.Options, error) {
-	s, err := report.ReadSession(path)
+	s, err := session.ReadFile(path)
 	if err != nil {
 		return nil, plan.Options{}, err
 	}

@@ -33,12 +33,7 @@ type entry struct {
 // decodeDemo decodes the demo session file.
 func decodeDemo(t testing.TB) *session.Session {
 	t.Helper()
-	f, err := os.Open(demoSessionFile)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	s, err := session.Decode(f)
+	s, err := session.ReadFile(demoSessionFile)
 	if err != nil {
 		t.Fatal(err)
 	}

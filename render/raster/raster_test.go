@@ -15,6 +15,7 @@ import (
 	"evenbeat/render/raster"
 	"evenbeat/render/report"
 	"evenbeat/setting"
+	"evenbeat/setting/session"
 )
 
 var update = flag.Bool("update", false, "rewrite the PNG goldens in testdata")
@@ -293,7 +294,7 @@ func TestPNGGoldens(t *testing.T) {
 // not move when the solver improves.
 func sessionModel(t *testing.T) *render.Model {
 	t.Helper()
-	s, err := report.ReadSession("../../testdata/sessions/brackenfold-stephenson.json")
+	s, err := session.ReadFile("../../testdata/sessions/brackenfold-stephenson.json")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -8,11 +8,9 @@
 package report
 
 import (
-	"fmt"
 	"image/png"
 	"io"
 	"math"
-	"os"
 
 	"evenbeat/render"
 	"evenbeat/render/raster"
@@ -72,19 +70,4 @@ func WritePNG(w io.Writer, s *session.Session, opt Options) error {
 	}
 	enc := png.Encoder{CompressionLevel: png.BestSpeed}
 	return enc.Encode(w, Draw(rm, opt).Image())
-}
-
-// ReadSession reads and checks the session file at path (see
-// session.Decode); errors say which file.
-func ReadSession(path string) (*session.Session, error) {
-	f, err := os.Open(path)
-	if err != nil {
-		return nil, err
-	}
-	defer f.Close()
-	s, err := session.Decode(f)
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", path, err)
-	}
-	return s, nil
 }

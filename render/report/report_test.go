@@ -15,7 +15,7 @@ import (
 
 func demoSession(t testing.TB) *session.Session {
 	t.Helper()
-	s, err := report.ReadSession("../../testdata/sessions/brackenfold-stephenson.json")
+	s, err := session.ReadFile("../../testdata/sessions/brackenfold-stephenson.json")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -130,12 +130,7 @@ func checkLeadPlan(t *testing.T, spec setting.EngineSpec, truth Deviations, adjs
 // exampleSession reads the example session.
 func exampleSession(t *testing.T) *session.Session {
 	t.Helper()
-	f, err := os.Open("../../testdata/sessions/brackenfold-stephenson.json")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	s, err := session.Decode(f)
+	s, err := session.ReadFile("../../testdata/sessions/brackenfold-stephenson.json")
 	if err != nil {
 		t.Fatal(err)
 	}

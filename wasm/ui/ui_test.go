@@ -108,12 +108,7 @@ func drawText(a *App) (string, *recorder.Canvas) {
 // demoSession is the invented demo session the readings are typed from.
 func demoSession(t testing.TB) *session.Session {
 	t.Helper()
-	f, err := os.Open("../../testdata/sessions/brackenfold-stephenson.json")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	s, err := session.Decode(f)
+	s, err := session.ReadFile("../../testdata/sessions/brackenfold-stephenson.json")
 	if err != nil {
 		t.Fatal(err)
 	}

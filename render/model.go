@@ -73,6 +73,7 @@ type Model struct {
 	FitRMSMM float64
 
 	geo   MotionGeometry
+	geoOK bool       // geo is worked out on the first Geometry call
 	built plan.Model // as built (the drawing plus the fitted deviations)
 	gear  setting.PosedGear
 }
@@ -94,7 +95,7 @@ func NewEngineModel(spec setting.EngineSpec) (*Model, error) {
 	for _, n := range notches {
 		pos = append(pos, Position{Notch: n, Direction: setting.RunningDirections(n.Reverser)[0]})
 	}
-	if err := m.fill(pos, nil); err != nil {
+	if err := m.fill(pos, nil, nil, nil); err != nil {
 		return nil, err
 	}
 	return m, nil
@@ -151,7 +152,8 @@ func NewModel(s *session.Session, cyl int, fit *plan.Fit, p *plan.Plan) (*Model,
 		pos = append(pos, Position{Notch: setting.Notch{Name: st.Notch, Reverser: setting.Reverser(st.Reverser)}, Direction: st.Direction})
 	}
 	after := afterModel(fit.Model, p.Steps)
-	if err := m.fill(pos, &after); err != nil {
+	now, aft := p.EventSets()
+	if err := m.fill(pos, &after, now, aft); err != nil {
 		return nil, err
 	}
 	m.Readings = readings(s, cyl, fit)
@@ -187,8 +189,10 @@ func afterModel(m plan.Model, steps []plan.Step) plan.Model {
 }
 
 // fill samples the curves and events of every position, today from the
-// as-built model and after from after (when not nil).
-func (m *Model) fill(pos []Position, after *plan.Model) error {
+// as-built model and after from after (when not nil). Event sets already
+// found (the plan's, see plan.Plan.EventSets), one per position, are taken
+// as they are rather than found again.
+func (m *Model) fill(pos []Position, after *plan.Model, nowSets, afterSets []setting.EventSet) error {
 	crank, err := m.Spec.Engine.Prepare()
 	if err != nil {
 		return err
@@ -200,61 +204,78 @@ func (m *Model) fill(pos []Position, after *plan.Model) error {
 	if g, err := m.built.Gear(); err == nil {
 		m.gear, _ = g.(setting.PosedGear)
 	}
+	known := func(sets []setting.EventSet, i int) *setting.EventSet {
+		if len(sets) != len(pos) {
+			return nil
+		}
+		return &sets[i]
+	}
 	for i := range pos {
 		p := &pos[i]
-		if p.Now, p.NowEvents, err = sample(m.built, m.Spec, p.Notch.Reverser, p.Direction); err != nil {
+		if p.Now, p.NowEvents, err = sample(m.built, m.Spec, p.Notch.Reverser, p.Direction, known(nowSets, i)); err != nil {
 			return err
 		}
 		if after != nil {
-			if p.After, p.AfterEvents, err = sample(*after, m.Spec, p.Notch.Reverser, p.Direction); err != nil {
+			if p.After, p.AfterEvents, err = sample(*after, m.Spec, p.Notch.Reverser, p.Direction, known(afterSets, i)); err != nil {
 				return err
 			}
 			p.HasAfter = true
 		}
 	}
 	m.Positions = pos
-	m.geo = m.geometry()
 	return nil
 }
 
 // sample returns the valve curve of model pm in reverser position r at
-// every CurveStep degrees and its events running in dir.
-func sample(pm plan.Model, spec setting.EngineSpec, r setting.Reverser, dir setting.Direction) ([]float64, setting.EventSet, error) {
-	mo, err := pm.Motion(r)
+// every CurveStep degrees and its events running in dir, both from the
+// curve's interpolant (plan.Curve: 32 linkage solutions, within about
+// 1e-9 mm of the linkage) rather than a linkage solution per angle. The
+// events are set's when it is not nil (found already from the same curve).
+func sample(pm plan.Model, spec setting.EngineSpec, r setting.Reverser, dir setting.Direction, set *setting.EventSet) ([]float64, setting.EventSet, error) {
+	c, err := pm.Curve(r)
 	if err != nil {
 		return nil, setting.EventSet{}, err
 	}
 	out := make([]float64, curveN)
 	for i := range out {
-		v, err := mo(float64(i * CurveStep))
-		if err != nil {
-			return nil, setting.EventSet{}, err
-		}
+		v := c.Value(float64(i * CurveStep))
 		if math.IsNaN(v) || math.IsInf(v, 0) {
 			return nil, setting.EventSet{}, &setting.Error{Field: "motion", Message: "The valve curve is not a finite number at some crank angle."}
 		}
 		out[i] = v
 	}
-	ev, err := setting.Events(spec.Engine, spec.Valve, mo, dir)
+	if set != nil {
+		return out, *set, nil
+	}
+	ev, err := setting.Events(spec.Engine, spec.Valve, c.Motion(), dir)
 	return out, ev, err
 }
 
-// readings places the latest round's dead-centre and sweep readings on the
-// fitted curve, with their residuals.
+// readings places the fitted round's dead-centre and sweep readings on
+// the fitted curve, with their residuals. A fit made by hand, without its
+// readings, gets those of the session's latest round.
 func readings(s *session.Session, cyl int, fit *plan.Fit) []Reading {
-	obs, err := s.Observations(cyl)
-	if err != nil {
-		return nil
+	obs := fit.Observations()
+	if obs == nil {
+		all, err := s.Observations(cyl)
+		if err != nil {
+			return nil
+		}
+		last := len(s.Cylinders[cyl].Rounds) - 1
+		for _, o := range all {
+			if o.Round == last {
+				obs = append(obs, o)
+			}
+		}
 	}
 	res := map[string]plan.Residual{}
 	for _, r := range fit.Residuals {
 		res[r.Field] = r
 	}
-	last := len(s.Cylinders[cyl].Rounds) - 1
 	d := fit.Model.Dev
 	var out []Reading
 	for _, o := range obs {
-		if o.Round != last || !o.HasCrank || !o.HasGauge || (o.Kind != session.AtDeadCentre && o.Kind != session.InSweep) {
+		if !o.HasCrank || !o.HasGauge || (o.Kind != session.AtDeadCentre && o.Kind != session.InSweep) {
 			continue
 		}
 		r, ok := res[o.Field]
@@ -320,7 +341,14 @@ func (m *Model) Pose(i int, deg float64) (setting.Pose, bool) {
 }
 
 // Geometry returns the scale drawing's frame (see MotionGeometry).
-func (m *Model) Geometry() MotionGeometry { return m.geo }
+// It is worked out on the first call (a pose of every position round a
+// turn), since only the motion card needs it.
+func (m *Model) Geometry() MotionGeometry {
+	if !m.geoOK {
+		m.geo, m.geoOK = m.geometry(), true
+	}
+	return m.geo
+}
 
 // PositionNames returns the names of the model's reverser positions, for
 // tabs.

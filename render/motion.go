@@ -148,7 +148,7 @@ func LayoutMotion(box Rect, m *Model, i int) MotionLayout {
 	l.SubY = y
 	l.Sub = Wrap(MotionSub(m, i, 288), w, BodySize, false)
 	y += float64(len(l.Sub))*lineStep(BodySize) + gap
-	g := m.geo
+	g := m.Geometry()
 	spanU, spanW := g.Max.U-g.Min.U, g.Max.W-g.Min.W
 	legendH := 3.0 * legendRow
 	side := w >= sideColumnFrom // legend beside the inset, not under it
@@ -227,7 +227,7 @@ func Motion(c Canvas, m *Model, i int, crankDeg float64, box Rect, th Theme) {
 	c.Fill(RoundRect(box, cardRadius), FillStyle{Color: th.Surface})
 	drawLines(c, Point{l.Inner.Min.X, l.TitleY}, l.Title, TextStyle{Color: th.Ink, Size: TitleSize, Bold: true})
 	drawLines(c, Point{l.Inner.Min.X, l.SubY}, Wrap(MotionSub(m, i, crankDeg), l.Inner.W(), BodySize, false), TextStyle{Color: th.Muted, Size: BodySize})
-	g := m.geo
+	g := m.Geometry()
 	e := m.Spec.Engine
 	at := func(p setting.Point) Point { return l.toScreen(g, p) }
 	k := l.Scale

@@ -27,6 +27,13 @@ type trig struct {
 	cos, sin [][]float64 // [k][j]
 }
 
+// curveTrig and effectTrig are the tables of curveSamples and
+// effectSamples, made once: a trig is only read after newTrig.
+var (
+	curveTrig  = newTrig(curveSamples)
+	effectTrig = newTrig(effectSamples)
+)
+
 func newTrig(n int) *trig {
 	t := &trig{n: n}
 	K := n / 2

@@ -201,7 +201,7 @@ type problem struct {
 
 // newProblem groups the observations by reverser position.
 func newProblem(spec setting.EngineSpec, obs []session.Observation) *problem {
-	pb := &problem{spec: spec, obs: obs, use: make([]bool, len(obs)), sig: make([]float64, len(obs)), grp: make([]int, len(obs)), tr: newTrig(curveSamples), tr24: newTrig(effectSamples)}
+	pb := &problem{spec: spec, obs: obs, use: make([]bool, len(obs)), sig: make([]float64, len(obs)), grp: make([]int, len(obs)), tr: curveTrig, tr24: effectTrig}
 	for k := 0; k < 2; k++ {
 		end := setting.CylinderEnd(k)
 		pb.kEdge[k] = spec.Valve.SteamEdge(end, 1) - spec.Valve.SteamEdge(end, 0)
@@ -772,3 +772,8 @@ func (f *Fit) RecheckMessages(unit session.Unit) []string {
 	}
 	return out
 }
+
+// Observations returns the readings the fit was made from (one round's,
+// as FitSession chose them), in file order; Residuals match them by Field.
+// The slice is the fit's own: read it, do not change it.
+func (f *Fit) Observations() []session.Observation { return f.obs }

@@ -108,6 +108,80 @@ type Plan struct {
 	Cautions []string `json:"cautions"`
 
 	fit *Fit
+	// later is the other priority's plan still to make (Options.OtherLater).
+	later *otherWork
+	// sets are the full event sets behind Now and After, and the steps
+	// After was worked out for (see EventSets).
+	sets struct {
+		now, after []setting.EventSet
+		steps      []Step
+	}
+}
+
+// otherWork is what AddOther needs to make the plan with the other
+// priority: the evaluator and the main plan, and where the note comparing
+// them goes among the notes.
+type otherWork struct {
+	ev      *evaluator
+	p       [numParams]float64
+	ks      []knob
+	qNow    []quantities
+	obj     objective
+	canLead bool
+	fit     *Fit
+	unit    session.Unit
+	main    *planned
+	prio    Priority
+	running int
+	noteAt  int
+}
+
+// OtherPending reports whether the plan with the other priority is still
+// to be made (see Options.OtherLater and AddOther).
+func (p *Plan) OtherPending() bool { return p.later != nil }
+
+// AddOther makes the plan with the other priority that Options.OtherLater
+// left out: it sets Other and puts the note comparing the two priorities
+// where FromFit would have put it, so the plan is then the same as one
+// made at once. Without the other plan pending it does nothing. When the
+// other priority cannot be planned the plan stays without it, as FromFit
+// leaves it.
+func (p *Plan) AddOther() {
+	w := p.later
+	if w == nil {
+		return
+	}
+	p.later = nil
+	alt, err := w.ev.plan(w.p, w.ks, w.qNow, w.obj, w.canLead, w.fit, w.unit)
+	if err != nil {
+		return
+	}
+	p.Other = &Alternative{Priority: w.obj.prio, Steps: alt.steps, After: alt.after}
+	for i := range p.Other.Steps {
+		p.Other.Steps[i].Words = stepWords(p.Other.Steps[i], w.unit)
+	}
+	note := angularityNote(w.main, alt, w.prio, w.running, w.unit)
+	at := min(w.noteAt, len(p.Notes))
+	p.Notes = append(p.Notes[:at:at], append([]string{note}, p.Notes[at:]...)...)
+}
+
+// EventSets returns the full event sets (setting.Events) behind Now and
+// After, in their order, so a diagram need not find them again. now is
+// nil for a plan not made by FromFit (one decoded from JSON); after is nil
+// as well once Steps no longer hold what the plan made (a what-if copy
+// with other amounts), since After no longer follows from them.
+func (p *Plan) EventSets() (now, after []setting.EventSet) {
+	now = p.sets.now
+	if len(p.Steps) != len(p.sets.steps) {
+		return now, nil
+	}
+	for i, st := range p.Steps {
+		was := p.sets.steps[i]
+		if st.Kind != was.Kind || st.Eccentric != was.Eccentric || st.Amount != was.Amount {
+			return now, nil
+		}
+	}
+	return now, p.sets.after
 }
 
 // Make fits cylinder opt.Cylinder of a session and plans its adjustments.
@@ -198,15 +272,20 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 		return nil, err
 	}
 	plan.Steps, plan.Now, plan.After = main.steps, main.now, main.after
+	plan.sets.steps = append([]Step(nil), main.steps...)
+	for i := range main.qNow {
+		plan.sets.now = append(plan.sets.now, main.qNow[i].ev)
+		plan.sets.after = append(plan.sets.after, main.qAft[i].ev)
+	}
 	plan.Notes = append(plan.Notes, main.notes...)
 	other := EqualCutOffs
 	if opt.Priority == EqualCutOffs {
 		other = EqualLeads
 	}
-	alt, err := ev.plan(p, ks, qNow, objective{prio: other, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit, opt.Unit)
-	if err == nil {
-		plan.Other = &Alternative{Priority: other, Steps: alt.steps, After: alt.after}
-		plan.Notes = append(plan.Notes, angularityNote(main, alt, opt.Priority, running, opt.Unit))
+	plan.later = &otherWork{ev: ev, p: p, ks: ks, qNow: qNow, obj: objective{prio: other, running: running, target: opt.TargetLeadMM, design: design, full: full},
+		canLead: canLead, fit: fit, unit: opt.Unit, main: main, prio: opt.Priority, running: running, noteAt: len(plan.Notes)}
+	if !opt.OtherLater {
+		plan.AddOther()
 	}
 	if len(plan.Steps) == 0 {
 		plan.Notes = append(plan.Notes, "Nothing to change: no change the engine allows, in steps hands can make, would make it better by this priority by more than the readings can tell without leaving another position worse.")
@@ -225,11 +304,6 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	}
 	for i := range plan.Steps {
 		plan.Steps[i].Words = stepWords(plan.Steps[i], opt.Unit)
-	}
-	if plan.Other != nil {
-		for i := range plan.Other.Steps {
-			plan.Other.Steps[i].Words = stepWords(plan.Other.Steps[i], opt.Unit)
-		}
 	}
 	if plan.Notes == nil {
 		plan.Notes = []string{}

@@ -48,6 +48,11 @@ type Options struct {
 	// Unit is the display unit of the lengths in the notes and in the
 	// steps' words; Make uses the session's when it is empty, FromFit mm.
 	Unit session.Unit
+	// OtherLater leaves the plan made with the other priority (Plan.Other
+	// and the note comparing the two) to a later Plan.AddOther call, so
+	// that an app can show the plan first; the plan is then the same as
+	// one made without it.
+	OtherLater bool
 }
 
 // position is a reverser position run one way.
@@ -208,7 +213,7 @@ type evaluator struct {
 
 // newEvaluator prepares an evaluator for an engine and positions.
 func newEvaluator(spec setting.EngineSpec, crank setting.Crank, ps []position) *evaluator {
-	ev := &evaluator{spec: spec, crank: crank, ps: ps, tr: newTrig(curveSamples), tr24: newTrig(effectSamples)}
+	ev := &evaluator{spec: spec, crank: crank, ps: ps, tr: curveTrig, tr24: effectTrig}
 	for k := 0; k < 2; k++ {
 		end := setting.CylinderEnd(k)
 		ev.kEdge[k] = spec.Valve.SteamEdge(end, 1) - spec.Valve.SteamEdge(end, 0)

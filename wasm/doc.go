@@ -27,7 +27,9 @@
 // and rect of every touch target) and evenbeatPlanText (the plan's words).
 // The page may hand a session file's text to window.evenbeatImport.
 // The app also publishes evenbeatDraws (frames really drawn), evenbeatPlanMs
-// (the last fit and plan), evenbeatSettled, evenbeatName, evenbeatNaming,
+// (the last fit, plan and diagrams' model: the time until the plan can be
+// drawn), evenbeatOtherMs (its other priority's plan, made on the tick
+// after the plan's first frame), evenbeatSettled, evenbeatName, evenbeatNaming,
 // evenbeatUpdateReady, evenbeatShare and evenbeatStoreError. The page
 // (site/index.html) offers a waiting new version through evenbeatOnUpdate
 // and evenbeatActivateUpdate, and makes and shares the report PNG with the

@@ -138,9 +138,16 @@ func (g *flowGame) publish() {
 	g.window.Set("evenbeatStatus", g.ui.Status())
 	g.window.Set("evenbeatField", g.ui.Field())
 	g.window.Set("evenbeatTargets", targetsJSON(g.ui.Targets()))
+	// While the plan waits for its other priority (made on the tick after
+	// its first frame) the words are left as they were: asking for them
+	// would make it now, before the plan is drawn.
 	words := ""
 	if g.ui.Screen() == ui.Plan {
-		words = g.ui.PlanText()
+		if g.ui.PlanPending() {
+			words = g.window.Get("evenbeatPlanText").String()
+		} else {
+			words = g.ui.PlanText()
+		}
 	}
 	g.window.Set("evenbeatPlanText", words)
 	g.window.Set("evenbeatSettled", g.settled())
@@ -150,6 +157,9 @@ func (g *flowGame) publish() {
 		planMs = float64(d.Microseconds()) / 1000
 	}
 	g.window.Set("evenbeatPlanMs", planMs)
+	if d := g.ui.OtherTime(); d > 0 {
+		g.window.Set("evenbeatOtherMs", float64(d.Microseconds())/1000)
+	}
 	name := ""
 	if s := g.ui.Session(); s != nil {
 		name = s.Name

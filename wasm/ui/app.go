@@ -151,6 +151,8 @@ type App struct {
 
 	updateReady bool          // a new version waits: the banner shows
 	planTime    time.Duration // how long the last fit, plan and model took
+	otherTime   time.Duration // how long the other priority's plan took, made after
+	drawnPlan   bool          // the plan has been drawn while its other priority waits
 
 	// The keypad's fields while the target lead is typed, given back after.
 	leadFields []field
@@ -264,6 +266,9 @@ func (a *App) Update() bool {
 			a.saveErr, a.errKey = "", "" // a later write of the whole value holds everything
 		}
 		a.dirty = true
+	}
+	if a.drawnPlan {
+		a.finishPlan()
 	}
 	a.setStatus()
 	return a.dirty
@@ -634,6 +639,9 @@ func (a *App) makePlan() {
 	}
 	opt := plan.AimsOptions(s.Aims) // the session's own aims
 	opt.Unit, opt.Cylinder, opt.Fit = a.unit(), a.cyl, plan.FitOptions{Round: a.planRound}
+	// The plan with the other priority (a note and the words' other
+	// choice) is made on the tick after the plan is first drawn.
+	opt.OtherLater = true
 	p, err := plan.FromFit(fit, s.Adjustments, opt)
 	if err != nil {
 		a.planNote = []string{sentence(err)}
@@ -649,6 +657,23 @@ func (a *App) makePlan() {
 	a.resetWhatIf()
 }
 
+// PlanPending reports whether the plan shown still waits for its other
+// priority's plan, which the first Update after the plan is drawn makes
+// (or PlanText, which needs it).
+func (a *App) PlanPending() bool { return a.plan != nil && a.plan.OtherPending() }
+
+// finishPlan makes the plan's other priority if it is still to make.
+func (a *App) finishPlan() {
+	if !a.PlanPending() {
+		return
+	}
+	start := time.Now()
+	a.plan.AddOther()
+	a.otherTime = time.Since(start)
+	a.drawnPlan = false
+	a.dirty = true
+}
+
 // clearPlan forgets the plan shown.
 func (a *App) clearPlan() {
 	a.fit, a.plan, a.model, a.planNote = nil, nil, nil, nil
@@ -660,6 +685,7 @@ func (a *App) clearPlan() {
 // PlanText returns the plan in words, as plain text (for the page's live
 // region and for copying), or why there is no plan; "" off the plan.
 func (a *App) PlanText() string {
+	a.finishPlan()
 	if a.plan == nil {
 		return strings.Join(a.planNote, "\n")
 	}

@@ -70,3 +70,27 @@ func BenchmarkFrameMeasure(b *testing.B) {
 		a.Draw(c)
 	}
 }
+
+// BenchmarkMakePlan is what the app does when a round is finished or a
+// session file is imported: fit, plan and the diagrams' model of the demo
+// session as shipped (issue 6's goal: under 16 ms inside the browser; run
+// it as wasm under node with
+// GOOS=js GOARCH=wasm go test -exec "$(go env GOROOT)/lib/wasm/go_js_wasm_exec").
+func BenchmarkMakePlan(b *testing.B) {
+	a := newTestApp(b, newMemStore())
+	src, err := encodeSession(demoSession(b))
+	if err != nil {
+		b.Fatal(err)
+	}
+	if err := a.Import(src); err != nil {
+		b.Fatal(err)
+	}
+	if a.plan == nil {
+		b.Fatalf("no plan: %q", a.planNote)
+	}
+	b.ReportAllocs()
+	defer cpubench.Report(b, cpubench.Now())
+	for b.Loop() {
+		a.makePlan()
+	}
+}

@@ -22,6 +22,7 @@ func (a *App) Draw(c render.Canvas) {
 		if m := a.shownModel(); m != nil {
 			render.DrawScreen(c, m, a.renderScreen(), v.body, th)
 		}
+		a.drawnPlan = a.PlanPending()
 	}
 	for _, p := range v.paras {
 		col := th.Ink

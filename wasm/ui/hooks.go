@@ -41,8 +41,13 @@ func (a *App) SetUpdateReady(ready bool) {
 	}
 }
 
-// PlanTime returns how long the last fit, plan and diagram model took.
+// PlanTime returns how long the last fit, plan and diagram model took:
+// the time until the plan can be shown.
 func (a *App) PlanTime() time.Duration { return a.planTime }
+
+// OtherTime returns how long the last plan's other priority took, made
+// on the tick after the plan was first drawn (0 before).
+func (a *App) OtherTime() time.Duration { return a.otherTime }
 
 // reportName is the file name of the shared report.
 func (a *App) reportName() string {
@@ -54,6 +59,7 @@ func (a *App) share() {
 	if a.opt.OnShare == nil || a.model == nil {
 		return
 	}
+	a.finishPlan() // the report's notes compare the two priorities
 	a.opt.OnShare(a.reportName(), render.ReportModel{Model: a.model, Session: a.Session()})
 }
 

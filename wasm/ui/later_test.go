@@ -1,0 +1,51 @@
+package ui
+
+import (
+	"bytes"
+	"testing"
+
+	"evenbeat/render/recorder"
+	"evenbeat/setting/plan"
+)
+
+// TestOtherPriorityAfterFirstFrame: the plan is shown before its other
+// priority's plan is made; the first Update after the plan is drawn makes
+// it, and the plan's words are then those of a plan made at once.
+func TestOtherPriorityAfterFirstFrame(t *testing.T) {
+	a := newTestApp(t, newMemStore())
+	s := demoSession(t)
+	src, err := encodeSession(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := a.Import(src); err != nil {
+		t.Fatal(err)
+	}
+	if !a.PlanPending() || a.plan.Other != nil {
+		t.Fatalf("a new plan: pending %v, other %v; want the other priority left for later", a.PlanPending(), a.plan.Other)
+	}
+	a.Update() // not drawn yet: nothing more
+	if !a.PlanPending() {
+		t.Fatal("the other priority was made before the plan was drawn")
+	}
+	a.Draw(recorder.New(phoneW, phoneH))
+	if !a.Update() {
+		t.Error("Update after making the other priority does not ask for a frame")
+	}
+	if a.PlanPending() || a.plan.Other == nil || a.OtherTime() <= 0 {
+		t.Fatalf("after the first frame: pending %v, other %v, took %v", a.PlanPending(), a.plan.Other, a.OtherTime())
+	}
+	opt := plan.AimsOptions(s.Aims)
+	opt.Unit = a.unit()
+	whole, err := plan.Make(s, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var want bytes.Buffer
+	if err := plan.WriteText(&want, whole, a.unit()); err != nil {
+		t.Fatal(err)
+	}
+	if got := a.PlanText(); got != want.String() {
+		t.Errorf("the words after the first frame:\n%s\nwant the plan made at once:\n%s", got, want.String())
+	}
+}

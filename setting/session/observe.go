@@ -3,6 +3,7 @@ package session
 import (
 	"fmt"
 	"math"
+	"strconv"
 
 	"evenbeat/setting"
 )
@@ -292,7 +293,10 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 	gsig := s.Measuring.GaugeResolutionMM / math.Sqrt(12)
 	var out []Observation
 	for ri, r := range a.c.Rounds {
-		path := fmt.Sprintf("cylinders[%d].rounds[%d]", cyl, ri)
+		// Paths and labels by concatenation: this runs for every plan, and
+		// fmt costs most of it in the browser's wasm.
+		cp := "cylinders[" + strconv.Itoa(cyl) + "]"
+		path := cp + ".rounds[" + strconv.Itoa(ri) + "]"
 		base := Observation{Cylinder: cyl, Round: ri, GaugeSigmaMM: gsig}
 		// atCrank starts an observation taken with the crank at an angle.
 		atCrank := func(kind Kind, end End, field string, rp ReverserPosition, dir Direction) Observation {
@@ -304,9 +308,9 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 		marks, from, haveMarks := a.edgesIn(ri)
 		if haveMarks {
 			src := a.c.Rounds[from]
-			field := fmt.Sprintf("cylinders[%d].rounds[%d].port_marks", cyl, from)
+			field := cp + ".rounds[" + strconv.Itoa(from) + "].port_marks"
 			if src.PortMarks == nil {
-				field = fmt.Sprintf("cylinders[%d].rounds[%d].laps", cyl, from)
+				field = cp + ".rounds[" + strconv.Itoa(from) + "].laps"
 			}
 			for k, end := range []End{Front, Back} {
 				o := base
@@ -314,29 +318,29 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 				o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, marks[k], sign*marks[k]
 				o.Label = string(end) + " port mark"
 				if from != ri {
-					o.Label += fmt.Sprintf(" (from round %d)", from+1)
+					o.Label += " (from round " + strconv.Itoa(from+1) + ")"
 				}
 				out = append(out, o)
 			}
 		}
 		for i, d := range r.DeadCentreReadings {
-			o := atCrank(AtDeadCentre, d.End, fmt.Sprintf("%s.dead_centre_readings[%d]", path, i), d.Reverser, d.Direction)
+			o := atCrank(AtDeadCentre, d.End, path+".dead_centre_readings["+strconv.Itoa(i)+"]", d.Reverser, d.Direction)
 			o.CrankDeg, o.CrankSigmaDeg = a.atDeadCentre(d.End, d.Direction)
 			o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, sign*d.GaugeMM, d.GaugeMM
-			o.Label = fmt.Sprintf("%s dead centre, %s", d.End, o.setting())
+			o.Label = string(d.End) + " dead centre, " + o.setting()
 			out = append(out, o)
 		}
 		for i, w := range r.Sweeps {
 			for j, g := range w.Readings {
-				o := atCrank(InSweep, "", fmt.Sprintf("%s.sweeps[%d].readings[%d]", path, i, j), w.Reverser, w.Direction)
+				o := atCrank(InSweep, "", path+".sweeps["+strconv.Itoa(i)+"].readings["+strconv.Itoa(j)+"]", w.Reverser, w.Direction)
 				o.CrankDeg, o.CrankSigmaDeg = a.crank(g.At, w.Direction)
 				o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, sign*g.GaugeMM, g.GaugeMM
-				o.Label = fmt.Sprintf("sweep at %s, %s", markWords(g.At), o.setting())
+				o.Label = "sweep at " + markWords(g.At) + ", " + o.setting()
 				out = append(out, o)
 			}
 		}
 		for i, c := range r.CutOffs {
-			o := atCrank(CutOffKind, c.End, fmt.Sprintf("%s.cut_offs[%d]", path, i), c.Reverser, c.Direction)
+			o := atCrank(CutOffKind, c.End, path+".cut_offs["+strconv.Itoa(i)+"]", c.Reverser, c.Direction)
 			var where string
 			if c.At.Scale != "" {
 				o.CrankDeg, o.CrankSigmaDeg, where = a.place("", c.At, c.Direction)
@@ -352,16 +356,16 @@ func (s *Session) Observations(cyl int) ([]Observation, error) {
 				k := endIndex(c.End)
 				o.HasGauge, o.GaugeMM, o.RawGaugeMM = true, marks[k], sign*marks[k]
 			}
-			o.Label = fmt.Sprintf("%s cut-off at %s, %s", c.End, where, o.setting())
+			o.Label = string(c.End) + " cut-off at " + where + ", " + o.setting()
 			out = append(out, o)
 		}
 		for i, f := range r.FeelerOpenings {
-			o := atCrank(FeelerKind, f.Port, fmt.Sprintf("%s.feeler_openings[%d]", path, i), f.Reverser, f.Direction)
+			o := atCrank(FeelerKind, f.Port, path+".feeler_openings["+strconv.Itoa(i)+"]", f.Reverser, f.Direction)
 			var where string
 			o.CrankDeg, o.CrankSigmaDeg, where = a.place(f.DeadCentre, f.At, f.Direction)
 			o.GaugeSigmaMM = FeelerErrorMM
 			o.OpeningMM = f.OpeningMM
-			o.Label = fmt.Sprintf("%s port opening at %s, %s", f.Port, where, o.setting())
+			o.Label = string(f.Port) + " port opening at " + where + ", " + o.setting()
 			out = append(out, o)
 		}
 	}

@@ -1,11 +1,9 @@
 package ui
 
 import (
-	"bytes"
 	"testing"
 
 	"evenbeat/render/recorder"
-	"evenbeat/setting/plan"
 )
 
 // TestOtherPriorityAfterFirstFrame: the plan is shown before its other
@@ -35,17 +33,5 @@ func TestOtherPriorityAfterFirstFrame(t *testing.T) {
 	if a.PlanPending() || a.plan.Other == nil || a.OtherTime() <= 0 {
 		t.Fatalf("after the first frame: pending %v, other %v, took %v", a.PlanPending(), a.plan.Other, a.OtherTime())
 	}
-	opt := plan.AimsOptions(s.Aims)
-	opt.Unit = a.unit()
-	whole, err := plan.Make(s, opt)
-	if err != nil {
-		t.Fatal(err)
-	}
-	var want bytes.Buffer
-	if err := plan.WriteText(&want, whole, a.unit()); err != nil {
-		t.Fatal(err)
-	}
-	if got := a.PlanText(); got != want.String() {
-		t.Errorf("the words after the first frame:\n%s\nwant the plan made at once:\n%s", got, want.String())
-	}
+	samePlanAs(t, a, "the words after the first frame")
 }

@@ -1,6 +1,9 @@
 package ui
 
 import (
+	"math"
+	"strconv"
+
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
 )
@@ -33,7 +36,113 @@ func (a *App) priorityRows(l *layouter) {
 		acts[i] = func() { a.setPriority(p) }
 	}
 	l.row(labels, on, acts)
+	if a.priority() == plan.Balanced {
+		a.shareRow(l)
+	}
+	if p := a.priority(); (p == plan.EqualCutOffs || p == plan.Balanced) && len(a.runningNotches()) > 1 {
+		l.button("Cut-offs equal in: "+a.runningNotch()+" (change)", false, a.nextRunningNotch)
+	}
 	l.button(lead, false, a.enterLead)
+}
+
+// leadShares are the shares of a balanced plan given to leads that the
+// plan screen offers (the rest goes to cut-offs); a file may hold any
+// other share above 0, which is then shown beside them.
+func leadShares() [3]float64 { return [3]float64{0.25, 0.5, 0.75} }
+
+// shareRow offers the share of a balanced plan given to leads.
+func (a *App) shareRow(l *layouter) {
+	l.muted("How much of the balance goes to equal leads; the rest goes to equal cut-offs.")
+	cur := a.leadShare()
+	var labels []string
+	var on []bool
+	var acts []func()
+	known := false
+	for _, x := range leadShares() {
+		labels = append(labels, "Leads "+percent(x))
+		on = append(on, x == cur)
+		acts = append(acts, func() { a.setLeadShare(x) })
+		known = known || x == cur
+	}
+	if !known { // from a file: shown, chosen, kept
+		labels = append([]string{"Leads " + percent(cur)}, labels...)
+		on = append([]bool{true}, on...)
+		acts = append([]func(){func() {}}, acts...)
+	}
+	l.row(labels, on, acts)
+}
+
+// percent words a share (0 to 1) as a whole percentage.
+func percent(x float64) string { return strconv.Itoa(int(math.Round(100*x))) + " %" }
+
+// leadShare is the share of a balanced plan given to leads: the session's,
+// one half when it names none.
+func (a *App) leadShare() float64 {
+	if m := a.aims(); m != nil && m.LeadShare > 0 {
+		return m.LeadShare
+	}
+	return 0.5
+}
+
+// setLeadShare keeps share x (0 to 1) in the session's aims, saves the
+// session and plans again.
+func (a *App) setLeadShare(x float64) {
+	m := a.aims()
+	if m == nil || x == a.leadShare() || !(x > 0 && x <= 1) {
+		return
+	}
+	m.LeadShare = x
+	a.save()
+	a.makePlan()
+}
+
+// runningNotches are the notches a plan may make the cut-offs equal in,
+// in the reverser's order: full forward and the engine's own notches (as
+// the session file allows).
+func (a *App) runningNotches() []string {
+	s := a.Session()
+	if s == nil {
+		return nil
+	}
+	out := []string{session.FullForward}
+	for _, n := range s.Engine.Notches {
+		if n.Name != session.FullForward && n.Name != session.MidGear && n.Name != session.FullBack {
+			out = append(out, n.Name)
+		}
+	}
+	return out
+}
+
+// runningNotch is the notch whose cut-offs the plan makes equal: the
+// session's, else the engine's first notch, else full forward (as plan
+// chooses).
+func (a *App) runningNotch() string {
+	if m := a.aims(); m != nil && m.RunningNotch != "" {
+		return m.RunningNotch
+	}
+	if s := a.Session(); s != nil && len(s.Engine.Notches) > 0 {
+		return s.Engine.Notches[0].Name
+	}
+	return session.FullForward
+}
+
+// nextRunningNotch makes the cut-offs equal in the next notch of
+// runningNotches (round to the first after the last), saves the session
+// and plans again.
+func (a *App) nextRunningNotch() {
+	m, ns := a.aims(), a.runningNotches()
+	if m == nil || len(ns) < 2 {
+		return
+	}
+	next := ns[0]
+	for i, n := range ns {
+		if n == a.runningNotch() {
+			next = ns[(i+1)%len(ns)]
+		}
+	}
+	m.RunningNotch = next
+	a.save()
+	a.makePlan()
 }
 
 // aims returns the plan aims of the session open, nil when none is.

@@ -203,3 +203,20 @@ func TestExamplePlanFiles(t *testing.T) {
 		}
 	}
 }
+
+// TestOtherLaterJSON: the plan made with Options.OtherLater, then
+// AddOther, writes the same JSON as the plan made at once.
+func TestOtherLaterJSON(t *testing.T) {
+	for _, p := range laterPairs(t) {
+		var a, b bytes.Buffer
+		if err := WriteJSON(&a, p.now, session.UnitMM); err != nil {
+			t.Fatal(err)
+		}
+		if err := WriteJSON(&b, p.later, session.UnitMM); err != nil {
+			t.Fatal(err)
+		}
+		if a.String() != b.String() {
+			t.Errorf("%s: the plan made later writes\n%s\nmade at once:\n%s", p.name, b.String(), a.String())
+		}
+	}
+}

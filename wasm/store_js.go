@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"strings"
 	"syscall/js"
+	"time"
 )
 
 // store is a small string key-value store in the browser's IndexedDB. A
@@ -69,6 +70,40 @@ func storeReason(name, msg string) string {
 	return why + " (" + name + ")"
 }
 
+// slowStorage is how long the browser's database may take to answer at
+// start before the loading screen says it is waiting for it.
+const slowStorage = 4 * time.Second
+
+// awaitStorage waits for the browser database's answer on done. While the
+// start waits on it for longer than slowStorage (another tab holding the
+// database, a busy phone), the loading screen says so and how long it has
+// waited, every second, so the page never looks frozen. It never gives up:
+// a timeout could start the app without the engines already saved, and a
+// save made then could be lost.
+func awaitStorage(done <-chan error) error {
+	tick := time.NewTicker(time.Second)
+	defer tick.Stop()
+	start := time.Now()
+	for {
+		select {
+		case err := <-done:
+			return err
+		case <-tick.C:
+			if waited := time.Since(start); waited >= slowStorage {
+				showLoading(fmt.Sprintf("Waiting for the browser's storage, where your engines are kept: no answer for %d s. Nothing is lost; Evenbeat starts when it answers. If this goes on, close other Evenbeat tabs or windows, or restart the browser.", int(waited.Seconds())))
+			}
+		}
+	}
+}
+
+// showLoading puts text on the page's loading screen (a status region,
+// so a screen reader reads it), if the page has one.
+func showLoading(text string) {
+	if el := js.Global().Get("document").Call("getElementById", "loading"); el.Truthy() {
+		el.Set("textContent", text)
+	}
+}
+
 // openStore opens (creating on first use) the app's database. It blocks
 // until the browser answers, so call it before the game loop starts.
 //
@@ -112,7 +147,7 @@ func openStore() (st *store, err error) {
 	req.Set("onsuccess", success)
 	req.Set("onerror", failure)
 	req.Set("onblocked", failure)
-	err = <-done
+	err = awaitStorage(done)
 	for _, h := range []string{"onupgradeneeded", "onsuccess", "onerror", "onblocked"} {
 		req.Set(h, js.Null()) // a late event must not call a released function
 	}
@@ -146,7 +181,7 @@ func (s *store) Get(key string) (value string, ok bool, err error) {
 	defer failure.Release()
 	req.Set("onsuccess", success)
 	req.Set("onerror", failure)
-	if err = <-done; err != nil {
+	if err = awaitStorage(done); err != nil {
 		return "", false, err
 	}
 	v := req.Get("result")

@@ -389,3 +389,50 @@ func onNewPage(t *testing.T, ctx context.Context, script string) page.ScriptIden
 	}))
 	return id
 }
+
+// TestStorageSlowToAnswer: while the browser's database does not answer
+// the app's open, the loading screen says it waits for it (and that
+// nothing is lost) instead of looking frozen, and the app starts normally,
+// with storage, once the database answers: it never gives up on it.
+func TestStorageSlowToAnswer(t *testing.T) {
+	if testing.Short() {
+		t.Skip("browser test; drop -short to run it")
+	}
+	needChromium(t)
+	m := startServer(t)
+	ctx, _ := newBrowser(t, t.TempDir(), noTierUp())
+	// open answers only once the test calls window.evenbeatReleaseOpen().
+	onNewPage(t, ctx, `(() => {
+		const open = IDBFactory.prototype.open;
+		let release;
+		const gate = new Promise(r => release = r);
+		window.evenbeatReleaseOpen = () => { release(); return true; };
+		IDBFactory.prototype.open = function (...args) {
+			const held = {};
+			gate.then(() => {
+				const req = open.apply(this, args);
+				req.onupgradeneeded = e => { held.result = req.result; held.onupgradeneeded && held.onupgradeneeded(e); };
+				req.onsuccess = e => { held.result = req.result; held.onsuccess && held.onsuccess(e); };
+				req.onerror = e => { held.error = req.error; held.onerror && held.onerror(e); };
+				req.onblocked = e => { held.onblocked && held.onblocked(e); };
+			});
+			return held;
+		};
+	})();`)
+	within(t, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
+	text := waitValue[string](t, ctx, 90*time.Second, `(t => t.includes("Waiting for the browser's storage") && t)(document.getElementById("loading").textContent)`)
+	t.Logf("loading screen: %s", text)
+	if !strings.Contains(text, "Nothing is lost") {
+		t.Errorf("the loading screen while storage is slow says %q; want it to say nothing is lost", text)
+	}
+	if drawn := eval[bool](t, ctx, `window.evenbeatDrawn !== undefined`); drawn {
+		t.Fatal("the app started before the database answered")
+	}
+	eval[bool](t, ctx, `window.evenbeatReleaseOpen()`)
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
+	if e := eval[string](t, ctx, "window.evenbeatStoreError || ''"); e != "" {
+		t.Errorf("after the late answer the app runs without storage: %s", e)
+	}
+	slowTapLabel(t, ctx, "Brackenfold (Stephenson) (invented demo)")
+	waitFor(t, ctx, 60*time.Second, `window.evenbeatStatus === "Saved"`)
+}

@@ -7,6 +7,7 @@ import (
 	"io"
 	"math"
 	"slices"
+	"sort"
 	"strconv"
 	"strings"
 
@@ -490,7 +491,7 @@ func (d *specDecoder) object(path string, v *jsonx.Value, fields []specField, at
 		}
 	}
 	if len(unknown) > 0 {
-		slices.Sort(unknown)
+		sort.Slice(unknown, func(i, j int) bool { return unknown[i] < unknown[j] })
 		sub := unknown[0]
 		if path != "" {
 			sub = path + "." + sub

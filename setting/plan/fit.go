@@ -657,7 +657,7 @@ func (pb *problem) outlier(p [numParams]float64, res float64) (int, bool) {
 		}
 	}
 	sorted := append([]float64(nil), u...)
-	sort.Float64s(sorted)
+	sort.Slice(sorted, func(i, j int) bool { return sorted[i] < sorted[j] })
 	scale := math.Max(1, 1.4826*sorted[len(sorted)/2])
 	worst, wv := -1, 0.0
 	k = 0
@@ -749,7 +749,7 @@ func (f *Fit) contradiction(pb *problem) error {
 	if len(u) < 4 {
 		return nil
 	}
-	sort.Float64s(u)
+	sort.Slice(u, func(i, j int) bool { return u[i] < u[j] })
 	scale := 1.4826 * u[len(u)/2]
 	if scale < 10 || f.RMSMM < 5*f.resMM {
 		return nil

@@ -104,7 +104,7 @@ func FitHarmonic(obs []session.Observation) (*HarmonicFit, error) {
 					a = append(a, math.Abs(obs[i].GaugeMM-Harmonic{Coef: c}.Gauge(obs[i].CrankDeg)))
 				}
 			}
-			sort.Float64s(a)
+			sort.Slice(a, func(i, j int) bool { return a[i] < a[j] })
 			lim := 3 * math.Max(1.4826*a[len(a)/2], res)
 			worst, wv := -1, lim
 			for k, i := range idx {

@@ -444,7 +444,7 @@ func (s *Session) Readiness(cyl int) []Problem {
 			add(true, wp, "All %d readings of this sweep are %s mm: the valve did not move, so the gauge is not on the spindle or the gear is disconnected. Re-take the sweep.", len(w.Readings), fmtNum(lo))
 			continue
 		}
-		sort.Float64s(ang)
+		sort.Slice(ang, func(i, j int) bool { return ang[i] < ang[j] })
 		for j := 1; j < len(ang); j++ {
 			if ang[j]-ang[j-1] < 1e-6 {
 				add(false, wp, "Two readings of this sweep are at the same place (%.1f degrees of crank); the fit takes them together.", ang[j])

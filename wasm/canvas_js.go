@@ -42,6 +42,7 @@ type ebitenCanvas struct {
 	placed []placedGlyph // the glyphs of the Text call being drawn
 	vs     []ebiten.Vertex
 	is     []uint16
+	plain  bool // the fill being drawn needs no winding count (see plain)
 }
 
 // glyphKey names one cached glyph: its rune, its em size in device pixels
@@ -97,14 +98,28 @@ func (c *ebitenCanvas) Size() (w, h float64) { return c.w, c.h }
 // Clear fills the whole target with col.
 func (c *ebitenCanvas) Clear(col color.RGBA) { c.dst.Fill(col) }
 
-// Fill fills p with the non-zero winding rule.
+// Fill fills p with the non-zero winding rule. Convex shapes (most of a
+// screen: backgrounds, buttons, bars, dots, straight strokes) skip the
+// winding count: ebiten fills them as plain triangles, which it batches
+// with the fills and glyphs around them into one draw, where a counted
+// fill costs a draw of its own through the stencil.
 func (c *ebitenCanvas) Fill(p render.Path, s render.FillStyle) {
 	c.fill(c.dst, p, float32(c.scale), s.Color, c.smooth)
+}
+
+// plain reports whether ebiten may fill p in col without the winding
+// count: every sub-path convex (its fan covers it once) and, with more
+// than one sub-path, an opaque colour (where sub-paths overlap, drawing
+// twice changes nothing).
+func plain(p render.Path, col color.RGBA) bool {
+	ok, n := render.Convex(p)
+	return ok && (n == 1 || col.A == 0xff)
 }
 
 // fill fills p, scaled by k, on dst.
 func (c *ebitenCanvas) fill(dst *ebiten.Image, p render.Path, k float32, col color.RGBA, smooth bool) {
 	c.vs, c.is = c.vs[:0], c.is[:0]
+	c.plain = plain(p, col)
 	var sub vector.Path
 	open := false
 	flushSub := func() {
@@ -162,8 +177,12 @@ func (c *ebitenCanvas) draw(dst *ebiten.Image, col color.RGBA, smooth bool) {
 		v.ColorR, v.ColorG, v.ColorB, v.ColorA = r, g, b, a
 	}
 	// An RGBA value from image/color is premultiplied already.
+	rule := ebiten.FillRuleNonZero
+	if c.plain {
+		rule = ebiten.FillRuleFillAll
+	}
 	op := &ebiten.DrawTrianglesOptions{
-		FillRule:       ebiten.FillRuleNonZero,
+		FillRule:       rule,
 		AntiAlias:      smooth,
 		ColorScaleMode: ebiten.ColorScaleModePremultipliedAlpha,
 	}

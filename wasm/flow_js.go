@@ -43,11 +43,19 @@ type flowGame struct {
 	updateWaits bool           // the page reported a new version waiting (under mu)
 	bannerShown bool           // the app shows the new-version banner
 	restart     bool           // the user chose Restart; waits for the writes
+
+	// The rename button and the engine's name as last published (under
+	// mu), so a tap on the button opens the name box inside the browser's
+	// own event, where iOS lets the box raise the keyboard.
+	renameAt render.Rect
+	renameOK bool
+	nameNow  string
 }
 
 // runFlow starts the app.
 func runFlow(st *store, th render.Theme) error {
 	g := &flowGame{game: newGame(), window: js.Global()}
+	g.queue.onUp = g.tapRename
 	opt := ui.Options{Theme: th, OnExport: download, OnImport: g.chooseFile,
 		OnName: g.openName, OnShare: g.queueShare, OnUpdate: g.askRestart}
 	if st != nil {
@@ -137,7 +145,16 @@ func (g *flowGame) publish() {
 	g.window.Set("evenbeatState", g.ui.Screen().String())
 	g.window.Set("evenbeatStatus", g.ui.Status())
 	g.window.Set("evenbeatField", g.ui.Field())
-	g.window.Set("evenbeatTargets", targetsJSON(g.ui.Targets()))
+	targets := g.ui.Targets()
+	g.window.Set("evenbeatTargets", targetsJSON(targets))
+	g.mu.Lock()
+	g.renameOK = false
+	for _, t := range targets {
+		if t.Label == ui.RenameLabel {
+			g.renameAt, g.renameOK = t.Rect, true
+		}
+	}
+	g.mu.Unlock()
 	// While the plan waits for its other priority (made on the tick after
 	// its first frame) the words are left as they were: asking for them
 	// would make it now, before the plan is drawn.
@@ -165,6 +182,9 @@ func (g *flowGame) publish() {
 		name = s.Name
 	}
 	g.window.Set("evenbeatName", name)
+	g.mu.Lock()
+	g.nameNow = name
+	g.mu.Unlock()
 	if g.live.Truthy() && g.live.Get("textContent").String() != words {
 		g.live.Set("textContent", words)
 	}

@@ -5,6 +5,8 @@ package main
 import (
 	"strings"
 	"syscall/js"
+
+	"evenbeat/render"
 )
 
 // overClass marks DOM elements shown over the canvas: the pointer queue
@@ -65,6 +67,21 @@ func (g *flowGame) openName(current string) {
 	g.window.Set("evenbeatNaming", true)
 	b.input.Call("focus")
 	b.input.Call("select")
+}
+
+// tapRename is the pointer queue's onUp: a pointer that went down and came
+// up on the app's rename button opens the name box at once, inside the
+// browser's event, so that iOS, which raises the keyboard only for a focus
+// made in a user gesture, raises it. The app's own handling of the tap, on
+// the next tick, then finds the box open (openName keeps it).
+func (g *flowGame) tapRename(down, up render.Point) {
+	g.mu.Lock()
+	hit := g.renameOK && g.renameAt.Contains(down) && g.renameAt.Contains(up)
+	name := g.nameNow
+	g.mu.Unlock()
+	if hit {
+		g.openName(name)
+	}
 }
 
 // closeName removes the box, if open, and gives the keys back to the

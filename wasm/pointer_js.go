@@ -17,13 +17,18 @@ type pointerQueue struct {
 	events []pointerEvent
 	seen   bool // any event has arrived: the listeners work
 	funcs  []js.Func
+	downAt map[int]render.Point // where each pointer now down went down
+	// onUp, when set, is called inside the browser's pointerup event (a
+	// user gesture, as iOS wants for raising the keyboard) with where the
+	// pointer went down and came up.
+	onUp func(down, up render.Point)
 }
 
 // newPointerQueue listens on the document (capture phase, passive), so it
 // hears the canvas ebiten adds later too; events on a DOM box shown over
 // the canvas (class overClass) are not the app's.
 func newPointerQueue() *pointerQueue {
-	q := &pointerQueue{}
+	q := &pointerQueue{downAt: map[int]render.Point{}}
 	doc := js.Global().Get("document")
 	opts := map[string]any{"capture": true, "passive": true}
 	for name, kind := range map[string]pointerKind{
@@ -38,11 +43,13 @@ func newPointerQueue() *pointerQueue {
 			if onOverlay(ev.Get("target")) {
 				return nil // a DOM box over the canvas has it
 			}
-			q.push(pointerEvent{
+			pe := pointerEvent{
 				Kind: kind,
 				ID:   ev.Get("pointerId").Int(),
 				At:   render.Point{X: ev.Get("clientX").Float(), Y: ev.Get("clientY").Float()},
-			})
+			}
+			q.push(pe)
+			q.gesture(pe)
 			return nil
 		})
 		q.funcs = append(q.funcs, f)
@@ -56,6 +63,24 @@ func (q *pointerQueue) push(ev pointerEvent) {
 	q.events = append(q.events, ev)
 	q.seen = true
 	q.mu.Unlock()
+}
+
+// gesture keeps where each pointer went down and, when one comes up,
+// calls onUp, still inside the browser's event.
+func (q *pointerQueue) gesture(pe pointerEvent) {
+	q.mu.Lock()
+	down, ok := q.downAt[pe.ID]
+	switch pe.Kind {
+	case pointerDown:
+		q.downAt[pe.ID] = pe.At
+	case pointerUp, pointerCancel:
+		delete(q.downAt, pe.ID)
+	}
+	f := q.onUp
+	q.mu.Unlock()
+	if pe.Kind == pointerUp && ok && f != nil {
+		f(down, pe.At)
+	}
 }
 
 // Drain appends the queued events to dst in arrival order and empties the

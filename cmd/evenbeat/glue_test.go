@@ -125,8 +125,20 @@ func TestNameAndShare(t *testing.T) {
 	}
 
 	// The name box: shown over the canvas, focused, labelled, big enough.
+	// It is open and focused already when the tap's pointerup has gone
+	// through the page (a listener on window runs last): the focus is made
+	// inside the user's gesture, which iOS needs to raise the keyboard.
+	eval[bool](t, ctx, `(window.evenbeatFocusInTap = null, window.addEventListener("pointerup", () => {
+		if (window.evenbeatFocusInTap === null) window.evenbeatFocusInTap = (document.activeElement || {}).id || "";
+	}), true)`)
 	slowTapLabel(t, ctx, "Rename engine")
 	waitFor(t, ctx, 30*time.Second, `window.evenbeatNaming === true`)
+	if got := eval[string](t, ctx, `String(window.evenbeatFocusInTap)`); got != "evenbeat-name" {
+		t.Errorf("at the end of the tap's pointerup the focus is on %q; want the name box's input (focused inside the gesture)", got)
+	}
+	if got, want := eval[string](t, ctx, `document.getElementById("evenbeat-name").value`), eval[string](t, ctx, "window.evenbeatName"); got != want {
+		t.Errorf("the name box opened with %q; want the engine's name %q", got, want)
+	}
 	checkNameBox(t, ctx)
 	// The back gesture closes it and stays in the app.
 	eval[bool](t, ctx, "(history.back(), true)")

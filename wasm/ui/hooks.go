@@ -12,6 +12,10 @@ import (
 // maxNameRunes is the longest engine name taken.
 const maxNameRunes = 60
 
+// RenameLabel is the label of the menu's button that renames the engine
+// (the glue opens its name box from the browser's own tap event on it).
+const RenameLabel = "Rename engine"
+
 // Rename sets the session's name (trimmed) and saves it. An empty name or
 // one longer than 60 characters is refused with a sentence naming the
 // field "name", and nothing changes.

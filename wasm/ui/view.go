@@ -534,7 +534,7 @@ func (a *App) menuView(l *layouter) {
 		l.button("History of rounds", false, func() { a.navigate(History) })
 		l.button("Export the session file", false, a.export)
 		if a.opt.OnName != nil {
-			l.button("Rename engine", false, a.rename)
+			l.button(RenameLabel, false, a.rename)
 		}
 		if a.opt.OnShare != nil && a.model != nil {
 			l.button("Share report", false, a.share)

@@ -39,7 +39,10 @@ func Convex(p Path) (ok bool, n int) {
 }
 
 // convexPolygon reports whether the closed polygon through pts turns one
-// way only and once round.
+// way only and once round. Turning one way, the edges' direction rotates
+// steadily, so a polygon that goes round k times changes the sign of its
+// edges' x (and y) parts 2k times: once round is at most two changes each.
+// No trigonometry: this runs for every fill of every frame.
 func convexPolygon(pts []Point) bool {
 	// Drop repeated points (zero-length edges have no direction).
 	q := pts[:0:0]
@@ -57,17 +60,32 @@ func convexPolygon(pts []Point) bool {
 	if len(q) < 3 {
 		return false
 	}
-	sign, turned := 0.0, 0.0
-	for i := range q {
-		a, b, c := q[i], q[(i+1)%len(q)], q[(i+2)%len(q)]
+	sign := 0.0
+	var xs, ys [2]float64 // the last non-zero sign of the edges' x and y parts, and the changes of it
+	change := func(v float64, last *[2]float64) {
+		if v == 0 {
+			return
+		}
+		s := math.Copysign(1, v)
+		if last[0] != 0 && s != last[0] {
+			last[1]++
+		}
+		last[0] = s
+	}
+	n := len(q)
+	for i := 0; i <= n; i++ { // one edge past the last, to count a change across the start
+		a, b, c := q[i%n], q[(i+1)%n], q[(i+2)%n]
 		e1 := Point{b.X - a.X, b.Y - a.Y}
+		change(e1.X, &xs)
+		change(e1.Y, &ys)
+		if i == n {
+			break
+		}
 		e2 := Point{c.X - b.X, c.Y - b.Y}
 		cross := e1.X*e2.Y - e1.Y*e2.X
-		dot := e1.X*e2.X + e1.Y*e2.Y
 		// Straight on counts as no turn; straight back is a fold, never convex.
-		scale := math.Hypot(e1.X, e1.Y) * math.Hypot(e2.X, e2.Y)
-		if math.Abs(cross) <= 1e-9*scale {
-			if dot < 0 {
+		if cross*cross <= 1e-18*(e1.X*e1.X+e1.Y*e1.Y)*(e2.X*e2.X+e2.Y*e2.Y) {
+			if e1.X*e2.X+e1.Y*e2.Y < 0 {
 				return false
 			}
 			continue
@@ -78,8 +96,6 @@ func convexPolygon(pts []Point) bool {
 		} else if s != sign {
 			return false
 		}
-		turned += math.Atan2(cross, dot)
 	}
-	// Once round: 2 pi; a star that turns one way goes round twice or more.
-	return sign != 0 && math.Abs(math.Abs(turned)-2*math.Pi) < 1e-6
+	return sign != 0 && xs[1] <= 2 && ys[1] <= 2
 }

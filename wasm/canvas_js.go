@@ -19,8 +19,12 @@ import (
 // filled outlines from render.Outline, so they match the PNG backend; text
 // is the font's own outlines (render.GlyphPath, from the tables in
 // render/font) filled the same way, once per rune, size and weight, white
-// into a page of glyphs that DrawImage tints. No font file or font parser
-// reaches the wasm build, and the PNG backend fills the very same outlines.
+// into a page of glyphs. Glyphs and convex fills are batched: one
+// DrawTriangles from the glyph page (whose corner is white, for the fills)
+// with each vertex in its own colour, drawn before any other drawing and at
+// Flush, instead of an ebiten call per glyph and per fill. No font file or
+// font parser reaches the wasm build, and the PNG backend fills the very
+// same outlines.
 //
 // One canvas lives for the whole run so the glyph cache survives frames;
 // Begin points it at the frame's target.
@@ -43,6 +47,16 @@ type ebitenCanvas struct {
 	vs     []ebiten.Vertex
 	is     []uint16
 	plain  bool // the fill being drawn needs no winding count (see plain)
+
+	// The batch: plain fills and glyphs waiting to be drawn in one
+	// DrawTriangles call, all from one source image (a glyph page, whose
+	// corner holds white for the fills), each vertex in its own colour.
+	// Any other drawing, a new target and Flush draw it first, so the
+	// order of the calls is kept.
+	bvs     []ebiten.Vertex
+	bis     []uint16
+	bsrc    *ebiten.Image // the batch's source; nil while empty
+	bsmooth bool          // the batch is anti-aliased (plain fills below 2x)
 }
 
 // glyphKey names one cached glyph: its rune, its em size in device pixels
@@ -70,8 +84,9 @@ type placedGlyph struct {
 // glyph is one filled glyph, a part of a glyph page: img is nil for blank
 // glyphs (space).
 type glyph struct {
-	img *ebiten.Image
-	off image.Point // top-left of img from the device pixel holding the pen point
+	img  *ebiten.Image // the glyph's slot on its page
+	page *ebiten.Image // the whole page, the batch's source
+	off  image.Point   // top-left of img from the device pixel holding the pen point
 }
 
 func newEbitenCanvas() *ebitenCanvas {
@@ -84,8 +99,10 @@ func newEbitenCanvas() *ebitenCanvas {
 	}
 }
 
-// Begin sets the target image and its scale (device pixels per logical unit).
+// Begin sets the target image and its scale (device pixels per logical
+// unit), after drawing what is batched for the last one.
 func (c *ebitenCanvas) Begin(dst *ebiten.Image, scale float64) {
+	c.Flush()
 	c.dst, c.scale = dst, scale
 	c.smooth = scale < 2
 	b := dst.Bounds()
@@ -96,7 +113,35 @@ func (c *ebitenCanvas) Begin(dst *ebiten.Image, scale float64) {
 func (c *ebitenCanvas) Size() (w, h float64) { return c.w, c.h }
 
 // Clear fills the whole target with col.
-func (c *ebitenCanvas) Clear(col color.RGBA) { c.dst.Fill(col) }
+func (c *ebitenCanvas) Clear(col color.RGBA) {
+	c.Flush()
+	c.dst.Fill(col)
+}
+
+// Flush draws the batch on the target. Call it when a frame is done, and
+// before reading the target's pixels.
+func (c *ebitenCanvas) Flush() {
+	if c.bsrc == nil {
+		return
+	}
+	if len(c.bis) > 0 {
+		op := &ebiten.DrawTrianglesOptions{AntiAlias: c.bsmooth, ColorScaleMode: ebiten.ColorScaleModePremultipliedAlpha}
+		c.dst.DrawTriangles(c.bvs, c.bis, c.bsrc, op)
+	}
+	c.bvs, c.bis, c.bsrc = c.bvs[:0], c.bis[:0], nil
+}
+
+// batchFor makes the batch ready for n more vertices from src, drawn
+// smooth or not: a batch of another source or smoothness, or one too full
+// for uint16 indices, is drawn first. It returns the index of the first
+// new vertex.
+func (c *ebitenCanvas) batchFor(src *ebiten.Image, smooth bool, n int) uint16 {
+	if c.bsrc != nil && (c.bsrc != src || c.bsmooth != smooth || len(c.bvs)+n > 60000 || len(c.bis)+3*n > ebiten.MaxIndicesCount-3) {
+		c.Flush()
+	}
+	c.bsrc, c.bsmooth = src, smooth
+	return uint16(len(c.bvs))
+}
 
 // Fill fills p with the non-zero winding rule. Convex shapes (most of a
 // screen: backgrounds, buttons, bars, dots, straight strokes) skip the
@@ -119,7 +164,10 @@ func plain(p render.Path, col color.RGBA) bool {
 // fill fills p, scaled by k, on dst.
 func (c *ebitenCanvas) fill(dst *ebiten.Image, p render.Path, k float32, col color.RGBA, smooth bool) {
 	c.vs, c.is = c.vs[:0], c.is[:0]
-	c.plain = plain(p, col)
+	c.plain = dst == c.dst && plain(p, col)
+	if !c.plain && dst == c.dst {
+		c.Flush() // what is batched goes under this fill
+	}
 	var sub vector.Path
 	open := false
 	flushSub := func() {
@@ -165,12 +213,28 @@ func (c *ebitenCanvas) fill(dst *ebiten.Image, p render.Path, k float32, col col
 	c.draw(dst, col, smooth)
 }
 
-// draw fills the pending triangles in col on dst, anti-aliased when smooth.
+// draw fills the pending triangles in col on dst, anti-aliased when
+// smooth: a plain fill (see plain) joins the batch, the rest are drawn at
+// once with the winding count.
 func (c *ebitenCanvas) draw(dst *ebiten.Image, col color.RGBA, smooth bool) {
 	if len(c.is) == 0 {
 		return
 	}
 	r, g, b, a := float32(col.R)/255, float32(col.G)/255, float32(col.B)/255, float32(col.A)/255
+	if c.plain {
+		page := c.currentPage()
+		base := c.batchFor(page.img, smooth, len(c.vs))
+		wx, wy := float32(page.white.X), float32(page.white.Y)
+		for _, v := range c.vs {
+			v.SrcX, v.SrcY = wx, wy
+			v.ColorR, v.ColorG, v.ColorB, v.ColorA = r, g, b, a
+			c.bvs = append(c.bvs, v)
+		}
+		for _, i := range c.is {
+			c.bis = append(c.bis, base+i)
+		}
+		return
+	}
 	for i := range c.vs {
 		v := &c.vs[i]
 		v.SrcX, v.SrcY = 1, 1
@@ -217,16 +281,26 @@ func (c *ebitenCanvas) Text(at render.Point, text string, s render.TextStyle) {
 		c.placed = append(c.placed, placedGlyph{key: glyphKey{r: pg.Rune, size64: size64, bold: s.Bold, fx: fx}, px: px, py: int(math.Round(y))})
 	}
 	c.cacheGlyphs(c.placed)
-	var op ebiten.DrawImageOptions
-	op.ColorScale.ScaleWithColor(s.Color)
+	col := s.Color
+	r, gg, b, a := float32(col.R)/255, float32(col.G)/255, float32(col.B)/255, float32(col.A)/255
 	for _, pg := range c.placed {
 		g := c.glyphs[pg.key]
 		if g == nil || g.img == nil {
 			continue
 		}
-		op.GeoM.Reset()
-		op.GeoM.Translate(float64(pg.px+g.off.X), float64(pg.py+g.off.Y))
-		c.dst.DrawImage(g.img, &op)
+		// One quad from the glyph's slot on its page to whole device
+		// pixels, tinted by the vertex colours (the page is white).
+		base := c.batchFor(g.page, false, 4)
+		sr := g.img.Bounds()
+		x0, y0 := float32(pg.px+g.off.X), float32(pg.py+g.off.Y)
+		x1, y1 := x0+float32(sr.Dx()), y0+float32(sr.Dy())
+		sx0, sy0, sx1, sy1 := float32(sr.Min.X), float32(sr.Min.Y), float32(sr.Max.X), float32(sr.Max.Y)
+		c.bvs = append(c.bvs,
+			ebiten.Vertex{DstX: x0, DstY: y0, SrcX: sx0, SrcY: sy0, ColorR: r, ColorG: gg, ColorB: b, ColorA: a},
+			ebiten.Vertex{DstX: x1, DstY: y0, SrcX: sx1, SrcY: sy0, ColorR: r, ColorG: gg, ColorB: b, ColorA: a},
+			ebiten.Vertex{DstX: x0, DstY: y1, SrcX: sx0, SrcY: sy1, ColorR: r, ColorG: gg, ColorB: b, ColorA: a},
+			ebiten.Vertex{DstX: x1, DstY: y1, SrcX: sx1, SrcY: sy1, ColorR: r, ColorG: gg, ColorB: b, ColorA: a})
+		c.bis = append(c.bis, base, base+1, base+2, base+1, base+3, base+2)
 	}
 }
 
@@ -234,10 +308,30 @@ func (c *ebitenCanvas) Text(at render.Point, text string, s render.TextStyle) {
 // some six hundred glyphs of 14 CSS px text at 3x.
 const glyphPageSize = 1024
 
-// glyphPage is one image glyphs are packed into, in rows, a pixel apart.
+// glyphPage is one image glyphs are packed into, in rows, a pixel apart;
+// its top-left corner is a white 3x3 block whose inner pixel, white, is
+// the source of the fills batched with the page's glyphs.
 type glyphPage struct {
 	img        *ebiten.Image
+	white      image.Point // the white pixel
 	x, y, rowH int
+}
+
+// newGlyphPage returns an empty page with its white block.
+func newGlyphPage() *glyphPage {
+	p := &glyphPage{img: ebiten.NewImage(glyphPageSize, glyphPageSize)}
+	at, _ := p.place(3, 3)
+	p.img.SubImage(image.Rectangle{Min: at, Max: at.Add(image.Pt(3, 3))}).(*ebiten.Image).Fill(color.White)
+	p.white = at.Add(image.Pt(1, 1))
+	return p
+}
+
+// currentPage returns the page new glyphs go into, making the first.
+func (c *ebitenCanvas) currentPage() *glyphPage {
+	if c.page == nil {
+		c.page = newGlyphPage()
+	}
+	return c.page
 }
 
 // place reserves a w by h slot, or reports that the page is full.
@@ -278,20 +372,18 @@ func (c *ebitenCanvas) cacheGlyphs(placed []placedGlyph) {
 		pen := float64(key.fx) / glyphPhases
 		g.off = image.Pt(int(math.Floor(pen+b.Min.X))-1, int(math.Floor(b.Min.Y))-1)
 		w, h := int(math.Ceil(pen+b.Max.X))+1-g.off.X, int(math.Ceil(b.Max.Y))+1-g.off.Y
-		if c.page == nil {
-			c.page = &glyphPage{img: ebiten.NewImage(glyphPageSize, glyphPageSize)}
-		}
-		at, ok := c.page.place(w, h)
+		at, ok := c.currentPage().place(w, h)
 		if !ok {
 			if w > glyphPageSize || h > glyphPageSize {
 				continue
 			}
 			c.fill(c.page.img, batch, 1, white, true)
 			batch = batch[:0]
-			c.page = &glyphPage{img: ebiten.NewImage(glyphPageSize, glyphPageSize)}
+			c.page = newGlyphPage()
 			at, _ = c.page.place(w, h)
 		}
 		g.img = c.page.img.SubImage(image.Rectangle{Min: at, Max: at.Add(image.Pt(w, h))}).(*ebiten.Image)
+		g.page = c.page.img
 		origin := render.Point{X: pen + float64(at.X-g.off.X), Y: float64(at.Y - g.off.Y)}
 		batch = append(batch, render.GlyphPath(key.r, size, key.bold, origin)...)
 	}

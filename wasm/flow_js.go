@@ -5,6 +5,7 @@ package main
 import (
 	"sync"
 	"syscall/js"
+	"time"
 
 	"github.com/hajimehoshi/ebiten/v2"
 
@@ -36,6 +37,9 @@ type flowGame struct {
 	imports [][]byte // files chosen, not yet imported
 	live    js.Value // the hidden live region mirroring the plan's words
 	draws   int      // frames really drawn, published as evenbeatDraws
+	// drawTime is the Go side of all those frames (the app drawing through
+	// ebiten, not the GPU's work), published as evenbeatDrawMs.
+	drawTime time.Duration
 
 	name        *nameBox       // the engine-name box, when open (under mu)
 	names       []string       // names typed in the box, not yet taken (under mu)
@@ -195,8 +199,12 @@ func (g *flowGame) Draw(screen *ebiten.Image) {
 	if !g.ui.Dirty() || g.outW == 0 {
 		return
 	}
+	start := time.Now()
 	g.canvas.Begin(screen, g.scale)
 	g.ui.Draw(g.canvas)
+	g.canvas.Flush()
+	g.drawTime += time.Since(start)
+	g.window.Set("evenbeatDrawMs", float64(g.drawTime.Microseconds())/1000)
 	g.draws++
 	g.window.Set("evenbeatDraws", g.draws)
 	g.window.Set("evenbeatDrawn", g.ui.Screen().String())

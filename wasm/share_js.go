@@ -83,6 +83,7 @@ func (g *flowGame) drawReport(m render.ReportModel) (w, h int, px []byte) {
 		img := ebiten.NewImage(w, sh)
 		g.canvas.Begin(img, reportScale)
 		tp.play(g.canvas, float64(y0)/reportScale, float64(y0+sh)/reportScale)
+		g.canvas.Flush()
 		img.ReadPixels(px[4*w*y0 : 4*w*(y0+sh)])
 		img.Deallocate()
 	}

@@ -26,7 +26,8 @@
 // state), evenbeatField (the keypad's field), evenbeatTargets (JSON: label
 // and rect of every touch target) and evenbeatPlanText (the plan's words).
 // The page may hand a session file's text to window.evenbeatImport.
-// The app also publishes evenbeatDraws (frames really drawn), evenbeatPlanMs
+// The app also publishes evenbeatDraws (frames really drawn),
+// evenbeatDrawMs (the Go side of those frames, in all), evenbeatPlanMs
 // (the last fit, plan and diagrams' model: the time until the plan can be
 // drawn), evenbeatOtherMs (its other priority's plan, made on the tick
 // after the plan's first frame), evenbeatSettled, evenbeatName, evenbeatNaming,

@@ -48,18 +48,22 @@ type flowGame struct {
 	bannerShown bool           // the app shows the new-version banner
 	restart     bool           // the user chose Restart; waits for the writes
 
-	// The rename button and the engine's name as last published (under
-	// mu), so a tap on the button opens the name box inside the browser's
-	// own event, where iOS lets the box raise the keyboard.
-	renameAt render.Rect
-	renameOK bool
-	nameNow  string
+	// The rename and import buttons and the engine's name as last
+	// published (under mu), so that a tap on a button opens the name box
+	// or the file chooser inside the browser's own event, where iOS allows
+	// it (see tapInGesture).
+	gestureAt map[string]render.Rect
+	nameNow   string
+	// chooserOpened: the file chooser was opened by the tap's own event;
+	// the app's handling of that tap on the next tick must not open
+	// another (under mu).
+	chooserOpened bool
 }
 
 // runFlow starts the app.
 func runFlow(st *store, th render.Theme) error {
-	g := &flowGame{game: newGame(), window: js.Global()}
-	g.queue.onUp = g.tapRename
+	g := &flowGame{game: newGame(), window: js.Global(), gestureAt: map[string]render.Rect{}}
+	g.queue.onUp = g.tapInGesture
 	opt := ui.Options{Theme: th, OnExport: download, OnImport: g.chooseFile,
 		OnName: g.openName, OnShare: g.queueShare, OnUpdate: g.askRestart}
 	if st != nil {
@@ -127,6 +131,9 @@ func (g *flowGame) Update() error {
 	if g.ui.Update() {
 		g.publish()
 	}
+	g.mu.Lock()
+	g.chooserOpened = false // the tap that opened it has been handled
+	g.mu.Unlock()
 	return nil
 }
 
@@ -152,10 +159,10 @@ func (g *flowGame) publish() {
 	targets := g.ui.Targets()
 	g.window.Set("evenbeatTargets", targetsJSON(targets))
 	g.mu.Lock()
-	g.renameOK = false
+	clear(g.gestureAt)
 	for _, t := range targets {
-		if t.Label == ui.RenameLabel {
-			g.renameAt, g.renameOK = t.Rect, true
+		if t.Label == ui.RenameLabel || t.Label == ui.ImportLabel {
+			g.gestureAt[t.Label] = t.Rect
 		}
 	}
 	g.mu.Unlock()
@@ -251,9 +258,21 @@ func (g *flowGame) queueImport(b []byte) {
 	g.mu.Unlock()
 }
 
-// chooseFile opens the browser's file chooser; the chosen file's bytes are
-// imported on the next tick.
+// chooseFile is the app's OnImport: it opens the browser's file chooser,
+// unless the tap's own event has just opened it (see tapInGesture); the
+// chosen file's bytes are imported on the next tick.
 func (g *flowGame) chooseFile() {
+	g.mu.Lock()
+	opened := g.chooserOpened
+	g.chooserOpened = false
+	g.mu.Unlock()
+	if !opened {
+		openChooser(g)
+	}
+}
+
+// openChooser opens the browser's file chooser for a session file.
+func openChooser(g *flowGame) {
 	doc := js.Global().Get("document")
 	in := doc.Call("createElement", "input")
 	in.Set("type", "file")

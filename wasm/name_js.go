@@ -7,6 +7,7 @@ import (
 	"syscall/js"
 
 	"evenbeat/render"
+	"evenbeat/wasm/ui"
 )
 
 // overClass marks DOM elements shown over the canvas: the pointer queue
@@ -69,18 +70,29 @@ func (g *flowGame) openName(current string) {
 	b.input.Call("select")
 }
 
-// tapRename is the pointer queue's onUp: a pointer that went down and came
-// up on the app's rename button opens the name box at once, inside the
-// browser's event, so that iOS, which raises the keyboard only for a focus
-// made in a user gesture, raises it. The app's own handling of the tap, on
-// the next tick, then finds the box open (openName keeps it).
-func (g *flowGame) tapRename(down, up render.Point) {
+// tapInGesture is the pointer queue's onUp: a pointer that went down and
+// came up on the rename or import button opens the name box or the file
+// chooser at once, inside the browser's event. iOS raises the keyboard for
+// a focus, and opens a file chooser, only inside a user's gesture. The
+// app's own handling of the tap, on the next tick, then finds the box open
+// (openName keeps it) or the chooser opened (chooseFile skips it).
+func (g *flowGame) tapInGesture(down, up render.Point) {
 	g.mu.Lock()
-	hit := g.renameOK && g.renameAt.Contains(down) && g.renameAt.Contains(up)
+	on := func(label string) bool {
+		r, ok := g.gestureAt[label]
+		return ok && r.Contains(down) && r.Contains(up)
+	}
+	rename, choose := on(ui.RenameLabel), on(ui.ImportLabel)
 	name := g.nameNow
+	if choose {
+		g.chooserOpened = true
+	}
 	g.mu.Unlock()
-	if hit {
+	switch {
+	case rename:
 		g.openName(name)
+	case choose:
+		openChooser(g)
 	}
 }
 

@@ -483,7 +483,7 @@ func importByChooser(b *browserApp, path string) {
 	if _, err := chromedp.Call(b.ctx, page.SetInterceptFileChooserDialog, page.SetInterceptFileChooserDialogParams{Enabled: true}); err != nil {
 		b.Fatalf("intercepting the file chooser: %v", err)
 	}
-	opened := make(chan *page.EventFileChooserOpened, 1)
+	opened := make(chan *page.EventFileChooserOpened, 4)
 	lctx, stop := context.WithCancel(b.ctx)
 	defer stop()
 	if err := chromedp.Listen(lctx, func(ev any) {
@@ -500,14 +500,33 @@ func importByChooser(b *browserApp, path string) {
 		pressLabel(b, "Menu", true)
 		wantScreen(b, "menu")
 	}
+	// Which event, if any, was being handled when the app opened the
+	// chooser: it must be the tap's pointerup (iOS opens a chooser only
+	// inside a user's gesture).
+	eval[bool](b.T, b.ctx, `(() => {
+		window.evenbeatChooserIn = null;
+		const click = HTMLInputElement.prototype.click;
+		HTMLInputElement.prototype.click = function () {
+			if (this.type === "file") window.evenbeatChooserIn = (window.event && window.event.type) || "no event";
+			return click.call(this);
+		};
+		return true;
+	})()`)
 	pressLabel(b, "Import a session file", true)
 	select {
 	case e := <-opened:
+		if in := eval[string](b.T, b.ctx, "String(window.evenbeatChooserIn)"); in != "pointerup" {
+			b.Errorf("the file chooser was opened inside %q; want the tap's pointerup", in)
+		}
 		if _, err := chromedp.Call(b.ctx, dom.SetFileInputFiles, dom.SetFileInputFilesParams{Files: []string{path}, BackendNodeID: e.BackendNodeID}); err != nil {
 			b.Fatalf("choosing %s in the file chooser: %v", path, err)
 		}
 	case <-time.After(60 * time.Second):
 		b.Fatal("the app opened no file chooser within a minute of the tap")
+	}
+	time.Sleep(time.Second) // the app's own handling of the tap: no second chooser
+	if n := len(opened); n > 0 {
+		b.Errorf("one tap opened %d more file choosers", n)
 	}
 }
 

@@ -12,9 +12,14 @@ import (
 // maxNameRunes is the longest engine name taken.
 const maxNameRunes = 60
 
-// RenameLabel is the label of the menu's button that renames the engine
-// (the glue opens its name box from the browser's own tap event on it).
-const RenameLabel = "Rename engine"
+// RenameLabel and ImportLabel are the labels of the buttons that rename
+// the engine and import a session file: the glue opens its name box and
+// the browser's file chooser from the browser's own tap event on them
+// (iOS opens a keyboard or a chooser only inside a user's gesture).
+const (
+	RenameLabel = "Rename engine"
+	ImportLabel = "Import a session file"
+)
 
 // Rename sets the session's name (trimmed) and saves it. An empty name or
 // one longer than 60 characters is refused with a sentence naming the

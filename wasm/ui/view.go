@@ -276,7 +276,7 @@ func (a *App) enginesView(l *layouter) {
 	}
 	l.button("New engine", false, func() { a.navigate(Gear) })
 	if a.opt.OnImport != nil {
-		l.button("Import a session file", false, a.opt.OnImport)
+		l.button(ImportLabel, false, a.opt.OnImport)
 	}
 }
 
@@ -541,7 +541,7 @@ func (a *App) menuView(l *layouter) {
 		}
 	}
 	if a.opt.OnImport != nil {
-		l.button("Import a session file", false, a.opt.OnImport)
+		l.button(ImportLabel, false, a.opt.OnImport)
 	}
 	l.text(a.importErr, true)
 }

@@ -89,7 +89,9 @@ func runFlow(st *store, th render.Theme) error {
 	hist := g.window.Get("history")
 	hist.Call("pushState", "evenbeat", "")
 	g.window.Call("addEventListener", "popstate", js.FuncOf(func(js.Value, []js.Value) any {
-		if g.closeName() {
+		// The back gesture closes a box shown over the canvas (the name
+		// box, the page's box asking to share the report) and stays.
+		if g.closeName() || closeShareBox() {
 			hist.Call("pushState", "evenbeat", "")
 			return nil
 		}

@@ -182,3 +182,11 @@ func extent(p render.Path) (lo, hi float64) {
 	}
 	return lo, hi
 }
+
+// closeShareBox closes the page's box asking for a tap to share the report
+// (site/index.html, window.evenbeatCloseShareBox), if it is open, and
+// reports whether it was.
+func closeShareBox() bool {
+	f := js.Global().Get("evenbeatCloseShareBox")
+	return f.Type() == js.TypeFunction && f.Invoke().Truthy()
+}

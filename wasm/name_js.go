@@ -58,6 +58,16 @@ func (g *flowGame) openName(current string) {
 		g.mu.Unlock()
 	})
 	on(doc.Call("getElementById", "evenbeat-name-cancel"), "click", func(js.Value) { g.closeName() })
+	// A press on the dimmed page around the form, or on the form's own
+	// background, must not take the focus from the input: the box opens
+	// inside the tap's pointerup, and the mousedown a touch browser sends
+	// after it lands on the box.
+	form := el.Call("querySelector", "form")
+	on(el, "mousedown", func(ev js.Value) {
+		if t := ev.Get("target"); t.Equal(el) || t.Equal(form) {
+			ev.Call("preventDefault")
+		}
+	})
 	on(el, "keydown", func(ev js.Value) {
 		if ev.Get("key").String() == "Escape" {
 			ev.Call("preventDefault")

@@ -71,12 +71,7 @@ func TestNameAndShare(t *testing.T) {
 	wantName, wantReport := nativeShare(t, demo)
 	wantW, wantH := int(math.Ceil(render.ReportWidth*1.5)), int(math.Ceil(render.ReportHeight(render.ReportWidth, wantReport)*1.5))
 
-	m := startServer(t)
-	ctx, _ := newBrowser(t, t.TempDir(), noTierUp())
-	within(t, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
-	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
-	eval[bool](t, ctx, "(window.evenbeatImport("+strconv.Quote(string(demo))+"), true)")
-	waitFor(t, ctx, 90*time.Second, `window.evenbeatState === "plan"`)
+	ctx := openDemoPlan(t, demo)
 	if ms := eval[float64](t, ctx, "window.evenbeatPlanMs"); !(ms > 0) {
 		t.Errorf("window.evenbeatPlanMs = %v after a plan; want the plan's time in ms", ms)
 	}
@@ -145,9 +140,14 @@ func TestNameAndShare(t *testing.T) {
 	if s := eval[string](t, ctx, "window.evenbeatState"); s != "menu" {
 		t.Errorf("the back gesture with the name box open moved the app to %q; want it to close the box only", s)
 	}
-	// Escape closes it too.
+	// Escape closes it too. The input keeps the focus after the tap (the
+	// box opens inside the tap, before the touch's mouse events land on it).
 	slowTapLabel(t, ctx, "Rename engine")
 	waitFor(t, ctx, 30*time.Second, `window.evenbeatNaming === true`)
+	time.Sleep(300 * time.Millisecond)
+	if id := eval[string](t, ctx, `(document.activeElement || {}).id || ""`); id != "evenbeat-name" {
+		t.Errorf("after the tap that opened the name box the focus is on %q; want its input", id)
+	}
 	key(t, ctx, "Escape", "Escape", 27, "")
 	waitFor(t, ctx, 30*time.Second, `window.evenbeatNaming === false`)
 	// Cancel closes it, and the tap does not reach the app under the box.
@@ -478,12 +478,7 @@ func TestShareAsksForATap(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	m := startServer(t)
-	ctx, _ := newBrowser(t, t.TempDir(), noTierUp())
-	within(t, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
-	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
-	eval[bool](t, ctx, "(window.evenbeatImport("+strconv.Quote(string(demo))+"), true)")
-	waitFor(t, ctx, 90*time.Second, `window.evenbeatState === "plan"`)
+	ctx := openDemoPlan(t, demo)
 	eval[bool](t, ctx, stubShareJS)
 	eval[bool](t, ctx, `(Object.defineProperty(navigator, "userActivation", {configurable: true, get: () => ({isActive: false, hasBeenActive: true})}), true)`)
 	slowTapLabel(t, ctx, "Menu")
@@ -531,4 +526,17 @@ func TestShareAsksForATap(t *testing.T) {
 	if f := eval[bool](t, ctx, `!!window.evenbeatSharedFile && window.evenbeatSharedFile.Type === "image/png"`); !f {
 		t.Error("after the refusal and the tap, no PNG reached the share sheet")
 	}
+}
+
+// openDemoPlan opens the app in a new browser, imports the session file
+// demo and waits for its plan.
+func openDemoPlan(t *testing.T, demo []byte) context.Context {
+	t.Helper()
+	m := startServer(t)
+	ctx, _ := newBrowser(t, t.TempDir(), noTierUp())
+	within(t, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
+	eval[bool](t, ctx, "(window.evenbeatImport("+strconv.Quote(string(demo))+"), true)")
+	waitFor(t, ctx, 90*time.Second, `window.evenbeatState === "plan"`)
+	return ctx
 }

@@ -53,6 +53,7 @@ type flowGame struct {
 	// or the file chooser inside the browser's own event, where iOS allows
 	// it (see tapInGesture).
 	gestureAt map[string]render.Rect
+	barBottom float64 // above it a tap is the top bar's
 	nameNow   string
 	// chooserOpened: the file chooser was opened by the tap's own event;
 	// the app's handling of that tap on the next tick must not open
@@ -161,6 +162,7 @@ func (g *flowGame) publish() {
 	targets := g.ui.Targets()
 	g.window.Set("evenbeatTargets", targetsJSON(targets))
 	g.mu.Lock()
+	g.barBottom = g.ui.BarBottom()
 	clear(g.gestureAt)
 	for _, t := range targets {
 		if t.Label == ui.RenameLabel || t.Label == ui.ImportLabel {

@@ -88,9 +88,11 @@ func (g *flowGame) openName(current string) {
 // (openName keeps it) or the chooser opened (chooseFile skips it).
 func (g *flowGame) tapInGesture(down, up render.Point) {
 	g.mu.Lock()
+	// As the app's own hit test: a button scrolled under the top bar is
+	// not reached there.
 	on := func(label string) bool {
 		r, ok := g.gestureAt[label]
-		return ok && r.Contains(down) && r.Contains(up)
+		return ok && r.Contains(down) && r.Contains(up) && down.Y >= g.barBottom && up.Y >= g.barBottom
 	}
 	rename, choose := on(ui.RenameLabel), on(ui.ImportLabel)
 	name := g.nameNow

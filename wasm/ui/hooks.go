@@ -21,6 +21,10 @@ const (
 	ImportLabel = "Import a session file"
 )
 
+// BarBottom is where the top bar ends (CSS px): a tap above it reaches
+// only the bar's buttons, even where a scrolled button lies under it.
+func (a *App) BarBottom() float64 { return barH + margin }
+
 // Rename sets the session's name (trimmed) and saves it. An empty name or
 // one longer than 60 characters is refused with a sentence naming the
 // field "name", and nothing changes.

@@ -87,19 +87,24 @@ func defaultAdjustments(kind string) []session.Adjustment {
 	sheave := func(e session.Eccentric) session.Adjustment {
 		return session.Adjustment{Kind: session.EccentricAngle, Eccentric: e, Min: -8, Max: 8, SheaveDiameterMM: 30}
 	}
+	// Appended, not a slice literal: a literal of n makes the compiler an
+	// [n]Adjustment type, and with it an equality function per length that
+	// the browser build carries (some 8 KB of code for these three).
+	adjs := make([]session.Adjustment, 0, 5)
+	adjs = append(adjs, spindle())
 	switch kind {
 	case setting.KindStephenson:
-		return []session.Adjustment{spindle(),
+		return append(adjs,
 			sheave(session.ForwardEccentric), sheave(session.BackwardEccentric),
 			rod(session.EccentricRodLength, session.ForwardEccentric),
-			rod(session.EccentricRodLength, session.BackwardEccentric)}
+			rod(session.EccentricRodLength, session.BackwardEccentric))
 	case setting.KindWalschaerts:
-		return []session.Adjustment{spindle(),
-			{Kind: session.ReturnCrankAngle, Min: -5, Max: 5},
+		return append(adjs,
+			session.Adjustment{Kind: session.ReturnCrankAngle, Min: -5, Max: 5},
 			rod(session.EccentricRodLength, ""),
-			rod(session.RadiusRodLength, "")}
+			rod(session.RadiusRodLength, ""))
 	default:
-		return []session.Adjustment{spindle(), sheave(""), rod(session.EccentricRodLength, "")}
+		return append(adjs, sheave(""), rod(session.EccentricRodLength, ""))
 	}
 }
 

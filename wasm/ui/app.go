@@ -152,7 +152,11 @@ type App struct {
 	updateReady bool          // a new version waits: the banner shows
 	planTime    time.Duration // how long the last fit, plan and model took
 	otherTime   time.Duration // how long the other priority's plan took, made after
-	drawnPlan   bool          // the plan has been drawn while its other priority waits
+	// words are PlanText's words for the plan wordsOf in wordsUnit.
+	wordsOf   *plan.Plan
+	wordsUnit session.Unit
+	words     string
+	drawnPlan bool // the plan has been drawn while its other priority waits
 
 	// The keypad's fields while the target lead is typed, given back after.
 	leadFields []field
@@ -689,11 +693,17 @@ func (a *App) PlanText() string {
 	if a.plan == nil {
 		return strings.Join(a.planNote, "\n")
 	}
+	// The words are written once per plan and unit: the glue asks for them
+	// after every change, many a second while the what-if is dragged.
+	if a.wordsOf == a.plan && a.wordsUnit == a.unit() {
+		return a.words
+	}
 	var b strings.Builder
 	if err := plan.WriteText(&b, a.plan, a.unit()); err != nil {
 		return sentence(err)
 	}
-	return b.String()
+	a.wordsOf, a.wordsUnit, a.words = a.plan, a.unit(), b.String()
+	return a.words
 }
 
 // ExportJSON returns the current session as a session file, the same

@@ -1,9 +1,11 @@
 package ui
 
 import (
+	"strings"
 	"testing"
 
 	"evenbeat/render/recorder"
+	"evenbeat/setting/session"
 )
 
 // TestOtherPriorityAfterFirstFrame: the plan is shown before its other
@@ -34,4 +36,19 @@ func TestOtherPriorityAfterFirstFrame(t *testing.T) {
 		t.Fatalf("after the first frame: pending %v, other %v, took %v", a.PlanPending(), a.plan.Other, a.OtherTime())
 	}
 	samePlanAs(t, a, "the words after the first frame")
+}
+
+// TestPlanTextFollowsUnit: the plan's words, kept between calls, are
+// written again when the display unit changes.
+func TestPlanTextFollowsUnit(t *testing.T) {
+	a := planApp(t)
+	s := a.Session()
+	s.DisplayUnit = session.UnitMM
+	mm := a.PlanText()
+	s.DisplayUnit = session.UnitInch
+	inch := a.PlanText()
+	if mm == inch || !strings.Contains(mm, " mm") || !strings.Contains(inch, " in") {
+		t.Errorf("the words in mm and in inches:\n%s\n---\n%s", mm, inch)
+	}
+	samePlanAs(t, a, "in inches")
 }

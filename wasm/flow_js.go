@@ -57,8 +57,11 @@ type flowGame struct {
 	nameNow   string
 	// chooserOpened: the file chooser was opened by the tap's own event;
 	// the app's handling of that tap on the next tick must not open
-	// another (under mu).
-	chooserOpened bool
+	// another (under mu). copiedInGesture likewise for the clipboard.
+	chooserOpened   bool
+	copiedInGesture bool
+	copyText        string  // the plan's words as last published (under mu)
+	copies          []error // how clipboard writes went, for the next tick (under mu)
 }
 
 // runFlow starts the app.
@@ -66,7 +69,7 @@ func runFlow(st *store, th render.Theme) error {
 	g := &flowGame{game: newGame(), window: js.Global(), gestureAt: map[string]render.Rect{}}
 	g.queue.onUp = g.tapInGesture
 	opt := ui.Options{Theme: th, OnExport: download, OnImport: g.chooseFile,
-		OnName: g.openName, OnShare: g.queueShare, OnUpdate: g.askRestart}
+		OnName: g.openName, OnShare: g.queueShare, OnUpdate: g.askRestart, OnCopy: g.copyWords}
 	if st != nil {
 		opt.Store = uiStore{st}
 	}
@@ -128,6 +131,7 @@ func (g *flowGame) Update() error {
 		}
 	}
 	g.renameTick()
+	g.copyTick()
 	g.feed(func(in intent) { g.ui.Handle(uiIntent(in)) })
 	g.shareTick()
 	g.updateTick()
@@ -135,7 +139,7 @@ func (g *flowGame) Update() error {
 		g.publish()
 	}
 	g.mu.Lock()
-	g.chooserOpened = false // the tap that opened it has been handled
+	g.chooserOpened, g.copiedInGesture = false, false // the tap has been handled
 	g.mu.Unlock()
 	return nil
 }
@@ -161,11 +165,15 @@ func (g *flowGame) publish() {
 	g.window.Set("evenbeatField", g.ui.Field())
 	targets := g.ui.Targets()
 	g.window.Set("evenbeatTargets", targetsJSON(targets))
+	copyText := ""
+	if !g.ui.PlanPending() {
+		copyText = g.ui.PlanText() // kept per plan: cheap
+	}
 	g.mu.Lock()
-	g.barBottom = g.ui.BarBottom()
+	g.barBottom, g.copyText = g.ui.BarBottom(), copyText
 	clear(g.gestureAt)
 	for _, t := range targets {
-		if t.Label == ui.RenameLabel || t.Label == ui.ImportLabel {
+		if t.Label == ui.RenameLabel || t.Label == ui.ImportLabel || t.Label == ui.CopyLabel {
 			g.gestureAt[t.Label] = t.Rect
 		}
 	}

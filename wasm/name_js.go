@@ -81,11 +81,13 @@ func (g *flowGame) openName(current string) {
 }
 
 // tapInGesture is the pointer queue's onUp: a pointer that went down and
-// came up on the rename or import button opens the name box or the file
-// chooser at once, inside the browser's event. iOS raises the keyboard for
-// a focus, and opens a file chooser, only inside a user's gesture. The
-// app's own handling of the tap, on the next tick, then finds the box open
-// (openName keeps it) or the chooser opened (chooseFile skips it).
+// came up on the rename, import or copy button opens the name box or the
+// file chooser, or writes the clipboard, at once, inside the browser's
+// event. iOS raises the keyboard for a focus, opens a file chooser, and
+// browsers write the clipboard, only inside a user's gesture. The app's
+// own handling of the tap, on the next tick, then finds the box open
+// (openName keeps it), the chooser opened (chooseFile skips it) or the
+// words copied (copyWords skips them).
 func (g *flowGame) tapInGesture(down, up render.Point) {
 	g.mu.Lock()
 	// As the app's own hit test: a button scrolled under the top bar is
@@ -94,17 +96,18 @@ func (g *flowGame) tapInGesture(down, up render.Point) {
 		r, ok := g.gestureAt[label]
 		return ok && r.Contains(down) && r.Contains(up) && down.Y >= g.barBottom && up.Y >= g.barBottom
 	}
-	rename, choose := on(ui.RenameLabel), on(ui.ImportLabel)
-	name := g.nameNow
-	if choose {
-		g.chooserOpened = true
-	}
+	rename, choose, copies := on(ui.RenameLabel), on(ui.ImportLabel), on(ui.CopyLabel) && g.copyText != ""
+	name, text := g.nameNow, g.copyText
+	g.chooserOpened = g.chooserOpened || choose
+	g.copiedInGesture = g.copiedInGesture || copies
 	g.mu.Unlock()
 	switch {
 	case rename:
 		g.openName(name)
 	case choose:
 		openChooser(g)
+	case copies:
+		g.writeClipboard(text)
 	}
 }
 

@@ -76,6 +76,8 @@ func TestNameAndShare(t *testing.T) {
 		t.Errorf("window.evenbeatPlanMs = %v after a plan; want the plan's time in ms", ms)
 	}
 
+	words := waitValue[string](t, ctx, 30*time.Second, "window.evenbeatPlanText")
+
 	// Share: the PNG reaches the share sheet.
 	eval[bool](t, ctx, stubShareJS)
 	slowTapLabel(t, ctx, "Menu")
@@ -115,6 +117,18 @@ func TestNameAndShare(t *testing.T) {
 		if n := count(img, image.Rect(0, y, all.Dx(), y+500), th.Ink, 40); n < 200 {
 			t.Errorf("rows %d to %d of the report hold %d ink pixels; want at least 200 (a strip not drawn?)", y, y+500, n)
 		}
+	}
+
+	// Copy: the plan's words reach the clipboard, written inside the tap's
+	// pointerup (browsers write the clipboard only in a user's gesture).
+	eval[bool](t, ctx, `(window.evenbeatClip = null, Object.defineProperty(navigator, "clipboard", {configurable: true, get: () => ({
+		writeText: (text) => { window.evenbeatClip = {Text: text, In: (window.event && window.event.type) || "no event"}; return Promise.resolve(); },
+	})}), true)`)
+	slowTapLabel(t, ctx, "Copy the plan's words")
+	type clip struct{ Text, In string }
+	c := waitValue[clip](t, ctx, 30*time.Second, "window.evenbeatClip")
+	if c.In != "pointerup" || c.Text != words {
+		t.Errorf("the clipboard got %d characters inside %q; want the plan's %d characters inside the tap's pointerup", len(c.Text), c.In, len(words))
 	}
 
 	// The name box: shown over the canvas, focused, labelled, big enough.

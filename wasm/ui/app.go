@@ -87,6 +87,10 @@ type Options struct {
 	// OnUpdate, when set, is called when the user chose to restart into
 	// the new version (after SetUpdateReady(true)).
 	OnUpdate func()
+	// OnCopy, when set, is called with the plan's words when the user asks
+	// to copy them; the glue puts them on the clipboard and reports how it
+	// went through App.CopyDone.
+	OnCopy func(text string)
 }
 
 // App is the phone app's screens and flow. Handle, Update, Back, Resize,
@@ -136,18 +140,20 @@ type App struct {
 	status  string
 
 	// The plan.
-	planRound int // the round planned, counting from 1; 0 the latest
-	fit       *plan.Fit
-	plan      *plan.Plan
-	model     *render.Model
-	planNote  []string // why there is no plan, or what weakens it
-	diagram   render.Diagram
-	position  int
-	crankDeg  float64
-	what      whatIf
-	importErr string
-	engine    *render.Model // the engine as drawn, for the drawing of where
-	engineOf  *session.Session
+	planRound  int // the round planned, counting from 1; 0 the latest
+	fit        *plan.Fit
+	plan       *plan.Plan
+	model      *render.Model
+	planNote   []string // why there is no plan, or what weakens it
+	diagram    render.Diagram
+	position   int
+	crankDeg   float64
+	what       whatIf
+	importErr  string
+	copyNote   string        // how the last copy of the plan's words went, on the menu
+	copyFailed bool          // copyNote says why it failed
+	engine     *render.Model // the engine as drawn, for the drawing of where
+	engineOf   *session.Session
 
 	updateReady bool          // a new version waits: the banner shows
 	planTime    time.Duration // how long the last fit, plan and model took
@@ -352,6 +358,7 @@ func (a *App) navigate(s Screen) {
 	if s == a.screen {
 		return
 	}
+	a.copyNote = "" // said on the menu, about the menu's last copy
 	a.stack = append(a.stack, a.screen)
 	a.screen, a.scroll, a.dirty = s, 0, true
 	a.editing = false

@@ -19,6 +19,9 @@ const maxNameRunes = 60
 const (
 	RenameLabel = "Rename engine"
 	ImportLabel = "Import a session file"
+	// CopyLabel is the menu's button that copies the plan's words (the
+	// glue writes the clipboard inside the browser's tap event on it).
+	CopyLabel = "Copy the plan's words"
 )
 
 // BarBottom is where the top bar ends (CSS px): a tap above it reaches
@@ -74,6 +77,26 @@ func (a *App) share() {
 	}
 	a.finishPlan() // the report's notes compare the two priorities
 	a.opt.OnShare(a.reportName(), render.ReportModel{Model: a.model, Session: a.Session()})
+}
+
+// copyWords hands the plan's words to the glue's OnCopy.
+func (a *App) copyWords() {
+	if a.opt.OnCopy == nil || a.plan == nil {
+		return
+	}
+	a.copyNote = ""
+	a.opt.OnCopy(a.PlanText())
+}
+
+// CopyDone tells the app how putting the plan's words on the clipboard
+// went: nil when they are there, else why not; the menu says so.
+func (a *App) CopyDone(err error) {
+	a.dirty, a.copyFailed = true, err != nil
+	if err != nil {
+		a.copyNote = "The plan's words were not copied: " + err.Error() + ". They are also on the plan screen to read."
+		return
+	}
+	a.copyNote = "The plan's words are copied: paste them into a message or your notes."
 }
 
 // rename asks the glue for a new name.

@@ -1,6 +1,7 @@
 package ui
 
 import (
+	"errors"
 	"strings"
 	"testing"
 
@@ -95,5 +96,50 @@ func TestUpdateBanner(t *testing.T) {
 	}
 	if a.PlanTime() <= 0 {
 		t.Errorf("PlanTime %v after a plan", a.PlanTime())
+	}
+}
+
+// TestCopyPlanWords: the menu's copy button hands the glue the plan's
+// words, and says how the copy went; without a plan there is no button.
+func TestCopyPlanWords(t *testing.T) {
+	a := planApp(t)
+	var got []string
+	a.opt.OnCopy = func(text string) { got = append(got, text) }
+	tap(t, a, "Menu")
+	tap(t, a, CopyLabel)
+	if len(got) != 1 || got[0] != a.PlanText() || got[0] == "" {
+		t.Fatalf("copied %q; want the plan's words once", got)
+	}
+	a.CopyDone(nil)
+	if text, _ := drawText(a); !strings.Contains(strings.ReplaceAll(text, "\n", " "), "words are copied") {
+		t.Errorf("after the copy the menu says:\n%s", text)
+	}
+	a.CopyDone(errors.New("the browser refused (NotAllowedError)"))
+	if text, _ := drawText(a); !strings.Contains(strings.ReplaceAll(text, "\n", " "), "not copied: the browser refused (NotAllowedError)") {
+		t.Errorf("after a refused copy the menu says:\n%s", text)
+	}
+
+	// A session with no readings has no plan: no button.
+	b := newTestApp(t, newMemStore())
+	b.opt.OnCopy = func(string) { t.Error("copied without a plan") }
+	bare := demoSession(t)
+	for i := range bare.Cylinders {
+		bare.Cylinders[i].Rounds = nil
+	}
+	src, err := encodeSession(bare)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := b.Import(src); err != nil {
+		t.Fatal(err)
+	}
+	tap(t, b, "Menu")
+	if b.Screen() != Menu {
+		t.Fatalf("Menu led to %s", b.Screen())
+	}
+	for _, tg := range b.Targets() {
+		if tg.Label == CopyLabel {
+			t.Error("the menu offers the copy with no plan")
+		}
 	}
 }

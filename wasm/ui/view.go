@@ -539,6 +539,10 @@ func (a *App) menuView(l *layouter) {
 		if a.opt.OnShare != nil && a.model != nil {
 			l.button("Share report", false, a.share)
 		}
+		if a.opt.OnCopy != nil && a.plan != nil {
+			l.button(CopyLabel, false, a.copyWords)
+			l.text(a.copyNote, a.copyFailed)
+		}
 	}
 	if a.opt.OnImport != nil {
 		l.button(ImportLabel, false, a.opt.OnImport)

@@ -165,10 +165,14 @@ func (g *flowGame) publish() {
 	g.window.Set("evenbeatField", g.ui.Field())
 	targets := g.ui.Targets()
 	g.window.Set("evenbeatTargets", targetsJSON(targets))
-	copyText := ""
-	if !g.ui.PlanPending() {
-		copyText = g.ui.PlanText() // kept per plan: cheap
+	// The plan's words, unless the plan waits for its other priority (made
+	// on the tick after its first frame): asking for them would make it
+	// now, before the plan is drawn.
+	words, pending := "", g.ui.PlanPending()
+	if !pending {
+		words = g.ui.PlanText() // kept per plan: cheap
 	}
+	copyText := words
 	g.mu.Lock()
 	g.barBottom, g.copyText = g.ui.BarBottom(), copyText
 	clear(g.gestureAt)
@@ -178,16 +182,13 @@ func (g *flowGame) publish() {
 		}
 	}
 	g.mu.Unlock()
-	// While the plan waits for its other priority (made on the tick after
-	// its first frame) the words are left as they were: asking for them
-	// would make it now, before the plan is drawn.
-	words := ""
-	if g.ui.Screen() == ui.Plan {
-		if g.ui.PlanPending() {
-			words = g.window.Get("evenbeatPlanText").String()
-		} else {
-			words = g.ui.PlanText()
-		}
+	// The page shows the words on the plan screen only; while the plan
+	// waits, those shown are left as they were.
+	switch {
+	case g.ui.Screen() != ui.Plan:
+		words = ""
+	case pending:
+		words = g.window.Get("evenbeatPlanText").String()
 	}
 	g.window.Set("evenbeatPlanText", words)
 	g.window.Set("evenbeatSettled", g.settled())
@@ -279,12 +280,12 @@ func (g *flowGame) chooseFile() {
 	g.chooserOpened = false
 	g.mu.Unlock()
 	if !opened {
-		openChooser(g)
+		g.openChooser()
 	}
 }
 
 // openChooser opens the browser's file chooser for a session file.
-func openChooser(g *flowGame) {
+func (g *flowGame) openChooser() {
 	doc := js.Global().Get("document")
 	in := doc.Call("createElement", "input")
 	in.Set("type", "file")

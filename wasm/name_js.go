@@ -105,7 +105,7 @@ func (g *flowGame) tapInGesture(down, up render.Point) {
 	case rename:
 		g.openName(name)
 	case choose:
-		openChooser(g)
+		g.openChooser()
 	case copies:
 		g.writeClipboard(text)
 	}

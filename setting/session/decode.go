@@ -402,7 +402,7 @@ func (d *decoder) aims(n *node, path string) PlanAims {
 	}
 	if o.has("running_notch") {
 		a.RunningNotch = o.text("running_notch", true, "the notch whose cut-offs are made equal")
-		if ok := runningNotches(d.info); d.err == nil && !contains(ok, a.RunningNotch) {
+		if ok := runningNotches(d.info.notchOrder); d.err == nil && !contains(ok, a.RunningNotch) {
 			d.fail(path+".running_notch", "The notch %q is not one the plan works in; use one of %s.", a.RunningNotch, quoteList(ok))
 		}
 	}
@@ -410,10 +410,11 @@ func (d *decoder) aims(n *node, path string) PlanAims {
 }
 
 // runningNotches lists the notches a plan may make its cut-offs equal in:
-// full forward and the engine's own notches.
-func runningNotches(info specInfo) []string {
+// full forward and the engine's own notches, of the reverser positions
+// named (in the reverser's order).
+func runningNotches(names []string) []string {
 	ok := []string{FullForward}
-	for _, n := range info.notchOrder {
+	for _, n := range names {
 		if n != FullForward && n != MidGear && n != FullBack {
 			ok = append(ok, n)
 		}

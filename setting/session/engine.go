@@ -57,6 +57,17 @@ func (d *decoder) engine(n *node, path string) (setting.EngineSpec, specInfo) {
 	return spec, infoOf(spec)
 }
 
+// RunningNotches lists the notches a plan may make the cut-offs equal in,
+// the values plan_aims.running_notch may take: full forward, then the
+// engine's own notches.
+func (s *Session) RunningNotches() []string {
+	names := make([]string, len(s.Engine.Notches))
+	for i, n := range s.Engine.Notches {
+		names[i] = n.Name
+	}
+	return runningNotches(names)
+}
+
 // infoOf collects the facts the session uses from an engine.
 func infoOf(spec setting.EngineSpec) specInfo {
 	info := specInfo{

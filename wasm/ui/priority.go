@@ -96,21 +96,13 @@ func (a *App) setLeadShare(x float64) {
 	a.makePlan()
 }
 
-// runningNotches are the notches a plan may make the cut-offs equal in,
-// in the reverser's order: full forward and the engine's own notches (as
-// the session file allows).
+// runningNotches are the notches a plan may make the cut-offs equal in
+// (session.Session.RunningNotches: those the session file allows).
 func (a *App) runningNotches() []string {
-	s := a.Session()
-	if s == nil {
-		return nil
+	if s := a.Session(); s != nil {
+		return s.RunningNotches()
 	}
-	out := []string{session.FullForward}
-	for _, n := range s.Engine.Notches {
-		if n.Name != session.FullForward && n.Name != session.MidGear && n.Name != session.FullBack {
-			out = append(out, n.Name)
-		}
-	}
-	return out
+	return nil
 }
 
 // runningNotch is the notch whose cut-offs the plan makes equal: the

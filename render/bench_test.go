@@ -3,10 +3,10 @@ package render_test
 import (
 	"testing"
 
-	"evenbeat/internal/cpubench"
 	"evenbeat/render"
 	"evenbeat/render/raster"
 	"evenbeat/render/recorder"
+	"evenbeat/setting/cpubench"
 )
 
 // Phone frame benchmarks: the piston card and the cautions card, each on a

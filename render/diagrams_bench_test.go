@@ -3,10 +3,10 @@ package render_test
 import (
 	"testing"
 
-	"evenbeat/internal/cpubench"
 	"evenbeat/render"
 	"evenbeat/render/raster"
 	"evenbeat/render/recorder"
+	"evenbeat/setting/cpubench"
 )
 
 // Benchmarks of the diagrams on the demo data. Issue goal: a full phone

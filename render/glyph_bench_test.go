@@ -3,10 +3,10 @@ package render_test
 import (
 	"testing"
 
-	"evenbeat/internal/cpubench"
 	"evenbeat/render"
 	"evenbeat/render/raster"
 	"evenbeat/render/recorder"
+	"evenbeat/setting/cpubench"
 )
 
 // textOnly passes a screen's text to a canvas and drops its fills and

@@ -5,10 +5,10 @@ import (
 	"math"
 	"testing"
 
-	"evenbeat/internal/cpubench"
 	"evenbeat/render"
 	"evenbeat/render/raster"
 	"evenbeat/render/recorder"
+	"evenbeat/setting/cpubench"
 )
 
 // sketchKeys are the set-up values the set-up screens show a sketch for:

@@ -5,7 +5,7 @@ import (
 	"path/filepath"
 	"testing"
 
-	"evenbeat/internal/cpubench"
+	"evenbeat/setting/cpubench"
 )
 
 // Speed goal (issue 3): the full event table for the three gears x 9

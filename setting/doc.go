@@ -42,9 +42,8 @@
 // ("valve.front.port_width") and a full sentence. No function panics on bad
 // input or returns NaN or Inf.
 //
-// The package imports only the standard library and evenbeat/internal/jsonx
+// The package imports only the standard library and evenbeat/setting/jsonx
 // (JSON without reflection, so the browser build carries no encoding/json);
-// it never imports ebiten
-// or syscall/js, so it tests natively and serves the browser app, the
-// drawing code and the command-line tool alike.
+// it never imports ebiten or syscall/js, so it tests natively and serves
+// the browser app, the drawing code and the command-line tool alike.
 package setting

@@ -11,7 +11,7 @@ import (
 	"strconv"
 	"strings"
 
-	"evenbeat/internal/jsonx"
+	"evenbeat/setting/jsonx"
 )
 
 // EngineSpec is a whole engine as the tools read and write it: one cylinder's

@@ -9,7 +9,7 @@ import (
 	"strings"
 	"testing"
 
-	"evenbeat/internal/cpubench"
+	"evenbeat/setting/cpubench"
 )
 
 // specJSON is a small invented single-eccentric engine (invented for this

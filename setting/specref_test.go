@@ -15,7 +15,7 @@ import (
 	"strings"
 	"testing"
 
-	"evenbeat/internal/jsonx/jsonxtest"
+	"evenbeat/setting/jsonx/jsonxtest"
 )
 
 // The engine decoder used to be encoding/json with a reflection walk

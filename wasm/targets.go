@@ -1,7 +1,7 @@
 package main
 
 import (
-	"evenbeat/internal/jsonx"
+	"evenbeat/setting/jsonx"
 	"evenbeat/wasm/ui"
 )
 

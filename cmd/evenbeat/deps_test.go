@@ -43,7 +43,7 @@ func TestDomainAndDrawingStayPortable(t *testing.T) {
 
 // TestBrowserBuildLeavesOutEncodingJSON: encoding/json and the reflection
 // it brings cost the app about 100 KB gzipped, so the js/wasm build of the
-// app must not depend on it; internal/jsonx reads and writes the app's
+// app must not depend on it; setting/jsonx reads and writes the app's
 // JSON instead. Command-line-only code may use encoding/json.
 func TestBrowserBuildLeavesOutEncodingJSON(t *testing.T) {
 	lines := goListDeps(t, []string{"GOOS=js", "GOARCH=wasm"}, importsFormat, "./wasm")
@@ -60,7 +60,7 @@ func TestBrowserBuildLeavesOutEncodingJSON(t *testing.T) {
 		t.Fatalf("go list listed only %d packages: %q", n, lines)
 	}
 	if len(importers) > 0 {
-		t.Errorf("the browser build depends on encoding/json through %s; read and write JSON there with evenbeat/internal/jsonx, or keep command-line-only JSON code out of the js build (a //go:build !js file)", strings.Join(importers, ", "))
+		t.Errorf("the browser build depends on encoding/json through %s; read and write JSON there with evenbeat/setting/jsonx, or keep command-line-only JSON code out of the js build (a //go:build !js file)", strings.Join(importers, ", "))
 	}
 }
 

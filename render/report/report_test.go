@@ -6,9 +6,9 @@ import (
 	"strings"
 	"testing"
 
-	"evenbeat/internal/cpubench"
 	"evenbeat/render"
 	"evenbeat/render/report"
+	"evenbeat/setting/cpubench"
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
 )

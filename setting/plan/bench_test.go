@@ -3,7 +3,7 @@ package plan
 import (
 	"testing"
 
-	"evenbeat/internal/cpubench"
+	"evenbeat/setting/cpubench"
 )
 
 // Speed goal (issue 4): fit + plan for a full session (sweeps every 15

@@ -2,7 +2,8 @@
 // engine being set, with its profile (geometry, what can be adjusted and
 // how, how it is measured) and every cylinder's readings, round by round,
 // as a setter takes them with a dial gauge on the valve spindle and marks
-// on the wheel tyre. The format is documented in docs/session-format.md.
+// on the wheel tyre. The format is described in format.md, beside this
+// package's files.
 //
 // Units and conventions (the same as package setting):
 //
@@ -25,5 +26,5 @@
 // lacks; Observations turns the readings into the list a fitter works on.
 //
 // The package imports only the standard library, evenbeat/setting and
-// evenbeat/internal/jsonx.
+// evenbeat/setting/jsonx.
 package session

@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"evenbeat/internal/cpubench"
+	"evenbeat/setting/cpubench"
 )
 
 func readExample(t testing.TB) []byte {

@@ -7,7 +7,7 @@ import (
 	"io"
 	"strconv"
 
-	"evenbeat/internal/jsonx"
+	"evenbeat/setting/jsonx"
 )
 
 // The decoder reads the file into a small tree first (keys kept in order,

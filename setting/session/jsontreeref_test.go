@@ -11,7 +11,7 @@ import (
 	"strings"
 	"testing"
 
-	"evenbeat/internal/jsonx/jsonxtest"
+	"evenbeat/setting/jsonx/jsonxtest"
 )
 
 // The session file used to be read through encoding/json's token stream.

@@ -15,7 +15,7 @@ func (r Round) HasMarks() bool { return r.PortMarks != nil || r.Laps != nil }
 // edges stay where the gauge saw them; moving the valve on its spindle
 // moves the edges against the spindle, so the marks taken before no longer
 // hold (common practice, no source; the file format's rule for rounds
-// without marks, docs/session-format.md, rounds[]). A gauge moved or re-set
+// without marks, setting/session/format.md, rounds[]). A gauge moved or re-set
 // also ends them, but the file does not record that; the setter is asked.
 //
 // moved is the round (counting from 0) whose change of the valve on its

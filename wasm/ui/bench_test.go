@@ -3,9 +3,9 @@ package ui
 import (
 	"testing"
 
-	"evenbeat/internal/cpubench"
 	"evenbeat/render"
 	"evenbeat/render/recorder"
+	"evenbeat/setting/cpubench"
 )
 
 // BenchmarkFramePlan draws one frame of the busiest screen, the plan's

@@ -11,7 +11,7 @@ import (
 // sits on its spindle, the next round offers the earlier marks with one
 // tap, says why they hold, and goes on to the dead-centre readings; after
 // a spindle change it says why the marks must be taken again. The rule is
-// the session file's (docs/session-format.md, rounds[]): moving the valve
+// the session file's (setting/session/format.md, rounds[]): moving the valve
 // on its spindle moves the marks as the gauge sees them (common practice,
 // no source).
 func TestKeepPortMarks(t *testing.T) {

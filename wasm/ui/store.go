@@ -6,8 +6,8 @@ import (
 	"fmt"
 	"strings"
 
-	"evenbeat/internal/jsonx"
 	"evenbeat/setting"
+	"evenbeat/setting/jsonx"
 	"evenbeat/setting/session"
 )
 

@@ -10,7 +10,7 @@ import (
 	"strings"
 	"testing"
 
-	"evenbeat/internal/jsonx/jsonxtest"
+	"evenbeat/setting/jsonx/jsonxtest"
 )
 
 // The reference throughout is the standard library's encoding/json, a

@@ -18,6 +18,9 @@
 //     (a gear, a fitted curve, measured points); Table: the same for a
 //     gear per reverser position and running direction.
 //   - EngineSpec: a whole engine as JSON, validated value by value.
+//     EnginePatch: how one cylinder differs from it, an RFC 7396 merge
+//     patch in the file's terms, applied to the values (never by writing
+//     the engine out and reading it back).
 //
 // Units and conventions, everywhere in the package:
 //

@@ -372,11 +372,31 @@ type specDecoder struct {
 	// is not an integer literal ("1.0", "1e2"); it is reported only once
 	// everything else reads, where the final decoding used to find it.
 	wholeErr error
+	// patch says how objects are read: as a file (notPatch), or as part
+	// of an RFC 7396 merge patch (EnginePatch), merged into the values
+	// there or read afresh where there is no object to merge into.
+	patch patchMode
 }
 
+// patchMode is how specDecoder reads objects.
+type patchMode int
+
+const (
+	// notPatch reads a file: every required key must be given.
+	notPatch patchMode = iota
+	// mergeInto keeps the value of every key the patch leaves out, takes
+	// out an optional key the patch sets to null (a required one is then
+	// missing), and merges an object into the object already there.
+	mergeInto
+	// freshObject reads an object the patch puts where there was none:
+	// its null members are left out, as merging leaves them out.
+	freshObject
+)
+
 // read reads v, found at path, into the value ptr points to (a specField
-// ptr). A null leaves a number, word, list or optional object at zero, as
-// encoding/json does.
+// ptr). A null sets a number, text, list or optional object to zero: in a
+// file that is where it already is, as encoding/json leaves it; a patch's
+// null takes out the value there.
 func (d *specDecoder) read(path string, v *jsonx.Value, ptr any) error {
 	at := func(msg string) error {
 		return &Error{path, describePath(path) + " " + fmt.Sprintf(msg, short(d.data[v.Start:v.End]))}
@@ -397,6 +417,7 @@ func (d *specDecoder) read(path string, v *jsonx.Value, ptr any) error {
 		if f != math.Trunc(f) {
 			return at("must be a whole number (got %s).")
 		}
+		*p = 0
 		if v.Kind == jsonx.Number {
 			n, err := strconv.ParseInt(v.Text, 10, 0)
 			if err != nil && d.wholeErr == nil {
@@ -413,9 +434,7 @@ func (d *specDecoder) read(path string, v *jsonx.Value, ptr any) error {
 		if v.Kind != jsonx.String && v.Kind != jsonx.Null {
 			return at("must be a quoted text (got %s).")
 		}
-		if v.Kind == jsonx.String {
-			*p = v.Text
-		}
+		*p = v.Text // "" for null
 	case *Admission:
 		if v.Kind != jsonx.String && v.Kind != jsonx.Null {
 			return at("must be a quoted word (got %s).")
@@ -449,6 +468,7 @@ func (d *specDecoder) read(path string, v *jsonx.Value, ptr any) error {
 func (d *specDecoder) number(v *jsonx.Value, p *float64, at func(string) error) error {
 	switch v.Kind {
 	case jsonx.Null:
+		*p = 0
 		return nil
 	case jsonx.Number:
 		f, err := strconv.ParseFloat(v.Text, 64)
@@ -474,10 +494,13 @@ func (d *specDecoder) object(path string, v *jsonx.Value, fields []specField, at
 			sub = path + "." + f.key
 		}
 		m := v.Last(f.key)
+		// Merging, a key the patch leaves out keeps its value; a patch's
+		// null takes a key out (reading it sets the value to zero).
+		missing := m == nil && d.patch != mergeInto || m != nil && m.Kind == jsonx.Null && d.patch != notPatch
+		if missing && !f.optional {
+			return &Error{sub, describePath(sub) + " is missing; it must be given."}
+		}
 		if m == nil {
-			if !f.optional {
-				return &Error{sub, describePath(sub) + " is missing; it must be given."}
-			}
 			continue
 		}
 		if err := d.read(sub, m, f.ptr); err != nil {
@@ -485,8 +508,9 @@ func (d *specDecoder) object(path string, v *jsonx.Value, fields []specField, at
 		}
 	}
 	var unknown []string
-	for _, k := range v.Keys {
-		if !slices.Contains(keys, k) {
+	for i, k := range v.Keys {
+		// A patch's null for a key that is not there takes nothing out.
+		if !slices.Contains(keys, k) && (d.patch == notPatch || v.Vals[i].Kind != jsonx.Null) {
 			unknown = append(unknown, k)
 		}
 	}
@@ -513,7 +537,8 @@ func readList[T any](d *specDecoder, path string, v *jsonx.Value, list *[]T, at 
 	}
 	out := make([]T, len(v.Elems))
 	for i, e := range v.Elems {
-		if err := d.read(fmt.Sprintf("%s[%d]", path, i), e, &out[i]); err != nil {
+		// A patch's list replaces the list there whole, read as written.
+		if err := d.readAs(notPatch, fmt.Sprintf("%s[%d]", path, i), e, &out[i]); err != nil {
 			return err
 		}
 	}
@@ -521,18 +546,42 @@ func readList[T any](d *specDecoder, path string, v *jsonx.Value, list *[]T, at 
 	return nil
 }
 
-// readOptional reads an optional object, nil for null.
+// readOptional reads an optional object, nil for null. A patch merges
+// into the object there, or reads a new one afresh.
 func readOptional[T any](d *specDecoder, path string, v *jsonx.Value, p **T) error {
 	if v.Kind == jsonx.Null {
 		*p = nil
 		return nil
 	}
 	x := new(T)
-	if err := d.read(path, v, x); err != nil {
+	if d.patch == mergeInto && *p != nil {
+		// Merge into a copy: the object may be shared with the engine
+		// the patch is applied to.
+		*x = **p
+	}
+	if err := d.readAs(d.optionalMode(*p != nil), path, v, x); err != nil {
 		return err
 	}
 	*p = x
 	return nil
+}
+
+// optionalMode is how to read an optional object: a patch merges into
+// the one there, else reads a new one afresh.
+func (d *specDecoder) optionalMode(there bool) patchMode {
+	if d.patch == mergeInto && !there {
+		return freshObject
+	}
+	return d.patch
+}
+
+// readAs reads as read does, with objects read as mode says.
+func (d *specDecoder) readAs(mode patchMode, path string, v *jsonx.Value, ptr any) error {
+	saved := d.patch
+	d.patch = mode
+	err := d.read(path, v, ptr)
+	d.patch = saved
+	return err
 }
 
 // writeSpecValue writes the value ptr points to (a specField ptr) as

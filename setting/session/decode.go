@@ -552,10 +552,19 @@ func (d *decoder) cylinder(n *node, path string, s *Session, engine *node) Cylin
 		if len(p.keys) > 0 {
 			var buf bytes.Buffer
 			p.writeCompact(&buf)
-			c.Differences = buf.Bytes()
-		}
-		if engine != nil && c.Differences != nil {
-			_, info = d.engine(mergePatch(engine, p), path+".differences")
+			patch, err := setting.ReadEnginePatch(buf.Bytes())
+			if err != nil {
+				d.engineError(path+".differences", err)
+				return c
+			}
+			c.Differences = patch
+			if engine != nil {
+				if spec, err := patch.Apply(s.Engine); err != nil {
+					d.engineError(path+".differences", err)
+				} else {
+					info = infoOf(spec)
+				}
+			}
 		}
 	}
 	for i, dc := range o.list("dead_centres", false, "dead centres") {

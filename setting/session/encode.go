@@ -195,8 +195,8 @@ func (e *encoder) adjustment(a Adjustment, path string) *node {
 func (e *encoder) cylinder(c Cylinder, path string) *node {
 	o := e.obj(path)
 	o.str("name", c.Name)
-	if len(c.Differences) > 0 {
-		p, err := parseCompact(c.Differences)
+	if !c.Differences.IsEmpty() {
+		p, err := parseCompact(c.Differences.JSON())
 		if err != nil || p.kind != nodeObject {
 			if e.err == nil {
 				e.err = userError(path+".differences", "The differences must be a JSON object of the engine fields that differ.")

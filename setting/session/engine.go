@@ -42,19 +42,25 @@ func (d *decoder) engine(n *node, path string) (setting.EngineSpec, specInfo) {
 	n.writeCompact(&buf)
 	spec, err := setting.DecodeEngineSpec(&buf)
 	if err != nil {
-		field, msg := "", err.Error()
-		var se *setting.Error
-		if errors.As(err, &se) {
-			field, msg = se.Field, se.Message
-		}
-		full := path
-		if field != "" {
-			full = path + "." + field
-		}
-		d.fail(full, "%s", msg)
+		d.engineError(path, err)
 		return spec, specInfo{}
 	}
 	return spec, infoOf(spec)
+}
+
+// engineError fails with an error of the engine reader, or of an engine
+// patch, placing its field under path.
+func (d *decoder) engineError(path string, err error) {
+	field, msg := "", err.Error()
+	var se *setting.Error
+	if errors.As(err, &se) {
+		field, msg = se.Field, se.Message
+	}
+	full := path
+	if field != "" {
+		full = path + "." + field
+	}
+	d.fail(full, "%s", msg)
 }
 
 // RunningNotches lists the notches a plan may make the cut-offs equal in,

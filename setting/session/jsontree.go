@@ -290,43 +290,6 @@ func writeString(b *bytes.Buffer, s string) {
 	b.Write(jsonx.AppendString(b.AvailableBuffer(), s, false))
 }
 
-// mergePatch applies an RFC 7396 JSON Merge Patch to target and returns the
-// result; target is not changed.
-func mergePatch(target, patch *node) *node {
-	if patch.kind != nodeObject {
-		return patch
-	}
-	out := &node{kind: nodeObject}
-	if target != nil && target.kind == nodeObject {
-		out.keys = append(out.keys, target.keys...)
-		out.vals = append(out.vals, target.vals...)
-	}
-	for i, k := range patch.keys {
-		v := patch.vals[i]
-		idx := -1
-		for j, ok := range out.keys {
-			if ok == k {
-				idx = j
-				break
-			}
-		}
-		if v.kind == nodeNull {
-			if idx >= 0 {
-				out.keys = append(out.keys[:idx:idx], out.keys[idx+1:]...)
-				out.vals = append(out.vals[:idx:idx], out.vals[idx+1:]...)
-			}
-			continue
-		}
-		if idx >= 0 {
-			out.vals[idx] = mergePatch(out.vals[idx], v)
-		} else {
-			out.keys = append(out.keys, k)
-			out.vals = append(out.vals, mergePatch(nil, v))
-		}
-	}
-	return out
-}
-
 // parseCompact parses JSON bytes known to be valid into a tree (text after
 // the value is ignored).
 func parseCompact(data []byte) (*node, error) {

@@ -95,26 +95,19 @@ type Observation struct {
 }
 
 // CylinderEngine returns the engine as cylinder i is built: the session's
-// engine with the cylinder's Differences applied.
+// Engine as it is now, with the cylinder's Differences applied to its
+// values (setting.EnginePatch; the engine is not written out as JSON), so
+// a change made to Engine after the file was read is always seen. The
+// result may share lists and gear objects with Engine: treat it as
+// read-only.
 func (s *Session) CylinderEngine(i int) (setting.EngineSpec, error) {
 	if i < 0 || i >= len(s.Cylinders) {
 		return setting.EngineSpec{}, userError("cylinders", fmt.Sprintf("There is no cylinder %d; the session has %d.", i, len(s.Cylinders)))
 	}
-	if len(s.Cylinders[i].Differences) == 0 {
-		return s.Engine, nil
-	}
-	base, err := encodeTree(s.Engine)
+	spec, err := s.Cylinders[i].Differences.Apply(s.Engine)
 	if err != nil {
-		return setting.EngineSpec{}, userError("engine", fmt.Sprintf("The engine cannot be read back: %v.", err))
-	}
-	patch, err := parseCompact(s.Cylinders[i].Differences)
-	if err != nil {
-		path := fmt.Sprintf("cylinders[%d].differences", i)
-		return setting.EngineSpec{}, userError(path, path+": must be a JSON object of the engine fields that differ.")
-	}
-	d := &decoder{}
-	spec, _ := d.engine(mergePatch(base, patch), fmt.Sprintf("cylinders[%d].differences", i))
-	if d.err != nil {
+		d := &decoder{}
+		d.engineError(fmt.Sprintf("cylinders[%d].differences", i), err)
 		return setting.EngineSpec{}, d.err
 	}
 	return spec, nil

@@ -271,9 +271,11 @@ type Cylinder struct {
 	// Name is unique in the session: "left", "right", "middle"...
 	Name string
 	// Differences is how this cylinder differs from the engine as a whole:
-	// an RFC 7396 JSON Merge Patch applied to the "engine" object, held as
-	// compact JSON. Empty when the cylinder is as the engine says.
-	Differences []byte
+	// an RFC 7396 JSON Merge Patch of the "engine" object, parsed once as
+	// the file is read and applied to Engine's values as they are whenever
+	// the cylinder's engine is asked for (CylinderEngine). Empty when the
+	// cylinder is as the engine says.
+	Differences setting.EnginePatch
 	// DeadCentres are found by bracketing tyre marks, per end and turning
 	// direction.
 	DeadCentres []DeadCentre

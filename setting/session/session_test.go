@@ -146,8 +146,8 @@ func TestDecodeReadsEveryPart(t *testing.T) {
 	if r1.FeelerOpenings[0].DeadCentre != Front || r1.FeelerOpenings[0].OpeningMM != 0.2 {
 		t.Errorf("feeler: %+v", r1.FeelerOpenings[0])
 	}
-	if string(s.Cylinders[1].Differences) != `{"valve":{"front":{"steam_lap":3.1}}}` {
-		t.Errorf("differences: %s", s.Cylinders[1].Differences)
+	if string(s.Cylinders[1].Differences.JSON()) != `{"valve":{"front":{"steam_lap":3.1}}}` {
+		t.Errorf("differences: %s", s.Cylinders[1].Differences.JSON())
 	}
 	spec, err := s.CylinderEngine(1)
 	if err != nil || spec.Valve.Front.SteamLap != 3.1 || spec.Valve.Back.SteamLap != 3 {

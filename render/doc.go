@@ -34,7 +34,8 @@
 //     animation at a crank angle) and PlanCard (returns each step's hit
 //     rectangle); DrawScreen draws a whole phone screen with the position
 //     tabs (LayoutTabs, LayoutSideTabs) and returns its touch targets;
-//     Report draws the printed report (ReportHeight). Their layout maths
+//     Report draws the printed report (ReportHeight); DimensionSketch
+//     shows where a set-up value is measured. Their layout maths
 //     (LayoutPiston, LayoutCautions, CautionsHeight, LayoutCard,
 //     LayoutValveCurve, LayoutBalance, LayoutMotion, LayoutPlan, ValveEdges,
 //     ValveRange, Ports, PortStateAt, Ticks, AngleTicks, Scale) are plain
@@ -56,7 +57,8 @@
 // License (render/font/FTL.txt): portions of this software are copyright
 // 2010 The FreeType Project (www.freetype.org). All rights reserved.
 //
-// Imports: setting and its subpackages session and plan, render/font, golang.org/x/image, and
-// the standard library. Never ebiten or syscall/js: render must build and
-// test natively with no display.
+// Imports: setting and its subpackages session and plan, render/font and
+// the standard library (its tests also golang.org/x/image and Freetype-Go).
+// Never ebiten or syscall/js: render must build and test natively with no
+// display.
 package render

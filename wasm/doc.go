@@ -6,7 +6,8 @@
 // the plan and its what-if, with every entry saved through the IndexedDB
 // store in strict-durability transactions (store_js.go), the back gesture
 // moving back a step (History API), the plan's words mirrored into a
-// hidden live region, and file export and import.
+// hidden live region, file export and import, renaming, the report PNG
+// shared, and the plan's words copied (copy_js.go).
 //
 // Input logic (input.go) is plain Go and tested natively; everything
 // touching ebiten or syscall/js lives in files built only for js (main.go,
@@ -39,6 +40,7 @@
 //
 // Units: logical units are CSS pixels, origin top-left, y down, as in
 // render; the screen has scale device pixels per logical unit
-// (ebiten.Monitor().DeviceScaleFactor()). It may import setting, render,
-// package ui and, in js files, ebiten and syscall/js.
+// (ebiten.Monitor().DeviceScaleFactor()). It may import setting and its
+// subpackages (setting/jsonx writes evenbeatTargets), render, package ui
+// and, in js files, ebiten and syscall/js.
 package main

@@ -1,15 +1,26 @@
-// Command evenbeat builds the browser app and serves it, or writes it as
-// static files for any HTTPS host.
+// Command evenbeat serves the Evenbeat browser app or writes it out as
+// static files for any HTTPS host, and plans, tabulates and reports from
+// the same files the app uses.
+//
+//	evenbeat serve [-addr 127.0.0.1:8080] [-src DIR]
+//	evenbeat build -o DIR [-src DIR]
+//	evenbeat plan [-json] [-cylinder NAME] [-priority leads|cut-offs|balanced] [-weight W] [-target-lead MM] [-unit mm|inch] SESSION.json
+//	evenbeat events [-json] ENGINE.json
+//	evenbeat report [plan's flags] [-dark] SESSION.json -o report.png
 //
 // "serve" builds the WebAssembly program with the Go toolchain this command
 // runs under (GOOS=js GOARCH=wasm, -trimpath, stripped, no inlining in
-// this module's packages), caching the result
-// under the user cache directory keyed by a hash of its inputs, copies
-// wasm_exec.js from the same Go release, draws the icons with render, and
-// serves the site with the right MIME types and precompressed gzip.
-// "build -o DIR" writes the same files (plus .gz copies) to DIR.
+// this module's packages but setting), caching the result under the user
+// cache directory keyed by a hash of its inputs, copies wasm_exec.js from
+// the same Go release, draws the icons with render, and serves the site
+// with the right MIME types and precompressed gzip. "build -o DIR" writes
+// the same files (plus .gz copies) to DIR.
+//
+// "plan", "events" and "report" (files.go) read session and engine files;
+// a plan's aims not given as flags come from the session's plan_aims.
 //
 // Main (Run/Close) is the whole command as a value; the end-to-end browser
-// test reuses it. This package may import setting, render, render/raster,
-// site and the standard library; chromedp only in tests.
+// test reuses it. This package may import setting and its subpackages,
+// render, render/raster, render/report, site and the standard library;
+// chromedp only in tests.
 package main

@@ -141,7 +141,9 @@
 // "evenbeat plan SESSION.json [-json]"); WriteEventsText(w, spec) and
 // WriteEventsJSON(w, spec) the event table of an engine (for "evenbeat
 // events ENGINE.json [-json]"). Make(session, Options{}) builds the plan of
-// cylinder 0 with equal leads.
+// cylinder 0 with equal leads; AimsOptions(session.Aims) gives the options
+// the session file's plan_aims ask for, which the app and the command line
+// start from.
 //
 // # Plan JSON (format "evenbeat-plan", version 1)
 //

@@ -24,6 +24,10 @@
 // Encode always writes this version; Check gives warnings for values that
 // are possible but unusual; Readiness says what a plan for a cylinder still
 // lacks; Observations turns the readings into the list a fitter works on.
+// Version 2 added PlanAims, what the setter asks of the plan; a version 1
+// file is read with none and written back as version 2. A cylinder that
+// differs from the engine carries its Differences (a setting.EnginePatch),
+// applied to the engine's values by CylinderEngine.
 //
 // The package imports only the standard library, evenbeat/setting and
 // evenbeat/setting/jsonx.

@@ -16,13 +16,16 @@
 // (as crosshead travel or tyre marks) and feeler openings, each a step
 // that may be skipped. Every reading of any round can be typed again from
 // the history; its round's plan is made again. The plan screen chooses
-// the priority and a target lead (kept in the app: the session file has
-// no place for them) and drags a what-if amount of any adjustment the
-// engine allows.
+// what the plan makes equal (leads, cut-offs in a running notch, or a
+// balance with its share), and a target lead, saved in the session file as
+// its plan aims (session.PlanAims, file version 2), and drags a what-if
+// amount of any adjustment the engine allows.
 //
-// The glue's hooks: Options.OnName (a text box, then App.Rename),
-// Options.OnShare (the report PNG), Options.OnUpdate with
-// App.SetUpdateReady (the new-version banner), App.PlanTime.
+// The glue's hooks: Options.OnExport and OnImport (with App.Import) for
+// the session file, OnName (a text box, then App.Rename), OnShare (the
+// report PNG), OnCopy (the plan's words, with App.CopyDone), OnUpdate with
+// App.SetUpdateReady (the new-version banner); App.PlanText, PlanTime and
+// OtherTime for the page.
 //
 // The app draws only through render.Canvas (the ebiten backend in the
 // browser, render/recorder in tests) and takes input as plain intents (Tap,

@@ -138,6 +138,7 @@ const usage = `usage:
   evenbeat plan [-json] [flags] SESSION.json           fit the readings and print what to adjust
   evenbeat events [-json] ENGINE.json                  print the valve-event table of an engine
   evenbeat report SESSION.json -o report.png           write the report as a tall PNG
+Flags may come before or after the file.
 `
 
 // run is the command line: it parses args and runs one subcommand until ctx

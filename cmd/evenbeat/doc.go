@@ -16,8 +16,9 @@
 // with the right MIME types and precompressed gzip. "build -o DIR" writes
 // the same files (plus .gz copies) to DIR.
 //
-// "plan", "events" and "report" (files.go) read session and engine files;
-// a plan's aims not given as flags come from the session's plan_aims.
+// "plan", "events" and "report" (files.go) read session and engine files,
+// with flags before or after the file; a plan's aims not given as flags
+// come from the session's plan_aims.
 //
 // Main (Run/Close) is the whole command as a value; the end-to-end browser
 // test reuses it. This package may import setting and its subpackages,

@@ -113,16 +113,45 @@ func displayUnit(opt plan.Options, s *session.Session) session.Unit {
 	return s.DisplayUnit
 }
 
-// oneFile parses flags and expects exactly one file argument.
+// oneFile parses flags and expects exactly one file argument, with the
+// flags before or after it.
 func oneFile(fs *flag.FlagSet, args []string, what string) (string, error) {
-	if err := fs.Parse(args); err != nil {
+	files, err := parseAnyOrder(fs, args)
+	if err != nil {
 		return "", fmt.Errorf("%s: %w", fs.Name(), err)
 	}
-	if fs.NArg() != 1 {
+	switch len(files) {
+	case 1:
+		return files[0], nil
+	case 0:
 		return "", fmt.Errorf("%s needs one %s file, e.g. evenbeat %s testdata/%s (flags: %s)",
 			fs.Name(), what, fs.Name(), exampleFile[fs.Name()], flagNames(fs))
 	}
-	return fs.Arg(0), nil
+	return "", fmt.Errorf("%s reads one %s file, but %q follows %q; give one file, with flags before or after it (flags: %s)",
+		fs.Name(), what, files[1], files[0], flagNames(fs))
+}
+
+// parseAnyOrder parses the flags among args wherever they stand, before,
+// between or after the other arguments (`plan FILE -json` as well as
+// `plan -json FILE`), and returns the other arguments in order. The flag
+// package stops at the first non-flag, so parsing starts again after each;
+// "--" ends the flags.
+func parseAnyOrder(fs *flag.FlagSet, args []string) ([]string, error) {
+	var others []string
+	for {
+		if err := fs.Parse(args); err != nil {
+			return nil, err
+		}
+		rest := fs.Args()
+		if n := len(args) - len(rest); n > 0 && args[n-1] == "--" {
+			return append(others, rest...), nil
+		}
+		if len(rest) == 0 {
+			return others, nil
+		}
+		others = append(others, rest[0])
+		args = rest[1:]
+	}
 }
 
 var exampleFile = map[string]string{
@@ -210,8 +239,7 @@ func runReport(args []string, stdout, stderr io.Writer) error {
 	dark := fs.Bool("dark", false, "dark theme")
 	var pf planFlags
 	pf.register(fs)
-	// Accept -o after the file name too, as people type it.
-	path, err := oneFile(fs, reorder(args), "session")
+	path, err := oneFile(fs, args, "session")
 	if err != nil {
 		return err
 	}
@@ -244,34 +272,6 @@ func runReport(args []string, stdout, stderr io.Writer) error {
 	}
 	fmt.Fprintf(stdout, "report written to %s\n", *out)
 	return nil
-}
-
-// reorder moves flags after the first positional argument in front of it,
-// so `report S.json -o r.png` parses like `report -o r.png S.json`.
-func reorder(args []string) []string {
-	var flags, rest []string
-	for i := 0; i < len(args); i++ {
-		a := args[i]
-		if strings.HasPrefix(a, "-") && len(a) > 1 {
-			flags = append(flags, a)
-			if !strings.Contains(a, "=") && i+1 < len(args) && takesValue(a) {
-				flags = append(flags, args[i+1])
-				i++
-			}
-			continue
-		}
-		rest = append(rest, a)
-	}
-	return append(flags, rest...)
-}
-
-// takesValue says whether a report flag is followed by a value.
-func takesValue(flagArg string) bool {
-	switch strings.TrimLeft(flagArg, "-") {
-	case "dark", "json":
-		return false
-	}
-	return true
 }
 
 // buffered writes through a buffer so a failure leaves no half output on

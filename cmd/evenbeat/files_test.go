@@ -220,3 +220,63 @@ func TestReportAimsFromFile(t *testing.T) {
 		t.Error("the flags did not override the file's aims in the report")
 	}
 }
+
+// TestFlagsAfterTheFile: flags may follow the file, as people type them
+// (`plan FILE -json`), or stand on both sides of it; each subcommand then
+// writes what it writes with the flags before the file. A second file is
+// refused with a sentence naming both.
+func TestFlagsAfterTheFile(t *testing.T) {
+	dir := t.TempDir()
+	cases := []struct {
+		name          string
+		before, after []string
+		outputs       [2]string // files the two forms write, compared too
+	}{
+		{"plan", []string{"plan", "-json", "-priority", "cut-offs", "-cylinder", "left", demoSession},
+			[]string{"plan", demoSession, "-json", "-priority", "cut-offs", "-cylinder", "left"}, [2]string{}},
+		{"plan, flags on both sides", []string{"plan", "-unit", "inch", "-target-lead=0.2", demoSession},
+			[]string{"plan", "-unit", "inch", demoSession, "-target-lead=0.2"}, [2]string{}},
+		{"events", []string{"events", "-json", demoEngine}, []string{"events", demoEngine, "-json"}, [2]string{}},
+		{"events after --", []string{"events", "-json", demoEngine}, []string{"events", "-json", "--", demoEngine}, [2]string{}},
+		{"report", []string{"report", "-dark", "-priority", "balanced", "-o", filepath.Join(dir, "before.png"), demoSession},
+			[]string{"report", demoSession, "-o", filepath.Join(dir, "after.png"), "-dark", "-priority", "balanced"},
+			[2]string{filepath.Join(dir, "before.png"), filepath.Join(dir, "after.png")}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			want, err := runCmd(t, c.before...)
+			if err != nil {
+				t.Fatalf("%q: %v", c.before, err)
+			}
+			got, err := runCmd(t, c.after...)
+			if err != nil {
+				t.Fatalf("%q: %v", c.after, err)
+			}
+			if c.outputs[0] != "" {
+				want = strings.ReplaceAll(want, c.outputs[0], "OUT")
+				got = strings.ReplaceAll(got, c.outputs[1], "OUT")
+				a, errA := os.ReadFile(c.outputs[0])
+				b, errB := os.ReadFile(c.outputs[1])
+				if errA != nil || errB != nil || !bytes.Equal(a, b) {
+					t.Errorf("%q and %q wrote different files (%v, %v)", c.before, c.after, errA, errB)
+				}
+			}
+			if got != want || got == "" {
+				t.Errorf("%q wrote\n%s\n%q wrote\n%s", c.after, got, c.before, want)
+			}
+		})
+	}
+	for _, c := range []struct {
+		args   []string
+		second string
+	}{
+		{[]string{"plan", demoSession, demoEngine, "-json"}, demoEngine},
+		{[]string{"plan", demoSession, "-json", demoEngine}, demoEngine},
+		{[]string{"events", "-json", demoEngine, demoSession}, demoSession},
+	} {
+		out, err := runCmd(t, c.args...)
+		if err == nil || !strings.Contains(err.Error(), "reads one") || !strings.Contains(err.Error(), c.second) || out != "" {
+			t.Errorf("%q: error %v, output %q; want a refusal naming the second file", c.args, err, out)
+		}
+	}
+}

@@ -1,0 +1,170 @@
+package trial
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"math/rand/v2"
+	"sort"
+	"strings"
+
+	"evenbeat/setting"
+	"evenbeat/setting/plan"
+)
+
+// Kinds are the gears the bench draws, in turn.
+var Kinds = []string{setting.KindSingleEccentric, setting.KindStephenson, setting.KindWalschaerts}
+
+// Priorities are the priorities the bench tries on every engine.
+var Priorities = []plan.Priority{plan.EqualLeads, plan.EqualCutOffs, plan.Balanced}
+
+// Case is one engine with its round and the results of each priority.
+type Case struct {
+	Seed    uint64
+	Index   int
+	Engine  Engine
+	Round   Round
+	Results []Result // one per priority, in Priorities' order
+}
+
+// RunOne draws engine number i of a bench seeded with seed (the gears
+// taken in turn), takes its round and tries every priority.
+func RunOne(seed uint64, i int, opt Options) (Case, error) {
+	r := rand.New(rand.NewPCG(seed, uint64(i)))
+	kind := Kinds[i%len(Kinds)]
+	var e Engine
+	var err error
+	for try := 0; try < 20; try++ {
+		if e, err = NewEngine(r, kind, opt); err == nil {
+			break
+		}
+	}
+	if err != nil {
+		return Case{}, err
+	}
+	rd := NewRound(r, e, opt)
+	s, err := e.Session(r, rd)
+	if err != nil {
+		return Case{}, fmt.Errorf("engine %d: the readings do not make a session: %w", i, err)
+	}
+	c := Case{Seed: seed, Index: i, Engine: e, Round: rd}
+	for _, p := range Priorities {
+		res, err := e.Try(s, p)
+		if err != nil {
+			return c, fmt.Errorf("engine %d, %s: %w", i, p, err)
+		}
+		c.Results = append(c.Results, res)
+	}
+	return c, nil
+}
+
+// Tally counts the results of one priority over a set of engines.
+type Tally struct {
+	N, Pass, RoundPass, Abs, Worse, Refused, Errors int
+	IdealWorst                                      []float64 // per engine
+}
+
+// Summary tallies cases per priority and per gear.
+type Summary struct {
+	All    map[plan.Priority]*Tally
+	ByKind map[string]map[plan.Priority]*Tally
+}
+
+// Summarise tallies cases.
+func Summarise(cs []Case) Summary {
+	s := Summary{All: map[plan.Priority]*Tally{}, ByKind: map[string]map[plan.Priority]*Tally{}}
+	for _, p := range Priorities {
+		s.All[p] = &Tally{}
+	}
+	for _, k := range Kinds {
+		s.ByKind[k] = map[plan.Priority]*Tally{}
+		for _, p := range Priorities {
+			s.ByKind[k][p] = &Tally{}
+		}
+	}
+	for _, c := range cs {
+		for _, r := range c.Results {
+			for _, t := range []*Tally{s.All[r.Prio], s.ByKind[c.Engine.Kind][r.Prio]} {
+				t.N++
+				if r.Pass {
+					t.Pass++
+				}
+				if r.Abs {
+					t.Abs++
+				}
+				if r.RoundPass {
+					t.RoundPass++
+				}
+				if r.Worse {
+					t.Worse++
+				}
+				if r.Refused {
+					t.Refused++
+				}
+				if r.Err != "" {
+					t.Errors++
+				}
+				t.IdealWorst = append(t.IdealWorst, r.Ideal)
+			}
+		}
+	}
+	return s
+}
+
+// quantile returns the q quantile of xs (sorted copy).
+func quantile(xs []float64, q float64) float64 {
+	if len(xs) == 0 {
+		return math.NaN()
+	}
+	s := append([]float64(nil), xs...)
+	sort.Slice(s, func(i, j int) bool { return s[i] < s[j] })
+	return s[int(math.Min(float64(len(s)-1), q*float64(len(s))))]
+}
+
+// Write prints the summary as a table: per priority, the share of
+// engines whose plan met the goal (ideal and rounded amounts), the
+// plans that left a position worse, the refusals and planner errors, and
+// the median and worst of the worst difference after the ideal plan.
+func (s Summary) Write(w io.Writer) {
+	unit := map[plan.Priority]string{plan.EqualLeads: "mm", plan.EqualCutOffs: "%", plan.Balanced: "u"}
+	fmt.Fprintf(w, "%-9s %-17s %5s %14s %14s %14s %6s %8s %6s %22s\n", "priority", "gear", "n", "pass (ideal)", "pass (rounded)", "<= 0.02 mm", "worse", "refused", "errors", "after ideal: med / max")
+	for _, p := range Priorities {
+		rows := []string{"all"}
+		rows = append(rows, Kinds...)
+		for _, k := range rows {
+			t := s.All[p]
+			if k != "all" {
+				t = s.ByKind[k][p]
+			}
+			if t.N == 0 {
+				continue
+			}
+			pct := func(n int) string { return fmt.Sprintf("%d (%.0f %%)", n, 100*float64(n)/float64(t.N)) }
+			abs := ""
+			if p == plan.EqualLeads {
+				abs = pct(t.Abs)
+			}
+			fmt.Fprintf(w, "%-9s %-17s %5d %14s %14s %14s %6d %8d %6d %10.3f / %-7.3f %s\n", p, k, t.N, pct(t.Pass), pct(t.RoundPass), abs, t.Worse, t.Refused, t.Errors,
+				quantile(t.IdealWorst, 0.5), quantile(t.IdealWorst, 1), unit[p])
+		}
+	}
+}
+
+// Describe writes one case in a line per priority, for reading failures.
+func (c Case) Describe(w io.Writer) {
+	e := c.Engine
+	fmt.Fprintf(w, "case %d: %s %s crank %.1f, %s admission, %d positions; round: sweeps %g, cut-offs %v, feelers %v, wild %d (%+.2f); errors: %s\n",
+		c.Index, e.Kind, e.Size, e.Drawing.Engine.CrankRadius, e.Drawing.Valve.Admission, len(e.Positions), c.Round.SweepStepDeg, c.Round.CutOffs, c.Round.Feelers, c.Round.Wild, c.Round.WildMM, strings.Join(e.Errors, "; "))
+	for _, r := range c.Results {
+		fmt.Fprintf(w, "  %-9s before %.3f ideal %.3f rounded %.3f (predicted %.3f) best %.3f pass %v/%v worse %v refused %v steps %d %s\n    ideal %v\n    best  %v\n",
+			r.Prio, r.Before, r.Ideal, r.Rounded, r.Predicted, r.Best, r.Pass, r.RoundPass, r.Worse, r.Refused, r.Steps, r.Err, fmtAmounts(r.IdealAmounts), fmtAmounts(r.BestAmounts))
+	}
+}
+
+func fmtAmounts(a []float64) string {
+	var s []string
+	for _, x := range a {
+		s = append(s, fmt.Sprintf("%+.3f", x))
+	}
+	return strings.Join(s, " ")
+}

@@ -197,7 +197,8 @@ func (m *Model) fill(pos []Position, after *plan.Model, nowSets, afterSets []set
 	if err != nil {
 		return err
 	}
-	m.Crank, m.Valve = crank, m.Spec.Valve
+	// The valve as built: the port marks measure its steam laps.
+	m.Crank, m.Valve = crank, m.built.Valve()
 	if m.LeadTolMM == 0 {
 		m.LeadTolMM, m.CutOffTolPct = DefaultLeadTolMM, DefaultCutOffTolPct
 	}
@@ -212,11 +213,11 @@ func (m *Model) fill(pos []Position, after *plan.Model, nowSets, afterSets []set
 	}
 	for i := range pos {
 		p := &pos[i]
-		if p.Now, p.NowEvents, err = sample(m.built, m.Spec, p.Notch.Reverser, p.Direction, known(nowSets, i)); err != nil {
+		if p.Now, p.NowEvents, err = sample(m.built, m.Spec.Engine, m.Valve, p.Notch.Reverser, p.Direction, known(nowSets, i)); err != nil {
 			return err
 		}
 		if after != nil {
-			if p.After, p.AfterEvents, err = sample(*after, m.Spec, p.Notch.Reverser, p.Direction, known(afterSets, i)); err != nil {
+			if p.After, p.AfterEvents, err = sample(*after, m.Spec.Engine, m.Valve, p.Notch.Reverser, p.Direction, known(afterSets, i)); err != nil {
 				return err
 			}
 			p.HasAfter = true
@@ -226,12 +227,12 @@ func (m *Model) fill(pos []Position, after *plan.Model, nowSets, afterSets []set
 	return nil
 }
 
-// sample returns the valve curve of model pm in reverser position r at
+// sample returns the valve curve of model pm (with valve v) in reverser position r at
 // every CurveStep degrees and its events running in dir, both from the
 // curve's interpolant (plan.Curve: 32 linkage solutions, within about
 // 1e-9 mm of the linkage) rather than a linkage solution per angle. The
 // events are set's when it is not nil (found already from the same curve).
-func sample(pm plan.Model, spec setting.EngineSpec, r setting.Reverser, dir setting.Direction, set *setting.EventSet) ([]float64, setting.EventSet, error) {
+func sample(pm plan.Model, e setting.Engine, v setting.Valve, r setting.Reverser, dir setting.Direction, set *setting.EventSet) ([]float64, setting.EventSet, error) {
 	c, err := pm.Curve(r)
 	if err != nil {
 		return nil, setting.EventSet{}, err
@@ -247,7 +248,7 @@ func sample(pm plan.Model, spec setting.EngineSpec, r setting.Reverser, dir sett
 	if set != nil {
 		return out, *set, nil
 	}
-	ev, err := setting.Events(spec.Engine, spec.Valve, c.Motion(), dir)
+	ev, err := setting.Events(e, v, c.Motion(), dir)
 	return out, ev, err
 }
 

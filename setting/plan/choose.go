@@ -3,7 +3,6 @@ package plan
 import (
 	"fmt"
 	"math"
-	"sort"
 
 	"evenbeat/setting"
 	"evenbeat/setting/session"
@@ -35,22 +34,39 @@ func (g goal) diff(q quantities) float64 {
 
 // worse reports whether the quantities after a plan are worse than now by
 // more than the readings can tell: any position's lead difference for
-// EqualLeads, the running notch's cut-off difference for EqualCutOffs,
-// the whole weighted objective for Balanced.
+// EqualLeads, any position's cut-off difference for EqualCutOffs (full
+// forward and full back are not given away for the running notch), the
+// whole weighted objective for Balanced.
 func (g goal) worse(now, after []quantities, ts []term) bool {
 	switch g.prio {
-	case EqualCutOffs:
-		i := g.running
-		return math.Abs(g.diff(after[i])) > math.Abs(g.diff(now[i]))+g.tol[i]
 	case Balanced:
 		return math.Sqrt(sumSquares(ts, after)) > math.Sqrt(sumSquares(ts, now))+g.slack
 	}
 	for i := range now {
-		if math.Abs(g.diff(after[i])) > math.Abs(g.diff(now[i]))+g.tol[i] {
+		if g.worseAt(now, after, i) {
 			return true
 		}
 	}
 	return false
+}
+
+// worseAt reports whether position i's difference (see diff) ends worse
+// than now by more than the readings can tell; never for Balanced, which
+// judges the whole objective.
+func (g goal) worseAt(now, after []quantities, i int) bool {
+	if g.prio == Balanced {
+		return false
+	}
+	return math.Abs(g.diff(after[i])) > math.Abs(g.diff(now[i]))+g.tol[i]
+}
+
+// diffTerm reports whether term t is the difference the goal holds from
+// getting worse.
+func (g goal) diffTerm(t term) bool {
+	if g.prio == EqualCutOffs {
+		return t.what == "cut"
+	}
+	return t.what == "lead"
 }
 
 // Position weights and tolerances. A difference the readings leave
@@ -63,59 +79,110 @@ const (
 	leadUnknownMM = 0.1
 	cutUnknownPct = 2.0
 	cutTolPct     = 0.2
+	// cutWorsePct is the change of a cut-off difference the plan allows
+	// itself where a position gets worse: 0.3 % of stroke, so that with
+	// the model's few per cent of error (see effectDoubt) it stays within
+	// the 0.5 % a crosshead marked to half a millimetre can show on a 5 in
+	// gauge stroke (common practice, no source).
+	cutWorsePct = 0.3
 )
 
 // weighing fills the objective's position weights from the uncertainty
 // of each difference today, and returns the goal's tolerances.
+//
+// A position whose difference the readings leave uncertain counts for
+// less (a gear position nobody measured does not drive the plan), except
+// the running notch when the plan makes cut-offs equal: the setter chose
+// it. What "worse" means is what the setter could see on measuring again,
+// less a margin for the model's own error: for a lead difference 1.5
+// gauge divisions, or 1.2 times the error of the difference as the
+// dead-centre readings and port marks give it (the gauge, and the
+// dead-centre marks through the valve's speed there); for a cut-off
+// difference cutWorsePct.
 func (ev *evaluator) weighing(obj *objective, qNow []quantities, fit *Fit) goal {
 	n := len(qNow)
 	g := goal{prio: obj.prio, running: obj.running, tol: make([]float64, n)}
 	obj.wLead, obj.wCut = make([]float64, n), make([]float64, n)
-	k := math.Max(1, ev.spec.Engine.CrankRadius/25)
+	k := scaleOf(ev.spec)
 	res := gaugeResolution(fit)
+	readMin := math.Inf(1)
 	for i, q := range qNow {
 		var sl, sc float64
 		if fit != nil && fit.cov.n > 0 {
-			var dl, dc [numParams]float64
-			for j := range dl {
-				dl[j] = q.grad[0][j] - q.grad[1][j]
-				dc[j] = q.grad[2][j] - q.grad[3][j]
-			}
-			sl, sc = sdOf(fit, dl), sdOf(fit, dc)
+			sl, sc = sdOf(fit, &q, [4]float64{1, -1, 0, 0}), sdOf(fit, &q, [4]float64{0, 0, 1, -1})
 		}
 		obj.wLead[i] = 1 / math.Sqrt(1+sq(sl/(leadUnknownMM*k)))
 		obj.wCut[i] = 1 / math.Sqrt(1+sq(sc/cutUnknownPct))
-		g.tol[i] = math.Max(res, sl)
+		if obj.prio == EqualCutOffs && i == obj.running {
+			obj.wCut[i] = 1
+		}
+		rs, ok := readDiffSigma(fit, ev.ps[i].notch.Reverser)
+		if !ok {
+			rs = sl
+		} else {
+			readMin = math.Min(readMin, rs)
+		}
+		// Kept within what the setter could see with a margin for the
+		// model's own error (see cutWorsePct).
+		g.tol[i] = math.Max(1.5*res, 1.2*math.Min(rs, leadUnknownMM*k))
 		if g.prio == EqualCutOffs {
-			g.tol[i] = math.Max(cutTolPct, sc)
+			g.tol[i] = cutWorsePct
 		}
 	}
 	// A plan of more steps is preferred only when it comes closer by
-	// more than the setter can measure: two gauge divisions (a lead
-	// difference is read from four gauge readings) or the cut-off
-	// tolerance, or the uncertainty of the differences in the positions
-	// the readings pin down, whichever is larger. Roundings with as many
-	// steps are told apart to half a division.
-	known := 0.0
-	for i, tl := range g.tol {
-		if g.prio == EqualCutOffs && i != g.running {
-			continue
-		}
-		if tl <= leadUnknownMM*k || g.prio == EqualCutOffs && tl <= cutUnknownPct {
-			known = math.Max(known, tl)
-		}
+	// more than a gauge division (or half the error of a measured lead
+	// difference, when larger), or the cut-off tolerance. Roundings with
+	// as many steps are told apart to half a division.
+	known := res
+	if !math.IsInf(readMin, 1) {
+		known = math.Max(known, math.Min(readMin, leadUnknownMM*k)/2)
 	}
 	g.res = res
 	switch g.prio {
 	case EqualCutOffs:
 		g.res = cutTolPct
-		g.slack, g.fine = math.Max(cutTolPct, known)/0.1, cutTolPct/2/0.1
+		g.slack, g.fine = 0.5/0.1, cutTolPct/2/0.1
 	case Balanced:
-		g.slack, g.fine = math.Max(2*res, known)/0.05, res/2/0.05
+		g.slack, g.fine = known/0.05, res/2/0.05
 	default:
-		g.slack, g.fine = math.Max(2*res, known)/0.01, res/2/0.01
+		g.slack, g.fine = known/0.01, res/2/0.01
 	}
 	return g
+}
+
+// readDiffSigma returns the error of a lead difference read straight
+// from the readings in reverser position r: the dead-centre readings at
+// both ends there and the port marks, each with its own error (the
+// gauge's, and the dead-centre mark's through the valve's speed); false
+// when the round has no dead-centre reading at both ends there.
+func readDiffSigma(fit *Fit, r setting.Reverser) (float64, bool) {
+	if fit == nil {
+		return 0, false
+	}
+	var v float64
+	var ends [2]bool
+	for i, o := range fit.obs {
+		if i >= len(fit.sig) || !fit.used[i] {
+			continue
+		}
+		switch {
+		case o.Kind == session.PortMarkKind:
+			v += sq(fit.sig[i])
+		case o.Kind == session.AtDeadCentre && o.Reverser == r:
+			e := 0
+			if o.End == session.Back {
+				e = 1
+			}
+			if !ends[e] {
+				ends[e] = true
+				v += sq(fit.sig[i])
+			}
+		}
+	}
+	if !ends[0] || !ends[1] {
+		return 0, false
+	}
+	return math.Sqrt(v), true
 }
 
 // gaugeResolution returns the dial gauge's resolution (mm) from the
@@ -200,13 +267,9 @@ func (ev *evaluator) sheavePolicy(ks []knob, qNow []quantities, obj objective, c
 		case pos >= 0 && pos < len(obj.design):
 			q := qNow[pos]
 			m := (q.lead[0] + q.lead[1]) / 2
-			var gm [numParams]float64
-			for j := range gm {
-				gm[j] = (q.grad[0][j] + q.grad[1][j]) / 2
-			}
 			sm := 0.0
 			if fit != nil && fit.cov.n > 0 {
-				sm = sdOf(fit, gm)
+				sm = sdOf(fit, &q, [4]float64{0.5, 0.5, 0, 0})
 			}
 			d := obj.design[pos]
 			if math.Abs(m-d) > math.Max(0.5*math.Abs(d), 0.1*kc)+2*sm {
@@ -269,19 +332,13 @@ func (ev *evaluator) unknownPositions(qNow []quantities, prio Priority, fit *Fit
 	}
 	k := math.Max(1, ev.spec.Engine.CrankRadius/25)
 	for i, q := range qNow {
-		var d [numParams]float64
-		for j := range d {
-			if prio == EqualCutOffs {
-				d[j] = q.grad[2][j] - q.grad[3][j]
-			} else {
-				d[j] = q.grad[0][j] - q.grad[1][j]
-			}
-		}
+		d := [4]float64{1, -1, 0, 0}
 		lim := leadUnknownMM * k
 		if prio == EqualCutOffs {
+			d = [4]float64{0, 0, 1, -1}
 			lim = cutUnknownPct
 		}
-		out[i] = sdOf(fit, d) > lim
+		out[i] = sdOf(fit, &q, d) > lim
 	}
 	return out
 }
@@ -299,19 +356,6 @@ func measure(ts []term, q []quantities) float64 {
 		}
 	}
 	return worst + 1e-3*math.Sqrt(sumSquares(ts, q))
-}
-
-// candidate is one rounded plan.
-type candidate struct {
-	a       []float64
-	ideal   []float64 // the ideal changes it was rounded from
-	steps   int
-	effort  float64
-	measure float64
-	worse   bool
-	tier    int     // rank group (see rankPlans)
-	bar     float64 // the measure its rank promised
-	from    int     // where a judged candidate's curves are kept
 }
 
 // linearAt returns the quantities after changes a, linear in the changes
@@ -339,6 +383,12 @@ func linearAt(qNow []quantities, ks []knob, a []float64, out []quantities) {
 // limits: least squares with the small change weight, a knob that would
 // pass its limit held there and the rest solved again.
 func subsetIdeal(ks []knob, ts []term, qNow []quantities, set []int) []float64 {
+	return weightedIdeal(ks, ts, qNow, set, nil, ridge(ks, ts, qNow))
+}
+
+// weightedIdeal is subsetIdeal with each term's square weighed by tw
+// (nil for all alike) and the ridge rd (see ridge).
+func weightedIdeal(ks []knob, ts []term, qNow []quantities, set []int, tw []float64, rd []float64) []float64 {
 	a := make([]float64, len(ks))
 	fixed := make([]bool, len(ks))
 	for pass := 0; pass <= len(set); pass++ {
@@ -354,7 +404,11 @@ func subsetIdeal(ks []knob, ts []term, qNow []quantities, set []int) []float64 {
 		m := len(free)
 		A := newSym(m)
 		g := make([]float64, m)
-		for _, t := range ts {
+		for ti, t := range ts {
+			w := 1.0
+			if tw != nil {
+				w = tw[ti]
+			}
 			v := t.value(qNow)
 			for _, k := range set {
 				if fixed[k] {
@@ -366,14 +420,14 @@ func subsetIdeal(ks []knob, ts []term, qNow []quantities, set []int) []float64 {
 				row[r] = t.grad(qNow, ks[k].p)
 			}
 			for r := range free {
-				g[r] -= row[r] * v
+				g[r] -= w * row[r] * v
 				for c := range free {
-					A.add(r, c, row[r]*row[c])
+					A.add(r, c, w*row[r]*row[c])
 				}
 			}
 		}
 		for r, k := range free {
-			A.add(r, r, sq(changeWeight/ks[k].scale)+1e-12)
+			A.add(r, r, rd[k])
 		}
 		d, ok := A.solve(g)
 		if !ok {
@@ -414,313 +468,6 @@ func roundedNear(x, step, lo, hi float64) [2]float64 {
 		out[i] = v
 	}
 	return out
-}
-
-// choice is the plan chosen for one priority.
-type choice struct {
-	ideal   []float64 // the ideal changes the plan was rounded from
-	rounded []float64
-	qAft    []quantities // exact: the linkage solved afresh with the rounded changes
-	set     []int        // knobs with a step
-}
-
-// choose finds the plan with the fewest and smallest steps that does as
-// well as any, in steps hands can make. Every set of the usable knobs is
-// solved (linear in the changes about today), each knob rounded to the
-// whole steps either side of its ideal; the whole usable set and the
-// favourite's set are solved again on the events themselves (a port that
-// opens or closes on the way is not linear), and their roundings judged
-// on those events. A plan that leaves any position worse than today by
-// more than the readings can tell is refused; among those within the
-// goal's slack of the best, the fewest steps win, then the smallest
-// changes. The favourite is checked on the linkage solved afresh with the
-// rounded changes, and the next taken when that check fails; no change at
-// all is the last resort.
-func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []quantities, g goal, usable []bool) (*choice, error) {
-	n := len(ks)
-	var idx []int
-	for k := range ks {
-		if usable[k] {
-			idx = append(idx, k)
-		}
-	}
-	if len(idx) > 7 {
-		idx = idx[:7]
-	}
-	lin := make([]quantities, len(qNow))
-	// A plan's key: its whole steps per usable knob.
-	type planKey [7]int32
-	keyOf := func(a []float64) planKey {
-		var key planKey
-		for j, k := range idx {
-			key[j] = int32(math.Round(a[k] / ks[k].step))
-		}
-		return key
-	}
-	pos := map[planKey]int{}
-	var cands []candidate
-	add := func(a []float64, q []quantities, ideal []float64) {
-		key := keyOf(a)
-		c := candidate{a: append([]float64(nil), a...), ideal: ideal}
-		for k, v := range a {
-			if v != 0 {
-				c.steps++
-				c.effort += math.Abs(v) / ks[k].scale
-			}
-		}
-		c.measure = measure(ts, q)
-		c.worse = g.worse(qNow, q, ts)
-		if i, ok := pos[key]; ok {
-			cands[i] = c // judged on the events: replaces the linear guess
-			return
-		}
-		pos[key] = len(cands)
-		cands = append(cands, c)
-	}
-	// roundings calls f with every rounding of ideal over the knobs in set.
-	roundings := func(ideal []float64, set []int, f func(a []float64)) {
-		near := make([][2]float64, len(set))
-		for j, k := range set {
-			near[j] = roundedNear(ideal[k], ks[k].step, ks[k].adj.Min, ks[k].adj.Max)
-		}
-		a := make([]float64, n)
-		for combo := 0; combo < 1<<len(set); combo++ {
-			for j, k := range set {
-				a[k] = near[j][combo>>j&1]
-			}
-			f(a)
-		}
-	}
-	zero := make([]float64, n)
-	add(zero, qNow, zero)
-	for mask := 1; mask < 1<<len(idx); mask++ {
-		var set []int
-		for b, k := range idx {
-			if mask>>b&1 != 0 {
-				set = append(set, k)
-			}
-		}
-		ideal := subsetIdeal(ks, ts, qNow, set)
-		roundings(ideal, set, func(a []float64) {
-			if _, ok := pos[keyOf(a)]; !ok {
-				linearAt(qNow, ks, a, lin)
-				add(a, lin, ideal)
-			}
-		})
-	}
-	rank := func() {
-		rankPlans(cands, g)
-		for i, c := range cands {
-			pos[keyOf(c.a)] = i
-		}
-	}
-	rank()
-	// For cut-offs, solve again on the events: the set of the favourite,
-	// or the whole usable set when no change is the favourite (the linear
-	// model cannot see a port that does not open today).
-	var sets [][]int
-	if g.prio != EqualLeads && len(idx) > 0 && len(cands) > 0 {
-		var fav []int
-		for k, v := range cands[0].a {
-			if v != 0 {
-				fav = append(fav, k)
-			}
-		}
-		if len(fav) == 0 {
-			fav = idx
-		}
-		sets = append(sets, fav)
-	}
-	for _, set := range sets {
-		in := make([]bool, n)
-		for _, k := range set {
-			in[k] = true
-		}
-		ideal, qIdeal, err := ev.optimise(p, ks, ts, qNow, in, subsetIdeal(ks, ts, qNow, set))
-		if err != nil {
-			continue
-		}
-		// The roundings either side of the ideal, then a step either way
-		// on each knob while that helps (coarse steps on one knob can be
-		// made up by another), judged linear about the ideal; the best few
-		// are then judged on the events.
-		linIdeal := func(a []float64) float64 {
-			for i := range qIdeal {
-				q := &lin[i]
-				q.cutOK = qIdeal[i].cutOK
-				q.lead, q.cut = qIdeal[i].lead, qIdeal[i].cut
-				for _, k := range set {
-					d := a[k] - ideal[k]
-					for e := 0; e < 2; e++ {
-						q.lead[e] += qIdeal[i].grad[e][ks[k].p] * d
-						q.cut[e] += qIdeal[i].grad[2+e][ks[k].p] * d
-					}
-				}
-			}
-			return sumSquares(ts, lin)
-		}
-		type local struct {
-			a []float64
-			c float64
-		}
-		var near []local
-		roundings(ideal, set, func(a []float64) {
-			near = append(near, local{append([]float64(nil), a...), linIdeal(a)})
-		})
-		sort.Slice(near, func(i, j int) bool { return near[i].c < near[j].c })
-		if len(near) > 0 {
-			cur := near[0]
-			for it := 0; it < 40; it++ {
-				moved := false
-				try := func(a []float64) {
-					for _, k := range set {
-						if a[k] < ks[k].adj.Min-1e-9 || a[k] > ks[k].adj.Max+1e-9 {
-							return
-						}
-					}
-					if c := linIdeal(a); c < cur.c-1e-12 {
-						cur, moved = local{a, c}, true
-					}
-				}
-				// One knob a step either way, or two together (knobs
-				// that act alike trade steps along their valley).
-				for x, k := range set {
-					for _, dir := range []float64{-1, 1} {
-						a := append([]float64(nil), cur.a...)
-						a[k] += dir * ks[k].step
-						try(a)
-						for _, k2 := range set[x+1:] {
-							for _, dir2 := range []float64{-1, 1} {
-								b := append([]float64(nil), a...)
-								b[k2] += dir2 * ks[k2].step
-								try(b)
-							}
-						}
-					}
-				}
-				if !moved {
-					break
-				}
-			}
-			near = append([]local{cur}, near...)
-		}
-		for i, l := range near {
-			if i >= 5 {
-				break
-			}
-			for k := range l.a {
-				if math.Abs(l.a[k]) < 1e-12 {
-					l.a[k] = 0
-				}
-			}
-			if q, err := ev.quick(ev.surrogate(ks, l.a), qIdeal, nil); err == nil {
-				add(l.a, q, ideal)
-			}
-		}
-	}
-	rank()
-	// The favourites judged on the linkage solved afresh with their
-	// rounded changes: the first that holds up (not worse, and as close
-	// as its rank promised) is taken; when none does, the best of those
-	// judged, by the same rules.
-	var judged []candidate
-	curves := map[int][]curve{}
-	for _, c := range cands {
-		if c.tier != 0 || c.steps == 0 || len(judged) >= 4 {
-			break
-		}
-		// The linkage sampled afresh; the events found from today's by
-		// Newton's method (the full search where that fails).
-		cs, err := ev.curvesAt(applyKnobs(p, ks, c.a))
-		if err != nil {
-			continue
-		}
-		q, err := ev.quick(cs, qNow, nil)
-		if err != nil || g.worse(qNow, q, ts) {
-			continue
-		}
-		c.measure = measure(ts, q)
-		if c.measure <= c.bar {
-			return ev.newChoice(c, cs)
-		}
-		curves[len(judged)] = cs
-		judged = append(judged, c)
-	}
-	for i := range judged {
-		judged[i].from = i
-	}
-	judged = append(judged, candidate{a: zero, ideal: zero, measure: measure(ts, qNow)})
-	rankPlans(judged, g)
-	c := judged[0]
-	if c.steps == 0 {
-		return &choice{rounded: zero, ideal: zero, qAft: qNow}, nil
-	}
-	return ev.newChoice(c, curves[c.from])
-}
-
-// rankPlans orders candidate plans: first, for each number of steps whose
-// best comes within the goal's slack of the best of all, fewest steps
-// first, the roundings within half a division of that best, smallest
-// changes first; then the other plans that leave nothing worse, closest
-// first; last those that leave something worse. Each candidate's bar is
-// the measure its rank promised (its step count's best, and the fine
-// tolerance).
-func rankPlans(cs []candidate, g goal) {
-	bestOf := map[int]float64{}
-	all := math.Inf(1)
-	for _, c := range cs {
-		if c.worse {
-			continue
-		}
-		if b, ok := bestOf[c.steps]; !ok || c.measure < b {
-			bestOf[c.steps] = c.measure
-		}
-		all = math.Min(all, c.measure)
-	}
-	for i := range cs {
-		c := &cs[i]
-		b := bestOf[c.steps]
-		switch {
-		case c.worse:
-			c.tier = 2
-		case b <= all+g.slack && c.measure <= b+g.fine:
-			c.tier, c.bar = 0, b+g.fine
-		default:
-			c.tier = 1
-		}
-	}
-	sort.SliceStable(cs, func(i, j int) bool {
-		a, b := cs[i], cs[j]
-		if a.tier != b.tier {
-			return a.tier < b.tier
-		}
-		if a.tier > 0 {
-			return a.measure < b.measure
-		}
-		if a.steps != b.steps {
-			return a.steps < b.steps
-		}
-		if math.Abs(a.effort-b.effort) > 1e-9 {
-			return a.effort < b.effort
-		}
-		return a.measure < b.measure
-	})
-}
-
-// newChoice makes the choice of a candidate, its events found in full on
-// the linkage sampled afresh with its changes.
-func (ev *evaluator) newChoice(c candidate, cs []curve) (*choice, error) {
-	q, err := ev.eventsOf(cs, nil)
-	if err != nil {
-		return nil, &setting.Error{Field: "adjustments", Message: "The events cannot be found for the gear with the changes proposed: " + err.Error()}
-	}
-	ch := &choice{rounded: c.a, ideal: c.ideal, qAft: q}
-	for k, v := range c.a {
-		if v != 0 {
-			ch.set = append(ch.set, k)
-		}
-	}
-	return ch, nil
 }
 
 // leftNotes says plainly what the rounded plan leaves: for each position

@@ -152,7 +152,7 @@ func (c curve) motion() setting.Motion {
 // gearCurves samples the gear's valve curve (plus the valve offset when
 // withOffset) at deviations p in each reverser position, at tr's angles.
 func gearCurves(spec setting.EngineSpec, p [numParams]float64, revs []setting.Reverser, tr *trig, withOffset bool) ([]curve, error) {
-	g, err := Model{spec, devOf(p)}.Gear()
+	g, err := Model{Spec: spec, Dev: devOf(p)}.Gear()
 	if err != nil {
 		return nil, err
 	}

@@ -21,6 +21,9 @@ type Residual struct {
 	// Used is false for a reading left out of the fit because it disagrees
 	// with the rest (see Fit.Recheck).
 	Used bool `json:"used"`
+	// ExpectMM, for a reading to recheck, is what the other readings put
+	// it at, in the reading's own terms (a normalised gauge reading, mm).
+	ExpectMM float64 `json:"expect_mm,omitempty"`
 }
 
 // Fit is the as-built state of one cylinder found from its readings.
@@ -35,8 +38,8 @@ type Fit struct {
 	// Residuals are every reading of the round against the fit, in file
 	// order.
 	Residuals []Residual
-	// Recheck are the readings far from the rest, worst first; they were
-	// left out of the fit.
+	// Recheck are the readings the others contradict, with what the
+	// others put them at (ExpectMM); they were left out of the fit.
 	Recheck []Residual
 	// RMSMM is the root-mean-square residual of the readings used (mm).
 	RMSMM float64
@@ -46,12 +49,21 @@ type Fit struct {
 
 	obs      []session.Observation
 	used     []bool
+	sig      []float64 // each reading's standard deviation, mm
 	idx      []param
-	cov      sym // covariance of the fitted parameters, in idx order
+	cov      sym // covariance of the fitted parameters: idx order, then the unmodelled coefficients
 	revs     []setting.Reverser
 	sens     [][numParams]curve // the fit's effect curves per reverser position, for the planner
 	resMM    float64
 	varScale float64
+	prior    [numParams]float64
+	expect   []expected // the readings left out, with what the others put them at
+	// The unmodelled coefficients of reverser position g (revs order) are
+	// nc of the covariance's columns from len(idx)+cStart[g], cN[g] of
+	// them.
+	cStart, cN []int
+	nc         int
+	shape      []unmodShape
 }
 
 // FitOptions tunes the fit. The zero value is the default.
@@ -65,16 +77,38 @@ type FitOptions struct {
 
 // priors returns one standard deviation of what each deviation is likely
 // to be before any reading: the fit's regularisation, so that it stays
-// well posed when readings cannot tell two deviations apart. Lengths scale
-// with the crank radius (a 25 mm crank is the 5 in gauge norm).
+// well posed when readings cannot tell two deviations apart, and the
+// measure of what a real engine could have. Lengths scale with the crank
+// radius (a 25 mm crank is the 5 in gauge norm). The sizes are a careful
+// build's errors before the valves are set (common practice, no source):
+// a valve a millimetre or two off on its spindle, rods a millimetre or so
+// off, a sheave keyed a few degrees out, a steam lap a tenth of a
+// millimetre off the drawing.
 func priors(spec setting.EngineSpec, dcSigma float64) [numParams]float64 {
-	k := math.Max(1, spec.Engine.CrankRadius/25)
+	k := scaleOf(spec)
+	if !(dcSigma > 0) {
+		dcSigma = 0.25 // degrees, when the marks' error is not known
+	}
 	return [numParams]float64{
-		pGaugeZero: 1e3, pValveOffset: 2 * k, pDeadCentre: math.Max(0.25, dcSigma),
-		pEccFwd: 3, pEccBack: 3, pRodFwd: 2 * k, pRodBack: 2 * k,
-		pReturnCrank: 3, pRadiusRod: 3 * k,
+		pGaugeZero: 1e3, pValveOffset: 1.5 * k, pDeadCentre: dcSigma,
+		pEccFwd: 3, pEccBack: 3, pRodFwd: 1.5 * k, pRodBack: 1.5 * k,
+		pReturnCrank: 3, pRadiusRod: 2 * k, pLapFront: 0.1 * k, pLapBack: 0.1 * k,
 	}
 }
+
+// scaleOf is the engine's size against a 5 in gauge engine (25 mm crank),
+// at least 1: what the priors and tolerances of lengths scale by.
+func scaleOf(spec setting.EngineSpec) float64 {
+	return math.Max(1, spec.Engine.CrankRadius/25)
+}
+
+// unmodelledPrior is one standard deviation of the unmodelled part of a
+// valve curve (see Unmodelled), per coefficient, at 5 in gauge scale:
+// large enough that the model follows what the readings measured rather
+// than bending the deviations it has far from their priors (common
+// practice, no source: the lifting link, a lever's pins or an eccentric's
+// throw move a 5 in gauge valve by a few tenths of a millimetre at most).
+const unmodelledPrior = 0.3
 
 // roundObservations picks the observations of round number round (from
 // 1; 0 for the latest) of cylinder cyl.
@@ -175,11 +209,12 @@ func checkReadings(obs []session.Observation) error {
 //
 // Predictions come from sampled valve curves (see curve), one per reverser
 // position the readings were taken in: the curve at deviations p0 and, per
-// gear deviation, the curve of its effect, combined linearly. The fit
-// solves on that linear model, samples the linkage again at the answer,
-// and repeats until the answer stands still (see fitOuter), so the few
-// hundred linkage solutions are spent per round of that loop, not per
-// reading and per Jacobian column.
+// gear deviation, the curve of its effect, combined linearly, plus the
+// position's unmodelled part (see Unmodelled), whose coefficients are
+// fitted with the deviations. The fit solves on that linear model, samples
+// the linkage again at the answer, and repeats until the answer stands
+// still (see fitOuter), so the few hundred linkage solutions are spent per
+// round of that loop, not per reading and per Jacobian column.
 type problem struct {
 	spec  setting.EngineSpec
 	obs   []session.Observation
@@ -197,14 +232,96 @@ type problem struct {
 	base  []curve            // per position: gear valve curve at p0 (no valve offset)
 	sens  [][numParams]curve // per position, per gear deviation: effect curve
 	kEdge [2]float64
+
+	// The unmodelled parts: position g's coefficients are c[cStart[g] :
+	// cStart[g]+cN[g]], shaped by shape[g].
+	cStart, cN []int
+	cPrior     []float64
+	shape      []unmodShape
 }
+
+// unmodShape is how the unmodelled part of one reverser position is
+// shaped. With readings at the two dead centres alone it is an offset
+// and a small phase shift of the position's own valve curve (phi: the
+// drawing's curve's slope, scaled to 1 at front dead centre): the offset
+// moves the leads apart, the phase moves them together, and the cut-offs
+// follow the way the position's own curve takes them. With more readings
+// (a sweep) it is the short Fourier series a0 + a1 cos t + b1 sin t (+ a2
+// cos 2t + b2 sin 2t with five or more).
+type unmodShape struct {
+	n   int   // coefficients
+	phi curve // the phase shape; nil for the Fourier form
+}
+
+// at returns the shape's basis functions at th degrees (n of them).
+func (u unmodShape) at(th float64) [5]float64 {
+	var b [5]float64
+	if u.phi != nil {
+		b[0] = 1
+		if u.n > 1 {
+			b[1] = u.phi.value(th)
+		}
+		return b
+	}
+	full := basis(th)
+	copy(b[:u.n], full[:u.n])
+	return b
+}
+
+// curveOf returns the unmodelled part with coefficients c as a curve.
+func (u unmodShape) curveOf(c []float64) curve {
+	if u.phi != nil {
+		out := make(curve, len(u.phi))
+		if len(c) > 1 {
+			for k, v := range u.phi {
+				out[k] = c[1] * v
+			}
+		}
+		if len(c) > 0 {
+			out[0] += c[0]
+		}
+		return out
+	}
+	out := append(curve(nil), c...)
+	if len(out)%2 == 0 {
+		out = append(out, 0) // cos pairs with sin: a0, a1 and a zero b1
+	}
+	return out
+}
+
+// phaseShape returns the phase shape of a valve curve: its slope by crank
+// angle, scaled to 1 at front dead centre; nil where the valve stands
+// still there.
+func phaseShape(c curve) curve {
+	d := make(curve, len(c))
+	for k := 1; 2*k < len(c); k++ {
+		a, b := c[2*k-1], c[2*k]
+		d[2*k-1], d[2*k] = float64(k)*b, -float64(k)*a
+	}
+	s0 := d.value(0)
+	if math.Abs(s0) < 1e-6 {
+		return nil
+	}
+	for k := range d {
+		d[k] /= s0
+	}
+	return d
+}
+
+// state is a point of the fit: the deviations and the unmodelled parts'
+// coefficients.
+type state struct {
+	p [numParams]float64
+	c []float64
+}
+
+func (s state) clone() state { return state{s.p, append([]float64(nil), s.c...)} }
 
 // newProblem groups the observations by reverser position.
 func newProblem(spec setting.EngineSpec, obs []session.Observation) *problem {
 	pb := &problem{spec: spec, obs: obs, use: make([]bool, len(obs)), sig: make([]float64, len(obs)), grp: make([]int, len(obs)), tr: curveTrig, tr24: effectTrig}
 	for k := 0; k < 2; k++ {
-		end := setting.CylinderEnd(k)
-		pb.kEdge[k] = spec.Valve.SteamEdge(end, 1) - spec.Valve.SteamEdge(end, 0)
+		pb.kEdge[k] = edgeSlope(spec.Valve, setting.CylinderEnd(k))
 	}
 	for i, o := range obs {
 		pb.use[i] = true
@@ -225,6 +342,68 @@ func newProblem(spec setting.EngineSpec, obs []session.Observation) *problem {
 	return pb
 }
 
+// setUnmodelled gives each reverser position as many coefficients of its
+// unmodelled part as its readings can carry: the offset a0 and a1 (the
+// difference and the sum of the two dead centres' misfits) with readings
+// at two crank angles, b1 too with three or four, the second harmonic with
+// five or more (a sweep). k scales the prior.
+func (pb *problem) setUnmodelled(k float64) {
+	pb.cStart, pb.cN, pb.cPrior = make([]int, len(pb.revs)), make([]int, len(pb.revs)), nil
+	pb.shape = make([]unmodShape, len(pb.revs))
+	n := 0
+	for g := range pb.revs {
+		var angles []float64
+		for i, o := range pb.obs {
+			if pb.grp[i] != g || !pb.use[i] {
+				continue
+			}
+			seen := false
+			for _, a := range angles {
+				if math.Abs(wrap360(o.CrankDeg-a+180)-180) < 2 {
+					seen = true
+				}
+			}
+			if !seen {
+				angles = append(angles, o.CrankDeg)
+			}
+		}
+		m := 0
+		switch na := len(angles); {
+		case na >= 5:
+			m = 5
+		case na >= 3:
+			m = 3
+		default:
+			m = na
+		}
+		pb.cStart[g], pb.cN[g] = n, m
+		pb.shape[g] = unmodShape{n: m}
+		if m == 2 && g < len(pb.base) {
+			pb.shape[g].phi = phaseShape(pb.base[g])
+		}
+		for j := 0; j < m; j++ {
+			pr := unmodelledPrior * k
+			if j >= 2 {
+				// The phase (b1) is the dead-centre mark's, which a sweep
+				// pins down, and the second harmonic is small in a smooth
+				// gear: both held closer.
+				pr /= 3
+			}
+			pb.cPrior = append(pb.cPrior, pr)
+		}
+		n += m
+	}
+}
+
+// nc returns the number of unmodelled coefficients.
+func (pb *problem) nc() int { return len(pb.cPrior) }
+
+// basis returns the unmodelled part's basis functions at th degrees.
+func basis(th float64) [5]float64 {
+	s1, c1 := math.Sincos(th * math.Pi / 180)
+	return [5]float64{1, c1, s1, c1*c1 - s1*s1, 2 * s1 * c1}
+}
+
 // sampleAt samples the gear curves at p, and the effect curves of the
 // fitted gear deviations when withSens.
 func (pb *problem) sampleAt(p [numParams]float64, withSens bool) error {
@@ -236,7 +415,7 @@ func (pb *problem) sampleAt(p [numParams]float64, withSens bool) error {
 		// Filled aside and kept only when every effect could be sampled.
 		sens := make([][numParams]curve, len(pb.revs))
 		for _, j := range pb.idx {
-			if j == pGaugeZero || j == pValveOffset || j == pDeadCentre {
+			if !isGearParam(j) {
 				continue
 			}
 			ds, err := effect(pb.spec, p, pb.revs, pb.tr24, j, stepOf(j), base, false)
@@ -253,47 +432,63 @@ func (pb *problem) sampleAt(p [numParams]float64, withSens bool) error {
 	return nil
 }
 
+// isGearParam reports whether a deviation changes the gear's linkage
+// (the others enter the predictions directly).
+func isGearParam(j param) bool {
+	switch j {
+	case pGaugeZero, pValveOffset, pDeadCentre, pLapFront, pLapBack:
+		return false
+	}
+	return true
+}
+
 // gear returns the linear model's gear valve displacement of observation
-// i at deviations p, and its derivatives: by the true crank angle (mm per
-// degree) and by each gear deviation.
-func (pb *problem) gear(i int, p [numParams]float64) (x, slope float64) {
+// i at state s (the unmodelled part included), and its slope by the true
+// crank angle (mm per degree).
+func (pb *problem) gear(i int, s state) (x, slope float64) {
 	g := pb.grp[i]
-	th := pb.obs[i].CrankDeg + p[pDeadCentre]
+	th := pb.obs[i].CrankDeg + s.p[pDeadCentre]
 	x, slope = pb.base[g].at(th)
 	for _, j := range pb.idx {
-		if d := pb.sens[g][j]; d != nil && p[j] != pb.p0[j] {
+		if d := pb.sens[g][j]; d != nil && s.p[j] != pb.p0[j] {
 			v, dv := d.at(th)
-			x += (p[j] - pb.p0[j]) * v
-			slope += (p[j] - pb.p0[j]) * dv
+			x += (s.p[j] - pb.p0[j]) * v
+			slope += (s.p[j] - pb.p0[j]) * dv
 		}
+	}
+	if n := pb.cN[g]; n > 0 && len(s.c) > 0 {
+		v, dv := pb.shape[g].curveOf(s.c[pb.cStart[g] : pb.cStart[g]+n]).at(th)
+		x += v
+		slope += dv
 	}
 	return x, slope
 }
 
 // predictS is the linear model's prediction of observation i (see
 // Predict for what each kind predicts).
-func (pb *problem) predictS(i int, p [numParams]float64) float64 {
+func (pb *problem) predictS(i int, s state) float64 {
 	o := pb.obs[i]
+	v := asBuiltValve(pb.spec.Valve, s.p)
 	if o.Kind == session.PortMarkKind {
-		return p[pGaugeZero] - p[pValveOffset] + edgeX(pb.spec.Valve, cylEnd(o.End))
+		return s.p[pGaugeZero] - s.p[pValveOffset] + edgeX(v, cylEnd(o.End))
 	}
-	x, _ := pb.gear(i, p)
+	x, _ := pb.gear(i, s)
 	switch o.Kind {
 	case session.CutOffKind, session.FeelerKind:
-		return pb.spec.Valve.SteamEdge(cylEnd(o.End), x+p[pValveOffset])
+		return v.SteamEdge(cylEnd(o.End), x+s.p[pValveOffset])
 	}
-	return x + p[pGaugeZero]
+	return x + s.p[pGaugeZero]
 }
 
 // eval returns the residuals (prediction - target) of the used
-// observations at p.
-func (pb *problem) eval(p [numParams]float64, out []float64) error {
+// observations at s.
+func (pb *problem) eval(s state, out []float64) error {
 	k := 0
 	for i, o := range pb.obs {
 		if !pb.use[i] {
 			continue
 		}
-		v := pb.predictS(i, p)
+		v := pb.predictS(i, s)
 		if !finite(v) {
 			return &setting.Error{Field: o.Field, Message: "The model gives no value for this reading."}
 		}
@@ -314,7 +509,7 @@ func (pb *problem) nUsed() int {
 }
 
 // cost is the weighted sum of squares with the priors.
-func (pb *problem) cost(p [numParams]float64, r []float64) float64 {
+func (pb *problem) cost(s state, r []float64) float64 {
 	c := 0.0
 	k := 0
 	for i := range pb.obs {
@@ -324,7 +519,10 @@ func (pb *problem) cost(p [numParams]float64, r []float64) float64 {
 		}
 	}
 	for _, j := range pb.idx {
-		c += sq((p[j] - pb.mean[j]) / pb.prior[j])
+		c += sq((s.p[j] - pb.mean[j]) / pb.prior[j])
+	}
+	for a, v := range s.c {
+		c += sq(v / pb.cPrior[a])
 	}
 	return c
 }
@@ -335,61 +533,71 @@ func sq(x float64) float64 { return x * x }
 // mm).
 func stepOf(j param) float64 { return 1e-3 }
 
-// jacobian returns the linear model's derivatives (columns: idx, rows:
-// used observations) at p.
-func (pb *problem) jacobian(p [numParams]float64, _ []float64) ([][]float64, error) {
-	n := pb.nUsed()
-	J := make([][]float64, len(pb.idx))
-	for c := range J {
-		J[c] = make([]float64, n)
+// row returns the linear model's derivatives of observation i's
+// prediction at s: by each fitted deviation (in idx order), then by each
+// unmodelled coefficient.
+func (pb *problem) row(i int, s state, out []float64) {
+	for a := range out {
+		out[a] = 0
 	}
-	k := 0
-	for i, o := range pb.obs {
-		if !pb.use[i] {
-			continue
-		}
-		edge := 1.0 // d(prediction)/d(gear displacement)
-		if o.Kind == session.CutOffKind || o.Kind == session.FeelerKind {
-			edge = pb.kEdge[cylEnd(o.End)]
-		}
-		var slope float64
-		if o.HasCrank {
-			_, slope = pb.gear(i, p)
-		}
-		for c, j := range pb.idx {
-			switch j {
-			case pGaugeZero, pValveOffset:
-				J[c][k] = linearDerivative(pb.spec, o, j)
-			case pDeadCentre:
-				if o.HasCrank {
-					J[c][k] = edge * slope
-				}
-			default:
-				if o.HasCrank {
-					J[c][k] = edge * pb.sens[pb.grp[i]][j].value(o.CrankDeg+p[pDeadCentre])
-				}
+	o := pb.obs[i]
+	edge := 1.0 // d(prediction)/d(gear displacement)
+	if o.Kind == session.CutOffKind || o.Kind == session.FeelerKind {
+		edge = pb.kEdge[cylEnd(o.End)]
+	}
+	var slope, th float64
+	if o.HasCrank {
+		_, slope = pb.gear(i, s)
+		th = o.CrankDeg + s.p[pDeadCentre]
+	}
+	for c, j := range pb.idx {
+		switch j {
+		case pGaugeZero, pValveOffset, pLapFront, pLapBack:
+			out[c] = linearDerivative(pb.spec, o, j)
+		case pDeadCentre:
+			if o.HasCrank {
+				out[c] = edge * slope
+			}
+		default:
+			if o.HasCrank {
+				out[c] = edge * pb.sens[pb.grp[i]][j].value(th)
 			}
 		}
-		k++
 	}
-	return J, nil
+	if g := pb.grp[i]; g >= 0 && pb.cN[g] > 0 && len(s.c) > 0 {
+		b := pb.shape[g].at(th)
+		for k := 0; k < pb.cN[g]; k++ {
+			out[len(pb.idx)+pb.cStart[g]+k] = edge * b[k]
+		}
+	}
 }
 
 // linearDerivative is the derivative of an observation's prediction with
-// respect to the gauge zero or the valve offset.
+// respect to the gauge zero, the valve offset or a steam lap.
 func linearDerivative(spec setting.EngineSpec, o session.Observation, j param) float64 {
+	e := cylEnd(o.End)
+	lap := (j == pLapFront && e == setting.Front) || (j == pLapBack && e == setting.Back)
 	switch o.Kind {
 	case session.PortMarkKind:
-		if j == pGaugeZero {
+		switch {
+		case j == pGaugeZero:
 			return 1
+		case j == pValveOffset:
+			return -1
+		case lap:
+			// More lap: the valve must travel further to crack the port
+			// (the opening is edgeSlope x x - lap).
+			return 1 / edgeSlope(spec.Valve, e)
 		}
-		return -1
+		return 0
 	case session.CutOffKind, session.FeelerKind:
-		if j == pGaugeZero {
-			return 0
+		switch {
+		case j == pValveOffset:
+			return edgeSlope(spec.Valve, e)
+		case lap:
+			return -1
 		}
-		e := cylEnd(o.End)
-		return spec.Valve.SteamEdge(e, 1) - spec.Valve.SteamEdge(e, 0)
+		return 0
 	}
 	if j == pGaugeZero {
 		return 1
@@ -397,36 +605,61 @@ func linearDerivative(spec setting.EngineSpec, o session.Observation, j param) f
 	return 0
 }
 
-// normal returns the normal equations of a Gauss-Newton step at p:
-// (J^T W J + P) and -(J^T W r + P (p - mean)).
-func (pb *problem) normal(p [numParams]float64, r []float64) (sym, []float64) {
-	J, _ := pb.jacobian(p, r)
-	m := len(pb.idx)
+// width returns the number of parameters fitted.
+func (pb *problem) width(s state) int { return len(pb.idx) + len(s.c) }
+
+// normal returns the normal equations of a Gauss-Newton step at s:
+// (J^T W J + P) and -(J^T W r + P (s - mean)).
+func (pb *problem) normal(s state, r []float64) (sym, []float64) {
+	m := pb.width(s)
 	A := newSym(m)
 	g := make([]float64, m)
-	w := make([]float64, 0, len(r))
+	row := make([]float64, m)
+	k := 0
 	for i := range pb.obs {
-		if pb.use[i] {
-			w = append(w, 1/sq(pb.sig[i]))
+		if !pb.use[i] {
+			continue
 		}
+		pb.row(i, s, row)
+		w := 1 / sq(pb.sig[i])
+		for a := 0; a < m; a++ {
+			if row[a] == 0 {
+				continue
+			}
+			for b := 0; b <= a; b++ {
+				A.a[a*m+b] += row[a] * row[b] * w
+			}
+			g[a] -= row[a] * r[k] * w
+		}
+		k++
 	}
 	for a := 0; a < m; a++ {
-		for b := 0; b <= a; b++ {
-			s := 0.0
-			for k, wk := range w {
-				s += J[a][k] * J[b][k] * wk
-			}
-			A.a[a*m+b], A.a[b*m+a] = s, s
+		for b := 0; b < a; b++ {
+			A.a[b*m+a] = A.a[a*m+b]
 		}
-		s := 0.0
-		for k, wk := range w {
-			s += J[a][k] * r[k] * wk
-		}
-		j := pb.idx[a]
+	}
+	for a, j := range pb.idx {
 		A.add(a, a, 1/sq(pb.prior[j]))
-		g[a] = -(s + (p[j]-pb.mean[j])/sq(pb.prior[j]))
+		g[a] -= (s.p[j] - pb.mean[j]) / sq(pb.prior[j])
+	}
+	for a, v := range s.c {
+		c := len(pb.idx) + a
+		A.add(c, c, 1/sq(pb.cPrior[a]))
+		g[c] -= v / sq(pb.cPrior[a])
 	}
 	return A, g
+}
+
+// step returns s moved by d (in the normal equations' order).
+func (pb *problem) step(s state, d []float64) state {
+	q := s.clone()
+	for a, j := range pb.idx {
+		q.p[j] += d[a]
+	}
+	for a := range q.c {
+		q.c[a] += d[len(pb.idx)+a]
+	}
+	return q
 }
 
 // fitOuter minimises the weighted sum of squares with the priors by
@@ -435,24 +668,24 @@ func (pb *problem) normal(p [numParams]float64, r []float64) (sym, []float64) {
 // sampled again where the step lands (so the model is exact there), and
 // lambda grows tenfold while a step does not lower the sum, shrinking
 // tenfold after one that does (from zero: a pure Gauss-Newton step first).
-func (pb *problem) fitOuter(p [numParams]float64) ([numParams]float64, error) {
-	if pb.p0 != p {
-		if err := pb.sampleAt(p, false); err != nil {
-			return p, err
+func (pb *problem) fitOuter(s state) (state, error) {
+	if pb.p0 != s.p {
+		if err := pb.sampleAt(s.p, false); err != nil {
+			return s, err
 		}
 	}
 	n := pb.nUsed()
 	r := make([]float64, n)
-	if err := pb.eval(p, r); err != nil {
-		return p, err
+	if err := pb.eval(s, r); err != nil {
+		return s, err
 	}
-	c := pb.cost(p, r)
+	c := pb.cost(s, r)
 	rq := make([]float64, n)
 	lambda := 0.0 // Levenberg-Marquardt damping, relative to the diagonal
 	for round := 0; round < 12; round++ {
-		A, g := pb.normal(p, r)
+		A, g := pb.normal(s, r)
 		accepted := false
-		var q [numParams]float64
+		var q state
 		var cq, pred, worst float64
 		var small bool
 		for tries := 0; tries < 10; tries++ {
@@ -463,35 +696,33 @@ func (pb *problem) fitOuter(p [numParams]float64) ([numParams]float64, error) {
 			}
 			d, ok := D.solve(g)
 			if !ok {
-				return p, &setting.Error{Field: "readings", Message: "The readings cannot fix the gear's state: take a sweep in full forward and in full back gear."}
+				return s, &setting.Error{Field: "readings", Message: "The readings cannot fix the gear's state: take a sweep in full forward and in full back gear."}
 			}
 			// Converged when the whole step is a twentieth of a standard
 			// deviation of what the readings can tell, or would lower the
 			// sum of squares by less than 1e-3 (in units of the readings'
 			// errors squared): nothing the readings can see.
 			worst, pred = 0, 0
-			for a := range pb.idx {
+			for a := range d {
 				worst = math.Max(worst, math.Abs(d[a])*math.Sqrt(A.at(a, a)))
 				pred += g[a] * d[a]
 			}
 			if pred < 1e-3 {
-				return p, nil
+				return s, nil
 			}
 			small = worst < 0.05
 			// The effect curves are sampled again only when a gear
 			// dimension moved far (a tenth of its prior) early on: the
-			// gauge zero, valve offset and dead-centre mark enter exactly.
+			// gauge zero, valve offset, laps and dead-centre mark enter
+			// exactly.
 			resens := false
 			for a, j := range pb.idx {
-				if j != pGaugeZero && j != pValveOffset && j != pDeadCentre && math.Abs(d[a]) > 0.1*pb.prior[j] {
+				if isGearParam(j) && math.Abs(d[a]) > 0.1*pb.prior[j] {
 					resens = round < 2
 				}
 			}
-			q = p
-			for a, j := range pb.idx {
-				q[j] += d[a]
-			}
-			if err := pb.sampleAt(q, resens); err == nil && pb.eval(q, rq) == nil {
+			q = pb.step(s, d)
+			if err := pb.sampleAt(q.p, resens); err == nil && pb.eval(q, rq) == nil {
 				if cq = pb.cost(q, rq); cq <= c*(1+1e-9) || small {
 					accepted = true
 					lambda /= 10
@@ -504,28 +735,32 @@ func (pb *problem) fitOuter(p [numParams]float64) ([numParams]float64, error) {
 			lambda = math.Max(10*lambda, 1e-3)
 		}
 		if !accepted {
-			if err := pb.sampleAt(p, false); err != nil {
-				return p, err
+			if err := pb.sampleAt(s.p, false); err != nil {
+				return s, err
 			}
-			return p, nil
+			return s, nil
 		}
 		gain := c - cq
-		p, c = q, cq
+		s, c = q, cq
 		copy(r, rq)
 		if small || gain < 1e-3 {
 			break
 		}
 	}
-	return p, nil
+	return s, nil
 }
 
-// FitObservations fits the as-built deviations of an engine to one round's
+// FitObservations fits the as-built state of an engine to one round's
 // observations by Levenberg-Marquardt: weighted least squares of
 // prediction minus reading, each weighted by its error
 // sqrt(gauge^2 + (slope x crank-angle error)^2), with a Gaussian prior on
 // every deviation (see priors) so that deviations the readings cannot tell
-// apart share the change the way the drawing makes likely. Readings far
-// from the rest are named in Recheck and left out.
+// apart share the change the way the drawing makes likely, and on each
+// position's unmodelled part (see Unmodelled), so that the model follows
+// what was measured. The dead-centre mark's error is fitted only with a
+// sweep, whose marks show the curve's phase; with readings at the dead
+// centres alone nothing can tell it from the gear's errors. A reading the
+// others contradict (see suspect) is named in Recheck and left out.
 func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt FitOptions) (*Fit, error) {
 	if err := spec.Validate(); err != nil {
 		return nil, err
@@ -545,8 +780,16 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 	if res == 0 {
 		res = 0.01
 	}
+	k := scaleOf(spec)
 	pb.prior = priors(spec, dcSig)
-	pb.idx = append([]param{pGaugeZero, pValveOffset, pDeadCentre}, gearParams(spec.Gear.Kind)...)
+	pb.idx = []param{pGaugeZero, pValveOffset}
+	if hasSweep(obs) {
+		pb.idx = append(pb.idx, pDeadCentre)
+	}
+	pb.idx = append(pb.idx, gearParams(spec.Gear.Kind)...)
+	if hasPortMarks(obs) {
+		pb.idx = append(pb.idx, pLapFront, pLapBack)
+	}
 	if !hasGaugeReadings(obs) {
 		pb.idx = pb.idx[1:] // the gauge zero means nothing without readings
 	}
@@ -558,11 +801,13 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 	var zsum float64
 	var zn int
 	marks := hasPortMarks(obs)
+	pb.setUnmodelled(k)
+	s0 := state{p: pb.mean, c: make([]float64, pb.nc())}
 	for i, o := range obs {
-		s := math.Max(o.GaugeSigmaMM, 1e-4)
+		sg := math.Max(o.GaugeSigmaMM, 1e-4)
 		if o.HasCrank {
-			x, slope := pb.gear(i, pb.mean)
-			s = math.Hypot(s, slope*o.CrankSigmaDeg)
+			x, slope := pb.gear(i, s0)
+			sg = math.Hypot(sg, slope*o.CrankSigmaDeg)
 			if (o.Kind == session.AtDeadCentre || o.Kind == session.InSweep) && !marks {
 				zsum += o.GaugeMM - x
 				zn++
@@ -572,36 +817,35 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 			zsum += o.GaugeMM - edgeX(spec.Valve, cylEnd(o.End))
 			zn++
 		}
-		pb.sig[i] = s
+		pb.sig[i] = sg
 	}
 	if zn > 0 {
 		pb.mean[pGaugeZero] = zsum / float64(zn)
+		s0.p = pb.mean
 	}
 	f := &Fit{obs: obs}
-	p, err := pb.fitOuter(pb.mean)
+	s, err := pb.fitOuter(s0)
 	if err != nil {
 		return nil, err
 	}
-	// Recheck: readings far from the rest, by a robust scale.
+	// Recheck: a reading the others contradict, left out and the fit made
+	// again (up to two).
 	if !opt.NoRecheck {
-		for round := 0; round < 3; round++ {
-			worst, ok := pb.outlier(p, res)
+		for round := 0; round < 2; round++ {
+			worst, ok := pb.suspect(s, k)
 			if !ok {
 				break
 			}
-			pb.use[worst] = false
-			if pb.nUsed() < 2 {
-				pb.use[worst] = true
-				break
-			}
-			q, err := pb.fitOuter(p)
-			if err != nil {
+			pb.use[worst.i] = false
+			f.expect = append(f.expect, worst)
+			pb.setUnmodelled(k)
+			s.c = make([]float64, pb.nc())
+			if s, err = pb.fitOuter(s); err != nil {
 				return nil, err
 			}
-			p = q
 		}
 	}
-	if err := pb.finish(f, p, res); err != nil {
+	if err := pb.finish(f, s, res); err != nil {
 		return nil, err
 	}
 	if err := f.contradiction(pb); err != nil {
@@ -613,6 +857,17 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 func hasPortMarks(obs []session.Observation) bool {
 	for _, o := range obs {
 		if o.Kind == session.PortMarkKind {
+			return true
+		}
+	}
+	return false
+}
+
+// hasSweep reports whether the readings include a sweep, whose marks tie
+// the valve curve's phase to the dead-centre mark.
+func hasSweep(obs []session.Observation) bool {
+	for _, o := range obs {
+		if o.Kind == session.InSweep {
 			return true
 		}
 	}
@@ -637,76 +892,119 @@ func linkageError(errs ...error) error {
 	return nil
 }
 
-// outlier returns the used reading farthest from the fit when it lies more
-// than 3 robust standard deviations (at least the gauge resolution) away.
-func (pb *problem) outlier(p [numParams]float64, res float64) (int, bool) {
+// expected is a reading the others contradict: its index, and what the
+// others put it at.
+type expected struct {
+	i      int
+	expect float64 // the reading the fit without it predicts, mm (normalised gauge, or the kind's own terms)
+	t      float64 // how many standard deviations it lies off
+}
+
+// suspect returns the used reading that the others contradict most, when
+// it does so clearly: its deleted residual (the reading less what the fit
+// without it predicts, r/(1-h) with h its leverage) lies more than five
+// standard deviations of that difference away (the unmodelled part's
+// prior among them, so a misfit the gear's own errors can explain is not
+// named), and more than 0.15 mm (scaled with the crank), and more than
+// twice as far as any other. A reading the others cannot check (leverage near
+// one: nothing else measures what it does) is never named.
+func (pb *problem) suspect(s state, k float64) (expected, bool) {
 	n := pb.nUsed()
-	if n < 6 {
-		return 0, false
+	if n < 4 {
+		return expected{}, false
 	}
 	r := make([]float64, n)
-	if pb.eval(p, r) != nil {
-		return 0, false
+	if pb.eval(s, r) != nil {
+		return expected{}, false
 	}
-	u := make([]float64, 0, n)
-	k := 0
-	for i := range pb.obs {
-		if pb.use[i] {
-			u = append(u, math.Abs(r[k]/pb.sig[i]))
-			k++
-		}
+	A, _ := pb.normal(s, r)
+	inv, ok := A.inverse()
+	if !ok {
+		return expected{}, false
 	}
-	sorted := append([]float64(nil), u...)
-	sort.Slice(sorted, func(i, j int) bool { return sorted[i] < sorted[j] })
-	scale := math.Max(1, 1.4826*sorted[len(sorted)/2])
-	worst, wv := -1, 0.0
-	k = 0
+	m := pb.width(s)
+	row := make([]float64, m)
+	best, second := expected{i: -1}, 0.0
+	kk := 0
 	for i := range pb.obs {
 		if !pb.use[i] {
 			continue
 		}
-		lim := 3 * math.Max(scale*pb.sig[i], res)
-		if a := math.Abs(r[k]); a > lim && a/lim > wv {
-			worst, wv = i, a/lim
+		pb.row(i, s, row)
+		v := inv.quad(row)
+		w := 1 / sq(pb.sig[i])
+		h := w * v
+		ri := r[kk]
+		kk++
+		if h > 0.98 {
+			continue
 		}
-		k++
+		e := ri / (1 - h)
+		sd := math.Sqrt(sq(pb.sig[i]) + v/(1-h))
+		t := math.Abs(e) / sd
+		if math.Abs(e) < 0.15*k {
+			t = math.Min(t, 1)
+		}
+		switch {
+		case t > best.t:
+			second = best.t
+			best = expected{i: i, expect: Target(pb.obs[i]) + e, t: t}
+		case t > second:
+			second = t
+		}
 	}
-	return worst, worst >= 0
+	if best.i < 0 || best.t < 5 || best.t < 2*second {
+		return expected{}, false
+	}
+	// What the others put it at: the reading less its deleted residual
+	// (prediction - target = r, so the reading "should" be target + e).
+	return best, true
 }
 
-// finish fills the fit's report: residuals, covariance and what the
-// readings could not decide.
-func (pb *problem) finish(f *Fit, p [numParams]float64, res float64) error {
-	f.Model = Model{pb.spec, devOf(p)}
+// finish fills the fit's report: the model with its unmodelled parts,
+// residuals, covariance and what the readings could not decide.
+func (pb *problem) finish(f *Fit, s state, res float64) error {
+	f.Model = Model{Spec: pb.spec, Dev: devOf(s.p)}
+	for g, r := range pb.revs {
+		if pb.cN[g] == 0 {
+			continue
+		}
+		u := Unmodelled{Reverser: r, Coef: pb.shape[g].curveOf(s.c[pb.cStart[g] : pb.cStart[g]+pb.cN[g]])}
+		f.Model.Unmodelled = append(f.Model.Unmodelled, u)
+	}
 	f.idx = pb.idx
+	f.cStart, f.cN, f.nc, f.shape = pb.cStart, pb.cN, pb.nc(), pb.shape
 	f.used = append([]bool(nil), pb.use...)
 	f.resMM = res
+	f.sig = append([]float64(nil), pb.sig...)
 	var ss float64
 	var nu int
 	var chi float64
 	for i, o := range pb.obs {
-		v := pb.predictS(i, p)
+		v := pb.predictS(i, s)
 		rr := Target(o) - v
 		f.Residuals = append(f.Residuals, Residual{Label: o.Label, Field: o.Field, Kind: o.Kind, ResidualMM: rr, Used: pb.use[i]})
 		if pb.use[i] {
 			ss += rr * rr
 			chi += sq(rr / pb.sig[i])
 			nu++
-		} else {
-			f.Recheck = append(f.Recheck, f.Residuals[len(f.Residuals)-1])
 		}
 	}
-	sort.SliceStable(f.Recheck, func(a, b int) bool { return math.Abs(f.Recheck[a].ResidualMM) > math.Abs(f.Recheck[b].ResidualMM) })
+	for _, x := range f.expect {
+		rr := f.Residuals[x.i]
+		rr.ExpectMM = x.expect
+		f.Recheck = append(f.Recheck, rr)
+	}
 	if nu > 0 {
 		f.RMSMM = math.Sqrt(ss / float64(nu))
 	}
 	// Covariance (J^T W J + P)^-1, scaled up when the residuals are larger
 	// than the stated errors.
 	r := make([]float64, pb.nUsed())
-	if err := pb.eval(p, r); err != nil {
+	if err := pb.eval(s, r); err != nil {
 		return err
 	}
-	A, _ := pb.normal(p, r)
+	A, _ := pb.normal(s, r)
 	m := len(pb.idx)
 	cov, ok := A.inverse()
 	if !ok {
@@ -731,6 +1029,7 @@ func (pb *problem) finish(f *Fit, p [numParams]float64, res float64) error {
 		}
 	}
 	f.Sigma = devOf(sv)
+	f.prior = pb.prior
 	f.obs = pb.obs
 	f.revs, f.sens = pb.revs, pb.sens
 	return nil
@@ -763,14 +1062,51 @@ func (f *Fit) contradiction(pb *problem) error {
 	return &setting.Error{Field: "readings", Message: fmt.Sprintf("The readings contradict one another (or the engine's dimensions): no setting of the gear follows them closer than %.2f mm, where the gauge reads to %.2f mm. Farthest off: %s. Check that the gauge was not knocked, that the marks are numbered the way the wheel turns, and the gear's dimensions, then take the round again; or plan without the dimensions, from the readings alone.", f.RMSMM, f.resMM, strings.Join(names, "; "))}
 }
 
-// RecheckMessages returns one sentence per reading to recheck:
-// "recheck: back dead centre, full forward, 0.31 mm off the fit".
+// RecheckMessages returns one sentence per reading to take again: "recheck
+// front dead centre, full forward: it reads 4.53 mm, the other readings
+// put it near 2.51 mm; it is left out of the plan until taken again".
 func (f *Fit) RecheckMessages(unit session.Unit) []string {
 	var out []string
 	for _, r := range f.Recheck {
-		out = append(out, fmt.Sprintf("recheck: %s, %s off the fit", r.Label, strings.TrimPrefix(session.FormatLength(math.Abs(r.ResidualMM), unit), "+")))
+		i := f.index(r.Field)
+		if i < 0 {
+			continue
+		}
+		o := f.obs[i]
+		got, want := Target(o), r.ExpectMM
+		if o.HasGauge && (o.Kind == session.AtDeadCentre || o.Kind == session.InSweep || o.Kind == session.PortMarkKind) {
+			// In the gauge's own terms, as the setter read it.
+			got, want = o.RawGaugeMM, o.RawGaugeMM+(r.ExpectMM-o.GaugeMM)*gaugeSense(o)
+			out = append(out, fmt.Sprintf("Take again the %s: the gauge read %s, where the other readings put it near %s. It is left out of the plan until it is taken again.", r.Label, plainLength(got, unit), plainLength(want, unit)))
+			continue
+		}
+		out = append(out, fmt.Sprintf("Take again the %s: it lies %s from where the other readings put it. It is left out of the plan until it is taken again.", r.Label, plainLength(math.Abs(got-want), unit)))
 	}
 	return out
+}
+
+// gaugeSense returns +1 when the raw gauge reading grows with the
+// normalised one, -1 when the gauge is mounted the other way.
+func gaugeSense(o session.Observation) float64 {
+	if o.RawGaugeMM != 0 && o.RawGaugeMM == -o.GaugeMM {
+		return -1
+	}
+	return 1
+}
+
+// plainLength writes a length without a sign: "2.51 mm", "0.099 in".
+func plainLength(mm float64, unit session.Unit) string {
+	return strings.TrimPrefix(session.FormatLength(mm, unit), "+")
+}
+
+// index returns the index of the observation with the field, or -1.
+func (f *Fit) index(field string) int {
+	for i, o := range f.obs {
+		if o.Field == field {
+			return i
+		}
+	}
+	return -1
 }
 
 // Observations returns the readings the fit was made from (one round's,

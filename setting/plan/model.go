@@ -30,6 +30,9 @@ import (
 //   - ReturnCrankDeg: Walschaerts return crank, + = turned in the forward
 //     running direction.
 //   - RadiusRodMM: Walschaerts radius rod, + = longer.
+//   - SteamLapMM: the steam laps as built less the drawing's, front (0)
+//     and back (1), + = more lap (the port opens later); the port marks
+//     measure them.
 type Deviations struct {
 	GaugeZeroMM    float64    `json:"gauge_zero_mm"`
 	ValveOffsetMM  float64    `json:"valve_offset_mm"`
@@ -38,6 +41,7 @@ type Deviations struct {
 	EccentricRodMM [2]float64 `json:"eccentric_rod_mm"`
 	ReturnCrankDeg float64    `json:"return_crank_deg"`
 	RadiusRodMM    float64    `json:"radius_rod_mm"`
+	SteamLapMM     [2]float64 `json:"steam_lap_mm"`
 }
 
 // param indexes the deviations as a vector.
@@ -53,6 +57,8 @@ const (
 	pRodBack
 	pReturnCrank
 	pRadiusRod
+	pLapFront
+	pLapBack
 	numParams
 )
 
@@ -77,6 +83,10 @@ func (p param) name() string {
 		return "return crank angle"
 	case pRadiusRod:
 		return "radius rod length"
+	case pLapFront:
+		return "front steam lap"
+	case pLapBack:
+		return "back steam lap"
 	}
 	return "deviation"
 }
@@ -84,19 +94,72 @@ func (p param) name() string {
 func (d Deviations) vec() [numParams]float64 {
 	return [numParams]float64{d.GaugeZeroMM, d.ValveOffsetMM, d.DeadCentreDeg,
 		d.EccentricDeg[0], d.EccentricDeg[1], d.EccentricRodMM[0], d.EccentricRodMM[1],
-		d.ReturnCrankDeg, d.RadiusRodMM}
+		d.ReturnCrankDeg, d.RadiusRodMM, d.SteamLapMM[0], d.SteamLapMM[1]}
 }
 
 func devOf(v [numParams]float64) Deviations {
 	return Deviations{v[pGaugeZero], v[pValveOffset], v[pDeadCentre],
 		[2]float64{v[pEccFwd], v[pEccBack]}, [2]float64{v[pRodFwd], v[pRodBack]},
-		v[pReturnCrank], v[pRadiusRod]}
+		v[pReturnCrank], v[pRadiusRod], [2]float64{v[pLapFront], v[pLapBack]}}
 }
 
-// Model is one cylinder as built: the engine as drawn and its deviations.
+// Model is one cylinder as built: the engine as drawn, its deviations,
+// and, in each reverser position the readings were taken in, the part of
+// the valve's motion that the drawing with those deviations cannot follow.
 type Model struct {
 	Spec setting.EngineSpec
 	Dev  Deviations
+	// Unmodelled holds, per reverser position, what the readings show
+	// that the gear as drawn cannot: the valve's motion less the model's
+	// (see Unmodelled). Empty for a model of the drawing alone.
+	Unmodelled []Unmodelled
+}
+
+// Unmodelled is the part of the valve's motion in one reverser position
+// that the gear as drawn, with the fitted deviations, does not follow: the
+// errors of parts the model has no deviation for (an eccentric's throw, a
+// lifting link, a lever's pins, the die's place in the link at a notch)
+// and those the readings cannot tell apart. It is the short trigonometric
+// series a0 + a1 cos t + b1 sin t + a2 cos 2t + b2 sin 2t in crank angle t
+// (mm, + toward the front cover), fitted to the readings with a prior
+// that keeps it small where they say nothing, so that the model follows
+// what was measured (a lead read at a dead centre, a cut-off at the
+// crosshead) and supplies only what was not. Coef holds it as a
+// trigonometric series in crank angle: Coef[0] + sum over k of
+// Coef[2k-1] cos kt + Coef[2k] sin kt (mm).
+type Unmodelled struct {
+	Reverser setting.Reverser `json:"reverser"`
+	Coef     []float64        `json:"coef_mm"`
+}
+
+// at returns the correction and its slope (mm per degree) at th degrees.
+func (u Unmodelled) at(th float64) (x, dx float64) {
+	return curve(u.Coef).at(th)
+}
+
+// correction returns the unmodelled part of reverser position r, or nil.
+// (Unmodelled.Coef holds the same layout as a curve, so it adds to one
+// term by term.)
+func (m Model) correction(r setting.Reverser) *Unmodelled {
+	for i := range m.Unmodelled {
+		if m.Unmodelled[i].Reverser == r {
+			return &m.Unmodelled[i]
+		}
+	}
+	return nil
+}
+
+// Valve returns the valve as built: the drawing's with the fitted steam
+// laps.
+func (m Model) Valve() setting.Valve {
+	return asBuiltValve(m.Spec.Valve, m.Dev.vec())
+}
+
+// asBuiltValve returns v with the steam lap deviations of p applied.
+func asBuiltValve(v setting.Valve, p [numParams]float64) setting.Valve {
+	v.Front.SteamLap += p[pLapFront]
+	v.Back.SteamLap += p[pLapBack]
+	return v
 }
 
 // gearParams returns the deviations of the gear's own dimensions a gear of
@@ -159,14 +222,20 @@ func (m Model) Motion(r setting.Reverser) (setting.Motion, error) {
 		return nil, err
 	}
 	e, off := m.Spec.Engine, m.Dev.ValveOffsetMM
+	u := m.correction(r)
 	return func(th float64) (float64, error) {
 		x, err := g.Valve(e, th, r)
+		if u != nil {
+			d, _ := u.at(th)
+			x += d
+		}
 		return x + off, err
 	}, nil
 }
 
 // edgeX returns the valve displacement at which end's steam edge is
-// line-on-line with its port edge.
+// line-on-line with its port edge (see asBuiltValve for the laps as
+// built).
 func edgeX(v setting.Valve, end setting.CylinderEnd) float64 {
 	e0 := v.SteamEdge(end, 0)
 	k := v.SteamEdge(end, 1) - e0
@@ -191,7 +260,22 @@ func (m Model) Predict(o session.Observation) (float64, error) {
 	if err != nil {
 		return 0, err
 	}
-	return predict(m.Spec, g, m.Dev.vec(), o)
+	p := m.Dev.vec()
+	x, err := predict(m.Spec, g, p, o)
+	if u := m.correction(o.Reverser); u != nil && o.HasCrank && err == nil {
+		d, _ := u.at(o.CrankDeg + p[pDeadCentre])
+		if o.Kind == session.CutOffKind || o.Kind == session.FeelerKind {
+			d *= edgeSlope(m.Spec.Valve, cylEnd(o.End))
+		}
+		x += d
+	}
+	return x, err
+}
+
+// edgeSlope is d(steam edge opening)/d(valve displacement) of an end: +1
+// or -1 by the admission and the end.
+func edgeSlope(v setting.Valve, end setting.CylinderEnd) float64 {
+	return v.SteamEdge(end, 1) - v.SteamEdge(end, 0)
 }
 
 // Target returns the value Predict is compared with for observation o.
@@ -207,18 +291,17 @@ func Target(o session.Observation) float64 {
 
 // predict is Predict with the gear already built.
 func predict(spec setting.EngineSpec, g setting.Gear, p [numParams]float64, o session.Observation) (float64, error) {
+	v := asBuiltValve(spec.Valve, p)
 	if o.Kind == session.PortMarkKind {
-		return p[pGaugeZero] - p[pValveOffset] + edgeX(spec.Valve, cylEnd(o.End)), nil
+		return p[pGaugeZero] - p[pValveOffset] + edgeX(v, cylEnd(o.End)), nil
 	}
 	x, err := g.Valve(spec.Engine, o.CrankDeg+p[pDeadCentre], o.Reverser)
 	if err != nil {
 		return 0, err
 	}
 	switch o.Kind {
-	case session.CutOffKind:
-		return spec.Valve.SteamEdge(cylEnd(o.End), x+p[pValveOffset]), nil
-	case session.FeelerKind:
-		return spec.Valve.SteamEdge(cylEnd(o.End), x+p[pValveOffset]), nil
+	case session.CutOffKind, session.FeelerKind:
+		return v.SteamEdge(cylEnd(o.End), x+p[pValveOffset]), nil
 	}
 	return x + p[pGaugeZero], nil
 }
@@ -246,7 +329,24 @@ func (m Model) Curve(r setting.Reverser) (Curve, error) {
 	if err != nil {
 		return Curve{}, err
 	}
-	return Curve{cs[0]}, nil
+	return Curve{m.corrected(cs[0], r)}, nil
+}
+
+// corrected returns curve c of reverser position r with the unmodelled
+// part added (a copy; c itself when there is none).
+func (m Model) corrected(c curve, r setting.Reverser) curve {
+	u := m.correction(r)
+	if u == nil {
+		return c
+	}
+	out := append(curve(nil), c...)
+	for len(out) < len(u.Coef) {
+		out = append(out, 0)
+	}
+	for k, v := range u.Coef {
+		out[k] += v
+	}
+	return out
 }
 
 // Value returns the valve displacement at crank angle th degrees.

@@ -25,7 +25,7 @@ func trueEvents(t *testing.T, spec setting.EngineSpec, dev Deviations, ps []Posi
 	dev.DeadCentreDeg = 0
 	out := make([]setting.EventSet, len(ps))
 	for i, p := range ps {
-		m, err := Model{spec, dev}.Motion(setting.Reverser(p.Reverser))
+		m, err := Model{Spec: spec, Dev: dev}.Motion(setting.Reverser(p.Reverser))
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -381,17 +381,16 @@ func TestExampleCutOffPlanNeverWorse(t *testing.T) {
 		before := trueEvents(t, spec, c.truth, p.Now)
 		after := trueEvents(t, spec, applySteps(t, spec, c.truth, p.Steps), p.Now)
 		for i, pos := range p.Now {
-			if pos.Notch != "running notch" {
-				continue
-			}
 			d0 := math.Abs(before[i].Front.CutOff.StrokePercent - before[i].Back.CutOff.StrokePercent)
 			d1 := math.Abs(after[i].Front.CutOff.StrokePercent - after[i].Back.CutOff.StrokePercent)
-			if d1 > d0+0.2 {
-				t.Errorf("round %d: running-notch cut-offs %.2f %% apart after the plan, %.2f %% before", c.round, d1, d0)
+			// No position worse: not full forward or full back for the
+			// running notch (issue 11), nor the running notch for them.
+			if d1 > d0+0.5 {
+				t.Errorf("round %d: %s cut-offs %.2f %% apart after the plan, %.2f %% before", c.round, pos.Notch, d1, d0)
 			}
-			if d1 > 1 {
-				t.Errorf("round %d: running-notch cut-offs still %.2f %% apart", c.round, d1)
-			}
+		}
+		if len(p.Steps) == 0 && !strings.Contains(strings.Join(p.Notes, " "), "cut-offs") {
+			t.Errorf("round %d: no step, and no note says why: %q", c.round, p.Notes)
 		}
 	}
 }

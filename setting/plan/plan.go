@@ -212,7 +212,9 @@ func Make(s *session.Session, opt Options) (*Plan, error) {
 
 // FromFit plans the adjustments for a fitted cylinder.
 func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
-	spec := fit.Model.Spec
+	drawn := fit.Model.Spec
+	spec := drawn
+	spec.Valve = fit.Model.Valve()
 	switch opt.Priority {
 	case "":
 		opt.Priority = EqualLeads
@@ -233,6 +235,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	}
 	ps := positions(spec, opt)
 	ev := newEvaluator(spec, crank, ps)
+	ev.model, ev.fitRevs, ev.fitShape = fit.Model, fit.revs, fit.shape
 	p := fit.Model.Dev.vec()
 	canLead := false
 	for _, k := range ks {
@@ -241,7 +244,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 		}
 	}
 	running := runningIndex(spec, ps, opt)
-	design, full, err := designLeads(ev, ps)
+	design, full, err := designLeads(ev, drawn, ps)
 	if err != nil {
 		return nil, err
 	}
@@ -313,8 +316,8 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 
 // designLeads returns the drawing's mean lead in each position and which
 // positions are full gear.
-func designLeads(ev *evaluator, ps []position) ([]float64, []bool, error) {
-	g, err := Model{Spec: ev.spec}.Gear()
+func designLeads(ev *evaluator, drawn setting.EngineSpec, ps []position) ([]float64, []bool, error) {
+	g, err := Model{Spec: drawn}.Gear()
 	if err != nil {
 		return nil, nil, err
 	}
@@ -328,7 +331,7 @@ func designLeads(ev *evaluator, ps []position) ([]float64, []bool, error) {
 			if err != nil {
 				return nil, nil, &setting.Error{Field: "engine.gear", Message: "The gear as drawn cannot close at a dead centre: " + err.Error()}
 			}
-			lead[k] = ev.spec.Valve.SteamEdge(setting.CylinderEnd(k), x)
+			lead[k] = drawn.Valve.SteamEdge(setting.CylinderEnd(k), x)
 		}
 		design[i] = (lead[0] + lead[1]) / 2
 		full[i] = math.Abs(float64(ps[i].notch.Reverser)) == 1
@@ -354,6 +357,10 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 	g := ev.weighing(&obj, qNow, fit)
 	pol := ev.sheavePolicy(ks, qNow, obj, canLead, fit, unit)
 	obj.mean = pol.mean
+	obj.cutLost = make([]bool, len(qNow))
+	for i, q := range qNow {
+		obj.cutLost[i] = !q.cutOK
+	}
 	ts := obj.terms(len(ev.ps))
 	ch, err := ev.choose(p, ks, ts, qNow, g, pol.usable)
 	if err != nil {
@@ -427,32 +434,44 @@ func (ev *evaluator) stepSigmas(ks []knob, ts []term, q []quantities, fit *Fit) 
 			}
 		}
 	}
-	for i, k := range ks {
-		A.add(i, i, sq(changeWeight/k.scale)+1e-12)
+	for i, r := range ridge(ks, ts, q) {
+		A.add(i, i, r)
 	}
 	Ainv, ok := A.inverse()
 	if !ok {
 		return out
 	}
-	m := len(fit.idx)
+	m := len(fit.idx) + fit.nc
+	// B[t][c]: the gradient of term t by the fit's parameter c.
+	B := make([][]float64, len(ts))
+	for ti, t := range ts {
+		if t.what == "cut" && !q[t.pos].cutOK {
+			continue
+		}
+		v := fitVec(fit, &q[t.pos], t.coef)
+		for c := range v {
+			v[c] *= t.w / t.scale
+		}
+		B[ti] = v
+	}
 	// S[i][c] = d a_i / d p_c
 	S := make([][]float64, n)
 	for i := range ks {
 		g := make([]float64, m)
-		for c, pj := range fit.idx {
-			s := 0.0
-			for _, t := range ts {
-				bt := t.grad(q, pj)
-				if bt == 0 {
-					continue
-				}
-				at := 0.0
-				for j := range ks {
-					at += Ainv.at(i, j) * t.grad(q, ks[j].p)
-				}
-				s -= at * bt
+		for ti, t := range ts {
+			if B[ti] == nil {
+				continue
 			}
-			g[c] = s
+			at := 0.0
+			for j := range ks {
+				at += Ainv.at(i, j) * t.grad(q, ks[j].p)
+			}
+			if at == 0 {
+				continue
+			}
+			for c := range g {
+				g[c] -= at * B[ti][c]
+			}
 		}
 		S[i] = g
 	}
@@ -506,9 +525,13 @@ func (ev *evaluator) states(qs []quantities, fit *Fit) []PositionState {
 			}
 			es := endState(e)
 			if fit != nil && fit.cov.n > 0 {
-				es.LeadSigmaMM = clean(sdOf(fit, q.grad[k]))
+				var c [4]float64
+				c[k] = 1
+				es.LeadSigmaMM = clean(sdOf(fit, &q, c))
 				if q.cutOK {
-					es.CutOffSigmaPct = clean(sdOf(fit, q.grad[2+k]))
+					c = [4]float64{}
+					c[2+k] = 1
+					es.CutOffSigmaPct = clean(sdOf(fit, &q, c))
 				}
 			}
 			if k == 0 {
@@ -529,14 +552,30 @@ func endState(e setting.EndEvents) EndState {
 		AdmissionBeforeD: clean(e.LeadAngle)}
 }
 
-// sdOf returns the standard deviation of a linear function of the
-// deviations with gradient g, through the fit's covariance.
-func sdOf(fit *Fit, g [numParams]float64) float64 {
-	v := make([]float64, len(fit.idx))
+// sdOf returns the standard deviation, through the fit's covariance, of
+// the combination coef of position q's four quantities (lead front, lead
+// back, cut-off front, cut-off back).
+func sdOf(fit *Fit, q *quantities, coef [4]float64) float64 {
+	return math.Sqrt(math.Max(0, fit.cov.quad(fitVec(fit, q, coef))))
+}
+
+// fitVec returns the gradient of the combination coef of position q's
+// four quantities by the fit's parameters, in its covariance's order.
+func fitVec(fit *Fit, q *quantities, coef [4]float64) []float64 {
+	v := make([]float64, len(fit.idx)+fit.nc)
 	for c, j := range fit.idx {
-		v[c] = g[j]
+		for k, w := range coef {
+			v[c] += w * q.grad[k][j]
+		}
 	}
-	return math.Sqrt(math.Max(0, fit.cov.quad(v)))
+	if g := q.group; g >= 0 && g < len(fit.cN) {
+		for m := 0; m < fit.cN[g]; m++ {
+			for k, w := range coef {
+				v[len(fit.idx)+fit.cStart[g]+m] += w * q.cg[k][m]
+			}
+		}
+	}
+	return v
 }
 
 // workOrder returns the knobs in the order a setter works: the gear's own

@@ -23,10 +23,13 @@ func positionsOf(kind string) int {
 }
 
 // Round trip, priority on leads: readings of a simulated as-built engine
-// with known errors, quantised to 0.01 mm; after the ROUNDED plan the true
-// leads agree within 0.02 mm in full forward, the running notch and full
-// back (common practice, no source: the product's goal, issue 4).
+// with known errors, quantised to 0.01 mm; after the plan's ideal amounts
+// the true leads agree within 0.02 mm in full forward, the running notch
+// and full back, and after its rounded amounts within that and one step
+// of the fine adjusters (common practice, no source: the product's goal,
+// issues 4 and 11).
 func TestRoundTripLeads(t *testing.T) {
+	step := 2 * fineThread.Step() // one step of a fine adjuster, on the lead difference
 	for _, kind := range gears {
 		t.Run(kind, func(t *testing.T) {
 			sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
@@ -36,10 +39,14 @@ func TestRoundTripLeads(t *testing.T) {
 			}
 			before := sim.events(t)
 			after := sim.after(t, p.Steps).events(t)
+			ideal := sim.afterIdeal(t, p.Steps).events(t)
 			for i := 0; i < positionsOf(kind); i++ {
+				if d := math.Abs(ideal[i].Front.Lead - ideal[i].Back.Lead); d > 0.02 {
+					t.Errorf("position %d: leads %.3f and %.3f differ by %.3f mm after the ideal plan (want <= 0.02)", i, ideal[i].Front.Lead, ideal[i].Back.Lead, d)
+				}
 				d := math.Abs(after[i].Front.Lead - after[i].Back.Lead)
-				if d > 0.02 {
-					t.Errorf("position %d: leads %.3f and %.3f differ by %.3f mm after the plan (want <= 0.02)", i, after[i].Front.Lead, after[i].Back.Lead, d)
+				if d > 0.02+step {
+					t.Errorf("position %d: leads %.3f and %.3f differ by %.3f mm after the rounded plan (want <= %.3f)", i, after[i].Front.Lead, after[i].Back.Lead, d, 0.02+step)
 				}
 				// The prediction of the rounded plan matches the engine.
 				if e := math.Abs(p.After[i].Front.LeadMM - after[i].Front.Lead); e > 0.02 {
@@ -54,11 +61,14 @@ func TestRoundTripLeads(t *testing.T) {
 }
 
 // bruteCutOff finds by grid search over the spindle position (and the
-// eccentric angle when allowed) the smallest running-notch cut-off
-// difference any adjustment could reach on the simulated engine.
-func bruteCutOff(t *testing.T, sim simulated, adjs []session.Adjustment, pos int) float64 {
+// eccentric angle when allowed) the smallest worst cut-off difference,
+// over the planned positions, any adjustment could reach on the simulated
+// engine without leaving a position worse than before by more than 0.5 %
+// (no change at all among them).
+func bruteCutOff(t *testing.T, sim simulated, adjs []session.Adjustment, n int) float64 {
 	t.Helper()
-	best := math.Inf(1)
+	before := cutDiffs(t, sim, n)
+	best := worstCutOff(t, sim, n)
 	angles := []float64{0}
 	for _, a := range adjs {
 		if a.Kind == session.EccentricAngle {
@@ -73,14 +83,45 @@ func bruteCutOff(t *testing.T, sim simulated, adjs []session.Adjustment, pos int
 			s := sim
 			s.dev.ValveOffsetMM += off
 			s.dev.EccentricDeg[0] += ang
-			set := s.eventsAt(t, pos)
-			if set.Front.NeverOpens || set.Back.NeverOpens || set.Front.NeverCloses || set.Back.NeverCloses {
-				continue
+			ok := true
+			for i, d := range cutDiffs(t, s, n) {
+				if math.Abs(d) > math.Abs(before[i])+0.5 {
+					ok = false
+				}
 			}
-			best = math.Min(best, math.Abs(set.Front.CutOff.StrokePercent-set.Back.CutOff.StrokePercent))
+			if ok {
+				best = math.Min(best, worstCutOff(t, s, n))
+			}
 		}
 	}
 	return best
+}
+
+// worstCutOff returns the largest cut-off difference over the first n
+// simulated positions (100 % where a port does not open or never closes).
+func worstCutOff(t *testing.T, s simulated, n int) float64 {
+	t.Helper()
+	w := 0.0
+	for _, d := range cutDiffs(t, s, n) {
+		w = math.Max(w, math.Abs(d))
+	}
+	return w
+}
+
+// cutDiffs returns the front-minus-back cut-off differences of the first n
+// simulated positions (100 % where a port does not open or never closes).
+func cutDiffs(t *testing.T, s simulated, n int) []float64 {
+	t.Helper()
+	var out []float64
+	for i := 0; i < n; i++ {
+		set := s.eventsAt(t, i)
+		if set.Front.NeverOpens || set.Back.NeverOpens || set.Front.NeverCloses || set.Back.NeverCloses {
+			out = append(out, 100)
+			continue
+		}
+		out = append(out, set.Front.CutOff.StrokePercent-set.Back.CutOff.StrokePercent)
+	}
+	return out
 }
 
 // eventsAt returns the true events in one of the three simulated
@@ -91,7 +132,7 @@ func (s simulated) eventsAt(t *testing.T, i int) setting.EventSet {
 	ds := []setting.Direction{setting.Forward, setting.Forward, setting.Backward}
 	d := s.dev
 	d.DeadCentreDeg = 0
-	m, err := Model{s.spec, d}.Motion(rs[i])
+	m, err := Model{Spec: s.spec, Dev: d}.Motion(rs[i])
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -102,32 +143,39 @@ func (s simulated) eventsAt(t *testing.T, i int) setting.EventSet {
 	return set
 }
 
-// Round trip, priority on cut-offs in the running notch: the plan's
-// cut-off difference is within 0.5 % of stroke of the best a brute-force
-// search over the allowed adjustments finds (the product's goal, issue 4).
+// Round trip, priority on cut-offs: the plan's worst cut-off difference
+// over the planned positions (the running notch first, but full forward
+// and full back not given away for it) is within 0.5 % of stroke of the
+// best a brute-force search over the allowed adjustments finds, and no
+// position is left worse by more than that (the product's goal, issues 4
+// and 11).
 func TestRoundTripCutOffs(t *testing.T) {
 	for _, kind := range gears {
 		t.Run(kind, func(t *testing.T) {
 			sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
 			adjs := []session.Adjustment{{Kind: session.ValveOnSpindle, Min: -3, Max: 3, Thread: fineThread}}
-			pos := 1 // the running notch
+			n := 3
 			if kind == setting.KindSingleEccentric {
 				adjs = testAdjustments(kind)
-				pos = 0
+				n = 1
 			}
 			p, err := Make(sim.session(t, 15, adjs), Options{Priority: EqualCutOffs})
 			if err != nil {
 				t.Fatal(err)
 			}
-			best := bruteCutOff(t, sim, adjs, pos)
-			set := sim.after(t, p.Steps).eventsAt(t, pos)
-			got := math.Abs(set.Front.CutOff.StrokePercent - set.Back.CutOff.StrokePercent)
+			best := bruteCutOff(t, sim, adjs, n)
+			after := sim.after(t, p.Steps)
+			got := worstCutOff(t, after, n)
 			if got > best+0.5 {
-				t.Errorf("cut-offs %.2f %% and %.2f %% differ by %.2f %%; the best reachable is %.2f %%", set.Front.CutOff.StrokePercent, set.Back.CutOff.StrokePercent, got, best)
+				t.Errorf("worst cut-off difference %.2f %%; the best reachable is %.2f %%", got, best)
 			}
-			b := sim.eventsAt(t, pos)
-			if was := math.Abs(b.Front.CutOff.StrokePercent - b.Back.CutOff.StrokePercent); got > was+1e-6 {
-				t.Errorf("the plan made the cut-offs worse: %.2f %% -> %.2f %%", was, got)
+			for i := 0; i < n; i++ {
+				b, a := sim.eventsAt(t, i), after.eventsAt(t, i)
+				was := math.Abs(b.Front.CutOff.StrokePercent - b.Back.CutOff.StrokePercent)
+				now := math.Abs(a.Front.CutOff.StrokePercent - a.Back.CutOff.StrokePercent)
+				if now > was+0.5 {
+					t.Errorf("position %d: the plan made the cut-offs worse: %.2f %% -> %.2f %%", i, was, now)
+				}
 			}
 		})
 	}
@@ -311,8 +359,13 @@ func TestRecheckNamesTheReading(t *testing.T) {
 		t.Fatalf("recheck: %+v", p.Recheck)
 	}
 	msg := p.fit.RecheckMessages(session.UnitMM)[0]
-	if !strings.HasPrefix(msg, "recheck: back dead centre, full forward, 0.3") || !strings.HasSuffix(msg, " mm off the fit") {
+	if !strings.HasPrefix(msg, "Take again the back dead centre, full forward: the gauge read ") || !strings.HasSuffix(msg, "It is left out of the plan until it is taken again.") {
 		t.Errorf("message %q", msg)
+	}
+	// What the others put it at is the reading as it should have been.
+	o := s.Cylinders[0].Rounds[0].DeadCentreReadings[1]
+	if got := p.Recheck[0].ExpectMM; math.Abs(got-(o.GaugeMM-0.31)) > 0.03 {
+		t.Errorf("the other readings put it at %.3f mm; knocked from %.3f", got, o.GaugeMM-0.31)
 	}
 }
 

@@ -79,7 +79,7 @@ type simulated struct {
 // reading is the gauge at true crank angle th, quantised to 0.01 mm.
 func (s simulated) reading(t testing.TB, th float64, r setting.Reverser) float64 {
 	t.Helper()
-	g, err := Model{s.spec, s.dev}.Gear()
+	g, err := Model{Spec: s.spec, Dev: s.dev}.Gear()
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -163,6 +163,17 @@ func (s simulated) after(t testing.TB, steps []Step) simulated {
 	return out
 }
 
+// afterIdeal returns the simulated engine with a plan's ideal
+// (continuous) changes made.
+func (s simulated) afterIdeal(t testing.TB, steps []Step) simulated {
+	t.Helper()
+	ideal := append([]Step(nil), steps...)
+	for i := range ideal {
+		ideal[i].Amount = ideal[i].IdealAmount
+	}
+	return s.after(t, ideal)
+}
+
 func testAdjustmentsFor(steps []Step) []session.Adjustment {
 	var out []session.Adjustment
 	for _, st := range steps {
@@ -182,7 +193,7 @@ func (s simulated) events(t testing.TB) []setting.EventSet {
 	}{{1, setting.Forward}, {0.4, setting.Forward}, {-1, setting.Backward}} {
 		d := s.dev
 		d.DeadCentreDeg = 0
-		m, err := Model{s.spec, d}.Motion(p.r)
+		m, err := Model{Spec: s.spec, Dev: d}.Motion(p.r)
 		if err != nil {
 			t.Fatal(err)
 		}

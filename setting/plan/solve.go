@@ -201,14 +201,19 @@ func handStep(a session.Adjustment) float64 {
 // its effect, combined linearly; only the final prediction of the rounded
 // plan samples the linkage afresh.
 type evaluator struct {
-	spec  setting.EngineSpec
-	crank setting.Crank
-	ps    []position
-	tr    *trig
-	tr24  *trig     // for effect curves
-	base  []curve   // per position, at the fitted deviations
-	sens  [][]curve // per position, per knob: d(curve)/d(knob); nil for the spindle
-	kEdge [2]float64
+	// spec is the engine as drawn with the steam laps as built; model the
+	// fitted model, whose unmodelled parts the curves carry.
+	spec     setting.EngineSpec
+	model    Model
+	fitRevs  []setting.Reverser // the fit's reverser positions, for q.group
+	fitShape []unmodShape       // and the shapes of their unmodelled parts
+	crank    setting.Crank
+	ps       []position
+	tr       *trig
+	tr24     *trig     // for effect curves
+	base     []curve   // per position, at the fitted deviations
+	sens     [][]curve // per position, per knob: d(curve)/d(knob); nil for the spindle
+	kEdge    [2]float64
 }
 
 // newEvaluator prepares an evaluator for an engine and positions.
@@ -221,10 +226,17 @@ func newEvaluator(spec setting.EngineSpec, crank setting.Crank, ps []position) *
 	return ev
 }
 
-// curvesAt samples the valve curve (valve offset included) of every
-// position at deviations p.
+// curvesAt samples the valve curve (valve offset and unmodelled part
+// included) of every position at deviations p.
 func (ev *evaluator) curvesAt(p [numParams]float64) ([]curve, error) {
-	return gearCurves(ev.spec, p, ev.revs(), ev.tr, true)
+	cs, err := gearCurves(ev.spec, p, ev.revs(), ev.tr, true)
+	if err != nil {
+		return nil, err
+	}
+	for i := range cs {
+		cs[i] = ev.model.corrected(cs[i], ev.ps[i].notch.Reverser)
+	}
+	return cs, nil
 }
 
 // revs returns the reverser position of each planned position.
@@ -280,21 +292,6 @@ func (ev *evaluator) setKnobs(p [numParams]float64, ks []knob, fit *Fit) error {
 		}
 	}
 	return nil
-}
-
-// surrogate returns the curves with knob changes a.
-func (ev *evaluator) surrogate(ks []knob, a []float64) []curve {
-	out := make([]curve, len(ev.ps))
-	for i := range ev.ps {
-		shift := 0.0
-		for k, kb := range ks {
-			if kb.p == pValveOffset {
-				shift += a[k]
-			}
-		}
-		out[i] = combine(ev.base[i], ev.sens[i], a, shift)
-	}
-	return out
 }
 
 // quick updates leads and cut-offs for new curves from the events of
@@ -381,6 +378,14 @@ func (ev *evaluator) knobGrad(q *quantities, c curve, i int, ks []knob) {
 	if ks == nil {
 		return
 	}
+	ev.gradFrom(q, c, ev.sens[i], ks)
+}
+
+// gradFrom fills the knobs' gradients of a position's quantities on curve
+// c from the knobs' effect curves there (nil for the valve on its
+// spindle, which moves the valve alike all round; a knob with no effect
+// curve and another kind is left alone).
+func (ev *evaluator) gradFrom(q *quantities, c curve, sens []curve, ks []knob) {
 	var slope, dpct [2]float64
 	const ht = 1e-3
 	for k := 0; k < 2; k++ {
@@ -393,7 +398,10 @@ func (ev *evaluator) knobGrad(q *quantities, c curve, i int, ks []knob) {
 		if kb.p == pValveOffset {
 			dx = [4]float64{1, 1, 1, 1}
 		} else {
-			d := ev.sens[i][kk]
+			d := sens[kk]
+			if d == nil {
+				continue
+			}
 			dx = [4]float64{d.value(q.leadTheta[0]), d.value(q.leadTheta[1]), d.value(q.cutTheta[0]), d.value(q.cutTheta[1])}
 		}
 		q.grad[0][kb.p] = ev.kEdge[0] * dx[0]
@@ -408,11 +416,16 @@ func (ev *evaluator) knobGrad(q *quantities, c curve, i int, ks []knob) {
 
 // quantities are the four numbers a plan balances per position.
 type quantities struct {
-	ev        setting.EventSet
-	lead      [2]float64 // front, back, mm
-	cut       [2]float64 // front, back, % of stroke
-	cutOK     bool
-	grad      [4][numParams]float64 // d(lead f, lead b, cut f, cut b)/d(param)
+	ev    setting.EventSet
+	lead  [2]float64 // front, back, mm
+	cut   [2]float64 // front, back, % of stroke
+	cutOK bool
+	grad  [4][numParams]float64 // d(lead f, lead b, cut f, cut b)/d(param)
+	// cg is the same by the coefficients of the position's unmodelled
+	// part (see Unmodelled), whose place among the fit's is group (an
+	// index into Fit.revs; -1 when the readings did not cover it).
+	cg        [4][5]float64
+	group     int
 	cutTheta  [2]float64
 	leadTheta [2]float64
 }
@@ -441,7 +454,7 @@ func gradParams() []param {
 // -(dx/dp)/(dx/dtheta) at the cut-off.
 func (ev *evaluator) gradients(p [numParams]float64, r setting.Reverser, q *quantities) error {
 	e := ev.spec.Engine
-	base, err := Model{ev.spec, devOf(p)}.Gear()
+	base, err := Model{Spec: ev.spec, Dev: devOf(p)}.Gear()
 	if err != nil {
 		return err
 	}
@@ -455,6 +468,7 @@ func (ev *evaluator) gradients(p [numParams]float64, r setting.Reverser, q *quan
 	var slope [2]float64 // dx/dtheta at the cut-offs, mm per degree
 	var dpct [2]float64  // d(percent)/dtheta at the cut-offs
 	const ht = 1e-3
+	u := ev.model.correction(r)
 	for k := 0; k < 2; k++ {
 		a, err1 := base.Valve(e, thetas[2+k]+ht, r)
 		b, err2 := base.Valve(e, thetas[2+k]-ht, r)
@@ -462,6 +476,10 @@ func (ev *evaluator) gradients(p [numParams]float64, r setting.Reverser, q *quan
 			return err
 		}
 		slope[k] = (a - b) / (2 * ht)
+		if u != nil {
+			_, du := u.at(thetas[2+k])
+			slope[k] += du
+		}
 		end := setting.CylinderEnd(k)
 		dpct[k] = 100 * (ev.crank.TravelFrom(end, thetas[2+k]+ht) - ev.crank.TravelFrom(end, thetas[2+k]-ht)) / (2 * ht)
 	}
@@ -478,7 +496,7 @@ func (ev *evaluator) gradients(p [numParams]float64, r setting.Reverser, q *quan
 			qp := p
 			h := stepOf(j)
 			qp[j] += h
-			g, err := Model{ev.spec, devOf(qp)}.Gear()
+			g, err := Model{Spec: ev.spec, Dev: devOf(qp)}.Gear()
 			if err != nil {
 				return err
 			}
@@ -498,6 +516,33 @@ func (ev *evaluator) gradients(p [numParams]float64, r setting.Reverser, q *quan
 			}
 		}
 	}
+	// The steam laps: more lap, less lead and an earlier cut-off at that
+	// end; the unmodelled part of this position's curve acts as a valve
+	// displacement that varies round the turn.
+	for k, j := range []param{pLapFront, pLapBack} {
+		q.grad[k][j] = -1
+		if q.cutOK && slope[k] != 0 {
+			q.grad[2+k][j] = dpct[k] / (kEdge[k] * slope[k])
+		}
+	}
+	q.group = -1
+	for g, rg := range ev.fitRevs {
+		if rg == r {
+			q.group = g
+		}
+	}
+	if q.group >= 0 && q.group < len(ev.fitShape) {
+		sh := ev.fitShape[q.group]
+		for k := 0; k < 2; k++ {
+			bl, bc := sh.at(thetas[k]), sh.at(thetas[2+k])
+			for m := 0; m < 5; m++ {
+				q.cg[k][m] = kEdge[k] * bl[m]
+				if q.cutOK && slope[k] != 0 {
+					q.cg[2+k][m] = -bc[m] / slope[k] * dpct[k]
+				}
+			}
+		}
+	}
 	return nil
 }
 
@@ -507,6 +552,29 @@ func (ev *evaluator) gradients(p [numParams]float64, r setting.Reverser, q *quan
 // act alike (a Stephenson spindle and both rods together) the plan takes
 // the smallest changes, and that choice does not swing with the readings.
 const changeWeight = 0.02
+
+// effectDoubt is how far the predicted effect of a change may be off, as
+// a share of it: the drawing's dimensions are not the engine's, and a
+// model the readings bent to fit moves events a few per cent otherwise
+// than the engine (common practice, no source). The solver prices each
+// knob's change by it (see ridge), so that it never buys a small gain
+// with large changes that cancel one another: their errors would not.
+const effectDoubt = 0.05
+
+// ridge returns, per knob, what the solver adds to the diagonal of its
+// normal equations: the small change weight, and the doubt of the knob's
+// effect on every term (effectDoubt times its gradient, squared).
+func ridge(ks []knob, ts []term, q []quantities) []float64 {
+	out := make([]float64, len(ks))
+	for i, k := range ks {
+		s := 0.0
+		for _, t := range ts {
+			s += sq(t.grad(q, k.p))
+		}
+		out[i] = sq(changeWeight/k.scale) + sq(effectDoubt)*s + 1e-12
+	}
+	return out
+}
 
 // objective is what the solver drives to zero: weighted terms per
 // position.
@@ -521,12 +589,20 @@ type objective struct {
 	// wLead and wCut weigh each position's differences by how well the
 	// readings know them (see weighing); nil weighs all alike.
 	wLead, wCut []float64
+	// cutLost marks the positions where a port does not open or never
+	// closes today: their cut-offs cannot guide a change.
+	cutLost []bool
 	// mean marks the positions whose mean lead the plan holds: at the
 	// target in full gear when one is set, else at the drawing's. Only
 	// an eccentric sheave moves the mean lead, so it is held only where
 	// sheaves may be turned (see sheavePolicy).
 	mean []bool
 }
+
+// otherNotchCut weighs the cut-off difference of a position other than
+// the running notch when the plan makes cut-offs equal: the running notch
+// first, but full forward and full back are not given away for it.
+const otherNotchCut = 0.85
 
 // term is one weighted residual: coefficients on the four quantities of a
 // position, plus a constant.
@@ -560,11 +636,18 @@ func (o objective) terms(n int) []term {
 		if i < len(o.wLead) {
 			pl, pc = o.wLead[i], o.wCut[i]
 		}
-		ts = append(ts, term{pos: i, coef: [4]float64{1, -1, 0, 0}, scale: sl, w: wl * pl, what: "lead"})
+		lw := wl
 		cw := wc
 		if o.prio == EqualCutOffs && i != o.running {
-			cw = 1e-2
+			cw = otherNotchCut
 		}
+		if i < len(o.cutLost) && o.cutLost[i] && o.prio != EqualLeads {
+			// A port that does not open (or never closes) has no
+			// cut-off to move: its leads say which way the valve must
+			// go until it has.
+			lw = math.Max(lw, cw)
+		}
+		ts = append(ts, term{pos: i, coef: [4]float64{1, -1, 0, 0}, scale: sl, w: lw * pl, what: "lead"})
 		ts = append(ts, term{pos: i, coef: [4]float64{0, 0, 1, -1}, scale: sc, w: cw * pc, what: "cut"})
 		if i >= len(o.mean) || !o.mean[i] {
 			continue
@@ -607,120 +690,4 @@ func sumSquares(ts []term, q []quantities) float64 {
 		s += sq(t.value(q))
 	}
 	return s
-}
-
-// optimise finds the changes of the knobs in set (in their units; the
-// others stay at zero) that minimise the objective from parameters p
-// (whose curves setKnobs has sampled), within the knobs' limits, by
-// bounded Gauss-Newton on the events' implicit-function gradients, the
-// events found afresh on the sampled curves at each step (so a port that
-// opens or closes on the way is seen). It starts from start (within the
-// limits, zero outside set) when that is better than no change.
-func (ev *evaluator) optimise(p [numParams]float64, ks []knob, ts []term, qNow []quantities, set []bool, start []float64) ([]float64, []quantities, error) {
-	n := len(ks)
-	a := make([]float64, n)
-	qs := append([]quantities(nil), qNow...)
-	for i := range qs {
-		ev.knobGrad(&qs[i], ev.base[i], i, ks)
-	}
-	if n == 0 {
-		return a, qs, nil
-	}
-	reg := changeWeight
-	cost := func(a []float64, qs []quantities) float64 {
-		c := sumSquares(ts, qs)
-		for i, k := range ks {
-			c += sq(reg * a[i] / k.scale)
-		}
-		return c
-	}
-	c := cost(a, qs)
-	if start != nil {
-		if q0, err := ev.quick(ev.surrogate(ks, start), qs, ks); err == nil {
-			if c0 := cost(start, q0); c0 < c {
-				a, qs, c = append([]float64(nil), start...), q0, c0
-			}
-		}
-	}
-	free := make([]bool, n)
-	for it := 0; it < 12; it++ {
-		for i, k := range ks {
-			free[i] = true
-			if (a[i] <= k.adj.Min && k.adj.Min < 0) || (a[i] >= k.adj.Max && k.adj.Max > 0) {
-				// stays on its bound unless the gradient pulls it inward
-				free[i] = false
-			}
-			if (k.adj.Min == 0 && k.adj.Max == 0) || !set[i] {
-				free[i] = false
-			}
-		}
-		A := newSym(n)
-		g := make([]float64, n)
-		for _, t := range ts {
-			v := t.value(qs)
-			row := make([]float64, n)
-			for i, k := range ks {
-				row[i] = t.grad(qs, k.p)
-			}
-			for i := 0; i < n; i++ {
-				g[i] -= row[i] * v
-				for j := 0; j < n; j++ {
-					A.add(i, j, row[i]*row[j])
-				}
-			}
-		}
-		for i, k := range ks {
-			A.add(i, i, sq(reg/k.scale)+1e-12)
-			g[i] -= sq(reg/k.scale) * a[i]
-		}
-		// Release a bound whose gradient pulls inward.
-		for i, k := range ks {
-			if !free[i] && set[i] && ((a[i] >= k.adj.Max && g[i] < 0) || (a[i] <= k.adj.Min && g[i] > 0)) && !(k.adj.Min == 0 && k.adj.Max == 0) {
-				free[i] = true
-			}
-		}
-		for i := range ks {
-			if !free[i] {
-				for j := 0; j < n; j++ {
-					A.a[i*n+j], A.a[j*n+i] = 0, 0
-				}
-				A.a[i*n+i], g[i] = 1, 0
-			}
-		}
-		d, ok := A.solve(g)
-		if !ok {
-			break
-		}
-		improved := false
-		for tries := 0; tries < 8; tries++ {
-			b := make([]float64, n)
-			for i, k := range ks {
-				b[i] = math.Max(k.adj.Min, math.Min(k.adj.Max, a[i]+d[i]))
-			}
-			q2, err := ev.quick(ev.surrogate(ks, b), qs, ks)
-			if err == nil {
-				if c2 := cost(b, q2); c2 < c {
-					small := true
-					for i, k := range ks {
-						if math.Abs(b[i]-a[i]) > 1e-4*k.step {
-							small = false
-						}
-					}
-					a, qs, c = b, q2, c2
-					improved = true
-					if small {
-						return a, qs, nil
-					}
-					break
-				}
-			}
-			for i := range d {
-				d[i] /= 2
-			}
-		}
-		if !improved {
-			break
-		}
-	}
-	return a, qs, nil
 }

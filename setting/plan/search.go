@@ -1,0 +1,444 @@
+package plan
+
+import (
+	"math"
+	"sort"
+)
+
+// choice is the plan chosen for one priority.
+type choice struct {
+	ideal   []float64 // the ideal changes of the chosen knobs, found on the linkage itself
+	rounded []float64
+	qAft    []quantities // exact: the linkage solved afresh with the rounded changes
+	set     []int        // knobs with a step
+}
+
+// option is one set of knobs with its continuous changes, judged on the
+// linear model about today.
+type option struct {
+	set     []int
+	a       []float64
+	measure float64
+	effort  float64
+	worse   bool
+}
+
+// choose finds the plan that comes closest to the priority's goal in the
+// fewest and smallest steps hands can make, leaving no position worse
+// than today by more than the readings can tell.
+//
+//  1. Every set of the usable knobs is solved on the linear model about
+//     today (least squares with the ridge of effectDoubt, so that knobs
+//     acting alike do not trade large changes), then its worst term
+//     brought down by reweighting the terms toward the largest (Lawson's
+//     rule): the setter sees the worst position, not the sum of squares.
+//  2. The sets are ranked: those that leave nothing worse and come within
+//     the goal's slack of the best, fewest knobs first, then the smallest
+//     changes; then the others that leave nothing worse, closest first.
+//  3. In that order (at most three), a set's changes are polished on the
+//     linkage itself (Gauss-Newton, the curves sampled afresh at each
+//     step: the ideal changes a plan reports hold on the gear, not only on
+//     its linearisation), rounded to whole steps of each adjuster either
+//     side, and the roundings judged on the linkage solved afresh. The
+//     first set whose best rounding leaves nothing worse and comes within
+//     the slack of the best rounding found is taken.
+//
+// No change is the answer only when no rounding gains more than half a
+// division (or the fine tolerance) without leaving a position worse.
+func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []quantities, g goal, usable []bool) (*choice, error) {
+	n := len(ks)
+	var idx []int
+	for k := range ks {
+		if usable[k] {
+			idx = append(idx, k)
+		}
+	}
+	if len(idx) > 7 {
+		idx = idx[:7]
+	}
+	zero := make([]float64, n)
+	none := &choice{rounded: zero, ideal: zero, qAft: qNow}
+	zeroM := measure(ts, qNow)
+	// Where a port does not open today the linear model cannot see a
+	// cut-off come back: only the linkage can judge such plans.
+	blind := false
+	for _, t := range ts {
+		if t.what == "cut" && t.w >= 0.05 && !qNow[t.pos].cutOK {
+			blind = true
+		}
+	}
+	rd := ridge(ks, ts, qNow)
+	lin := make([]quantities, len(qNow))
+	var opts []option
+	for mask := 1; mask < 1<<len(idx); mask++ {
+		var set []int
+		for b, k := range idx {
+			if mask>>b&1 != 0 {
+				set = append(set, k)
+			}
+		}
+		a := minimaxIdeal(ks, ts, qNow, set, rd, lin, g)
+		linearAt(qNow, ks, a, lin)
+		o := option{set: set, a: a, measure: measure(ts, lin), worse: g.worse(qNow, lin, ts)}
+		for _, k := range set {
+			o.effort += math.Abs(a[k]) / ks[k].scale
+		}
+		opts = append(opts, o)
+	}
+	best := zeroM
+	for _, o := range opts {
+		if !o.worse {
+			best = math.Min(best, o.measure)
+		}
+	}
+	tier := func(o option) int {
+		switch {
+		case o.worse:
+			return 2
+		case o.measure <= best+g.slack:
+			return 0
+		}
+		return 1
+	}
+	sort.SliceStable(opts, func(i, j int) bool {
+		a, b := opts[i], opts[j]
+		if ta, tb := tier(a), tier(b); ta != tb {
+			return ta < tb
+		}
+		if tier(a) == 0 {
+			if len(a.set) != len(b.set) {
+				return len(a.set) < len(b.set)
+			}
+			return a.effort < b.effort
+		}
+		return a.measure < b.measure
+	})
+	// Exact judgement, in the ranked order.
+	type judged struct {
+		c       *choice
+		measure float64
+	}
+	var found []judged
+	tried := 0
+	for _, o := range opts {
+		if o.worse || tried >= 6 || len(found) >= 2 {
+			break
+		}
+		if o.measure >= zeroM-g.fine && !blind {
+			continue // gains nothing the setter could see
+		}
+		tried++
+		c, m, ok := ev.roundBest(p, ks, ts, qNow, g, o)
+		if !ok || m >= zeroM-g.fine {
+			continue
+		}
+		found = append(found, judged{c, m})
+	}
+	if len(found) == 0 {
+		return none, nil
+	}
+	bestR := math.Inf(1)
+	for _, f := range found {
+		bestR = math.Min(bestR, f.measure)
+	}
+	for _, f := range found {
+		if f.measure <= bestR+g.slack {
+			return f.c, nil
+		}
+	}
+	return found[0].c, nil
+}
+
+// minimaxIdeal solves the knobs in set on the linear model (see
+// weightedIdeal), then reweights the terms a few times: toward the largest
+// residuals (Lawson's rule for the smallest largest residual), and tenfold
+// on any position the changes would leave worse than today (see
+// goal.worse), so that the answer keeps to what the setter has. It keeps
+// the changes whose worst term is least among those that leave nothing
+// worse (or the last, when none). lin is scratch space.
+func minimaxIdeal(ks []knob, ts []term, qNow []quantities, set []int, rd []float64, lin []quantities, g goal) []float64 {
+	a := weightedIdeal(ks, ts, qNow, set, nil, rd)
+	linearAt(qNow, ks, a, lin)
+	bestA, bestM := a, math.Inf(1)
+	if !g.worse(qNow, lin, ts) {
+		bestM = measure(ts, lin)
+	}
+	tw := make([]float64, len(ts))
+	for i := range tw {
+		tw[i] = 1
+	}
+	hold := make([]float64, len(ts)) // the tenfold weights of positions kept from getting worse
+	for i := range hold {
+		hold[i] = 1
+	}
+	for it := 0; it < 10; it++ {
+		s := 0.0
+		for ti, t := range ts {
+			tw[ti] *= math.Abs(t.value(lin)) + 1e-6
+			s += tw[ti]
+		}
+		if !(s > 0) {
+			break
+		}
+		for ti, t := range ts {
+			if g.diffTerm(t) && g.worseAt(qNow, lin, t.pos) {
+				hold[ti] *= 10
+			}
+		}
+		w := make([]float64, len(tw))
+		for ti := range tw {
+			tw[ti] = tw[ti]/s*float64(len(tw)) + 1e-9
+			w[ti] = tw[ti] * hold[ti]
+		}
+		a = weightedIdeal(ks, ts, qNow, set, w, rd)
+		linearAt(qNow, ks, a, lin)
+		if g.worse(qNow, lin, ts) {
+			continue
+		}
+		if m := measure(ts, lin); m < bestM-1e-9 {
+			bestA, bestM = a, m
+		}
+	}
+	if math.IsInf(bestM, 1) {
+		return a
+	}
+	return bestA
+}
+
+// roundBest polishes option o's changes on the linkage itself, rounds them
+// to whole steps and judges the roundings on the linkage solved afresh;
+// it returns the best rounding that leaves nothing worse, with its
+// measure.
+func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow []quantities, g goal, o option) (*choice, float64, bool) {
+	ideal, qI := ev.polish(p, ks, ts, qNow, o.set, o.a)
+	n := len(ks)
+	lin := make([]quantities, len(qNow))
+	linAbout := func(a []float64) float64 {
+		for i := range qI {
+			q := &lin[i]
+			*q = qI[i]
+			for _, k := range o.set {
+				d := a[k] - ideal[k]
+				for e := 0; e < 2; e++ {
+					q.lead[e] += qI[i].grad[e][ks[k].p] * d
+					q.cut[e] += qI[i].grad[2+e][ks[k].p] * d
+				}
+			}
+		}
+		m := measure(ts, lin)
+		if g.worse(qNow, lin, ts) {
+			m += 1e6
+		}
+		return m
+	}
+	type local struct {
+		a []float64
+		m float64
+	}
+	near := make([][2]float64, len(o.set))
+	for j, k := range o.set {
+		near[j] = roundedNear(ideal[k], ks[k].step, ks[k].adj.Min, ks[k].adj.Max)
+	}
+	var cands []local
+	for combo := 0; combo < 1<<len(o.set); combo++ {
+		a := make([]float64, n)
+		for j, k := range o.set {
+			a[k] = near[j][combo>>j&1]
+		}
+		cands = append(cands, local{a, linAbout(a)})
+	}
+	sort.Slice(cands, func(i, j int) bool { return cands[i].m < cands[j].m })
+	// A step either way on one knob or two together, while that helps on
+	// the linear model: coarse steps on one adjuster can be made up by
+	// another.
+	cur := cands[0]
+	for it := 0; it < 20; it++ {
+		moved := false
+		try := func(a []float64) {
+			for _, k := range o.set {
+				if a[k] < ks[k].adj.Min-1e-9 || a[k] > ks[k].adj.Max+1e-9 {
+					return
+				}
+			}
+			if m := linAbout(a); m < cur.m-1e-9 {
+				cur, moved = local{a, m}, true
+			}
+		}
+		for x, k := range o.set {
+			for _, dir := range []float64{-1, 1} {
+				a := append([]float64(nil), cur.a...)
+				a[k] += dir * ks[k].step
+				try(a)
+				for _, k2 := range o.set[x+1:] {
+					for _, dir2 := range []float64{-1, 1} {
+						b := append([]float64(nil), a...)
+						b[k2] += dir2 * ks[k2].step
+						try(b)
+					}
+				}
+			}
+		}
+		if !moved {
+			break
+		}
+	}
+	cands = append([]local{cur}, cands...)
+	var bestC *choice
+	bestM := math.Inf(1)
+	seen := map[[8]int32]bool{}
+	judged := 0
+	for _, c := range cands {
+		if judged >= 4 {
+			break
+		}
+		var key [8]int32
+		steps := 0
+		for j, k := range o.set {
+			if j < len(key) {
+				key[j] = int32(math.Round(c.a[k] / ks[k].step))
+			}
+			if math.Abs(c.a[k]) < 1e-12 {
+				c.a[k] = 0
+			} else {
+				steps++
+			}
+		}
+		if seen[key] || steps == 0 {
+			continue
+		}
+		seen[key] = true
+		judged++
+		cs, err := ev.curvesAt(applyKnobs(p, ks, c.a))
+		if err != nil {
+			continue
+		}
+		q, err := ev.quick(cs, qNow, nil)
+		if err != nil || g.worse(qNow, q, ts) {
+			continue
+		}
+		m := measure(ts, q)
+		if m < bestM {
+			full, err := ev.eventsOf(cs, nil)
+			if err != nil {
+				continue
+			}
+			for i := range full {
+				full[i].grad, full[i].cg, full[i].group = qNow[i].grad, qNow[i].cg, qNow[i].group
+			}
+			ch := &choice{ideal: ideal, rounded: c.a, qAft: full}
+			for k, v := range c.a {
+				if v != 0 {
+					ch.set = append(ch.set, k)
+				}
+			}
+			bestC, bestM = ch, m
+		}
+	}
+	return bestC, bestM, bestC != nil
+}
+
+// polish solves the knobs in set on the linkage itself, from the linear
+// model's changes a0: Gauss-Newton on the objective with the ridge, each
+// step's events and gradients found on the curves sampled afresh where
+// the changes have got to, within the knobs' limits, halving a step that
+// does not lower the sum. It returns the changes and the events there,
+// with the knobs' gradients.
+func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []quantities, set []int, a0 []float64) ([]float64, []quantities) {
+	rd := ridge(ks, ts, qNow)
+	revs := ev.revs()
+	at := func(a []float64) ([]quantities, float64, bool) {
+		pa := applyKnobs(p, ks, a)
+		raw, err := gearCurves(ev.spec, pa, revs, ev.tr, true)
+		if err != nil {
+			return nil, 0, false
+		}
+		cs := make([]curve, len(raw))
+		for i := range raw {
+			cs[i] = ev.model.corrected(raw[i], ev.ps[i].notch.Reverser)
+		}
+		q, err := ev.quick(cs, qNow, nil)
+		if err != nil {
+			return nil, 0, false
+		}
+		// The set's gradients there, from effect curves sampled there.
+		for _, k := range set {
+			var d []curve
+			if ks[k].p != pValveOffset {
+				if d, err = effect(ev.spec, pa, revs, ev.tr24, ks[k].p, 0.1*ks[k].scale, raw, true); err != nil {
+					return nil, 0, false
+				}
+			}
+			for i := range q {
+				var di curve
+				if d != nil {
+					di = d[i]
+				}
+				ev.gradOne(&q[i], cs[i], di, ks[k])
+			}
+		}
+		c := sumSquares(ts, q)
+		for _, k := range set {
+			c += rd[k] * sq(a[k])
+		}
+		return q, c, true
+	}
+	a := append([]float64(nil), a0...)
+	q, c, ok := at(a)
+	if !ok {
+		linear := make([]quantities, len(qNow))
+		linearAt(qNow, ks, a, linear)
+		return a, linear
+	}
+	for it := 0; it < 4; it++ {
+		m := len(set)
+		A := newSym(m)
+		gr := make([]float64, m)
+		for _, t := range ts {
+			v := t.value(q)
+			for r, k := range set {
+				gk := t.grad(q, ks[k].p)
+				gr[r] -= gk * v
+				for s2, k2 := range set {
+					A.add(r, s2, gk*t.grad(q, ks[k2].p))
+				}
+			}
+		}
+		for r, k := range set {
+			A.add(r, r, rd[k])
+			gr[r] -= rd[k] * a[k]
+		}
+		d, solved := A.solve(gr)
+		if !solved {
+			break
+		}
+		moved := false
+		for scale := 1.0; scale > 0.1; scale /= 2 {
+			b := append([]float64(nil), a...)
+			for r, k := range set {
+				b[k] = math.Max(ks[k].adj.Min, math.Min(ks[k].adj.Max, a[k]+scale*d[r]))
+			}
+			qb, cb, ok := at(b)
+			if ok && cb < c {
+				a, q, c, moved = b, qb, cb, true
+				break
+			}
+		}
+		small := true
+		for r, k := range set {
+			if math.Abs(d[r]) > 1e-3*ks[k].step {
+				small = false
+			}
+		}
+		if !moved || small {
+			break
+		}
+	}
+	return a, q
+}
+
+// gradOne fills one knob's gradients of a position's quantities on curve
+// c from its effect curve d (nil for the valve on its spindle).
+func (ev *evaluator) gradOne(q *quantities, c curve, d curve, kb knob) {
+	sens := []curve{d}
+	ev.gradFrom(q, c, sens, []knob{kb})
+}

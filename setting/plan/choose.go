@@ -141,7 +141,7 @@ func (ev *evaluator) weighing(obj *objective, qNow []quantities, fit *Fit) goal 
 	switch g.prio {
 	case EqualCutOffs:
 		g.res = cutTolPct
-		g.slack, g.fine = 0.5/0.1, cutTolPct/2/0.1
+		g.slack, g.fine = cutTolPct/0.1, cutTolPct/2/0.1
 	case Balanced:
 		g.slack, g.fine = known/0.05, res/2/0.05
 	default:

@@ -110,6 +110,11 @@ func scaleOf(spec setting.EngineSpec) float64 {
 // throw move a 5 in gauge valve by a few tenths of a millimetre at most).
 const unmodelledPrior = 0.3
 
+// suspectFloor is how far (mm, at 5 in gauge scale) the gear's unmodelled
+// errors may put a reading from what the fitted deviations alone predict
+// before it counts against the reading (see suspect).
+const suspectFloor = 0.15
+
 // roundObservations picks the observations of round number round (from
 // 1; 0 for the latest) of cylinder cyl.
 func roundObservations(s *session.Session, cyl, round int) ([]session.Observation, error) {
@@ -824,23 +829,40 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 		s0.p = pb.mean
 	}
 	f := &Fit{obs: obs}
-	s, err := pb.fitOuter(s0)
+	// First the gear's own deviations alone, where the readings check one
+	// another through the linkage: a reading they contradict is named and
+	// left out (up to two). Then the unmodelled parts, so that the model
+	// follows what was measured.
+	nc := pb.cN
+	pb.cN = make([]int, len(pb.revs))
+	sA, err := pb.fitOuter(state{p: s0.p})
 	if err != nil {
 		return nil, err
 	}
-	// Recheck: a reading the others contradict, left out and the fit made
-	// again (up to two).
 	if !opt.NoRecheck {
-		for round := 0; round < 2; round++ {
-			worst, ok := pb.suspect(s, k)
-			if !ok {
-				break
+		if cands := pb.suspects(sA, k, suspectFloor); len(cands) > 0 {
+			if named, q, ok := pb.confirm(sA, cands, k, suspectFloor); ok {
+				f.expect = append(f.expect, named...)
+				sA = q
 			}
-			pb.use[worst.i] = false
-			f.expect = append(f.expect, worst)
+		}
+	}
+	pb.cN = nc
+	if len(f.expect) > 0 {
+		pb.setUnmodelled(k)
+	}
+	s, err := pb.fitOuter(state{p: sA.p, c: make([]float64, pb.nc())})
+	if err != nil {
+		return nil, err
+	}
+	// With the unmodelled parts a sweep's readings check one another
+	// closely: a knocked reading among them stands out there.
+	if !opt.NoRecheck && len(f.expect) == 0 {
+		if cands := pb.suspects(s, k, 0); len(cands) > 0 && cands[0].t > 5 && (len(cands) == 1 || cands[0].t > 2*cands[1].t) {
+			pb.use[cands[0].i] = false
+			f.expect = append(f.expect, cands[0])
 			pb.setUnmodelled(k)
-			s.c = make([]float64, pb.nc())
-			if s, err = pb.fitOuter(s); err != nil {
+			if s, err = pb.fitOuter(state{p: s.p, c: make([]float64, pb.nc())}); err != nil {
 				return nil, err
 			}
 		}
@@ -898,33 +920,36 @@ type expected struct {
 	i      int
 	expect float64 // the reading the fit without it predicts, mm (normalised gauge, or the kind's own terms)
 	t      float64 // how many standard deviations it lies off
+	// with is the index of another reading that could as well be the one
+	// at fault (the readings cannot tell which), or -1.
+	with int
 }
 
-// suspect returns the used reading that the others contradict most, when
-// it does so clearly: its deleted residual (the reading less what the fit
-// without it predicts, r/(1-h) with h its leverage) lies more than five
-// standard deviations of that difference away (the unmodelled part's
-// prior among them, so a misfit the gear's own errors can explain is not
-// named), and more than 0.15 mm (scaled with the crank), and more than
-// twice as far as any other. A reading the others cannot check (leverage near
-// one: nothing else measures what it does) is never named.
-func (pb *problem) suspect(s state, k float64) (expected, bool) {
+// suspects returns the used readings the others contradict, most first
+// (at most three): those whose deleted residual (the reading less what
+// the fit without it predicts, r/(1-h) with h its leverage, linearised)
+// lies more than three standard deviations of that difference away and
+// more than 0.15 mm (scaled with the crank). floor (mm at 5 in gauge
+// scale) is how far the gear's unmodelled errors may put a reading from
+// the fit before it counts against it. A reading the others cannot check
+// (leverage near one: nothing else measures what it does) is never
+// named.
+func (pb *problem) suspects(s state, k, floor float64) []expected {
 	n := pb.nUsed()
 	if n < 4 {
-		return expected{}, false
+		return nil
 	}
 	r := make([]float64, n)
 	if pb.eval(s, r) != nil {
-		return expected{}, false
+		return nil
 	}
 	A, _ := pb.normal(s, r)
 	inv, ok := A.inverse()
 	if !ok {
-		return expected{}, false
+		return nil
 	}
-	m := pb.width(s)
-	row := make([]float64, m)
-	best, second := expected{i: -1}, 0.0
+	row := make([]float64, pb.width(s))
+	var out []expected
 	kk := 0
 	for i := range pb.obs {
 		if !pb.use[i] {
@@ -932,33 +957,92 @@ func (pb *problem) suspect(s state, k float64) (expected, bool) {
 		}
 		pb.row(i, s, row)
 		v := inv.quad(row)
-		w := 1 / sq(pb.sig[i])
-		h := w * v
+		h := v / sq(pb.sig[i])
 		ri := r[kk]
 		kk++
 		if h > 0.98 {
 			continue
 		}
 		e := ri / (1 - h)
-		sd := math.Sqrt(sq(pb.sig[i]) + v/(1-h))
-		t := math.Abs(e) / sd
-		if math.Abs(e) < 0.15*k {
-			t = math.Min(t, 1)
-		}
-		switch {
-		case t > best.t:
-			second = best.t
-			best = expected{i: i, expect: Target(pb.obs[i]) + e, t: t}
-		case t > second:
-			second = t
+		sd := math.Sqrt(sq(pb.sig[i]) + v/(1-h) + sq(floor*k))
+		if t := math.Abs(e) / sd; t > 3 && math.Abs(e) > 0.15*k {
+			out = append(out, expected{i: i, expect: Target(pb.obs[i]) + e, t: t, with: -1})
 		}
 	}
-	if best.i < 0 || best.t < 5 || best.t < 2*second {
-		return expected{}, false
+	sort.Slice(out, func(a, b int) bool { return out[a].t > out[b].t })
+	if len(out) > 3 {
+		out = out[:3]
 	}
-	// What the others put it at: the reading less its deleted residual
-	// (prediction - target = r, so the reading "should" be target + e).
-	return best, true
+	return out
+}
+
+// confirm fits again without each suspect (see suspects) and names the
+// one whose leaving out makes the rest agree (every residual within three
+// standard deviations, floor among them) while leaving out any other does
+// not; what the fit without it predicts is what the others put it at.
+// When two such readings would each explain the rest, both are named as
+// one of a pair. It returns the fit without the named readings.
+func (pb *problem) confirm(s state, cands []expected, k, floor float64) ([]expected, state, bool) {
+	type try struct {
+		e      expected
+		s      state
+		agrees bool
+		worst  float64
+	}
+	var tries []try
+	for _, c := range cands {
+		pb.use[c.i] = false
+		q, err := pb.fitOuter(s)
+		if err == nil {
+			o := pb.obs[c.i]
+			pred := pb.predictS(c.i, q)
+			sd := math.Hypot(pb.sig[c.i], floor*k)
+			worst := pb.worstResidual(q, k, floor)
+			tries = append(tries, try{expected{i: c.i, expect: pred, t: math.Abs(Target(o)-pred) / sd, with: -1}, q, worst < 3, worst})
+		}
+		pb.use[c.i] = true
+	}
+	var good []try
+	for _, t := range tries {
+		if t.agrees && t.e.t > 4 && math.Abs(Target(pb.obs[t.e.i])-t.e.expect) > 0.15*k {
+			good = append(good, t)
+		}
+	}
+	switch len(good) {
+	case 0:
+		return nil, s, false
+	case 1:
+		pb.use[good[0].e.i] = false
+		return []expected{good[0].e}, good[0].s, true
+	}
+	// Two readings either of which explains the rest: name both and
+	// leave both out.
+	a, b := good[0].e, good[1].e
+	a.with, b.with = b.i, a.i
+	pb.use[a.i], pb.use[b.i] = false, false
+	q, err := pb.fitOuter(good[0].s)
+	if err != nil {
+		q = good[0].s
+	}
+	return []expected{a, b}, q, true
+}
+
+// worstResidual returns the largest residual of the used readings at s in
+// standard deviations (each reading's own, with floor for the gear's
+// unmodelled errors).
+func (pb *problem) worstResidual(s state, k, floor float64) float64 {
+	r := make([]float64, pb.nUsed())
+	if pb.eval(s, r) != nil {
+		return math.Inf(1)
+	}
+	w, kk := 0.0, 0
+	for i := range pb.obs {
+		if pb.use[i] {
+			w = math.Max(w, math.Abs(r[kk])/math.Hypot(pb.sig[i], floor*k))
+			kk++
+		}
+	}
+	return w
 }
 
 // finish fills the fit's report: the model with its unmodelled parts,

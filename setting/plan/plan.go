@@ -69,6 +69,39 @@ type Step struct {
 	perTurn int // flats per turn of the thread, for the words
 }
 
+// IdealChange is one adjuster's change in a plan's continuous solution,
+// signed as its kind says (see Step.Sign), in Unit ("mm" or "deg").
+type IdealChange struct {
+	Kind      session.AdjustmentKind `json:"kind"`
+	Eccentric session.Eccentric      `json:"eccentric,omitempty"`
+	Unit      string                 `json:"unit"`
+	Amount    float64                `json:"amount"`
+}
+
+// idealWords says a change too small to make in words: "0.12 mm
+// shorter", "0.30 deg advanced".
+func idealWords(k knob, amount float64, unit session.Unit) string {
+	a := math.Abs(amount)
+	switch k.adj.Kind {
+	case session.ValveOnSpindle:
+		if amount < 0 {
+			return "moving " + length(a, unit) + " toward the back"
+		}
+		return "moving " + length(a, unit) + " toward the front cover"
+	case session.EccentricAngle:
+		if amount < 0 {
+			return fmt.Sprintf("%.2f deg less advance", a)
+		}
+		return fmt.Sprintf("%.2f deg more advance", a)
+	case session.ReturnCrankAngle:
+		return fmt.Sprintf("turning %.2f deg", a)
+	}
+	if amount < 0 {
+		return length(a, unit) + " shorter"
+	}
+	return length(a, unit) + " longer"
+}
+
 // Alternative is a plan made with another priority: its steps and what the
 // engine would do after them.
 type Alternative struct {
@@ -86,6 +119,11 @@ type Plan struct {
 	// Steps are the rounded changes in working order; empty when nothing
 	// the engine allows would make it better.
 	Steps []Step `json:"steps"`
+	// Ideal is the continuous solution the steps were rounded from: the
+	// change of every adjuster the plan works with, as if it could be set
+	// exactly. An adjuster whose change rounds to nothing is here but not
+	// among the steps (a note says so).
+	Ideal []IdealChange `json:"ideal_changes"`
 	// Now are the events as the readings show them; After those predicted
 	// after the rounded steps.
 	Now   []PositionState `json:"now"`
@@ -274,7 +312,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	if err != nil {
 		return nil, err
 	}
-	plan.Steps, plan.Now, plan.After = main.steps, main.now, main.after
+	plan.Steps, plan.Now, plan.After, plan.Ideal = main.steps, main.now, main.after, main.ideal
 	plan.sets.steps = append([]Step(nil), main.steps...)
 	for i := range main.qNow {
 		plan.sets.now = append(plan.sets.now, main.qNow[i].ev)
@@ -346,6 +384,7 @@ func designLeads(ev *evaluator, drawn setting.EngineSpec, ps []position) ([]floa
 // planned is one solved plan.
 type planned struct {
 	steps      []Step
+	ideal      []IdealChange
 	now, after []PositionState
 	qNow, qAft []quantities
 	prio       Priority
@@ -390,12 +429,34 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 		sig[k] = sigSub[j]
 	}
 	for _, i := range workOrder(ev.spec.Gear.Kind, ks) {
+		if ideal[i] != 0 {
+			u := "mm"
+			if ks[i].adj.Kind.Angular() {
+				u = "deg"
+			}
+			out.ideal = append(out.ideal, IdealChange{Kind: ks[i].adj.Kind, Eccentric: ks[i].adj.Eccentric, Unit: u, Amount: clean(ideal[i])})
+		}
 		if rounded[i] == 0 {
+			if math.Abs(ideal[i]) >= 0.25*ks[i].step {
+				smallest := length(ks[i].step, unit)
+				if ks[i].adj.Kind.Angular() {
+					smallest = fmt.Sprintf("%.2f deg", ks[i].step)
+				}
+				why := fmt.Sprintf("less than its smallest step (%s)", smallest)
+				if math.Abs(ideal[i]) >= ks[i].step/2 {
+					why = fmt.Sprintf("but in whole steps of %s it would leave another position worse", smallest)
+				}
+				out.notes = append(out.notes, fmt.Sprintf("The %s would want %s, %s: it is left as it is. A finer adjuster there would let this come closer.",
+					partName(ks[i].adj, ev.spec.Gear.Kind), idealWords(ks[i], ideal[i], unit), why))
+			}
 			continue
 		}
 		st := newStep(ks[i], ev.spec.Gear.Kind, ideal[i], rounded[i])
 		st.SigmaAmount = clean(sig[i])
 		out.steps = append(out.steps, st)
+	}
+	if out.ideal == nil {
+		out.ideal = []IdealChange{}
 	}
 	if out.steps == nil {
 		out.steps = []Step{}

@@ -21,6 +21,10 @@ type option struct {
 	measure float64
 	effort  float64
 	worse   bool
+	// polished: a is the ideal found on the linkage itself, q its events
+	// there (see polish).
+	polished bool
+	q        []quantities
 }
 
 // choose finds the plan that comes closest to the priority's goal in the
@@ -85,40 +89,64 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 		}
 		opts = append(opts, o)
 	}
-	best := zeroM
-	for _, o := range opts {
-		if !o.worse {
-			best = math.Min(best, o.measure)
-		}
-	}
-	tier := func(o option) int {
-		switch {
-		case o.worse:
-			return 2
-		case o.measure <= best+g.slack:
-			return 0
-		}
-		return 1
-	}
-	sort.SliceStable(opts, func(i, j int) bool {
-		a, b := opts[i], opts[j]
-		if ta, tb := tier(a), tier(b); ta != tb {
-			return ta < tb
-		}
-		if tier(a) == 0 {
-			if len(a.set) != len(b.set) {
-				return len(a.set) < len(b.set)
+	rank := func() {
+		best := zeroM
+		for _, o := range opts {
+			if !o.worse {
+				best = math.Min(best, o.measure)
 			}
-			return a.effort < b.effort
 		}
-		return a.measure < b.measure
-	})
+		tier := func(o option) int {
+			switch {
+			case o.worse:
+				return 2
+			case o.measure <= best+g.slack:
+				return 0
+			}
+			return 1
+		}
+		sort.SliceStable(opts, func(i, j int) bool {
+			a, b := opts[i], opts[j]
+			if ta, tb := tier(a), tier(b); ta != tb {
+				return ta < tb
+			}
+			if tier(a) == 0 {
+				if len(a.set) != len(b.set) {
+					return len(a.set) < len(b.set)
+				}
+				return a.effort < b.effort
+			}
+			return a.measure < b.measure
+		})
+	}
+	rank()
+	if g.prio != EqualLeads {
+		// Cut-offs are far from linear in the changes: the leading sets
+		// are solved on the linkage itself before they are ranked.
+		polished := 0
+		for i := range opts {
+			if polished >= 4 {
+				break
+			}
+			o := &opts[i]
+			if o.worse {
+				continue
+			}
+			polished++
+			a, q := ev.polish(p, ks, ts, qNow, o.set, o.a, g)
+			if !g.worse(qNow, q, ts) {
+				o.a, o.q, o.measure, o.polished = a, q, measure(ts, q), true
+			}
+		}
+		rank()
+	}
 	// Exact judgement, in the ranked order.
 	type judged struct {
 		c       *choice
 		measure float64
 	}
 	var found []judged
+	var firstIdeal []float64 // the polished ideal of the first set tried, kept when no rounding holds
 	tried := 0
 	for _, o := range opts {
 		if o.worse || tried >= 6 || len(found) >= 2 {
@@ -128,13 +156,21 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 			continue // gains nothing the setter could see
 		}
 		tried++
-		c, m, ok := ev.roundBest(p, ks, ts, qNow, g, o)
+		c, m, ok, ideal := ev.roundBest(p, ks, ts, qNow, g, o)
+		if firstIdeal == nil {
+			firstIdeal = ideal
+		}
 		if !ok || m >= zeroM-g.fine {
 			continue
 		}
 		found = append(found, judged{c, m})
 	}
 	if len(found) == 0 {
+		if firstIdeal != nil {
+			// No step hands can make holds; the continuous answer is
+			// still reported (Plan.Ideal), with why it is not made.
+			none.ideal = firstIdeal
+		}
 		return none, nil
 	}
 	bestR := math.Inf(1)
@@ -208,9 +244,12 @@ func minimaxIdeal(ks []knob, ts []term, qNow []quantities, set []int, rd []float
 // roundBest polishes option o's changes on the linkage itself, rounds them
 // to whole steps and judges the roundings on the linkage solved afresh;
 // it returns the best rounding that leaves nothing worse, with its
-// measure.
-func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow []quantities, g goal, o option) (*choice, float64, bool) {
-	ideal, qI := ev.polish(p, ks, ts, qNow, o.set, o.a)
+// measure, and the polished ideal.
+func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow []quantities, g goal, o option) (*choice, float64, bool, []float64) {
+	ideal, qI := o.a, o.q
+	if !o.polished {
+		ideal, qI = ev.polish(p, ks, ts, qNow, o.set, o.a, g)
+	}
 	n := len(ks)
 	lin := make([]quantities, len(qNow))
 	linAbout := func(a []float64) float64 {
@@ -297,6 +336,8 @@ func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow 
 			if j < len(key) {
 				key[j] = int32(math.Round(c.a[k] / ks[k].step))
 			}
+			// Whole steps, as StepFor writes them.
+			c.a[k] = math.Round(c.a[k]/ks[k].step) * ks[k].step
 			if math.Abs(c.a[k]) < 1e-12 {
 				c.a[k] = 0
 			} else {
@@ -334,23 +375,41 @@ func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow 
 			bestC, bestM = ch, m
 		}
 	}
-	return bestC, bestM, bestC != nil
+	return bestC, bestM, bestC != nil, ideal
 }
 
 // polish solves the knobs in set on the linkage itself, from the linear
 // model's changes a0: Gauss-Newton on the objective with the ridge, each
 // step's events and gradients found on the curves sampled afresh where
 // the changes have got to, within the knobs' limits, halving a step that
-// does not lower the sum. It returns the changes and the events there,
-// with the knobs' gradients.
-func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []quantities, set []int, a0 []float64) ([]float64, []quantities) {
+// does not lower the sum. The terms are reweighted toward the largest
+// after each step (Lawson's rule, as minimaxIdeal), tenfold where a
+// position would end worse than today, and the changes kept are those
+// with the least worst term among the points reached that leave nothing
+// worse. It returns the changes and the events there, with the knobs'
+// gradients.
+func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []quantities, set []int, a0 []float64, g goal) ([]float64, []quantities) {
 	rd := ridge(ks, ts, qNow)
 	revs := ev.revs()
-	at := func(a []float64) ([]quantities, float64, bool) {
+	tw := make([]float64, len(ts))
+	for i := range tw {
+		tw[i] = 1
+	}
+	cost := func(a []float64, q []quantities) float64 {
+		c := 0.0
+		for ti, t := range ts {
+			c += tw[ti] * sq(t.value(q))
+		}
+		for _, k := range set {
+			c += rd[k] * sq(a[k])
+		}
+		return c
+	}
+	at := func(a []float64) ([]quantities, bool) {
 		pa := applyKnobs(p, ks, a)
 		raw, err := gearCurves(ev.spec, pa, revs, ev.tr, true)
 		if err != nil {
-			return nil, 0, false
+			return nil, false
 		}
 		cs := make([]curve, len(raw))
 		for i := range raw {
@@ -358,14 +417,14 @@ func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []q
 		}
 		q, err := ev.quick(cs, qNow, nil)
 		if err != nil {
-			return nil, 0, false
+			return nil, false
 		}
 		// The set's gradients there, from effect curves sampled there.
 		for _, k := range set {
 			var d []curve
 			if ks[k].p != pValveOffset {
 				if d, err = effect(ev.spec, pa, revs, ev.tr24, ks[k].p, 0.1*ks[k].scale, raw, true); err != nil {
-					return nil, 0, false
+					return nil, false
 				}
 			}
 			for i := range q {
@@ -376,30 +435,30 @@ func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []q
 				ev.gradOne(&q[i], cs[i], di, ks[k])
 			}
 		}
-		c := sumSquares(ts, q)
-		for _, k := range set {
-			c += rd[k] * sq(a[k])
-		}
-		return q, c, true
+		return q, true
 	}
 	a := append([]float64(nil), a0...)
-	q, c, ok := at(a)
+	q, ok := at(a)
 	if !ok {
 		linear := make([]quantities, len(qNow))
 		linearAt(qNow, ks, a, linear)
 		return a, linear
 	}
-	for it := 0; it < 4; it++ {
+	bestA, bestQ, bestM := a, q, math.Inf(1)
+	if !g.worse(qNow, q, ts) {
+		bestM = measure(ts, q)
+	}
+	for it := 0; it < 6; it++ {
 		m := len(set)
 		A := newSym(m)
 		gr := make([]float64, m)
-		for _, t := range ts {
+		for ti, t := range ts {
 			v := t.value(q)
 			for r, k := range set {
 				gk := t.grad(q, ks[k].p)
-				gr[r] -= gk * v
+				gr[r] -= tw[ti] * gk * v
 				for s2, k2 := range set {
-					A.add(r, s2, gk*t.grad(q, ks[k2].p))
+					A.add(r, s2, tw[ti]*gk*t.grad(q, ks[k2].p))
 				}
 			}
 		}
@@ -411,29 +470,48 @@ func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []q
 		if !solved {
 			break
 		}
+		c := cost(a, q)
 		moved := false
 		for scale := 1.0; scale > 0.1; scale /= 2 {
 			b := append([]float64(nil), a...)
 			for r, k := range set {
 				b[k] = math.Max(ks[k].adj.Min, math.Min(ks[k].adj.Max, a[k]+scale*d[r]))
 			}
-			qb, cb, ok := at(b)
-			if ok && cb < c {
-				a, q, c, moved = b, qb, cb, true
+			qb, ok := at(b)
+			if ok && cost(b, qb) < c {
+				a, q, moved = b, qb, true
 				break
 			}
 		}
-		small := true
-		for r, k := range set {
-			if math.Abs(d[r]) > 1e-3*ks[k].step {
-				small = false
+		if moved && !g.worse(qNow, q, ts) {
+			if mq := measure(ts, q); mq < bestM {
+				bestA, bestQ, bestM = a, q, mq
 			}
 		}
-		if !moved || small {
+		// Reweight toward the largest terms, and hold positions that
+		// would end worse.
+		s := 0.0
+		for ti, t := range ts {
+			tw[ti] *= math.Abs(t.value(q)) + 1e-6
+			s += tw[ti]
+		}
+		if !(s > 0) {
+			break
+		}
+		for ti, t := range ts {
+			tw[ti] = tw[ti]/s*float64(len(tw)) + 1e-9
+			if g.diffTerm(t) && g.worseAt(qNow, q, t.pos) {
+				tw[ti] *= 10
+			}
+		}
+		if !moved && it > 0 {
 			break
 		}
 	}
-	return a, q
+	if math.IsInf(bestM, 1) {
+		return a, q
+	}
+	return bestA, bestQ
 }
 
 // gradOne fills one knob's gradients of a position's quantities on curve

@@ -155,29 +155,92 @@ func (a *angles) deadCentre(end End, dir Direction) (float64, bool) {
 // crank converts a mark taken turning in dir to the crank angle from front
 // dead centre, with its error. Without a bracketed front dead centre the
 // datum itself is taken as front dead centre.
+//
+// Marks round the tyre are put in proportion to the dead centres bracketed
+// on the tyre turning that way, when both are: the tyre between them is
+// the turn from front to back dead centre, so a wheel diameter measured a
+// little off (a worn tyre, a rule read at the wrong place) does not carry
+// its error round the turn.
 func (a *angles) crank(m Mark, dir Direction) (deg, sigma float64) {
 	fdc, ok := a.deadCentre(Front, dir)
 	sigma = a.markSig
 	if ok {
 		sigma = a.markSig * math.Sqrt(1.5) // the mark, and the midpoint of two marks
 	}
-	return wrap(m.Degrees(a.s.Measuring.WheelDiameterMM)-fdc, 360), sigma
+	d := wrap(m.Degrees(a.s.Measuring.WheelDiameterMM)-fdc, 360)
+	if k, bdc := a.tyreScale(dir); m.Scale == TyreMM && k != 1 {
+		// From the nearer dead centre, the tyre in proportion.
+		from, at := 0.0, 0.0
+		if math.Abs(wrap(d-bdc+180, 360)-180) < math.Abs(wrap(d+180, 360)-180) {
+			from, at = bdc, a.geomBack
+		}
+		d = wrap(at+(wrap(d-from+180, 360)-180)*k, 360)
+	}
+	return d, sigma
 }
 
-// atDeadCentre returns the crank angle of a dead centre, with its error.
+// tyreScale returns how much a distance round the tyre is worth against
+// what the wheel diameter says: the engine's back dead centre over the
+// turn between the dead centres bracketed on the tyre turning in dir; 1
+// without both, or when they are more than 5 % off (then the wheel
+// diameter or a bracket is wrong, and Check says so). bdc is the back
+// dead centre as the brackets put it, degrees from the front one.
+func (a *angles) tyreScale(dir Direction) (k, bdc float64) {
+	if !a.info.haveEngine {
+		return 1, 0
+	}
+	var f, b *DeadCentre
+	for i := range a.c.DeadCentres {
+		dc := &a.c.DeadCentres[i]
+		if dc.Scale != TyreMM {
+			continue
+		}
+		switch {
+		case dc.End == Front && (f == nil || dc.Direction == dir):
+			f = dc
+		case dc.End == Back && (b == nil || dc.Direction == dir):
+			b = dc
+		}
+	}
+	if f == nil || b == nil {
+		return 1, 0
+	}
+	w := a.s.Measuring.WheelDiameterMM
+	span := wrap(b.Mark(w).Degrees(w)-f.Mark(w).Degrees(w), 360)
+	k = a.geomBack / span
+	if !(math.Abs(k-1) <= 0.05) {
+		return 1, 0
+	}
+	return k, span
+}
+
+// atDeadCentre returns the crank angle of a reading taken on a dead
+// centre, with its error: the reading is on the dead centre the brackets
+// found, so on the engine's own back dead centre where the geometry is
+// known (the tyre marks between only say where the wheel stood), and at
+// the bracketed one otherwise.
 func (a *angles) atDeadCentre(end End, dir Direction) (deg, sigma float64) {
 	if end == Front {
 		return 0, a.markSig * math.Sqrt(1.5)
 	}
+	if a.info.haveEngine {
+		return a.geomBack, a.markSig * math.Sqrt(1.5)
+	}
+	return a.bracketedBack(dir), a.markSig * math.Sqrt(1.5)
+}
+
+// bracketedBack returns the back dead centre as the brackets place it
+// from the front one, turning in dir.
+func (a *angles) bracketedBack(dir Direction) float64 {
 	bdc, okB := a.deadCentre(Back, dir)
 	fdc, okF := a.deadCentre(Front, dir)
 	if okB && okF {
-		return wrap(bdc-fdc, 360), a.markSig * math.Sqrt(1.5)
+		return wrap(bdc-fdc, 360)
 	}
 	if okB { // datum taken as front dead centre
-		return wrap(bdc, 360), a.markSig * math.Sqrt(1.5)
+		return wrap(bdc, 360)
 	}
-	return a.geomBack, a.markSig * math.Sqrt(1.5)
+	return a.geomBack
 }
 
 // crosshead converts a crosshead travel from end's dead-centre position to
@@ -253,8 +316,7 @@ func (s *Session) BackDeadCentre(cyl int, dir Direction) (float64, error) {
 	if err != nil {
 		return 0, err
 	}
-	deg, _ := a.atDeadCentre(Back, dir)
-	return deg, nil
+	return a.bracketedBack(dir), nil
 }
 
 // place returns the crank angle, its error and its name in words of a

@@ -102,6 +102,10 @@ func TestObservations(t *testing.T) {
 	fdcMM := (350.1+10.3+circ)/2 - circ // front dead centre, mm from the datum
 	bdcMM := (160.2 + 200.4) / 2
 	markSig := 0.5 * perMM * math.Sqrt(1.5)
+	// Tyre marks are put in proportion to the bracketed dead centres: the
+	// tyre between them is the turn to the engine's back dead centre (180
+	// degrees here), whatever the wheel diameter says.
+	scale := 180 / ((bdcMM - fdcMM) * perMM)
 
 	check := func(field string, kind Kind, crank, gauge float64, label string) {
 		t.Helper()
@@ -124,11 +128,14 @@ func TestObservations(t *testing.T) {
 	}
 	r0 := "cylinders[0].rounds[0]"
 	check(r0+".dead_centre_readings[0]", AtDeadCentre, 0, 1.8, "front dead centre, full forward")
-	check(r0+".dead_centre_readings[1]", AtDeadCentre, (bdcMM-fdcMM)*perMM, 8.25, "back dead centre, full forward")
-	check(r0+".sweeps[0].readings[1]", InSweep, (30.3-fdcMM)*perMM, 3.9, "sweep at tyre 30.3 mm, running")
+	// A reading on a dead centre is on it: the engine's back dead centre.
+	check(r0+".dead_centre_readings[1]", AtDeadCentre, 180, 8.25, "back dead centre, full forward")
+	check(r0+".sweeps[0].readings[1]", InSweep, (30.3-fdcMM)*perMM*scale, 3.9, "sweep at tyre 30.3 mm, running")
 	check(r0+".sweeps[0].readings[5]", InSweep, 150-fdcMM*perMM, 7.2, "sweep at 150 deg, running")
-	check(r0+".cut_offs[1]", CutOffKind, (310-fdcMM)*perMM, 8.0, "back cut-off at tyre 310 mm, full forward")
-	check("cylinders[0].rounds[1].dead_centre_readings[1]", AtDeadCentre, (bdcMM-fdcMM)*perMM, 8.19, "back dead centre, full forward")
+	// (Each mark is counted from the nearer dead centre: this one from
+	// front dead centre, backward.)
+	check(r0+".cut_offs[1]", CutOffKind, 360+(310-fdcMM-circ)*perMM*scale, 8.0, "back cut-off at tyre 310 mm, full forward")
+	check("cylinders[0].rounds[1].dead_centre_readings[1]", AtDeadCentre, 180, 8.19, "back dead centre, full forward")
 	check("cylinders[0].rounds[1].feeler_openings[0]", FeelerKind, 0, 0, "front port opening at front dead centre, full forward")
 
 	// Port marks and laps become the steam edges.
@@ -257,8 +264,10 @@ func TestCrankAngleAndBackDeadCentre(t *testing.T) {
 	s := mustDecode(t, testJSON)
 	perMM := 360 / (math.Pi * 115)
 	fdcMM := (350.1+10.3+math.Pi*115)/2 - math.Pi*115
+	bdcMM := (160.2 + 200.4) / 2
+	scale := 180 / ((bdcMM - fdcMM) * perMM) // the tyre between the brackets is half a turn
 	deg, sigma, err := s.CrankAngle(0, Mark{TyreMM, 100}, Forward)
-	if err != nil || math.Abs(deg-(100-fdcMM)*perMM) > 1e-9 || sigma <= 0 {
+	if err != nil || math.Abs(deg-(100-fdcMM)*perMM*scale) > 1e-9 || sigma <= 0 {
 		t.Errorf("CrankAngle = %v, %v, %v", deg, sigma, err)
 	}
 	bdc, err := s.BackDeadCentre(0, Forward)
@@ -324,5 +333,36 @@ func TestObservationsCarryPortMarksForward(t *testing.T) {
 	n, label, field := count()
 	if n != 2 || label != "back port mark (from round 1)" || field != "cylinders[0].rounds[0].port_marks" {
 		t.Errorf("carried marks: %d, %q, %q", n, label, field)
+	}
+}
+
+// A wheel diameter entered a little off (here 1.5 % too small) moves no
+// sweep angle: the tyre between the bracketed dead centres is the turn to
+// back dead centre, so marks round the tyre are put in proportion to it.
+func TestWheelDiameterSlipIsTakenOutByTheBrackets(t *testing.T) {
+	s := mustDecode(t, testJSON)
+	// A front bracket that does not straddle the datum (one that does
+	// depends on the circumference through its numbering).
+	for i := range s.Cylinders[0].DeadCentres {
+		if dc := &s.Cylinders[0].DeadCentres[i]; dc.End == Front {
+			dc.First, dc.Second = 2, 12
+		}
+	}
+	want, err := s.Observations(0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Measuring.WheelDiameterMM *= 0.985
+	got, err := s.Observations(0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range want {
+		if want[i].Kind != InSweep || !strings.Contains(want[i].Label, "tyre") {
+			continue
+		}
+		if d := math.Abs(got[i].CrankDeg - want[i].CrankDeg); d > 1e-6 {
+			t.Errorf("%s: crank %.4f with the wheel 1.5 %% small, %.4f with it right", want[i].Label, got[i].CrankDeg, want[i].CrankDeg)
+		}
 	}
 }

@@ -214,13 +214,13 @@ func NewEngine(r *rand.Rand, kind string, opt Options) (Engine, error) {
 	v.Front.ExhaustLap += L(0.05)
 	v.Back.ExhaustLap += L(0.05)
 	t.Valve = v
-	e.ValveOffsetMM = uniform(r, -0.5, 0.5) * k
+	e.ValveOffsetMM = normal(r, 0.25) * k
 	note("valve on spindle %+.2f mm, laps %+.2f/%+.2f mm", e.ValveOffsetMM, v.Front.SteamLap-d.spec.Valve.Front.SteamLap, v.Back.SteamLap-d.spec.Valve.Back.SteamLap)
 	switch kind {
 	case setting.KindSingleEccentric:
 		g := *t.Gear.SingleEccentric
-		g.Eccentric.Advance += normal(r, 2)
-		g.Eccentric.Rod += L(0.5)
+		g.Eccentric.Advance += normal(r, 1.5)
+		g.Eccentric.Rod += L(0.3)
 		g.Eccentric.Throw += L(0.05)
 		g.Guide += L(0.3)
 		t.Gear.SingleEccentric = &g
@@ -229,8 +229,8 @@ func NewEngine(r *rand.Rand, kind string, opt Options) (Engine, error) {
 		g := *t.Gear.Stephenson
 		d0 := *d.spec.Gear.Stephenson
 		for _, x := range []*setting.Eccentric{&g.Forward, &g.Backward} {
-			x.Advance += normal(r, 1.5)
-			x.Rod += L(0.5)
+			x.Advance += normal(r, 1.2)
+			x.Rod += L(0.3)
 			x.Throw += L(0.05)
 		}
 		g.LiftingLink += L(0.5)
@@ -250,8 +250,8 @@ func NewEngine(r *rand.Rand, kind string, opt Options) (Engine, error) {
 		g := *t.Gear.Walschaerts
 		d0 := *d.spec.Gear.Walschaerts
 		g.ReturnAngle += normal(r, 1)
-		g.EccentricRod += L(0.5)
-		g.RadiusRod += L(0.5)
+		g.EccentricRod += L(0.3)
+		g.RadiusRod += L(0.3)
 		g.ReturnCrank += L(0.2)
 		g.Lever.ValvePin += L(0.08)
 		g.Lever.UnionPin += L(0.2)

@@ -29,6 +29,20 @@ type Round struct {
 	Tyre bool
 }
 
+// RoundKinds name what a round measured (see Round.Kind).
+var RoundKinds = []string{"dead centres only", "with sweeps", "with cut-offs"}
+
+// Kind names what the round measured: one of RoundKinds.
+func (rd Round) Kind() string {
+	switch {
+	case rd.CutOffs:
+		return RoundKinds[2]
+	case rd.SweepStepDeg > 0:
+		return RoundKinds[1]
+	}
+	return RoundKinds[0]
+}
+
 // NewRound draws what a setter takes: always the port marks and the
 // dead-centre readings in every planned position, sometimes sweeps, cut-off
 // points and feelers, and now and then one reading mistyped.

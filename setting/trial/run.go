@@ -25,6 +25,10 @@ type Case struct {
 	Engine  Engine
 	Round   Round
 	Results []Result // one per priority, in Priorities' order
+	// Second are the results of a second round: the first plan's rounded
+	// steps made, the readings taken again (no slip this time), planned
+	// again with the same priority.
+	Second []Result
 }
 
 // RunOne draws engine number i of a bench seeded with seed (the gears
@@ -54,6 +58,23 @@ func RunOne(seed uint64, i int, opt Options) (Case, error) {
 			return c, fmt.Errorf("engine %d, %s: %w", i, p, err)
 		}
 		c.Results = append(c.Results, res)
+		e2 := e
+		if res.RoundedAmounts != nil {
+			if e2, err = e.with(knobsOf(e.Adjustments), res.RoundedAmounts); err != nil {
+				return c, err
+			}
+		}
+		rd2 := rd
+		rd2.Wild = -1
+		s2, err := e2.Session(r, rd2)
+		if err != nil {
+			return c, fmt.Errorf("engine %d, second round: %w", i, err)
+		}
+		res2, err := e2.Try(s2, p)
+		if err != nil {
+			return c, fmt.Errorf("engine %d, %s, second round: %w", i, p, err)
+		}
+		c.Second = append(c.Second, res2)
 	}
 	return c, nil
 }
@@ -61,18 +82,35 @@ func RunOne(seed uint64, i int, opt Options) (Case, error) {
 // Tally counts the results of one priority over a set of engines.
 type Tally struct {
 	N, Pass, RoundPass, Abs, Worse, Refused, Errors int
-	IdealWorst                                      []float64 // per engine
+	// Second is how many passed with rounded amounts after a second
+	// round (see Case.Second).
+	Second     int
+	IdealWorst []float64 // per engine
 }
 
 // Summary tallies cases per priority and per gear.
 type Summary struct {
 	All    map[plan.Priority]*Tally
 	ByKind map[string]map[plan.Priority]*Tally
+	// ByRound tallies by what the round measured: "dead centres only",
+	// "with sweeps", "with cut-offs" (cut-off points at the crosshead,
+	// with or without sweeps).
+	ByRound map[string]map[plan.Priority]*Tally
+	// Wild counts the rounds with a mistyped reading; Named those where
+	// the plan named it for taking again, Wrong the plans that named a
+	// good reading instead (over all priorities' first plan).
+	Wild, Named, Wrong int
 }
 
 // Summarise tallies cases.
 func Summarise(cs []Case) Summary {
-	s := Summary{All: map[plan.Priority]*Tally{}, ByKind: map[string]map[plan.Priority]*Tally{}}
+	s := Summary{All: map[plan.Priority]*Tally{}, ByKind: map[string]map[plan.Priority]*Tally{}, ByRound: map[string]map[plan.Priority]*Tally{}}
+	for _, k := range RoundKinds {
+		s.ByRound[k] = map[plan.Priority]*Tally{}
+		for _, p := range Priorities {
+			s.ByRound[k][p] = &Tally{}
+		}
+	}
 	for _, p := range Priorities {
 		s.All[p] = &Tally{}
 	}
@@ -83,8 +121,25 @@ func Summarise(cs []Case) Summary {
 		}
 	}
 	for _, c := range cs {
-		for _, r := range c.Results {
-			for _, t := range []*Tally{s.All[r.Prio], s.ByKind[c.Engine.Kind][r.Prio]} {
+		if len(c.Results) > 0 {
+			want := ""
+			if c.Round.Wild >= 0 {
+				s.Wild++
+				want = fmt.Sprintf("cylinders[0].rounds[0].dead_centre_readings[%d]", c.Round.Wild)
+			}
+			for _, f := range c.Results[0].Rechecked {
+				if f == want {
+					s.Named++
+				} else {
+					s.Wrong++
+				}
+			}
+		}
+		for ri, r := range c.Results {
+			for _, t := range []*Tally{s.All[r.Prio], s.ByKind[c.Engine.Kind][r.Prio], s.ByRound[c.Round.Kind()][r.Prio]} {
+				if ri < len(c.Second) && c.Second[ri].RoundPass {
+					t.Second++
+				}
 				t.N++
 				if r.Pass {
 					t.Pass++
@@ -126,15 +181,19 @@ func quantile(xs []float64, q float64) float64 {
 // plans that left a position worse, the refusals and planner errors, and
 // the median and worst of the worst difference after the ideal plan.
 func (s Summary) Write(w io.Writer) {
+	defer fmt.Fprintf(w, "mistyped readings: %d rounds, %d named; %d good readings named\n", s.Wild, s.Named, s.Wrong)
 	unit := map[plan.Priority]string{plan.EqualLeads: "mm", plan.EqualCutOffs: "%", plan.Balanced: "u"}
-	fmt.Fprintf(w, "%-9s %-17s %5s %14s %14s %14s %6s %8s %6s %22s\n", "priority", "gear", "n", "pass (ideal)", "pass (rounded)", "<= 0.02 mm", "worse", "refused", "errors", "after ideal: med / max")
+	fmt.Fprintf(w, "%-9s %-19s %5s %14s %14s %14s %14s %6s %8s %6s %22s\n", "priority", "gear", "n", "pass (ideal)", "pass (rounded)", "<= 0.02 mm", "2nd round", "worse", "refused", "errors", "after ideal: med / max")
 	for _, p := range Priorities {
 		rows := []string{"all"}
 		rows = append(rows, Kinds...)
+		rows = append(rows, RoundKinds...)
 		for _, k := range rows {
 			t := s.All[p]
-			if k != "all" {
+			if s.ByKind[k] != nil {
 				t = s.ByKind[k][p]
+			} else if s.ByRound[k] != nil {
+				t = s.ByRound[k][p]
 			}
 			if t.N == 0 {
 				continue
@@ -144,18 +203,23 @@ func (s Summary) Write(w io.Writer) {
 			if p == plan.EqualLeads {
 				abs = pct(t.Abs)
 			}
-			fmt.Fprintf(w, "%-9s %-17s %5d %14s %14s %14s %6d %8d %6d %10.3f / %-7.3f %s\n", p, k, t.N, pct(t.Pass), pct(t.RoundPass), abs, t.Worse, t.Refused, t.Errors,
+			fmt.Fprintf(w, "%-9s %-19s %5d %14s %14s %14s %14s %6d %8d %6d %10.3f / %-7.3f %s\n", p, k, t.N, pct(t.Pass), pct(t.RoundPass), abs, pct(t.Second), t.Worse, t.Refused, t.Errors,
 				quantile(t.IdealWorst, 0.5), quantile(t.IdealWorst, 1), unit[p])
 		}
 	}
 }
 
-// Describe writes one case in a line per priority, for reading failures.
-func (c Case) Describe(w io.Writer) {
+// Describe writes one case with its result for prio, for reading
+// failures.
+func (c Case) Describe(w io.Writer, prio plan.Priority) {
 	e := c.Engine
 	fmt.Fprintf(w, "case %d: %s %s crank %.1f, %s admission, %d positions; round: sweeps %g, cut-offs %v, feelers %v, wild %d (%+.2f); errors: %s\n",
 		c.Index, e.Kind, e.Size, e.Drawing.Engine.CrankRadius, e.Drawing.Valve.Admission, len(e.Positions), c.Round.SweepStepDeg, c.Round.CutOffs, c.Round.Feelers, c.Round.Wild, c.Round.WildMM, strings.Join(e.Errors, "; "))
+	_ = prio
 	for _, r := range c.Results {
+		if r.Prio != prio {
+			continue
+		}
 		fmt.Fprintf(w, "  %-9s before %.3f ideal %.3f rounded %.3f (predicted %.3f) best %.3f pass %v/%v worse %v refused %v steps %d %s\n    ideal %v\n    best  %v\n",
 			r.Prio, r.Before, r.Ideal, r.Rounded, r.Predicted, r.Best, r.Pass, r.RoundPass, r.Worse, r.Refused, r.Steps, r.Err, fmtAmounts(r.IdealAmounts), fmtAmounts(r.BestAmounts))
 	}

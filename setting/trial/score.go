@@ -82,6 +82,13 @@ func (e Engine) best(prio plan.Priority) (float64, []float64, error) {
 	lo, hi := make([]float64, n), make([]float64, n)
 	for i, a := range e.Adjustments {
 		lo[i], hi[i] = a.Min, a.Max
+		if a.Kind == session.EccentricAngle {
+			// A sheave changes the lead itself, not its share between the
+			// ends: a setter turns one only for a lead wanted or a sheave
+			// that has slipped, as the planner does, not to trade a
+			// notch's lead difference for a millimetre of lead.
+			lo[i], hi[i] = 0, 0
+		}
 	}
 	d0, err := e.diffs()
 	if err != nil {
@@ -109,6 +116,9 @@ func (e Engine) best(prio plan.Priority) (float64, []float64, error) {
 			return nil, err
 		}
 		o := objective(prio, d)
+		if prio == plan.Balanced {
+			return append(o, 30*math.Max(0, rms(o)-rms(o0)-tol)/tol), nil
+		}
 		for i := range o0 {
 			o = append(o, 30*math.Max(0, math.Abs(o[i])-math.Abs(o0[i])-tol)/tol)
 		}
@@ -198,6 +208,15 @@ func (e Engine) best(prio plan.Priority) (float64, []float64, error) {
 	return bestW, bestA, nil
 }
 
+// rms is the root mean square of xs.
+func rms(xs []float64) float64 {
+	s := 0.0
+	for _, x := range xs {
+		s += x * x
+	}
+	return math.Sqrt(s / math.Max(1, float64(len(xs))))
+}
+
 func wsum(w, r []float64) float64 {
 	s := 0.0
 	for i := range r {
@@ -253,6 +272,9 @@ type Result struct {
 	Before, Ideal, Rounded, Best float64
 	// Predicted is what the plan says its rounded amounts leave.
 	Predicted float64
+	// Rechecked are the fields of the readings the plan asks to take
+	// again.
+	Rechecked []string
 	// RoundTol is what rounding may add: one step of the finest adjuster
 	// acting on the worst position (leads), 0 otherwise.
 	RoundTol float64
@@ -268,13 +290,16 @@ type Result struct {
 	// than the readings can tell (0.02 mm, 0.5 %). Refused: no step while
 	// the best reachable gains more than that.
 	Worse, Refused bool
+	// Broken: the plan's changes leave the true gear unable to go round.
+	Broken bool
 	// Steps is the number of steps; SigmaOK counts steps whose stated +/-
 	// covers the ideal change's true error (checked over repeated trials
 	// by the caller).
 	Steps int
-	// Ideal amounts per adjustment (session order), and the truth's best.
-	IdealAmounts, BestAmounts []float64
-	Notes                     []string
+	// Ideal and rounded amounts per adjustment (session order), and the
+	// truth's best.
+	IdealAmounts, RoundedAmounts, BestAmounts []float64
+	Notes                                     []string
 }
 
 // tolerance is the least difference the readings can tell: 0.02 mm (two
@@ -319,6 +344,9 @@ func (e Engine) Try(s *session.Session, prio plan.Priority) (Result, error) {
 		return res, nil
 	}
 	res.Notes = p.Notes
+	for _, r := range p.Recheck {
+		res.Rechecked = append(res.Rechecked, r.Field)
+	}
 	var pd Diffs
 	for _, st := range p.After {
 		pd.Lead = append(pd.Lead, st.Front.LeadMM-st.Back.LeadMM)
@@ -330,11 +358,18 @@ func (e Engine) Try(s *session.Session, prio plan.Priority) (Result, error) {
 	ks := knobsOf(e.Adjustments)
 	ideal := make([]float64, len(ks))
 	rounded := make([]float64, len(ks))
+	for _, c := range p.Ideal {
+		for i, k := range ks {
+			if k.kind == c.Kind && k.ecc == c.Eccentric {
+				ideal[i] = c.Amount
+			}
+		}
+	}
 	for _, st := range p.Steps {
 		found := false
 		for i, k := range ks {
 			if k.kind == st.Kind && k.ecc == st.Eccentric {
-				ideal[i], rounded[i] = st.IdealAmount, st.Amount
+				rounded[i] = st.Amount
 				found = true
 			}
 		}
@@ -345,7 +380,7 @@ func (e Engine) Try(s *session.Session, prio plan.Priority) (Result, error) {
 			res.Steps++
 		}
 	}
-	res.IdealAmounts = ideal
+	res.IdealAmounts, res.RoundedAmounts = ideal, rounded
 	score := func(a []float64) (float64, []float64, error) {
 		t, err := e.with(ks, a)
 		if err != nil {
@@ -360,11 +395,18 @@ func (e Engine) Try(s *session.Session, prio plan.Priority) (Result, error) {
 	}
 	wi, _, err := score(ideal)
 	if err != nil {
-		return res, err
+		// The plan's changes leave the true gear unable to go round.
+		res.Broken, res.Worse = true, true
+		res.Ideal, res.Rounded = math.Inf(1), math.Inf(1)
+		res.RoundedAmounts = nil
+		return res, nil
 	}
 	wr, or, err := score(rounded)
 	if err != nil {
-		return res, err
+		res.Broken, res.Worse = true, true
+		res.Ideal, res.Rounded = wi, math.Inf(1)
+		res.RoundedAmounts = nil
+		return res, nil
 	}
 	res.Ideal, res.Rounded = wi, wr
 	goal := res.Best + tol
@@ -375,24 +417,111 @@ func (e Engine) Try(s *session.Session, prio plan.Priority) (Result, error) {
 		// by its full gears: the spindle and both rods act almost alike
 		// there).
 		goal = math.Max(tol, res.Best+tol/2)
-		res.RoundTol = e.stepTol(ks, rounded, or)
 		res.Abs = wi <= tol
 	}
+	res.RoundTol = e.stepTol(prio, ks, rounded, or)
 	res.Pass = wi <= goal
 	res.RoundPass = wr <= goal+res.RoundTol
-	for i := range or {
-		if math.Abs(or[i]) > math.Abs(obj0[i])+tol {
-			res.Worse = true
+	if prio == plan.Balanced {
+		// A balance trades leads for cut-offs: it is worse only when the
+		// whole is.
+		res.Worse = rms(or) > rms(obj0)+tol
+	} else {
+		for i := range or {
+			if math.Abs(or[i]) > math.Abs(obj0[i])+tol {
+				res.Worse = true
+			}
 		}
 	}
-	res.Refused = res.Steps == 0 && res.Before > res.Best+tol
+	if res.Steps == 0 && res.Before > res.Best+tol {
+		// Refused only if whole steps could have gained it.
+		br, err := e.bestRounded(prio, res.BestAmounts)
+		if err != nil {
+			return res, err
+		}
+		res.Refused = br < res.Before-tol
+	}
 	return res, nil
 }
 
-// stepTol returns the effect on the worst position's lead difference of
-// one step of the finest length adjuster acting there at least half as
-// much as anywhere: what rounding to whole steps may leave.
-func (e Engine) stepTol(ks []knob, base, o []float64) float64 {
+// handStep is the smallest change of an adjustment hands can make: a flat
+// of its thread (6 a turn when not given), 0.05 mm without a thread, 0.5 mm
+// round a sheave's rim, 0.25 degree otherwise (the planner's rounding,
+// stated again here as the bench's own).
+func handStep(a session.Adjustment) float64 {
+	if a.Kind.Angular() {
+		if a.Kind == session.EccentricAngle && a.SheaveDiameterMM > 0 {
+			return 0.5 / (a.SheaveDiameterMM / 2) * 180 / math.Pi
+		}
+		return 0.25
+	}
+	if p := a.Thread.Pitch(); p > 0 {
+		f := a.Thread.FlatsPerTurn
+		if f <= 0 {
+			f = 6
+		}
+		return p / float64(f)
+	}
+	return 0.05
+}
+
+// bestRounded returns the worst difference of the best rounding of the
+// best continuous changes a (each adjuster to the whole step either side)
+// that leaves no position worse than today by more than tolerance.
+func (e Engine) bestRounded(prio plan.Priority, a []float64) (float64, error) {
+	ks := knobsOf(e.Adjustments)
+	d0, err := e.diffs()
+	if err != nil {
+		return 0, err
+	}
+	o0 := objective(prio, d0)
+	tol := e.tolerance(prio)
+	var idx []int
+	for i, v := range a {
+		if v != 0 {
+			idx = append(idx, i)
+		}
+	}
+	best := worst(o0)
+	b := make([]float64, len(a))
+	for combo := 0; combo < 1<<len(idx); combo++ {
+		for j, i := range idx {
+			st := handStep(e.Adjustments[i])
+			b[i] = math.Floor(a[i]/st) * st
+			if combo>>j&1 != 0 {
+				b[i] += st
+			}
+		}
+		t, err := e.with(ks, b)
+		if err != nil {
+			continue
+		}
+		d, err := t.diffs()
+		if err != nil {
+			continue
+		}
+		o := objective(prio, d)
+		ok := true
+		if prio == plan.Balanced {
+			ok = rms(o) <= rms(o0)+tol
+		} else {
+			for i := range o {
+				if math.Abs(o[i]) > math.Abs(o0[i])+tol {
+					ok = false
+				}
+			}
+		}
+		if ok {
+			best = math.Min(best, worst(o))
+		}
+	}
+	return best, nil
+}
+
+// stepTol returns the effect on the worst term of the priority's
+// objective of one step of the finest length adjuster acting there at
+// least half as much as anywhere: what rounding to whole steps may leave.
+func (e Engine) stepTol(prio plan.Priority, ks []knob, base, o []float64) float64 {
 	wi := 0
 	for i := range o {
 		if math.Abs(o[i]) > math.Abs(o[wi]) {
@@ -412,16 +541,8 @@ func (e Engine) stepTol(ks []knob, base, o []float64) float64 {
 		if a.Kind.Angular() {
 			continue
 		}
-		step := 0.05
-		if p := a.Thread.Pitch(); p > 0 {
-			f := a.Thread.FlatsPerTurn
-			if f <= 0 {
-				f = 6
-			}
-			step = p / float64(f)
-		}
 		b := append([]float64(nil), base...)
-		b[j] += step
+		b[j] += handStep(a)
 		t, err := e.with(ks, b)
 		if err != nil {
 			continue
@@ -431,8 +552,9 @@ func (e Engine) stepTol(ks []knob, base, o []float64) float64 {
 			continue
 		}
 		most, here := 0.0, 0.0
-		for i := range d.Lead {
-			ef := math.Abs(d.Lead[i] - d0.Lead[i])
+		o1, o0 := objective(prio, d), objective(prio, d0)
+		for i := range o1 {
+			ef := math.Abs(o1[i] - o0[i])
 			most = math.Max(most, ef)
 			if i == wi {
 				here = ef

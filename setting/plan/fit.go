@@ -552,10 +552,13 @@ func (pb *problem) row(i int, s state, out []float64) {
 	}
 	var slope, th float64
 	if o.HasCrank {
-		_, slope = pb.gear(i, s)
 		th = o.CrankDeg + s.p[pDeadCentre]
 	}
 	for c, j := range pb.idx {
+		if j == pDeadCentre && o.HasCrank {
+			// Only the dead-centre mark needs the curve's slope here.
+			_, slope = pb.gear(i, s)
+		}
 		switch j {
 		case pGaugeZero, pValveOffset, pLapFront, pLapBack:
 			out[c] = linearDerivative(pb.spec, o, j)
@@ -720,14 +723,29 @@ func (pb *problem) fitOuter(s state) (state, error) {
 			// dimension moved far (a tenth of its prior) early on: the
 			// gauge zero, valve offset, laps and dead-centre mark enter
 			// exactly.
-			resens := false
+			// The linkage is sampled again only when a gear dimension
+			// has moved from where it was last sampled by more than a
+			// thousandth of its prior: closer than that the linear model
+			// (the curve and its effects) is exact to far below a gauge
+			// division.
+			resens, resample := false, false
+			q = pb.step(s, d)
 			for a, j := range pb.idx {
-				if isGearParam(j) && math.Abs(d[a]) > 0.1*pb.prior[j] {
+				if !isGearParam(j) {
+					continue
+				}
+				if math.Abs(d[a]) > 0.1*pb.prior[j] {
 					resens = round < 2
 				}
+				if math.Abs(q.p[j]-pb.p0[j]) > 1e-3*pb.prior[j] {
+					resample = true
+				}
 			}
-			q = pb.step(s, d)
-			if err := pb.sampleAt(q.p, resens); err == nil && pb.eval(q, rq) == nil {
+			var err error
+			if resample || resens {
+				err = pb.sampleAt(q.p, resens)
+			}
+			if err == nil && pb.eval(q, rq) == nil {
 				if cq = pb.cost(q, rq); cq <= c*(1+1e-9) || small {
 					accepted = true
 					lambda /= 10
@@ -740,8 +758,10 @@ func (pb *problem) fitOuter(s state) (state, error) {
 			lambda = math.Max(10*lambda, 1e-3)
 		}
 		if !accepted {
-			if err := pb.sampleAt(s.p, false); err != nil {
-				return s, err
+			if pb.p0 != s.p {
+				if err := pb.sampleAt(s.p, false); err != nil {
+					return s, err
+				}
 			}
 			return s, nil
 		}
@@ -833,13 +853,20 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 	// another through the linkage: a reading they contradict is named and
 	// left out (up to two). Then the unmodelled parts, so that the model
 	// follows what was measured.
+	// (With a sweep the unmodelled parts are pinned by the sweep's own
+	// readings, and a slip stands out against them: the first pass is
+	// not needed.)
 	nc := pb.cN
+	sweep := hasSweep(obs)
 	pb.cN = make([]int, len(pb.revs))
-	sA, err := pb.fitOuter(state{p: s0.p})
-	if err != nil {
-		return nil, err
+	sA := state{p: s0.p}
+	var err error
+	if !sweep {
+		if sA, err = pb.fitOuter(sA); err != nil {
+			return nil, err
+		}
 	}
-	if !opt.NoRecheck {
+	if !opt.NoRecheck && !sweep {
 		if cands := pb.suspects(sA, k, suspectFloor); len(cands) > 0 {
 			if named, q, ok := pb.confirm(sA, cands, k, suspectFloor); ok {
 				f.expect = append(f.expect, named...)
@@ -955,11 +982,16 @@ func (pb *problem) suspects(s state, k, floor float64) []expected {
 		if !pb.use[i] {
 			continue
 		}
+		ri := r[kk]
+		kk++
+		// A reading the fit follows closely cannot be 0.15 mm off
+		// unless its leverage is high: those are checked in full.
+		if math.Abs(ri) < 0.03*k && pb.grp[i] >= 0 && pb.cN[pb.grp[i]] >= 3 {
+			continue
+		}
 		pb.row(i, s, row)
 		v := inv.quad(row)
 		h := v / sq(pb.sig[i])
-		ri := r[kk]
-		kk++
 		if h > 0.98 {
 			continue
 		}

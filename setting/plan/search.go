@@ -25,6 +25,7 @@ type option struct {
 	// there (see polish).
 	polished bool
 	q        []quantities
+	defect   []curve // the linkage less the surrogate curves at a (see polish)
 }
 
 // choose finds the plan that comes closest to the priority's goal in the
@@ -125,7 +126,7 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 		// are solved on the linkage itself before they are ranked.
 		polished := 0
 		for i := range opts {
-			if polished >= 4 {
+			if polished >= 2 {
 				break
 			}
 			o := &opts[i]
@@ -133,9 +134,9 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 				continue
 			}
 			polished++
-			a, q := ev.polish(p, ks, ts, qNow, o.set, o.a, g)
+			a, q, d := ev.polish(p, ks, ts, qNow, o.set, o.a, g)
 			if !g.worse(qNow, q, ts) {
-				o.a, o.q, o.measure, o.polished = a, q, measure(ts, q), true
+				o.a, o.q, o.defect, o.measure, o.polished = a, q, d, measure(ts, q), true
 			}
 		}
 		rank()
@@ -244,11 +245,11 @@ func minimaxIdeal(ks []knob, ts []term, qNow []quantities, set []int, rd []float
 // roundBest polishes option o's changes on the linkage itself, rounds them
 // to whole steps and judges the roundings on the linkage solved afresh;
 // it returns the best rounding that leaves nothing worse, with its
-// measure, and the polished ideal.
+// measure on the linkage, and the polished ideal.
 func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow []quantities, g goal, o option) (*choice, float64, bool, []float64) {
-	ideal, qI := o.a, o.q
+	ideal, qI, defect := o.a, o.q, o.defect
 	if !o.polished {
-		ideal, qI = ev.polish(p, ks, ts, qNow, o.set, o.a, g)
+		ideal, qI, defect = ev.polish(p, ks, ts, qNow, o.set, o.a, g)
 	}
 	n := len(ks)
 	lin := make([]quantities, len(qNow))
@@ -322,12 +323,18 @@ func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow 
 		}
 	}
 	cands = append([]local{cur}, cands...)
-	var bestC *choice
-	bestM := math.Inf(1)
+	// The roundings judged on the polished curves (today's moved by the
+	// knobs' effects, with what the linkage showed them to miss at the
+	// ideal), best first; the best that holds is then checked on the
+	// linkage solved afresh.
+	type judgedR struct {
+		a []float64
+		m float64
+	}
+	var rs []judgedR
 	seen := map[[8]int32]bool{}
-	judged := 0
 	for _, c := range cands {
-		if judged >= 4 {
+		if len(rs) >= 8 {
 			break
 		}
 		var key [8]int32
@@ -348,49 +355,76 @@ func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow 
 			continue
 		}
 		seen[key] = true
-		judged++
-		cs, err := ev.curvesAt(applyKnobs(p, ks, c.a))
-		if err != nil {
-			continue
-		}
-		q, err := ev.quick(cs, qNow, nil)
+		q, err := ev.quick(ev.surrogate(ks, c.a, defect), qI, nil)
 		if err != nil || g.worse(qNow, q, ts) {
 			continue
 		}
-		m := measure(ts, q)
-		if m < bestM {
-			full, err := ev.eventsOf(cs, nil)
-			if err != nil {
-				continue
+		rs = append(rs, judgedR{c.a, measure(ts, q)})
+	}
+	sort.SliceStable(rs, func(i, j int) bool { return rs[i].m < rs[j].m })
+	for x, r := range rs {
+		if x >= 2 {
+			break
+		}
+		cs, err := ev.curvesAt(applyKnobs(p, ks, r.a))
+		if err != nil {
+			continue
+		}
+		full, err := ev.eventsOf(cs, nil)
+		if err != nil || g.worse(qNow, full, ts) {
+			continue
+		}
+		for i := range full {
+			full[i].grad, full[i].cg, full[i].group = qNow[i].grad, qNow[i].cg, qNow[i].group
+		}
+		ch := &choice{ideal: ideal, rounded: r.a, qAft: full}
+		for k, v := range r.a {
+			if v != 0 {
+				ch.set = append(ch.set, k)
 			}
-			for i := range full {
-				full[i].grad, full[i].cg, full[i].group = qNow[i].grad, qNow[i].cg, qNow[i].group
-			}
-			ch := &choice{ideal: ideal, rounded: c.a, qAft: full}
-			for k, v := range c.a {
-				if v != 0 {
-					ch.set = append(ch.set, k)
-				}
-			}
-			bestC, bestM = ch, m
+		}
+		return ch, measure(ts, full), true, ideal
+	}
+	return nil, math.Inf(1), false, ideal
+}
+
+// surrogate returns today's curves moved by the knobs' changes a through
+// their effect curves, plus defect (per position, nil for none).
+func (ev *evaluator) surrogate(ks []knob, a []float64, defect []curve) []curve {
+	cs := make([]curve, len(ev.ps))
+	shift := 0.0
+	for k, kb := range ks {
+		if kb.p == pValveOffset {
+			shift += a[k]
 		}
 	}
-	return bestC, bestM, bestC != nil, ideal
+	for i := range ev.ps {
+		cs[i] = combine(ev.base[i], ev.sens[i], a, shift)
+		if defect != nil {
+			for k := range cs[i] {
+				if k < len(defect[i]) {
+					cs[i][k] += defect[i][k]
+				}
+			}
+		}
+	}
+	return cs
 }
 
 // polish solves the knobs in set on the linkage itself, from the linear
-// model's changes a0: Gauss-Newton on the objective with the ridge, each
-// step's events and gradients found on the curves sampled afresh where
-// the changes have got to, within the knobs' limits, halving a step that
-// does not lower the sum. The terms are reweighted toward the largest
-// after each step (Lawson's rule, as minimaxIdeal), tenfold where a
-// position would end worse than today, and the changes kept are those
-// with the least worst term among the points reached that leave nothing
-// worse. It returns the changes and the events there, with the knobs'
-// gradients.
-func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []quantities, set []int, a0 []float64, g goal) ([]float64, []quantities) {
+// model's changes a0: Gauss-Newton on the objective with the ridge, the
+// events found afresh at each step on the curves the changes give (today's
+// curves moved by the knobs' effect curves, corrected by what the linkage
+// solved afresh at the last answer shows them to miss: so the linkage is
+// solved twice a polish, not at every step), within the knobs' limits,
+// halving a step that does not lower the sum. The terms are reweighted
+// toward the largest after each step (Lawson's rule, as minimaxIdeal),
+// tenfold where a position would end worse than today, and the changes
+// kept are those with the least worst term among the points reached that
+// leave nothing worse. It returns the changes and the events there, on the
+// linkage, with the knobs' gradients.
+func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []quantities, set []int, a0 []float64, g goal) ([]float64, []quantities, []curve) {
 	rd := ridge(ks, ts, qNow)
-	revs := ev.revs()
 	tw := make([]float64, len(ts))
 	for i := range tw {
 		tw[i] = 1
@@ -405,118 +439,149 @@ func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []q
 		}
 		return c
 	}
-	at := func(a []float64) ([]quantities, bool) {
-		pa := applyKnobs(p, ks, a)
-		raw, err := gearCurves(ev.spec, pa, revs, ev.tr, true)
+	var defect []curve // per position: the linkage less the surrogate at the last answer
+	curves := func(a []float64) []curve { return ev.surrogate(ks, a, defect) }
+	last := qNow // the events found last, from which the next are followed
+	at := func(a []float64, cs []curve) ([]quantities, bool) {
+		q, err := ev.quick(cs, last, nil)
 		if err != nil {
 			return nil, false
 		}
-		cs := make([]curve, len(raw))
-		for i := range raw {
-			cs[i] = ev.model.corrected(raw[i], ev.ps[i].notch.Reverser)
+		for i := range q {
+			ev.knobGrad(&q[i], cs[i], i, ks)
 		}
-		q, err := ev.quick(cs, qNow, nil)
-		if err != nil {
-			return nil, false
-		}
-		// The set's gradients there, from effect curves sampled there.
-		for _, k := range set {
-			var d []curve
-			if ks[k].p != pValveOffset {
-				if d, err = effect(ev.spec, pa, revs, ev.tr24, ks[k].p, 0.1*ks[k].scale, raw, true); err != nil {
-					return nil, false
-				}
-			}
-			for i := range q {
-				var di curve
-				if d != nil {
-					di = d[i]
-				}
-				ev.gradOne(&q[i], cs[i], di, ks[k])
-			}
-		}
+		last = q
 		return q, true
 	}
+	exact := func(a []float64) ([]curve, bool) {
+		cs, err := ev.curvesAt(applyKnobs(p, ks, a))
+		return cs, err == nil
+	}
 	a := append([]float64(nil), a0...)
-	q, ok := at(a)
-	if !ok {
-		linear := make([]quantities, len(qNow))
-		linearAt(qNow, ks, a, linear)
-		return a, linear
+	bestA, bestM := a, math.Inf(1)
+	var bestCS []curve
+	// Leads move almost in proportion to the changes: one correction
+	// by the linkage is enough there; cut-offs get two.
+	outers := 2
+	if g.prio == EqualLeads {
+		outers = 1
 	}
-	bestA, bestQ, bestM := a, q, math.Inf(1)
-	if !g.worse(qNow, q, ts) {
-		bestM = measure(ts, q)
-	}
-	for it := 0; it < 6; it++ {
-		m := len(set)
-		A := newSym(m)
-		gr := make([]float64, m)
-		for ti, t := range ts {
-			v := t.value(q)
-			for r, k := range set {
-				gk := t.grad(q, ks[k].p)
-				gr[r] -= tw[ti] * gk * v
-				for s2, k2 := range set {
-					A.add(r, s2, tw[ti]*gk*t.grad(q, ks[k2].p))
-				}
-			}
-		}
-		for r, k := range set {
-			A.add(r, r, rd[k])
-			gr[r] -= rd[k] * a[k]
-		}
-		d, solved := A.solve(gr)
-		if !solved {
+	for outer := 0; outer < outers; outer++ {
+		q, ok := at(a, curves(a))
+		if !ok {
 			break
 		}
-		c := cost(a, q)
-		moved := false
-		for scale := 1.0; scale > 0.1; scale /= 2 {
-			b := append([]float64(nil), a...)
-			for r, k := range set {
-				b[k] = math.Max(ks[k].adj.Min, math.Min(ks[k].adj.Max, a[k]+scale*d[r]))
+		for it := 0; it < 8; it++ {
+			m := len(set)
+			A := newSym(m)
+			gr := make([]float64, m)
+			for ti, t := range ts {
+				v := t.value(q)
+				for r, k := range set {
+					gk := t.grad(q, ks[k].p)
+					gr[r] -= tw[ti] * gk * v
+					for s2, k2 := range set {
+						A.add(r, s2, tw[ti]*gk*t.grad(q, ks[k2].p))
+					}
+				}
 			}
-			qb, ok := at(b)
-			if ok && cost(b, qb) < c {
-				a, q, moved = b, qb, true
+			for r, k := range set {
+				A.add(r, r, rd[k])
+				gr[r] -= rd[k] * a[k]
+			}
+			d, solved := A.solve(gr)
+			if !solved {
+				break
+			}
+			c := cost(a, q)
+			moved := false
+			for scale := 1.0; scale > 0.1; scale /= 2 {
+				b := append([]float64(nil), a...)
+				for r, k := range set {
+					b[k] = math.Max(ks[k].adj.Min, math.Min(ks[k].adj.Max, a[k]+scale*d[r]))
+				}
+				if qb, ok := at(b, curves(b)); ok && cost(b, qb) < c {
+					a, q, moved = b, qb, true
+					break
+				}
+			}
+			// Reweight toward the largest terms, and hold positions that
+			// would end worse.
+			s := 0.0
+			for ti, t := range ts {
+				tw[ti] *= math.Abs(t.value(q)) + 1e-6
+				s += tw[ti]
+			}
+			if !(s > 0) {
+				break
+			}
+			for ti, t := range ts {
+				tw[ti] = tw[ti]/s*float64(len(tw)) + 1e-9
+				if g.diffTerm(t) && g.worseAt(qNow, q, t.pos) {
+					tw[ti] *= 10
+				}
+			}
+			if !moved && it > 0 {
 				break
 			}
 		}
-		if moved && !g.worse(qNow, q, ts) {
-			if mq := measure(ts, q); mq < bestM {
-				bestA, bestQ, bestM = a, q, mq
-			}
-		}
-		// Reweight toward the largest terms, and hold positions that
-		// would end worse.
-		s := 0.0
-		for ti, t := range ts {
-			tw[ti] *= math.Abs(t.value(q)) + 1e-6
-			s += tw[ti]
-		}
-		if !(s > 0) {
+		// The linkage itself where the answer has got to.
+		cs, ok := exact(a)
+		if !ok {
 			break
 		}
-		for ti, t := range ts {
-			tw[ti] = tw[ti]/s*float64(len(tw)) + 1e-9
-			if g.diffTerm(t) && g.worseAt(qNow, q, t.pos) {
-				tw[ti] *= 10
+		qe, ok := at(a, cs)
+		if !ok {
+			break
+		}
+		if !g.worse(qNow, qe, ts) {
+			if mq := measure(ts, qe); mq < bestM {
+				bestA, bestM, bestCS = append([]float64(nil), a...), mq, cs
 			}
 		}
-		if !moved && it > 0 {
-			break
+		defect = nil
+		base := curves(a)
+		defect = make([]curve, len(cs))
+		for i := range cs {
+			defect[i] = make(curve, len(cs[i]))
+			for k := range cs[i] {
+				defect[i][k] = cs[i][k]
+				if k < len(base[i]) {
+					defect[i][k] -= base[i][k]
+				}
+			}
 		}
 	}
 	if math.IsInf(bestM, 1) {
-		return a, q
+		bestA, bestCS = a, nil
 	}
-	return bestA, bestQ
-}
-
-// gradOne fills one knob's gradients of a position's quantities on curve
-// c from its effect curve d (nil for the valve on its spindle).
-func (ev *evaluator) gradOne(q *quantities, c curve, d curve, kb knob) {
-	sens := []curve{d}
-	ev.gradFrom(q, c, sens, []knob{kb})
+	cs, ok := bestCS, bestCS != nil
+	if !ok {
+		cs, ok = exact(bestA)
+	}
+	if !ok {
+		linear := make([]quantities, len(qNow))
+		linearAt(qNow, ks, bestA, linear)
+		return bestA, linear, nil
+	}
+	q, ok := at(bestA, cs)
+	if !ok {
+		linear := make([]quantities, len(qNow))
+		linearAt(qNow, ks, bestA, linear)
+		return bestA, linear, nil
+	}
+	// What the surrogate misses at the answer, for judging roundings near
+	// it.
+	defect = nil
+	base := curves(bestA)
+	defect = make([]curve, len(cs))
+	for i := range cs {
+		defect[i] = append(curve(nil), cs[i]...)
+		for k := range base[i] {
+			if k < len(defect[i]) {
+				defect[i][k] -= base[i][k]
+			}
+		}
+	}
+	return bestA, q, defect
 }

@@ -303,11 +303,31 @@ func (ev *evaluator) quick(cs []curve, prev []quantities, ks []knob) ([]quantiti
 	out := make([]quantities, len(ev.ps))
 	for i := range ev.ps {
 		q := prev[i]
-		ok := q.cutOK
+		ok := true
+		var lo, hi float64
+		haveExt := false
 		for k := 0; k < 2 && ok; k++ {
 			end := setting.CylinderEnd(k)
 			x, _ := cs[i].at(q.leadTheta[k])
 			q.lead[k] = ev.spec.Valve.SteamEdge(end, x)
+			if !q.cutOK && (q.cut[k] == 0 || q.cut[k] == 100) {
+				// A port that did not open (or never closed): still so?
+				// Looking at the curve every 5 degrees (an opening
+				// narrower than that takes no steam).
+				if !haveExt {
+					lo, hi, haveExt = cs[i].extremes()
+				}
+				a, b := ev.spec.Valve.SteamEdge(end, lo), ev.spec.Valve.SteamEdge(end, hi)
+				switch {
+				case math.Max(a, b) <= 0:
+					q.cut[k] = 0
+				case math.Min(a, b) > 0:
+					q.cut[k] = 100
+				default:
+					ok = false
+				}
+				continue
+			}
 			th := q.cutTheta[k]
 			conv := false
 			for it := 0; it < 30; it++ {
@@ -344,6 +364,17 @@ func (ev *evaluator) quick(cs []curve, prev []quantities, ks []knob) ([]quantiti
 		out[i] = q
 	}
 	return out, nil
+}
+
+// extremes returns the least and greatest value of the curve looked at
+// every 5 degrees.
+func (c curve) extremes() (lo, hi float64, ok bool) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for th := 0.0; th < 360; th += 5 {
+		x := c.value(th)
+		lo, hi = math.Min(lo, x), math.Max(hi, x)
+	}
+	return lo, hi, true
 }
 
 // eventsOf finds the events of every position on the given curves; with

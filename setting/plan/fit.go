@@ -24,6 +24,10 @@ type Residual struct {
 	// ExpectMM, for a reading to recheck, is what the other readings put
 	// it at, in the reading's own terms (a normalised gauge reading, mm).
 	ExpectMM float64 `json:"expect_mm,omitempty"`
+	// Pair, for a reading to recheck, is the field of another reading
+	// that could as well be the one at fault: the rest cannot tell which,
+	// so both are left out. Empty when the reading stands alone.
+	Pair string `json:"pair,omitempty"`
 }
 
 // Fit is the as-built state of one cylinder found from its readings.
@@ -109,6 +113,13 @@ func scaleOf(spec setting.EngineSpec) float64 {
 // practice, no source: the lifting link, a lever's pins or an eccentric's
 // throw move a 5 in gauge valve by a few tenths of a millimetre at most).
 const unmodelledPrior = 0.3
+
+// portMarkErrorMM is the error (one standard deviation, mm at 5 in gauge
+// scale, growing with the square root of the size) of setting the valve
+// where an edge just cracks: by eye, a light or a thin wire through the
+// port, coarser than the gauge that reads it (common practice, from
+// memory).
+const portMarkErrorMM = 0.015
 
 // suspectFloor is how far (mm, at 5 in gauge scale) the gear's unmodelled
 // errors may put a reading from what the fitted deviations alone predict
@@ -372,14 +383,16 @@ func (pb *problem) setUnmodelled(k float64) {
 				angles = append(angles, o.CrankDeg)
 			}
 		}
+		// One reading alone cannot tell a shift of the valve from a
+		// change of its travel: it gets none.
 		m := 0
 		switch na := len(angles); {
 		case na >= 5:
 			m = 5
 		case na >= 3:
 			m = 3
-		default:
-			m = na
+		case na == 2:
+			m = 2
 		}
 		pb.cStart[g], pb.cN[g] = n, m
 		pb.shape[g] = unmodShape{n: m}
@@ -677,6 +690,21 @@ func (pb *problem) step(s state, d []float64) state {
 // lambda grows tenfold while a step does not lower the sum, shrinking
 // tenfold after one that does (from zero: a pure Gauss-Newton step first).
 func (pb *problem) fitOuter(s state) (state, error) {
+	s, err := pb.fitLM(s)
+	if err == nil && pb.p0 != s.p {
+		// The answer is sampled, so that what follows works on the
+		// linkage there; where it does not close (a step the linear
+		// model took near the end of the linkage's reach), the fit keeps
+		// to where it was last sampled.
+		if pb.sampleAt(s.p, false) != nil {
+			s.p = pb.p0
+		}
+	}
+	return s, err
+}
+
+// fitLM is fitOuter's Levenberg-Marquardt iteration.
+func (pb *problem) fitLM(s state) (state, error) {
 	if pb.p0 != s.p {
 		if err := pb.sampleAt(s.p, false); err != nil {
 			return s, err
@@ -760,7 +788,9 @@ func (pb *problem) fitOuter(s state) (state, error) {
 		if !accepted {
 			if pb.p0 != s.p {
 				if err := pb.sampleAt(s.p, false); err != nil {
-					return s, err
+					// Not sampled there, and the linkage does not close:
+					// keep to where it was last sampled.
+					s.p = pb.p0
 				}
 			}
 			return s, nil
@@ -841,6 +871,8 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 		if o.Kind == session.PortMarkKind {
 			zsum += o.GaugeMM - edgeX(spec.Valve, cylEnd(o.End))
 			zn++
+			// Seeing an edge just crack is coarser than the gauge.
+			sg = math.Hypot(sg, portMarkErrorMM*math.Sqrt(k))
 		}
 		pb.sig[i] = sg
 	}
@@ -1108,7 +1140,11 @@ func (pb *problem) finish(f *Fit, s state, res float64) error {
 	}
 	for _, x := range f.expect {
 		rr := f.Residuals[x.i]
-		rr.ExpectMM = x.expect
+		// What the final fit, made without it, predicts.
+		rr.ExpectMM = pb.predictS(x.i, s)
+		if x.with >= 0 {
+			rr.Pair = pb.obs[x.with].Field
+		}
 		f.Recheck = append(f.Recheck, rr)
 	}
 	if nu > 0 {
@@ -1178,17 +1214,32 @@ func (f *Fit) contradiction(pb *problem) error {
 	return &setting.Error{Field: "readings", Message: fmt.Sprintf("The readings contradict one another (or the engine's dimensions): no setting of the gear follows them closer than %.2f mm, where the gauge reads to %.2f mm. Farthest off: %s. Check that the gauge was not knocked, that the marks are numbered the way the wheel turns, and the gear's dimensions, then take the round again; or plan without the dimensions, from the readings alone.", f.RMSMM, f.resMM, strings.Join(names, "; "))}
 }
 
-// RecheckMessages returns one sentence per reading to take again: "recheck
-// front dead centre, full forward: it reads 4.53 mm, the other readings
-// put it near 2.51 mm; it is left out of the plan until taken again".
+// RecheckMessages returns one sentence per reading to take again: "Take
+// again the front dead centre, full forward: the gauge read 4.53 mm, where
+// the other readings put it near 2.51 mm. It is left out of the plan until
+// it is taken again." Two readings either of which could be at fault get
+// one sentence naming both.
 func (f *Fit) RecheckMessages(unit session.Unit) []string {
 	var out []string
+	done := map[string]bool{}
 	for _, r := range f.Recheck {
+		if done[r.Field] {
+			continue
+		}
+		done[r.Field] = true
 		i := f.index(r.Field)
 		if i < 0 {
 			continue
 		}
 		o := f.obs[i]
+		if r.Pair != "" {
+			if j := f.index(r.Pair); j >= 0 {
+				done[r.Pair] = true
+				out = append(out, fmt.Sprintf("Take again the %s and the %s: one of them disagrees with the other readings by about %s, and they cannot tell which. Both are left out of the plan until they are taken again.",
+					r.Label, f.obs[j].Label, plainLength(math.Abs(Target(o)-r.ExpectMM), unit)))
+				continue
+			}
+		}
 		got, want := Target(o), r.ExpectMM
 		if o.HasGauge && (o.Kind == session.AtDeadCentre || o.Kind == session.InSweep || o.Kind == session.PortMarkKind) {
 			// In the gauge's own terms, as the setter read it.

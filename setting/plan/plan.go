@@ -423,7 +423,7 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 		sub[j] = ks[k]
 	}
 	ideal := ch.ideal
-	sigSub := ev.stepSigmas(sub, ts, qNow, fit)
+	sigSub := ev.stepSigmas(sub, ts, ch.tw, qNow, fit)
 	sig := make([]float64, len(ks))
 	for j, k := range ch.set {
 		sig[k] = sigSub[j]
@@ -481,17 +481,23 @@ func clean(x float64) float64 {
 }
 
 // stepSigmas returns one standard deviation of each knob's ideal change.
-func (ev *evaluator) stepSigmas(ks []knob, ts []term, q []quantities, fit *Fit) []float64 {
+func (ev *evaluator) stepSigmas(ks []knob, ts []term, tw []float64, q []quantities, fit *Fit) []float64 {
 	n := len(ks)
 	out := make([]float64, n)
 	if fit == nil || fit.cov.n == 0 {
 		return out
 	}
+	w := func(ti int) float64 {
+		if ti < len(tw) {
+			return tw[ti]
+		}
+		return 1
+	}
 	A := newSym(n)
-	for _, t := range ts {
+	for ti, t := range ts {
 		for i := range ks {
 			for j := range ks {
-				A.add(i, j, t.grad(q, ks[i].p)*t.grad(q, ks[j].p))
+				A.add(i, j, w(ti)*t.grad(q, ks[i].p)*t.grad(q, ks[j].p))
 			}
 		}
 	}
@@ -531,7 +537,7 @@ func (ev *evaluator) stepSigmas(ks []knob, ts []term, q []quantities, fit *Fit) 
 				continue
 			}
 			for c := range g {
-				g[c] -= at * B[ti][c]
+				g[c] -= w(ti) * at * B[ti][c]
 			}
 		}
 		S[i] = g

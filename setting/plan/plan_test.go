@@ -503,3 +503,45 @@ func TestLatestRound(t *testing.T) {
 		}
 	}
 }
+
+// A reading mistyped by a millimetre in a round of dead-centre readings
+// alone (no sweep to check it against) is named, with what the others put
+// it at, and left out: the plan is made from the rest and still brings the
+// leads together on the true engine (issue 11: one mistyped reading steered
+// the plan).
+func TestMistypedDeadCentreReadingIsNamed(t *testing.T) {
+	kind := setting.KindStephenson
+	sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
+	s := sim.session(t, 0, testAdjustments(kind))
+	r := &s.Cylinders[0].Rounds[0]
+	true4 := r.DeadCentreReadings[4].GaugeMM // front dead centre, full back
+	r.DeadCentreReadings[4].GaugeMM += 1.2
+	p, err := Make(s, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	named := false
+	for _, rc := range p.Recheck {
+		if rc.Field == "cylinders[0].rounds[0].dead_centre_readings[4]" {
+			named = true
+			if rc.Pair == "" && math.Abs(rc.ExpectMM-true4) > 0.15 {
+				t.Errorf("the others put it at %.3f mm; it was %.3f before the slip", rc.ExpectMM, true4)
+			}
+		}
+	}
+	if !named {
+		t.Fatalf("the mistyped reading is not named: %+v", p.Recheck)
+	}
+	msgs := strings.Join(p.fit.RecheckMessages(session.UnitMM), " ")
+	if !strings.Contains(msgs, "front dead centre, full back") || !strings.Contains(msgs, "left out of the plan") {
+		t.Errorf("messages: %q", msgs)
+	}
+	// That end of full back is then the model's, not a reading's: the
+	// plan holds to a tenth (it would have been 1.2 mm off).
+	after := sim.after(t, p.Steps).events(t)
+	for i := 0; i < 3; i++ {
+		if d := math.Abs(after[i].Front.Lead - after[i].Back.Lead); d > 0.1 {
+			t.Errorf("position %d: leads %.3f apart after the plan", i, d)
+		}
+	}
+}

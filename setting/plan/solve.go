@@ -524,19 +524,29 @@ func (ev *evaluator) gradients(p [numParams]float64, r setting.Reverser, q *quan
 		if j == pValveOffset {
 			dx = [4]float64{1, 1, 1, 1}
 		} else {
-			qp := p
-			h := stepOf(j)
-			qp[j] += h
-			g, err := Model{Spec: ev.spec, Dev: devOf(qp)}.Gear()
-			if err != nil {
-				return err
-			}
-			for k, th := range thetas {
-				x, err := g.Valve(e, th, r)
+			// A step either way: the linkage may not close one way near
+			// the end of its reach (then the effect is taken as none).
+			for _, h := range []float64{stepOf(j), -stepOf(j)} {
+				qp := p
+				qp[j] += h
+				g, err := Model{Spec: ev.spec, Dev: devOf(qp)}.Gear()
 				if err != nil {
 					return err
 				}
-				dx[k] = (x - x0[k]) / h
+				var d [4]float64
+				ok := true
+				for k, th := range thetas {
+					x, err := g.Valve(e, th, r)
+					if err != nil {
+						ok = false
+						break
+					}
+					d[k] = (x - x0[k]) / h
+				}
+				if ok {
+					dx = d
+					break
+				}
 			}
 		}
 		q.grad[0][j] = kEdge[0] * dx[0]

@@ -239,9 +239,13 @@ func (e Engine) Session(r *rand.Rand, rd Round) (*session.Session, error) {
 	if e.GaugeSign < 0 {
 		inc = session.GaugeBack
 	}
-	markErr := session.Mark{Scale: session.Deg, Value: 0.5}
+	// The setter states the error of a mark as they know it: the
+	// scribing, the half-millimetre the rule reads to, and setting the
+	// wheel to a mark again, to a tenth (at least 0.1).
+	perMark := math.Sqrt(sq(e.MarkSDDeg) + sq(session.TyreToDeg(0.5, e.WheelMM))/12 + sq(e.SetSDDeg))
+	markErr := session.Mark{Scale: session.Deg, Value: math.Max(0.1, math.Round(perMark*10)/10)}
 	if rd.Tyre {
-		markErr = session.Mark{Scale: session.TyreMM, Value: math.Round(session.DegToTyre(0.5, e.WheelMM)*10) / 10}
+		markErr = session.Mark{Scale: session.TyreMM, Value: math.Max(0.1, math.Round(session.DegToTyre(perMark, e.WheelMM)*10)/10)}
 	}
 	spec := e.Drawing
 	spec.Name = fmt.Sprintf("Trial %s, %s", e.Kind, e.Size)
@@ -273,3 +277,5 @@ func sessionDir(d setting.Direction) session.Direction {
 func reverserOf(p Position) session.ReverserPosition {
 	return session.ReverserPosition{Notch: p.Name}
 }
+
+func sq(x float64) float64 { return x * x }

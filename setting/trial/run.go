@@ -1,6 +1,7 @@
 package trial
 
 import (
+	"evenbeat/setting/session"
 	"fmt"
 	"io"
 	"math"
@@ -231,4 +232,111 @@ func fmtAmounts(a []float64) string {
 		s = append(s, fmt.Sprintf("%+.3f", x))
 	}
 	return strings.Join(s, " ")
+}
+
+// Coverage is how well the plans' stated uncertainty of a step covers
+// the scatter of that step over repeated rounds of the same engine.
+type Coverage struct {
+	Trials int     // plans that made the step
+	SD     float64 // the scatter (standard deviation) of the ideal change
+	Stated float64 // the mean stated one standard deviation
+	Within float64 // share of plans whose ideal change lies within its stated +/- of the mean
+}
+
+// StepCoverage takes trials rounds of readings of engine number i of a
+// bench seeded with seed (the same engine, new readings each time, no
+// slips), plans each with equal leads, and reports for the adjustment the
+// first plan changes most how its ideal change scatters against the
+// +/- the plans state.
+func StepCoverage(seed uint64, i, trials int) (Coverage, error) {
+	r := rand.New(rand.NewPCG(seed, uint64(i)))
+	kind := Kinds[i%len(Kinds)]
+	var e Engine
+	var err error
+	for try := 0; try < 20; try++ {
+		if e, err = NewEngine(r, kind, Options{}); err == nil {
+			break
+		}
+	}
+	if err != nil {
+		return Coverage{}, err
+	}
+	rd := NewRound(r, e, Options{})
+	rd.Wild = -1
+	var kk *knob
+	var amounts, sigmas []float64
+	for t := 0; t < trials; t++ {
+		rt := rand.New(rand.NewPCG(seed+1000, uint64(i*1000+t)))
+		s, err := e.Session(rt, rd)
+		if err != nil {
+			return Coverage{}, err
+		}
+		p, err := plan.Make(s, plan.Options{Priority: plan.EqualLeads, Unit: session.UnitMM})
+		if err != nil {
+			continue
+		}
+		if kk == nil {
+			big := 0.0
+			for _, st := range p.Steps {
+				if math.Abs(st.IdealAmount) > big && !st.Kind.Angular() {
+					big, kk = math.Abs(st.IdealAmount), &knob{st.Kind, st.Eccentric}
+				}
+			}
+			if kk == nil {
+				continue
+			}
+		}
+		for _, st := range p.Steps {
+			if st.Kind == kk.kind && st.Eccentric == kk.ecc && st.SigmaAmount > 0 {
+				amounts = append(amounts, st.IdealAmount)
+				sigmas = append(sigmas, st.SigmaAmount)
+			}
+		}
+	}
+	c := Coverage{Trials: len(amounts)}
+	if c.Trials < 3 {
+		return c, nil
+	}
+	mean := 0.0
+	for _, a := range amounts {
+		mean += a
+	}
+	mean /= float64(len(amounts))
+	for k, a := range amounts {
+		c.SD += (a - mean) * (a - mean)
+		c.Stated += sigmas[k]
+		if math.Abs(a-mean) <= sigmas[k] {
+			c.Within++
+		}
+	}
+	c.SD = math.Sqrt(c.SD / float64(len(amounts)-1))
+	c.Stated /= float64(len(amounts))
+	c.Within /= float64(len(amounts))
+	return c, nil
+}
+
+// RunOneFirst is RunOne with the first priority only and no second round,
+// for looking at one plan quickly.
+func RunOneFirst(seed uint64, i int) (Case, error) {
+	r := rand.New(rand.NewPCG(seed, uint64(i)))
+	kind := Kinds[i%len(Kinds)]
+	var e Engine
+	var err error
+	for try := 0; try < 20; try++ {
+		if e, err = NewEngine(r, kind, Options{}); err == nil {
+			break
+		}
+	}
+	if err != nil {
+		return Case{}, err
+	}
+	rd := NewRound(r, e, Options{})
+	s, err := e.Session(r, rd)
+	if err != nil {
+		return Case{}, err
+	}
+	c := Case{Seed: seed, Index: i, Engine: e, Round: rd}
+	res, err := e.Try(s, Priorities[0])
+	c.Results = append(c.Results, res)
+	return c, err
 }

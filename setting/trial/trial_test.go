@@ -62,3 +62,38 @@ func TestTrials(t *testing.T) {
 		}
 	}
 }
+
+// The +/- a plan states for a step covers about two thirds of the
+// scatter of that step over repeated rounds of the same engine (one
+// standard deviation of a normal scatter: 68 %), checked over engines of
+// every gear, with readings and marks as a setter takes them.
+func TestStepUncertaintyCoversTheScatter(t *testing.T) {
+	engines, trials := 12, 20
+	if testing.Short() {
+		engines, trials = 6, 12
+	}
+	var within, ratio []float64
+	for i := 0; i < engines; i++ {
+		c, err := StepCoverage(1, i, trials)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if c.Trials < trials/2 || c.SD == 0 {
+			continue
+		}
+		within = append(within, c.Within)
+		ratio = append(ratio, c.Stated/c.SD)
+		t.Logf("engine %d: %d plans, scatter %.4f, stated %.4f, within %.0f %%", i, c.Trials, c.SD, c.Stated, 100*c.Within)
+	}
+	if len(within) < engines/2 {
+		t.Fatalf("only %d engines gave a step to check", len(within))
+	}
+	mw, mr := quantile(within, 0.5), quantile(ratio, 0.5)
+	t.Logf("median share within the stated +/-: %.0f %%; median stated over scatter: %.2f", 100*mw, mr)
+	if mw < 0.5 || mw > 0.9 {
+		t.Errorf("the stated +/- covers a median %.0f %% of the scatter; about two thirds wanted", 100*mw)
+	}
+	if mr < 0.6 || mr > 1.8 {
+		t.Errorf("the stated +/- is a median %.2f times the scatter", mr)
+	}
+}

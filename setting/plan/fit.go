@@ -1252,6 +1252,87 @@ func (f *Fit) RecheckMessages(unit session.Unit) []string {
 	return out
 }
 
+// Findings says where the engine, as the readings show it, differs from
+// its drawing by more than a build would leave or the readings can
+// explain: a deviation more than three times its prior ("the fit puts the
+// radius rod 9.10 mm longer than drawn"), and a reverser position whose
+// readings the drawing cannot follow at a dead centre by more than a
+// tenth of a millimetre (scaled with the crank) and three times the
+// reading's own error. The plan works from the readings either way; these
+// say what to check on the drawing or the engine.
+func (f *Fit) Findings(unit session.Unit) []string {
+	var out []string
+	d := f.Model.Dev.vec()
+	for _, j := range f.idx {
+		if j == pGaugeZero || j == pDeadCentre || !(math.Abs(d[j]) > 3*f.prior[j]) {
+			continue
+		}
+		what := ""
+		switch j {
+		case pValveOffset:
+			what = fmt.Sprintf("the valve %s from where the drawing puts it on its spindle", movedWords(d[j], unit))
+		case pEccFwd, pEccBack:
+			what = fmt.Sprintf("the %s %.1f deg %s than drawn", j.name(), math.Abs(d[j]), moreLess(d[j], "more advanced", "less advanced"))
+		case pReturnCrank:
+			what = fmt.Sprintf("the return crank %.1f deg off its drawn angle", math.Abs(d[j]))
+		case pLapFront, pLapBack:
+			what = fmt.Sprintf("the %s %s %s than drawn", j.name(), plainLength(math.Abs(d[j]), unit), moreLess(d[j], "more", "less"))
+		default:
+			what = fmt.Sprintf("the %s %s %s than drawn", strings.TrimSuffix(j.name(), " length"), plainLength(math.Abs(d[j]), unit), moreLess(d[j], "longer", "shorter"))
+		}
+		out = append(out, fmt.Sprintf("The readings put %s: far more than a build would leave. Check that dimension on the drawing and on the engine; the plan works from the readings.", what))
+	}
+	k := scaleOf(f.Model.Spec)
+	crank, err := f.Model.Spec.Engine.Prepare()
+	if err != nil {
+		return out
+	}
+	var where []string
+	for g, r := range f.revs {
+		u := f.Model.correction(r)
+		if u == nil || g >= len(f.cN) || f.cN[g] == 0 {
+			continue
+		}
+		worst := 0.0
+		for _, end := range []setting.CylinderEnd{setting.Front, setting.Back} {
+			x, _ := u.at(crank.DeadCentre(end))
+			worst = math.Max(worst, math.Abs(x))
+		}
+		// The reading's own error there, as the fit weighed it, and the
+		// position's name as the readings give it.
+		sig, name := 0.0, ""
+		for i, o := range f.obs {
+			if o.Reverser == r && o.Notch != "" {
+				name = o.Notch
+			}
+			if o.Kind == session.AtDeadCentre && o.Reverser == r && i < len(f.sig) {
+				sig = math.Max(sig, f.sig[i])
+			}
+		}
+		if worst > math.Max(0.15*k, 4*sig) {
+			where = append(where, fmt.Sprintf("%s (%s)", notchName(name, r), plainLength(worst, unit)))
+		}
+	}
+	if len(where) > 0 {
+		out = append(out, fmt.Sprintf("At the dead centres the readings differ from the gear as drawn by more than their errors explain, in %s: a dimension of the drawing, or of the engine, is off there (a rod, the link or its hanging, the die's place in the notch). The plan works from the readings.", strings.Join(where, ", ")))
+	}
+	return out
+}
+
+// moreLess picks words by the sign of x.
+func moreLess(x float64, plus, minus string) string {
+	if x < 0 {
+		return minus
+	}
+	return plus
+}
+
+// movedWords says how far and which way the valve stands: "1.20 mm toward
+// the front cover".
+func movedWords(x float64, unit session.Unit) string {
+	return plainLength(math.Abs(x), unit) + " " + moreLess(x, "toward the front cover", "toward the back")
+}
+
 // gaugeSense returns +1 when the raw gauge reading grows with the
 // normalised one, -1 when the gauge is mounted the other way.
 func gaugeSense(o session.Observation) float64 {

@@ -294,6 +294,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 		notes = append(notes, "The lead cannot be brought to the target: only an eccentric's angle changes the lead, and the profile allows none; the plan shares the lead between the ends.")
 	}
 	plan.Notes = append(plan.Notes, fit.RecheckMessages(opt.Unit)...)
+	plan.Notes = append(plan.Notes, fit.Findings(opt.Unit)...)
 	plan.Notes = append(plan.Notes, notes...)
 
 	if err := ev.setKnobs(p, ks, fit); err != nil {

@@ -545,3 +545,36 @@ func TestMistypedDeadCentreReadingIsNamed(t *testing.T) {
 		}
 	}
 }
+
+// A deviation beyond what a build would leave is never used silently: the
+// plan names it (a radius rod 9 mm longer than drawn on a 5 in gauge
+// gear), while ordinary build errors give no such finding (issue 11).
+func TestFindingsNameWhatIsOff(t *testing.T) {
+	kind := setting.KindWalschaerts
+	for _, c := range []struct {
+		dev  Deviations
+		want string
+	}{
+		{injected(kind), ""},
+		{Deviations{GaugeZeroMM: 5, ValveOffsetMM: 0.1, RadiusRodMM: 9}, "radius rod"},
+	} {
+		sim := simulated{spec: testSpec(t, kind), dev: c.dev}
+		p, err := Make(sim.session(t, 15, testAdjustments(kind)), Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		var found []string
+		for _, n := range p.Notes {
+			if strings.Contains(n, "far more than a build would leave") {
+				found = append(found, n)
+			}
+		}
+		t.Logf("%+v: %q", c.dev, found)
+		switch {
+		case c.want == "" && len(found) > 0:
+			t.Errorf("ordinary errors give a finding: %q", found)
+		case c.want != "" && (len(found) == 0 || !strings.Contains(found[0], c.want)):
+			t.Errorf("no finding names the %s: %q (deviations %+v)", c.want, found, p.Deviations)
+		}
+	}
+}

@@ -18,36 +18,75 @@
 // # The model
 //
 // Model is the engine as drawn (setting.EngineSpec) plus Deviations, the
-// as-built errors: the valve's place on its spindle, eccentric angles and
-// rod lengths, the Walschaerts return crank angle and radius rod length,
-// the gauge zero, and the error of the marked front dead centre.
-// Model.Predict gives the reading each observation should have shown.
+// as-built errors the fit finds: the valve's place on its spindle,
+// eccentric angles and rod lengths, the Walschaerts return crank angle
+// and radius rod length, the steam laps as built (the port marks measure
+// them), the gauge zero, and the error of the marked front dead centre.
+// A real engine has errors no such list holds (an eccentric's throw, a
+// lifting link, a lever's pins, the die's place in the link at a notch),
+// so each reverser position the readings were taken in also has its
+// Unmodelled part: what the readings show that the drawing with its
+// deviations cannot follow. With dead-centre readings alone it is an
+// offset and a small phase shift of that position's own curve (the offset
+// moves its leads apart, the phase together); with a sweep, a short
+// Fourier series. Model.Predict gives the reading each observation should
+// have shown; Model.Curve the valve curve, unmodelled part included.
+//
+// # Measured events first
+//
+// The plan works from what was measured. A lead read at a dead centre
+// against its port mark, a cut-off at the crosshead, a feeler opening:
+// the unmodelled parts (with a prior of 0.3 mm at 5 in gauge, scaled with
+// the crank) let the model follow them within their errors, so today's
+// events are the readings' where the readings measured them and the
+// model's elsewhere, and the model supplies the sensitivities: how each
+// adjustment moves each event. Where the readings at a dead centre differ
+// from the drawing by more than their errors explain, or a deviation is
+// beyond what a build would leave (three times its prior), the plan says
+// so (Fit.Findings) and still works from the readings.
 //
 // # Fit (a), with dimensions
 //
-// FitObservations (FitSession for a session) finds the deviations by
-// nonlinear least squares by Levenberg-Marquardt on the normal equations
-// (Cholesky, plain Go), weighting each reading by its error
-// sqrt(gauge^2 + (valve slope x crank-angle error)^2) with the gauge error
-// resolution / sqrt(12) (uniform quantisation) and the crank-angle error
-// from the tyre marks. Every deviation carries a Gaussian prior (2 mm for
-// lengths, 3 degrees for angles on a 25 mm crank, scaled with the crank; the
-// dead-centre mark by its stated error), so that deviations the readings
-// cannot tell apart (a spindle error and equal errors of both Stephenson
-// rods; a mismarked dead centre and an eccentric angle) share the change
-// the way the drawing makes likely; the events do not depend on how they
-// share it. Fit.Undecided names those the readings left at their prior.
+// FitObservations (FitSession for a session) finds the deviations and
+// unmodelled parts by nonlinear least squares by Levenberg-Marquardt on
+// the normal equations (Cholesky, plain Go), weighting each reading by its
+// error sqrt(gauge^2 + (valve slope x crank-angle error)^2) with the gauge
+// error resolution / sqrt(12) (uniform quantisation; a port mark adds the
+// error of seeing an edge crack) and the crank-angle error from the tyre
+// marks. Every deviation carries a Gaussian prior: a careful build's
+// errors (1.5 mm for the spindle and rods, 2 mm for a radius rod, 3
+// degrees for angles, 0.1 mm for a lap, on a 25 mm crank and scaled with
+// it; the dead-centre mark by its stated error), so that deviations the
+// readings cannot tell apart (a spindle error and equal errors of both
+// Stephenson rods) share the change the way the drawing makes likely; the
+// events do not depend on how they share it. Fit.Undecided names those
+// the readings left at their prior. The dead-centre mark is fitted only
+// with a sweep, whose marks show the curve's phase.
+//
+// A reading on a dead centre is placed on the engine's own dead centre
+// (the brackets found it; see package session), and marks round the tyre
+// are put in proportion to the bracketed dead centres.
 //
 // The linkage is solved at 32 crank angles per reverser position and held
 // as its trigonometric interpolant (better than 1e-4 mm, about 1e-9 mm on
 // the test engines); derivatives by each deviation are effect curves
-// sampled at 24 angles. A reading more
-// than 3 robust standard deviations (1.4826 x the median absolute
-// normalised residual, each at least the gauge resolution) from the fit is
-// named ("recheck: back dead centre, full forward, 0.31 mm off the fit"),
-// left out, and the fit repeated (up to three readings). Readings that no
-// state of the gear follows within ten times their errors are refused as
-// contradictory.
+// sampled at 24 angles.
+//
+// A reading the others contradict is named and left out. Without a sweep,
+// the deviations alone are fitted first, where the readings check one
+// another through the linkage: the readings whose deleted residual
+// (r/(1-h), h the leverage) lies more than three of its standard
+// deviations off (a floor of 0.15 mm for what unmodelled errors explain)
+// and more than 0.15 mm are suspects; the fit is made again without each,
+// and the one whose leaving out makes the rest agree (every residual
+// within three standard deviations) is named with what the fit without it
+// predicts ("Take again the front dead centre, full back: the gauge read
+// 4.53 mm, where the other readings put it near 3.33 mm"). Two that would
+// each explain the rest are named as a pair and both left out. With a
+// sweep, a knocked reading stands out against the unmodelled parts: a
+// deleted residual five standard deviations off, twice any other's.
+// Readings that no state of the gear follows within ten times their
+// errors are refused as contradictory.
 //
 // # Fit (b), without dimensions
 //
@@ -66,42 +105,47 @@
 // The adjustments of the session's profile are the knobs. The plan is
 // judged by front-minus-back differences over the positions planned (full
 // forward, the engine's notches, full back; a fixed single eccentric has
-// only full forward): leads (per 0.01 mm) for EqualLeads; the running
-// notch's cut-offs (per 0.1 % of stroke) for EqualCutOffs; both (per
-// 0.05 mm and per 1 %) by Options.Weight for Balanced. Each position
-// counts by how well the readings know its difference (a position nobody
-// measured counts for little). A mean-lead term holds the lead at
-// Options.TargetLeadMM in full gear, or at the drawing's, only where an
-// eccentric sheave may be turned, since nothing else changes the lead
+// only full forward): leads (per 0.01 mm) for EqualLeads; cut-offs (per
+// 0.1 % of stroke) in every position for EqualCutOffs, the running notch
+// first (the others weigh 0.85: full forward and full back are not given
+// away for it); both (per 0.05 mm and per 1 %) by Options.Weight for
+// Balanced. Each position counts by how well the readings know its
+// difference (a position nobody measured counts for little, the running
+// notch of a cut-off plan always fully). A mean-lead term holds the lead
+// at Options.TargetLeadMM in full gear, or at the drawing's, only where
+// an eccentric sheave may be turned, since nothing else changes the lead
 // itself.
 //
 // Eccentric sheaves are turned only for a target lead, when the mean lead
 // of the gear an eccentric drives is far from the drawing's (a slipped
-// sheave; the plan says so), or when the profile allows nothing else: a
-// spindle or rod change shares the lead between the ends, a sheave
-// changes it at both. A knob that acts mainly where the readings pin
-// nothing down (a backward rod with no readings in back gear) is left
-// alone, and the plan says which readings to take.
+// sheave; the plan says so), or when the profile allows nothing else. A
+// knob that acts mainly where the readings pin nothing down (a backward
+// rod with no readings in back gear) is left alone, and the plan says
+// which readings to take.
 //
-// Every set of the usable knobs is solved by least squares, linear in the
-// changes about today (the events' gradients by the implicit-function
-// rule: a lead moves with the valve at dead centre, a cut-off's crank angle
-// by -(dx/dp)/(dx/dtheta)), and each knob rounded to the whole steps
-// either side of its ideal. For cut-offs, whose events are far from
-// linear (a port may not open at all today), the whole set and the
-// favourite set are solved again by bounded Gauss-Newton on the events
-// themselves, and their roundings judged there. A plan is refused when it
-// leaves any position worse than today by more than the readings can tell
-// (the lead differences, for EqualLeads; the running notch's cut-off
-// difference, for EqualCutOffs; the whole objective, for Balanced). Of the
-// rest the plan with the fewest steps is taken whose worst weighted
-// difference comes within what the setter can measure of the best any
-// plan reaches (two gauge divisions, or the uncertainty of the
-// differences, whichever is larger), then the smallest changes; an
-// adjustment rounded to nothing is no step. So a plan does not buy a
-// hundredth of a millimetre with large changes that cancel one another.
-// The favourite is checked on the linkage solved afresh with its rounded
-// changes, and the next taken when it does not hold up.
+// The search (search.go): every set of the usable knobs is solved on the
+// model linear in the changes about today (the events' gradients by the
+// implicit-function rule: a lead moves with the valve at dead centre, a
+// cut-off's crank angle by -(dx/dp)/(dx/dtheta)), by least squares with a
+// ridge for the doubt of each knob's effect (effectDoubt, 5 %: no small
+// gain bought with large changes that cancel), then its worst term
+// brought down by reweighting toward the largest (Lawson's rule), tenfold
+// on any position it would leave worse than today. The sets are ranked:
+// those within a gauge division (cut-offs: 0.2 %) of the best, fewest
+// knobs first, then the smallest changes; then the rest, closest first.
+// For cut-offs the leading sets are solved on the linkage before they are
+// ranked. In that order the chosen set is polished on the linkage itself
+// (Gauss-Newton with Lawson's weights on curves moved by the knobs'
+// effects, corrected by the linkage solved afresh at the answer: its ideal
+// changes are Plan.Ideal), rounded to the whole steps of each adjuster
+// either side, and the roundings judged (the best two on the linkage
+// solved afresh). A plan never leaves a position worse than today by more
+// than the setter could see on measuring again (a lead difference: 1.5
+// gauge divisions or 1.2 times its error as read; a cut-off difference
+// 0.3 % of stroke; Balanced: the whole objective); no change is the
+// answer only when nothing gains more than half a division. An adjuster
+// whose ideal change rounds to nothing is named in a note with what it
+// would want.
 //
 // Rounding: a length on a thread moves in whole flats (pitch / flats per
 // turn; 6 when not given; a thread turned by halves is written in half
@@ -125,15 +169,17 @@
 //
 // # Uncertainty
 //
-// The fit's covariance (J^T W J + P)^-1, scaled by the reduced chi-square
-// when that exceeds one, is carried by linearised propagation to each lead
-// and cut-off and to each ideal change (-(A^T A)^-1 A^T B: A the objective's
-// gradients by the knobs the plan moves, B by the fitted deviations); a
-// step's error is given with the other steps made as planned (the
-// conditional standard deviation), since knobs that act alike can leave
-// single changes uncertain while their sum is not. When an event in some
-// position stays uncertain (a lead to more than 0.05 mm, a cut-off to
-// more than 1 %), Plan.NextReading says which reading to take.
+// The fit's covariance (J^T W J + P)^-1, over the deviations and the
+// unmodelled parts, scaled by the reduced chi-square when that exceeds
+// one, is carried by linearised propagation to each lead and cut-off and
+// to each ideal change (-(A^T A + R)^-1 A^T B: A the objective's
+// gradients by the knobs the plan moves, R the ridge, B the gradients by
+// the fitted parameters). A step's +/- is
+// the whole scatter of its ideal change over repeated rounds: the bench's
+// TestStepUncertaintyCoversTheScatter holds it to cover about two thirds
+// of that scatter. When an event in some position stays uncertain (a lead
+// to more than 0.05 mm, a cut-off to more than 1 %), Plan.NextReading says
+// which reading to take.
 //
 // # Command-line writers
 //
@@ -148,8 +194,11 @@
 // # Plan JSON (format "evenbeat-plan", version 1)
 //
 // Top level: format, version, display_unit, engine, cylinder, priority
-// ("leads", "cut-offs", "balanced"), steps, now, after, other, notes,
-// recheck, next_reading, fit_rms_mm, deviations, cautions. Each step:
+// ("leads", "cut-offs", "balanced"), steps, ideal_changes (the continuous
+// solution: kind, eccentric, unit, amount), now, after, other, notes,
+// recheck (each with expect_mm, what the other readings put it at, and
+// pair for two either of which is at fault), next_reading, fit_rms_mm,
+// deviations (steam_lap_mm among them), cautions. Each step:
 //
 //	{"part": "backward eccentric rod", "kind": "eccentric_rod_length",
 //	 "eccentric": "backward", "unit": "mm", "sign": "+ = lengthened",

@@ -1175,7 +1175,10 @@ func (pb *problem) finish(f *Fit, s state, res float64) error {
 		sv[j] = math.Sqrt(cov.at(a, a))
 		if j != pGaugeZero {
 			f.Fitted = append(f.Fitted, j.name())
-			if sv[j] > 0.7*pb.prior[j]*math.Sqrt(f.varScale) {
+			// (A lap is always shared with the spindle by the port
+			// marks: the plan never depends on which, and saying so
+			// every time would bury the notes that matter.)
+			if sv[j] > 0.7*pb.prior[j]*math.Sqrt(f.varScale) && j != pLapFront && j != pLapBack {
 				f.Undecided = append(f.Undecided, j.name())
 			}
 		}

@@ -424,7 +424,7 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 		sub[j] = ks[k]
 	}
 	ideal := ch.ideal
-	sigSub := ev.stepSigmas(sub, ts, ch.tw, qNow, fit)
+	sigSub := ev.stepSigmas(sub, ts, qNow, fit)
 	sig := make([]float64, len(ks))
 	for j, k := range ch.set {
 		sig[k] = sigSub[j]
@@ -482,23 +482,17 @@ func clean(x float64) float64 {
 }
 
 // stepSigmas returns one standard deviation of each knob's ideal change.
-func (ev *evaluator) stepSigmas(ks []knob, ts []term, tw []float64, q []quantities, fit *Fit) []float64 {
+func (ev *evaluator) stepSigmas(ks []knob, ts []term, q []quantities, fit *Fit) []float64 {
 	n := len(ks)
 	out := make([]float64, n)
 	if fit == nil || fit.cov.n == 0 {
 		return out
 	}
-	w := func(ti int) float64 {
-		if ti < len(tw) {
-			return tw[ti]
-		}
-		return 1
-	}
 	A := newSym(n)
-	for ti, t := range ts {
+	for _, t := range ts {
 		for i := range ks {
 			for j := range ks {
-				A.add(i, j, w(ti)*t.grad(q, ks[i].p)*t.grad(q, ks[j].p))
+				A.add(i, j, t.grad(q, ks[i].p)*t.grad(q, ks[j].p))
 			}
 		}
 	}
@@ -538,7 +532,7 @@ func (ev *evaluator) stepSigmas(ks []knob, ts []term, tw []float64, q []quantiti
 				continue
 			}
 			for c := range g {
-				g[c] -= w(ti) * at * B[ti][c]
+				g[c] -= at * B[ti][c]
 			}
 		}
 		S[i] = g

@@ -11,9 +11,6 @@ type choice struct {
 	rounded []float64
 	qAft    []quantities // exact: the linkage solved afresh with the rounded changes
 	set     []int        // knobs with a step
-	// tw weighs each term as the solver did at its answer (Lawson's
-	// weights: the worst positions count most); nil for alike.
-	tw []float64
 }
 
 // option is one set of knobs with its continuous changes, judged on the
@@ -28,8 +25,7 @@ type option struct {
 	// there (see polish).
 	polished bool
 	q        []quantities
-	defect   []curve   // the linkage less the surrogate curves at a (see polish)
-	tw       []float64 // the polish's term weights at its answer
+	defect   []curve // the linkage less the surrogate curves at a (see polish)
 }
 
 // choose finds the plan that comes closest to the priority's goal in the
@@ -138,9 +134,9 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 				continue
 			}
 			polished++
-			a, q, d, tw := ev.polish(p, ks, ts, qNow, o.set, o.a, g)
+			a, q, d := ev.polish(p, ks, ts, qNow, o.set, o.a, g)
 			if !g.worse(qNow, q, ts) {
-				o.a, o.q, o.defect, o.tw, o.measure, o.polished = a, q, d, tw, measure(ts, q), true
+				o.a, o.q, o.defect, o.measure, o.polished = a, q, d, measure(ts, q), true
 			}
 		}
 		rank()
@@ -251,9 +247,9 @@ func minimaxIdeal(ks []knob, ts []term, qNow []quantities, set []int, rd []float
 // it returns the best rounding that leaves nothing worse, with its
 // measure on the linkage, and the polished ideal.
 func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow []quantities, g goal, o option) (*choice, float64, bool, []float64) {
-	ideal, qI, defect, tw := o.a, o.q, o.defect, o.tw
+	ideal, qI, defect := o.a, o.q, o.defect
 	if !o.polished {
-		ideal, qI, defect, tw = ev.polish(p, ks, ts, qNow, o.set, o.a, g)
+		ideal, qI, defect = ev.polish(p, ks, ts, qNow, o.set, o.a, g)
 	}
 	n := len(ks)
 	lin := make([]quantities, len(qNow))
@@ -381,7 +377,7 @@ func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow 
 		for i := range full {
 			full[i].grad, full[i].cg, full[i].group = qNow[i].grad, qNow[i].cg, qNow[i].group
 		}
-		ch := &choice{ideal: ideal, rounded: r.a, qAft: full, tw: tw}
+		ch := &choice{ideal: ideal, rounded: r.a, qAft: full}
 		for k, v := range r.a {
 			if v != 0 {
 				ch.set = append(ch.set, k)
@@ -427,7 +423,7 @@ func (ev *evaluator) surrogate(ks []knob, a []float64, defect []curve) []curve {
 // kept are those with the least worst term among the points reached that
 // leave nothing worse. It returns the changes and the events there, on the
 // linkage, with the knobs' gradients.
-func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []quantities, set []int, a0 []float64, g goal) ([]float64, []quantities, []curve, []float64) {
+func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []quantities, set []int, a0 []float64, g goal) ([]float64, []quantities, []curve) {
 	rd := ridge(ks, ts, qNow)
 	tw := make([]float64, len(ts))
 	for i := range tw {
@@ -566,13 +562,13 @@ func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []q
 	if !ok {
 		linear := make([]quantities, len(qNow))
 		linearAt(qNow, ks, bestA, linear)
-		return bestA, linear, nil, tw
+		return bestA, linear, nil
 	}
 	q, ok := at(bestA, cs)
 	if !ok {
 		linear := make([]quantities, len(qNow))
 		linearAt(qNow, ks, bestA, linear)
-		return bestA, linear, nil, tw
+		return bestA, linear, nil
 	}
 	// What the surrogate misses at the answer, for judging roundings near
 	// it.
@@ -587,5 +583,5 @@ func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []q
 			}
 		}
 	}
-	return bestA, q, defect, tw
+	return bestA, q, defect
 }

@@ -9,8 +9,11 @@
 // allowed change could reach is found by direct optimisation with the
 // truth known, so a plan is judged against what was possible.
 //
-// It is the project's bench for the plan (see Run and the test that prints
-// its table); nothing in the app imports it. It imports the standard
+// It is the project's bench for the plan: TestTrials runs it and prints
+// its table (go test -run TestTrials -v ./setting/trial; EVENBEAT_TRIALS=600
+// for the full figures), TestStepUncertaintyCoversTheScatter checks each
+// step's +/- against repeated rounds (StepCoverage). Nothing in the app
+// imports it. It imports the standard
 // library and evenbeat/setting, evenbeat/setting/session and
 // evenbeat/setting/plan.
 //
@@ -21,8 +24,9 @@
 // errors, a Stephenson lifting link, link suspension and weighshaft arm, a
 // Walschaerts return crank's throw, combination lever pins, union link and
 // crosshead arm, the die's place in the link at each notch), the valve's
-// place on its spindle, and the measuring set-up (gauge zero, scale and
-// the datum and the marks). A plan's step is made on the
+// place on its spindle, and the measuring set-up (gauge zero and scale,
+// the datum and the marks; lost motion is left out, since the setter
+// turns the wheels the way the engine runs). A plan's step is made on the
 // truth the way the planner's sign conventions say (package session's
 // adjustment kinds): the spindle moves the valve, a sheave's angle of
 // advance, a rod's length, a return crank's angle.
@@ -32,11 +36,18 @@
 // Per engine and priority: the worst front-minus-back difference over the
 // planned positions (full forward, the running notches, full back) of the
 // leads (mm) and cut-offs (% of stroke), before the plan, after its ideal
-// (continuous) amounts, after its rounded amounts, and the best reachable
-// with the truth known. Equal leads pass at 0.02 mm (continuous);
-// rounded amounts pass within one step of the finest adjuster acting
-// there. Equal cut-offs pass within 0.5 % of stroke of the best reachable.
-// A plan is "worse" when any position ends farther from equal than before
-// by more than the readings can tell (0.02 mm, 0.5 %), and a "refusal"
-// when it changes nothing while the best reachable gains more than that.
+// (continuous) amounts (Plan.Ideal), after its rounded amounts, and the
+// best reachable with the truth known: without turning a sheave (a setter
+// turns one for a lead wanted, not to share one) and without leaving a
+// position worse than before. Equal leads pass at 0.02 mm on a 5 in
+// gauge engine (in proportion to the crank on a larger one) or within
+// half that of the best reachable where no change reaches it; equal
+// cut-offs within 0.5 % of stroke of the best reachable; rounded amounts
+// within that and one step of the finest adjuster acting on the worst
+// position. A plan is "worse" when a position ends farther from equal
+// than before by more than the readings can tell (0.02 mm, 0.5 %, or
+// for a balance the whole objective), and a "refusal" when it changes
+// nothing while whole steps could gain more than that. The second round
+// makes the first plan's rounded steps, reads the engine again and plans
+// again.
 package trial

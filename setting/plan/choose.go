@@ -219,6 +219,16 @@ type policy struct {
 	usable []bool
 	mean   []bool // positions whose mean lead is held (at the drawing's or the target)
 	notes  []string
+	// slipped are the sheaves (knob indexes) found slipped, with the
+	// note saying so; whether the plan turns each back is said once the
+	// steps are known.
+	slipped []slip
+}
+
+// slip is a sheave found slipped: its knob and the note saying so.
+type slip struct {
+	k    int
+	note string
 }
 
 // sheavePolicy decides whether eccentric sheaves may be turned: only for a
@@ -274,8 +284,8 @@ func (ev *evaluator) sheavePolicy(ks []knob, qNow []quantities, obj objective, c
 			d := obj.design[pos]
 			if math.Abs(m-d) > math.Max(0.5*math.Abs(d), 0.1*kc)+2*sm {
 				pol.mean[pos] = true
-				pol.notes = append(pol.notes, fmt.Sprintf("The mean lead in %s is %s, far from the drawing's %s: the %s has probably slipped on the axle. A spindle or rod change only shares the lead between the ends, so the plan turns the sheave back.",
-					ev.ps[pos].name(), length(m, unit), length(d, unit), partName(k.adj, ev.spec.Gear.Kind)))
+				pol.slipped = append(pol.slipped, slip{i, fmt.Sprintf("The mean lead in %s is %s, far from the drawing's %s: the %s has probably slipped on the axle. A spindle or rod change only shares the lead between the ends.",
+					ev.ps[pos].name(), length(m, unit), length(d, unit), partName(k.adj, ev.spec.Gear.Kind))})
 			} else {
 				pol.usable[i] = false
 			}

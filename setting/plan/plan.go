@@ -408,6 +408,13 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 	}
 	rounded := ch.rounded
 	out := &planned{prio: obj.prio, qNow: qNow, qAft: ch.qAft, notes: pol.notes}
+	for _, sl := range pol.slipped {
+		if ch.rounded[sl.k] != 0 {
+			out.notes = append(out.notes, sl.note+" The plan turns the sheave back.")
+		} else {
+			out.notes = append(out.notes, sl.note+" The plan leaves it as it is: turning it would not bring this priority closer in steps hands can make. Check its key or grub screw.")
+		}
+	}
 	out.now = ev.states(qNow, fit)
 	// The rounded plan's events come from the linkage solved afresh; their
 	// errors are today's (the plan adds none the readings can see).

@@ -156,6 +156,9 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 		if o.measure >= zeroM-g.fine && !blind {
 			continue // gains nothing the setter could see
 		}
+		if len(found) > 0 && o.measure >= found[0].measure-g.slack {
+			continue // could not beat the plan found by more than the slack
+		}
 		tried++
 		c, m, ok, ideal := ev.roundBest(p, ks, ts, qNow, g, o)
 		if firstIdeal == nil {

@@ -296,10 +296,11 @@ func (ev *evaluator) sheavePolicy(ks []knob, qNow []quantities, obj objective, c
 	// A knob that acts mainly where the readings pin nothing down (a
 	// backward rod when full back was not measured) is left alone: its
 	// change there could not be judged, and the setter measures that gear
-	// before setting it.
+	// before setting it. (Lead differences only: a cut-off is seldom
+	// measured, and the model is what tells it in every position.)
 	var unknownPos []bool
 	for i, k := range ks {
-		if !pol.usable[i] || isSheave(k) {
+		if !pol.usable[i] || isSheave(k) || obj.prio == EqualCutOffs {
 			continue
 		}
 		if unknownPos == nil {

@@ -294,7 +294,17 @@ func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow 
 	// A step either way on one knob or two together, while that helps on
 	// the linear model: coarse steps on one adjuster can be made up by
 	// another.
+	// Each step away from the ideal costs half a division (a division for
+	// two knobs a step off together, four for one two steps off).
+	away := func(a []float64) float64 {
+		c := 0.0
+		for _, k := range o.set {
+			c += sq((a[k] - ideal[k]) / ks[k].step)
+		}
+		return g.fine * c
+	}
 	cur := cands[0]
+	cur.m += away(cur.a)
 	for it := 0; it < 20; it++ {
 		moved := false
 		try := func(a []float64) {
@@ -302,8 +312,15 @@ func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow 
 				if a[k] < ks[k].adj.Min-1e-9 || a[k] > ks[k].adj.Max+1e-9 {
 					return
 				}
+				// No further than a step beyond the whole steps either
+				// side of the ideal: knobs acting alike would otherwise
+				// walk far along their valley, trading changes whose
+				// errors do not cancel on the engine.
+				if math.Abs(a[k]-ideal[k]) > 2*ks[k].step {
+					return
+				}
 			}
-			if m := linAbout(a); m < cur.m-1e-9 {
+			if m := linAbout(a) + away(a); m < cur.m-1e-9 {
 				cur, moved = local{a, m}, true
 			}
 		}

@@ -636,6 +636,7 @@ func (pb *problem) normal(s state, r []float64) (sym, []float64) {
 	A := newSym(m)
 	g := make([]float64, m)
 	row := make([]float64, m)
+	nz := make([]int, 0, m) // the row's non-zero columns: an observation touches its own position's unmodelled part only
 	k := 0
 	for i := range pb.obs {
 		if !pb.use[i] {
@@ -643,14 +644,18 @@ func (pb *problem) normal(s state, r []float64) (sym, []float64) {
 		}
 		pb.row(i, s, row)
 		w := 1 / sq(pb.sig[i])
-		for a := 0; a < m; a++ {
-			if row[a] == 0 {
-				continue
+		nz = nz[:0]
+		for a, v := range row {
+			if v != 0 {
+				nz = append(nz, a)
 			}
-			for b := 0; b <= a; b++ {
-				A.a[a*m+b] += row[a] * row[b] * w
+		}
+		for x, a := range nz {
+			ra := row[a] * w
+			for _, b := range nz[:x+1] {
+				A.a[a*m+b] += ra * row[b]
 			}
-			g[a] -= row[a] * r[k] * w
+			g[a] -= ra * r[k]
 		}
 		k++
 	}

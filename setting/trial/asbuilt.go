@@ -317,6 +317,22 @@ func NewEngine(r *rand.Rand, kind string, opt Options) (Engine, error) {
 		}
 	}
 	e.Adjustments = adjustmentsFor(r, kind, s)
+	// A real gear goes round with its adjusters moved a little either
+	// way: one built at the very end of a link's reach is no engine.
+	ks := knobsOf(e.Adjustments)
+	for j, a := range e.Adjustments {
+		for _, sgn := range []float64{-1, 1} {
+			amounts := make([]float64, len(ks))
+			amounts[j] = sgn * math.Min(math.Max(-a.Min, a.Max), k)
+			t, err := e.with(ks, amounts)
+			if err == nil {
+				_, err = t.diffs()
+			}
+			if err != nil {
+				return Engine{}, fmt.Errorf("as built, the gear does not go round with the %s moved %+g: %w", a.Kind, amounts[j], err)
+			}
+		}
+	}
 	// Measuring: a metric gauge in 0.01 mm or an imperial one in thou.
 	e.ResMM = 0.01
 	if r.Float64() < 0.3 {

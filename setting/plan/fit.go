@@ -254,6 +254,10 @@ type problem struct {
 	cStart, cN []int
 	cPrior     []float64
 	shape      []unmodShape
+	// cc caches the unmodelled parts as curves for the coefficients ccFor
+	// (see corrCurves).
+	cc    []curve
+	ccFor []float64
 }
 
 // unmodShape is how the unmodelled part of one reverser position is
@@ -365,6 +369,7 @@ func newProblem(spec setting.EngineSpec, obs []session.Observation) *problem {
 // five or more (a sweep). k scales the prior.
 func (pb *problem) setUnmodelled(k float64) {
 	pb.cStart, pb.cN, pb.cPrior = make([]int, len(pb.revs)), make([]int, len(pb.revs)), nil
+	pb.cc, pb.ccFor = nil, nil
 	pb.shape = make([]unmodShape, len(pb.revs))
 	n := 0
 	for g := range pb.revs {
@@ -474,12 +479,49 @@ func (pb *problem) gear(i int, s state) (x, slope float64) {
 			slope += (s.p[j] - pb.p0[j]) * dv
 		}
 	}
-	if n := pb.cN[g]; n > 0 && len(s.c) > 0 {
-		v, dv := pb.shape[g].curveOf(s.c[pb.cStart[g] : pb.cStart[g]+n]).at(th)
+	if cc := pb.corrCurves(s); cc != nil && cc[g] != nil {
+		v, dv := cc[g].at(th)
 		x += v
 		slope += dv
 	}
 	return x, slope
+}
+
+// corrCurves returns each position's unmodelled part at s as a curve (nil
+// without any), made once per set of coefficients.
+func (pb *problem) corrCurves(s state) []curve {
+	if len(s.c) == 0 {
+		return nil
+	}
+	same := len(pb.ccFor) == len(s.c)
+	for a := 0; same && a < len(s.c); a++ {
+		same = pb.ccFor[a] == s.c[a]
+	}
+	if !same || pb.cc == nil {
+		pb.ccFor = append(pb.ccFor[:0], s.c...)
+		pb.cc = make([]curve, len(pb.revs))
+		for g := range pb.revs {
+			if n := pb.cN[g]; n > 0 && pb.cStart[g]+n <= len(s.c) {
+				pb.cc[g] = pb.shape[g].curveOf(s.c[pb.cStart[g] : pb.cStart[g]+n])
+			}
+		}
+	}
+	return pb.cc
+}
+
+// slopeAt is the valve curve's slope (mm per degree) at observation i:
+// the sampled curve's and the unmodelled part's (the deviations' small
+// changes since sampling are left out: the slope only weighs the
+// dead-centre mark's column of the Jacobian).
+func (pb *problem) slopeAt(i int, s state) float64 {
+	g := pb.grp[i]
+	th := pb.obs[i].CrankDeg + s.p[pDeadCentre]
+	_, slope := pb.base[g].at(th)
+	if cc := pb.corrCurves(s); cc != nil && cc[g] != nil {
+		_, dv := cc[g].at(th)
+		slope += dv
+	}
+	return slope
 }
 
 // predictS is the linear model's prediction of observation i (see
@@ -570,7 +612,7 @@ func (pb *problem) row(i int, s state, out []float64) {
 	for c, j := range pb.idx {
 		if j == pDeadCentre && o.HasCrank {
 			// Only the dead-centre mark needs the curve's slope here.
-			_, slope = pb.gear(i, s)
+			slope = pb.slopeAt(i, s)
 		}
 		switch j {
 		case pGaugeZero, pValveOffset, pLapFront, pLapBack:

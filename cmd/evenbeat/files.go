@@ -58,16 +58,19 @@ func (p *planFlags) options(s *session.Session) (plan.Options, error) {
 		}
 	}
 	if p.given("weight") {
-		if p.weight < 0 || p.weight > 1 {
-			return opt, fmt.Errorf("flag -weight: %g is outside 0 to 1", p.weight)
+		// Written so that NaN, which no comparison holds for, is refused.
+		if !(p.weight >= 0 && p.weight <= 1) {
+			return opt, fmt.Errorf("flag -weight: the share given to leads must be a number from 0 to 1 (got %g); give e.g. -weight 0.5", p.weight)
 		}
 		opt.Weight = p.weight
 	}
 	if p.given("target-lead") {
 		opt.TargetLeadMM = nil
 		if p.targetLead != -1 {
-			if p.targetLead < -2 || p.targetLead > 5 {
-				return opt, fmt.Errorf("flag -target-lead: %g mm is not a plausible lead; give millimetres, e.g. 0.2", p.targetLead)
+			// The bounds a session file's target_lead_mm holds; NaN is refused.
+			if !(p.targetLead >= session.MinTargetLeadMM && p.targetLead <= session.MaxTargetLeadMM) {
+				return opt, fmt.Errorf("flag -target-lead: the lead wanted must be a number of mm from %d to %d (got %g); give millimetres, e.g. -target-lead 0.2, or -1 for none",
+					session.MinTargetLeadMM, session.MaxTargetLeadMM, p.targetLead)
 			}
 			t := p.targetLead
 			opt.TargetLeadMM = &t

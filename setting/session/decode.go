@@ -109,11 +109,11 @@ func (d *decoder) object(n *node, path, what string, allowed ...string) obj {
 	}
 	for _, k := range n.keys {
 		if !contains(allowed, k) {
-			hint := ""
-			if near := nearest(k, allowed); near != "" {
-				hint = fmt.Sprintf(" (did you mean %q?)", near)
+			if near := setting.NearestKey(k, allowed); near != "" {
+				d.fail(joinPath(path, k), "The key %q is not known in %s; did you mean %q? Correct its name.", k, what, near)
+			} else {
+				d.fail(joinPath(path, k), "The key %q is not part of %s in a version %d session file; remove it or correct its name.", k, what, d.version)
 			}
-			d.fail(joinPath(path, k), "This field is not part of %s in a version %d session file; remove it or correct its name%s.", what, d.version, hint)
 			return o
 		}
 	}
@@ -128,48 +128,6 @@ func contains(list []string, s string) bool {
 		}
 	}
 	return false
-}
-
-// nearest returns the allowed key closest to k, if it is a likely typing
-// slip (edit distance at most 2, or the same letters in another order).
-func nearest(k string, allowed []string) string {
-	best, bestD := "", 3
-	for _, a := range allowed {
-		if dd := editDistance(strings.ToLower(k), a); dd < bestD {
-			best, bestD = a, dd
-		}
-	}
-	return best
-}
-
-// editDistance is the Levenshtein distance, with a transposition counted as
-// one edit.
-func editDistance(a, b string) int {
-	if len(a) > 64 || len(b) > 64 {
-		return 99
-	}
-	ra, rb := []rune(a), []rune(b)
-	prev2 := make([]int, len(rb)+1)
-	prev := make([]int, len(rb)+1)
-	cur := make([]int, len(rb)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(ra); i++ {
-		cur[0] = i
-		for j := 1; j <= len(rb); j++ {
-			cost := 1
-			if ra[i-1] == rb[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-			if i > 1 && j > 1 && ra[i-1] == rb[j-2] && ra[i-2] == rb[j-1] {
-				cur[j] = min(cur[j], prev2[j-2]+1)
-			}
-		}
-		prev2, prev, cur = prev, cur, prev2
-	}
-	return prev[len(rb)]
 }
 
 // field returns the value of key, or nil; when required and missing it

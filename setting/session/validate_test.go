@@ -20,7 +20,7 @@ func TestDecodeNamesTheField(t *testing.T) {
 		{"empty", testJSON, ` `, "", "empty"},
 		{"cut short", testJSON, testJSON[:200], "", "ends too early"},
 		{"syntax", `"name": "Test session",`, `"name": "Test session",,`, "", "line 4"},
-		{"trailing text", testJSON, testJSON + "{}", "", "more text after the end"},
+		{"trailing text", testJSON, testJSON + "{}", "", "more text after its end"},
 		{"duplicate key", `"invented": true,
   "display_unit"`, `"invented": true, "invented": false,
   "display_unit"`, "invented", "written twice"},

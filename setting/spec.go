@@ -43,6 +43,16 @@ type EngineSpec struct {
 	Cylinders []Cylinder `json:"cylinders,omitempty"` // the cylinders of this design; empty means one
 }
 
+// Bounds on an engine's lists: generous for any engine, they keep event
+// tables, plans and reports small whatever the file.
+const (
+	// MaxNotches bounds the named notches besides full forward, mid gear
+	// and full back.
+	MaxNotches = 40
+	// MaxCylinders bounds the cylinders of an engine (and of a session).
+	MaxCylinders = 12
+)
+
 // Notch is a named reverser position ("running notch", "25 %").
 type Notch struct {
 	Name     string   `json:"name"`
@@ -187,6 +197,12 @@ func (s EngineSpec) Validate() error {
 	}
 	if a, ok := gearAdmission(gear); ok && a != s.Valve.Admission {
 		return &Error{"gear." + key, fmt.Sprintf("The gear is laid out for %s admission but the valve has %s admission; they must agree.", a, s.Valve.Admission)}
+	}
+	switch {
+	case len(s.Notches) > MaxNotches:
+		return &Error{"notches", fmt.Sprintf("The engine has %d notches; an engine holds at most %d (the reverser positions it is run in). Keep the ones the engine is run in.", len(s.Notches), MaxNotches)}
+	case len(s.Cylinders) > MaxCylinders:
+		return &Error{"cylinders", fmt.Sprintf("The engine has %d cylinders; an engine holds at most %d (engines have one to four). Remove the others.", len(s.Cylinders), MaxCylinders)}
 	}
 	names := make([]string, len(s.Notches))
 	for i, n := range s.Notches {

@@ -141,3 +141,26 @@ func BenchmarkDecodeEngineSpec(b *testing.B) {
 		}
 	}
 }
+
+// Notches and cylinders beyond the bounds are refused naming the list.
+func TestEngineListBounds(t *testing.T) {
+	spec, err := DecodeEngineSpec(strings.NewReader(specJSON))
+	if err != nil {
+		t.Fatal(err)
+	}
+	many := spec
+	for i := 0; i <= MaxNotches; i++ {
+		many.Notches = append(many.Notches, Notch{Name: "n" + strings.Repeat("i", i+1), Reverser: 0.5})
+	}
+	var e *Error
+	if err := many.Validate(); !errors.As(err, &e) || e.Field != "notches" || !strings.Contains(e.Message, "at most 40") {
+		t.Errorf("%d notches: %v", len(many.Notches), err)
+	}
+	many = spec
+	for i := 0; i <= MaxCylinders; i++ {
+		many.Cylinders = append(many.Cylinders, Cylinder{Name: "c" + strings.Repeat("i", i+1)})
+	}
+	if err := many.Validate(); !errors.As(err, &e) || e.Field != "cylinders" || !strings.Contains(e.Message, "at most 12") {
+		t.Errorf("%d cylinders: %v", len(many.Cylinders), err)
+	}
+}

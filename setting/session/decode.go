@@ -252,8 +252,40 @@ func (o obj) list(key string, required bool, what string) []*node {
 		o.d.fail(joinPath(o.path, key), "must be a list [...] of %s, got %s.", what, v.describe())
 		return nil
 	}
+	if n, most, fix := len(v.elems), 0, ""; o.d.err == nil {
+		switch key {
+		case "cylinders":
+			most, fix = setting.MaxCylinders, "engines have one to four; remove the others"
+		case "rounds":
+			most, fix = MaxRounds, "start a new session for the next rounds and keep this file as the record"
+		case "readings":
+			most, fix = MaxSweepReadings, "one every half degree; a reading every 10 to 30 degrees is plenty"
+		case "adjustments_before":
+			most, fix = MaxChanges, "record the changes made since the round before"
+		case "dead_centre_readings", "cut_offs", "feeler_openings":
+			most, fix = MaxRoundReadings, "split them into rounds, one for each set of adjustments"
+		}
+		if most > 0 && n > most {
+			o.d.fail(joinPath(o.path, key), "The list of %s holds %d; a session file holds at most %d (%s).", what, n, most, fix)
+			return nil
+		}
+	}
 	return v.elems
 }
+
+// Bounds on a session file's lists: generous for any engine, they keep
+// every command fast and small whatever the file (format.md states them).
+const (
+	// MaxRounds bounds the rounds of one cylinder: a setting takes a few.
+	MaxRounds = 200
+	// MaxRoundReadings bounds one round's readings: dead-centre readings,
+	// sweep readings, cut-offs and feeler openings together.
+	MaxRoundReadings = 2000
+	// MaxSweepReadings bounds one sweep: a reading every half degree.
+	MaxSweepReadings = 720
+	// MaxChanges bounds the changes recorded before one round.
+	MaxChanges = 50
+)
 
 // oneOf reads exactly one of the given keys, which must be present; it
 // returns the key used.
@@ -629,6 +661,9 @@ func (d *decoder) round(n *node, path string, s *Session) Round {
 	}
 	for i, x := range o.list("feeler_openings", false, "feeler openings") {
 		r.FeelerOpenings = append(r.FeelerOpenings, d.feeler(x, fmt.Sprintf("%s.feeler_openings[%d]", path, i)))
+	}
+	if n := r.Readings(); n > MaxRoundReadings && d.err == nil {
+		d.fail(path, "This round holds %d readings; a round holds at most %d (dead-centre readings, sweep readings, cut-offs and feeler openings together). Split them into rounds, one for each set of adjustments.", n, MaxRoundReadings)
 	}
 	r.Note = o.text("note", false, "a note")
 	return r

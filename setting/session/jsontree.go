@@ -60,7 +60,8 @@ func readTree(r io.Reader) (*node, []byte, error) {
 	return treeOf(v), data, nil
 }
 
-// treeOf copies a parsed value into a node tree.
+// treeOf copies a parsed value into a node tree, letting go of each part
+// of v once it is copied: a large file's two trees are never whole at once.
 func treeOf(v *jsonx.Value) *node {
 	n := &node{text: v.Text, b: v.Bool, keys: v.Keys}
 	switch v.Kind {
@@ -76,13 +77,13 @@ func treeOf(v *jsonx.Value) *node {
 		n.kind = nodeArray
 		n.elems = make([]*node, len(v.Elems))
 		for i, e := range v.Elems {
-			n.elems[i] = treeOf(e)
+			n.elems[i], v.Elems[i] = treeOf(e), nil
 		}
 	case jsonx.Object:
 		n.kind = nodeObject
 		n.vals = make([]*node, len(v.Vals))
 		for i, e := range v.Vals {
-			n.vals[i] = treeOf(e)
+			n.vals[i], v.Vals[i] = treeOf(e), nil
 		}
 	}
 	return n

@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"runtime/debug"
 	"strings"
 
 	"evenbeat/render/report"
@@ -108,6 +109,40 @@ func (p *planFlags) load(path string) (*session.Session, plan.Options, error) {
 	return s, opt, err
 }
 
+// checkSession runs the checks the app runs before its plan: it writes the
+// session's warnings (Session.Check) and what weakens the plan of cylinder
+// cyl (Session.Readiness) to stderr, and refuses, with every reason, a
+// cylinder whose readings block a plan. Each line is "field: sentence",
+// the field as the file names it.
+func checkSession(s *session.Session, cyl int, stderr io.Writer) error {
+	for _, w := range s.Check() {
+		fmt.Fprintf(stderr, "evenbeat: warning: %s\n", w)
+	}
+	var blocking []string
+	for _, p := range s.Readiness(cyl) {
+		if p.Blocking {
+			blocking = append(blocking, p.String())
+		} else {
+			fmt.Fprintf(stderr, "evenbeat: note: %s\n", p)
+		}
+	}
+	if len(blocking) > 0 {
+		return fmt.Errorf("no plan for the %s cylinder until its readings are put right:\n  %s", s.Cylinders[cyl].Name, strings.Join(blocking, "\n  "))
+	}
+	return nil
+}
+
+// limitMemory sets a soft memory limit for the file commands, unless
+// GOMEMLIMIT is set: the garbage collector then works harder as the heap
+// nears it instead of letting the heap grow to twice what is live, so
+// reading the largest session file (16 MB) stays near 300 MB. It never
+// refuses memory.
+func limitMemory() {
+	if os.Getenv("GOMEMLIMIT") == "" {
+		debug.SetMemoryLimit(256 << 20)
+	}
+}
+
 // displayUnit is the unit the plan's words use: the flag's, else the session's.
 func displayUnit(opt plan.Options, s *session.Session) session.Unit {
 	if opt.Unit != "" {
@@ -166,6 +201,7 @@ var exampleFile = map[string]string{
 // runPlan is `evenbeat plan [flags] SESSION.json`: the plan as text, or as
 // JSON with -json.
 func runPlan(args []string, stdout, stderr io.Writer) error {
+	limitMemory()
 	fs := flag.NewFlagSet("plan", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	asJSON := fs.Bool("json", false, "write JSON (signed amounts in mm or degrees, sign conventions beside them)")
@@ -178,6 +214,9 @@ func runPlan(args []string, stdout, stderr io.Writer) error {
 	s, opt, err := pf.load(path)
 	if err != nil {
 		return err
+	}
+	if err := checkSession(s, opt.Cylinder, stderr); err != nil {
+		return fmt.Errorf("%s: %w", path, err)
 	}
 	p, err := plan.Make(s, opt)
 	if err != nil {
@@ -194,6 +233,7 @@ func runPlan(args []string, stdout, stderr io.Writer) error {
 // runEvents is `evenbeat events [-json] ENGINE.json`: the event table of an
 // engine file (or of the engine inside a session file).
 func runEvents(args []string, stdout, stderr io.Writer) error {
+	limitMemory()
 	fs := flag.NewFlagSet("events", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	asJSON := fs.Bool("json", false, "write JSON")
@@ -236,6 +276,7 @@ func readEngine(path string) (setting.EngineSpec, error) {
 
 // runReport is `evenbeat report [flags] SESSION.json -o report.png`.
 func runReport(args []string, stdout, stderr io.Writer) error {
+	limitMemory()
 	fs := flag.NewFlagSet("report", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	out := fs.String("o", "", "PNG file to write (required)")
@@ -252,6 +293,9 @@ func runReport(args []string, stdout, stderr io.Writer) error {
 	s, opt, err := pf.load(path)
 	if err != nil {
 		return err
+	}
+	if err := checkSession(s, opt.Cylinder, stderr); err != nil {
+		return fmt.Errorf("%s: %w", path, err)
 	}
 	tmp := *out + ".part"
 	f, err := os.Create(tmp)

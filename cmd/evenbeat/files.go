@@ -6,6 +6,7 @@ import (
 	"flag"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
 	"runtime/debug"
 	"strings"
@@ -258,7 +259,11 @@ func runEvents(args []string, stdout, stderr io.Writer) error {
 func readEngine(path string) (setting.EngineSpec, error) {
 	data, err := os.ReadFile(path)
 	if err != nil {
-		return setting.EngineSpec{}, err
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			err = pe.Err
+		}
+		return setting.EngineSpec{}, fmt.Errorf("%s: the file cannot be opened (%v); check its name and the folder it is in", path, err)
 	}
 	if strings.Contains(string(data), `"evenbeat-session"`) {
 		s, err := session.Decode(strings.NewReader(string(data)))

@@ -765,6 +765,7 @@ func (d *decoder) sweep(n *node, path string) Sweep {
 	if d.err == nil && len(readings) == 0 {
 		d.fail(path+".readings", "The list is empty; a sweep holds readings round the turn.")
 	}
+	w.Readings = make([]SweepReading, 0, len(readings))
 	for i, x := range readings {
 		p := fmt.Sprintf("%s.readings[%d]", path, i)
 		ro := d.object(x, p, "a sweep reading", "tyre_mm", "deg", "gauge_mm", "note")

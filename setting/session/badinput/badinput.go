@@ -17,6 +17,7 @@ package badinput
 
 import (
 	"fmt"
+	"math"
 	"regexp"
 	"strconv"
 	"strings"
@@ -114,26 +115,70 @@ func latin1(s string) string {
 // emptied returns the demo session with the list opened by list (such as
 // "\"rounds\": [") that first follows after emptied.
 func (b *builder) emptied(after, list string) []byte {
-	i := strings.Index(b.session, after)
-	j := strings.Index(b.session[max(i, 0):], list)
+	return []byte(b.filled(b.session, after, list, ""))
+}
+
+// filled returns base with the list opened by list that first follows
+// after holding content instead.
+func (b *builder) filled(base, after, list, content string) string {
+	i := strings.Index(base, after)
+	j := strings.Index(base[max(i, 0):], list)
 	if i < 0 || j < 0 {
 		if b.err == nil {
 			b.err = fmt.Errorf("badinput: the demo session has no %q after %q", list, after)
 		}
-		return []byte(b.session)
+		return base
 	}
 	start := i + j + len(list)
 	depth := 1
 	end := start
-	for ; end < len(b.session) && depth > 0; end++ {
-		switch b.session[end] {
+	for ; end < len(base) && depth > 0; end++ {
+		switch base[end] {
 		case '[', '{':
 			depth++
 		case ']', '}':
 			depth--
 		}
 	}
-	return []byte(b.session[:start] + "]" + b.session[end:])
+	return base[:start] + content + "]" + base[end:]
+}
+
+// Largest returns the demo session grown to about size bytes (at most
+// 16 MB, the largest session file read) within every bound of the format:
+// the right cylinder's 200 rounds and then the left cylinder's, each
+// round of 2000 readings (full sweeps of 720 readings in full forward
+// and full back, 552 in the running notch, and the demo's dead-centre
+// readings and cut-offs), the readings a smooth valve curve. The heaviest
+// file a command can be given: what the figures time.
+func Largest(demoSession []byte, size int) ([]byte, error) {
+	b := builder{session: string(demoSession)}
+	sweep := func(n int, rev, dir string) string {
+		var s strings.Builder
+		fmt.Fprintf(&s, `{"reverser": %q, "direction": %q, "readings": [`, rev, dir)
+		for i := 0; i < n; i++ {
+			if i > 0 {
+				s.WriteString(", ")
+			}
+			deg := 360 * float64(i) / float64(n)
+			fmt.Fprintf(&s, `{"deg": %.2f, "gauge_mm": %.2f}`, deg, 5.1+4.95*math.Sin((deg+100)*math.Pi/180))
+		}
+		s.WriteString("]}")
+		return s.String()
+	}
+	dcr := strings.TrimSuffix(strings.Repeat(`{"end": "front", "reverser": "full forward", "direction": "forward", "gauge_mm": 2.41}, {"end": "back", "reverser": "full forward", "direction": "forward", "gauge_mm": 7.62}, `, 3), ", ")
+	round := `{"date": "2026-11-23", "port_marks": {"front_gauge_mm": 2.6, "back_gauge_mm": 7.4}, "dead_centre_readings": [` + dcr + `], "sweeps": [` +
+		sweep(720, "full forward", "forward") + ", " + sweep(720, "full back", "backward") + ", " + sweep(552, "running notch", "forward") +
+		`], "cut_offs": [{"end": "front", "reverser": "full forward", "direction": "forward", "crosshead_mm": 33.5}, {"end": "back", "reverser": "full forward", "direction": "forward", "crosshead_mm": 32.5}]}`
+	size = min(size, 16<<20)
+	room := size - len(demoSession)
+	right := min(room/(len(round)+2), 200) // rounds a cylinder
+	left := min(max(room/(len(round)+2)-right, 0), 200)
+	rounds := func(n int) string { return strings.TrimSuffix(strings.Repeat(round+", ", n), ", ") }
+	out := b.filled(b.session, "\"name\": \"right\",\n      \"dead_centres\"", "\"rounds\": [", rounds(right))
+	if left > 0 {
+		out = b.filled(out, "\"name\": \"left\",\n      \"dead_centres\"", "\"rounds\": [", rounds(left))
+	}
+	return []byte(out), b.err
 }
 
 // inches writes every length of the demo session divided by 25.4, as if

@@ -1,8 +1,11 @@
 package badinput
 
 import (
+	"bytes"
 	"os"
 	"testing"
+
+	"evenbeat/setting/session"
 )
 
 // The catalogue builds from the demo files, holds at least the 40 kinds
@@ -38,5 +41,38 @@ func TestCatalogueBuilds(t *testing.T) {
 	}
 	if _, err := Catalogue(nil, nil); err == nil {
 		t.Error("a catalogue built from empty files, without an error")
+	}
+}
+
+// Largest grows the demo session within the format's bounds: the file
+// reads, and a plan can be asked of it.
+func TestLargestReads(t *testing.T) {
+	demo, err := os.ReadFile("../../../testdata/sessions/brackenfold-stephenson.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	size := 2 << 20
+	if !testing.Short() {
+		size = 16 << 20
+	}
+	b, err := Largest(demo, size)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(b) > size || len(b) < size*3/4 {
+		t.Errorf("%d bytes, want about %d", len(b), size)
+	}
+	s, err := session.Decode(bytes.NewReader(b))
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := s.Cylinders[0].Rounds[len(s.Cylinders[0].Rounds)-1]
+	if n := r.Readings(); n != session.MaxRoundReadings {
+		t.Errorf("a round of %d readings, want %d", n, session.MaxRoundReadings)
+	}
+	for _, p := range s.Readiness(0) {
+		if p.Blocking {
+			t.Errorf("the plan is blocked: %s", p)
+		}
 	}
 }

@@ -20,7 +20,7 @@ type JSONFile struct {
 	Noun     string // the file in a sentence's subject: "file", "engine file"
 	Kind     string // what such a file is: "a session file", "an engine file"
 	Opening  string // how such a file starts, for an empty one: `{"format": ...}`
-	MaxBytes int    // the largest file read
+	MaxBytes int    // the largest file read, a whole number of MB
 	MaxDepth int    // the deepest nesting of lists and objects
 }
 
@@ -44,7 +44,7 @@ func (f JSONFile) Parse(data []byte) (*jsonx.Value, []byte, error) {
 		return nil, nil, &Error{"", fmt.Sprintf(format, args...)}
 	}
 	if len(data) > f.MaxBytes {
-		return fail("The %s is larger than %s; %s is far smaller. Is this the right file?", f.Noun, sizeWords(f.MaxBytes), f.Kind)
+		return fail("The %s is larger than %d MB; %s is far smaller. Is this the right file?", f.Noun, f.MaxBytes>>20, f.Kind)
 	}
 	data = bytes.TrimPrefix(data, []byte{0xef, 0xbb, 0xbf}) // a UTF-8 byte-order mark
 	if len(bytes.TrimSpace(data)) == 0 {
@@ -70,14 +70,6 @@ func (f JSONFile) Parse(data []byte) (*jsonx.Value, []byte, error) {
 		return fail("The %s has more text after its end (line %d, column %d); %s holds one JSON object.", f.Noun, line, col, f.Kind)
 	}
 	return v, data, nil
-}
-
-// sizeWords writes a size of file: "16 MB", "512 KB".
-func sizeWords(n int) string {
-	if n >= 1<<20 {
-		return strconv.Itoa(n>>20) + " MB"
-	}
-	return strconv.Itoa(n>>10) + " KB"
 }
 
 // syntaxError turns a JSON reading error into a sentence with a line and

@@ -730,22 +730,8 @@ func describePath(p string) string {
 	case "invented", "slip", "crossed":
 		// Marks: "The invented (invented)" says nothing.
 		words = "The " + last + " mark"
-	case "u":
-		words = "The position along the cylinder line"
-	case "w":
-		words = "The height above the cylinder line"
-	case "front", "back":
-		words = "The " + last + " port"
-	case "engine":
-		if p != last {
-			words = "The crank and cylinder"
-		}
-	case "kind":
-		words = "The gear kind"
-	case "rod", "throw":
-		words = "The eccentric " + last
-	case "advance":
-		words = "The angle of advance"
+	case "u", "w":
+		words = "The " + last + " coordinate"
 	}
 	return words + " (" + p + ")"
 }

@@ -246,6 +246,9 @@ func runEvents(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
+	for _, w := range spec.Warnings() {
+		fmt.Fprintf(stderr, "evenbeat: warning: %s\n", w)
+	}
 	return buffered(stdout, func(w io.Writer) error {
 		if *asJSON {
 			return plan.WriteEventsJSON(w, spec)

@@ -367,6 +367,8 @@ func (b *builder) cases() []Case {
 		{Name: "engine: UTF-16", Kind: Engine, Command: "events", File: utf16le(b.engine),
 			Refused: true, Words: []string{"UTF-16"}, Fix: []string{"save the file as UTF-8"}},
 		{Name: "engine: byte-order mark", Kind: Engine, Command: "events", File: append([]byte{0xef, 0xbb, 0xbf}, b.engine...)},
+		{Name: "engine: a wide exhaust clearance", Kind: Engine, Command: "events", File: b.e(`"exhaust_lap": 0,`, `"exhaust_lap": -3,`),
+			Warns: "evenbeat: warning: The front exhaust clearance is 3.00 mm; more than 1.6 mm is unusual. Check the sign of the exhaust lap"},
 		{Name: "engine: larger than 1 MB", Kind: Engine, Command: "events", File: b.e(`"invented": true,`, `"invented": true, "notes": "`+strings.Repeat("x", 1<<20)+`",`),
 			Refused: true, Words: []string{"larger than 1 MB"}, Fix: []string{"Is this the right file?"}},
 		{Name: "engine: 41 notches", Kind: Engine, Command: "events", File: b.e("\"notches\": [\n    {\n      \"name\": \"running notch\",\n      \"reverser\": 0.4\n    }\n  ],", manyNotches(40)),

@@ -63,10 +63,12 @@ func (s *Session) Check() []Warning {
 	if m.WheelDiameterMM < 40 || m.WheelDiameterMM > 2500 {
 		add("measuring.wheel_diameter_mm", "A wheel of %s mm is unusual for an engine with valve gear; check that the diameter is in mm (%s in would be %s mm).", fmtNum(m.WheelDiameterMM), fmtNum(m.WheelDiameterMM), fmtNum(math.Round(m.WheelDiameterMM*25.4)))
 	}
+	// Lengths not yet given (zero, in the app's set-up) say nothing.
 	e, v := s.Engine.Engine, s.Engine.Valve
-	if e.CrankRadius < inchLikeCrankMM || math.Max(math.Max(v.Front.SteamLap, v.Back.SteamLap), math.Max(v.Front.PortWidth, v.Back.PortWidth)) <= inchLikeLapMM {
+	small := math.Max(math.Max(v.Front.SteamLap, v.Back.SteamLap), math.Max(v.Front.Width(), v.Back.Width()))
+	if e.CrankRadius > 0 && (e.CrankRadius < inchLikeCrankMM || small > 0 && small <= inchLikeLapMM) {
 		add("engine", "The engine's lengths look like inches typed where mm are asked (crank radius %s, steam laps %s and %s, port widths %s and %s): the file holds every length in mm, and 1 in is 25.4 mm. Type them again in mm (or in the app with inches chosen as the unit).",
-			fmtNum(e.CrankRadius), fmtNum(v.Front.SteamLap), fmtNum(v.Back.SteamLap), fmtNum(v.Front.PortWidth), fmtNum(v.Back.PortWidth))
+			fmtNum(e.CrankRadius), fmtNum(v.Front.SteamLap), fmtNum(v.Back.SteamLap), fmtNum(v.Front.Width()), fmtNum(v.Back.Width()))
 	}
 	if m.GaugeResolutionMM > coarseGaugeMM {
 		add("measuring.gauge_resolution_mm", "A gauge reading to %s mm cannot show a lead to a hundredth of a mm; a 0.01 mm (or 0.001 in) gauge is usual.", fmtNum(m.GaugeResolutionMM))

@@ -258,15 +258,9 @@ func sample(pm plan.Model, e setting.Engine, v setting.Valve, r setting.Reverser
 func readings(s *session.Session, cyl int, fit *plan.Fit) []Reading {
 	obs := fit.Observations()
 	if obs == nil {
-		all, err := s.Observations(cyl)
-		if err != nil {
+		var err error
+		if obs, err = s.RoundObservations(cyl, len(s.Cylinders[cyl].Rounds)-1); err != nil {
 			return nil
-		}
-		last := len(s.Cylinders[cyl].Rounds) - 1
-		for _, o := range all {
-			if o.Round == last {
-				obs = append(obs, o)
-			}
 		}
 	}
 	res := map[string]plan.Residual{}

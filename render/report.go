@@ -3,6 +3,7 @@ package render
 import (
 	"fmt"
 	"math"
+	"sort"
 	"strings"
 
 	"evenbeat/setting"
@@ -103,7 +104,11 @@ func report(c Canvas, rm ReportModel, th Theme, w float64) float64 {
 	if len(m.Readings) > 0 {
 		section("Readings of the latest round")
 		rows := [][]string{{"reading", "crank", "valve", "off the fit"}}
-		for _, r := range m.Readings {
+		shown := listedReadings(m.Readings)
+		for i, r := range m.Readings {
+			if !shown[i] {
+				continue
+			}
 			off := m.length(r.ResidualMM)
 			if !r.Used {
 				off += " (left out)"
@@ -111,6 +116,9 @@ func report(c Canvas, rm ReportModel, th Theme, w float64) float64 {
 			rows = append(rows, []string{r.Label, fmt.Sprintf("%.1f°", r.CrankDeg), m.length(r.ValveMM), off})
 		}
 		y = table(c, Point{x0, y}, x1-x0, []float64{0.5, 0.14, 0.16, 0.2}, rows, th)
+		if n := len(m.Readings); n > len(rows)-1 {
+			para(fmt.Sprintf("Of the %d readings, the %d farthest off the fit are listed.", n, len(rows)-1), muted)
+		}
 		para(fmt.Sprintf("Valve positions are the readings less the fitted gauge zero. The fit follows them to %s root-mean-square.", m.length(m.FitRMSMM)), muted)
 		if m.Plan != nil {
 			for _, r := range m.Plan.Recheck {
@@ -131,9 +139,20 @@ func report(c Canvas, rm ReportModel, th Theme, w float64) float64 {
 	}
 	bl := LayoutBalance(Rect{Max: Point{x1 - x0, 1e6}}, m)
 	card(bl.NeedH, func(b Rect) { Balance(c, m, b, th) })
-	for i := range m.Positions {
+	var undrawn []string
+	for i, p := range m.Positions {
+		// Full forward, the first notches and full back: a report stays
+		// a few pages long whatever the engine.
+		if n := len(m.Positions); n > reportCurves && i >= reportCurves-1 && i < n-1 {
+			undrawn = append(undrawn, p.Notch.Name)
+			continue
+		}
 		h := LayoutValveCurve(Rect{Max: Point{x1 - x0, 1e6}}, m, i).NeedH + reportPlotH - minPlotH
 		card(h, func(b Rect) { ValveCurve(c, m, i, b, th) })
+	}
+	if len(undrawn) > 0 {
+		para("Valve curves not drawn (the events table gives their events): "+strings.Join(undrawn, ", ")+".", muted)
+		y += gap
 	}
 	if m.Plan != nil {
 		pl := LayoutPlan(Rect{Max: Point{x1 - x0, 1e6}}, m)
@@ -154,6 +173,29 @@ func report(c Canvas, rm ReportModel, th Theme, w float64) float64 {
 	y += gap
 	para("Drawn by Evenbeat from the readings above. Check every change against the engine before you make it; full-size engines are set under the railway's own procedures.", muted)
 	return y + reportPad
+}
+
+// Bounds that keep the report a few pages long whatever the session.
+const (
+	reportReadings = 40 // rows of the readings table
+	reportCurves   = 6  // valve curves drawn
+)
+
+// listedReadings chooses the readings the report lists: all of them, or
+// when there are more than reportReadings, those farthest off the fit.
+func listedReadings(rs []Reading) []bool {
+	shown := make([]bool, len(rs))
+	order := make([]int, len(rs))
+	for i := range rs {
+		order[i] = i
+	}
+	sort.Slice(order, func(a, b int) bool {
+		return math.Abs(rs[order[a]].ResidualMM) > math.Abs(rs[order[b]].ResidualMM)
+	})
+	for _, i := range order[:min(len(rs), reportReadings)] {
+		shown[i] = true
+	}
+	return shown
 }
 
 // engineFigures describes the engine in one paragraph.

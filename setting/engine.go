@@ -27,12 +27,20 @@ type Engine struct {
 	Offset      float64 `json:"offset"`       // mm, cylinder line above (+) or below (-) the axle centre, measured square to the line
 }
 
+// MaxEngineMM bounds the crank radius: 100 m, beyond any engine, so that a
+// slip (a crank of 1e308) is blamed on the value typed, never on the rod
+// found out of proportion with it. (The rod has no such bound: tests take
+// rods kilometres long as the infinite rod of published tables.)
+const MaxEngineMM = 100000
+
 // Validate checks the geometry and names the field at fault (Field is the
 // JSON key: "crank_radius", "rod_length", "offset", "inclination").
 func (e Engine) Validate() error {
 	switch {
 	case !(e.CrankRadius > 0) || math.IsInf(e.CrankRadius, 0):
 		return &Error{"crank_radius", fmt.Sprintf("The crank radius must be a positive length (got %g mm).", e.CrankRadius)}
+	case e.CrankRadius > MaxEngineMM:
+		return &Error{"crank_radius", fmt.Sprintf("The crank radius %g mm is larger than any engine's; give it in mm.", e.CrankRadius)}
 	case !(e.RodLength > 0) || math.IsInf(e.RodLength, 0):
 		return &Error{"rod_length", fmt.Sprintf("The connecting rod length must be a positive length (got %g mm).", e.RodLength)}
 	case e.RodLength <= e.CrankRadius:

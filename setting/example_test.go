@@ -70,9 +70,13 @@ func ExampleDecodeEngineSpec() {
 	missing := strings.Replace(exampleEngine, `"exhaust_lap": 0, `, ``, 1)
 	_, err = setting.DecodeEngineSpec(strings.NewReader(missing))
 	fmt.Println(err)
+	misspelt := strings.Replace(exampleEngine, `"rod_length"`, `"rod_lenght"`, 1)
+	_, err = setting.DecodeEngineSpec(strings.NewReader(misspelt))
+	fmt.Println(err)
 	// Output:
 	// engine.rod_length: The connecting rod 40 mm is shorter than the crank radius 57 mm; it must be longer.
-	// valve.front.exhaust_lap: The exhaust lap (valve.front.exhaust_lap) is missing; it must be given.
+	// valve.front.exhaust_lap: The exhaust lap (valve.front.exhaust_lap) is missing; add "exhaust_lap" with a number.
+	// engine.rod_lenght: The key "rod_lenght" is not known here; did you mean "rod_length"? Correct its name.
 }
 
 // The event table of a gear, as text.

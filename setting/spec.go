@@ -1,7 +1,6 @@
 package setting
 
 import (
-	"bytes"
 	"errors"
 	"fmt"
 	"io"
@@ -43,6 +42,16 @@ type EngineSpec struct {
 	Notches   []Notch    `json:"notches,omitempty"`   // named running positions of the reverser, besides full forward, mid and full back
 	Cylinders []Cylinder `json:"cylinders,omitempty"` // the cylinders of this design; empty means one
 }
+
+// Bounds on an engine's lists: generous for any engine, they keep event
+// tables, plans and reports small whatever the file.
+const (
+	// MaxNotches bounds the named notches besides full forward, mid gear
+	// and full back.
+	MaxNotches = 40
+	// MaxCylinders bounds the cylinders of an engine (and of a session).
+	MaxCylinders = 12
+)
 
 // Notch is a named reverser position ("running notch", "25 %").
 type Notch struct {
@@ -189,6 +198,12 @@ func (s EngineSpec) Validate() error {
 	if a, ok := gearAdmission(gear); ok && a != s.Valve.Admission {
 		return &Error{"gear." + key, fmt.Sprintf("The gear is laid out for %s admission but the valve has %s admission; they must agree.", a, s.Valve.Admission)}
 	}
+	switch {
+	case len(s.Notches) > MaxNotches:
+		return &Error{"notches", fmt.Sprintf("The engine has %d notches; an engine holds at most %d (the reverser positions it is run in). Keep the ones the engine is run in.", len(s.Notches), MaxNotches)}
+	case len(s.Cylinders) > MaxCylinders:
+		return &Error{"cylinders", fmt.Sprintf("The engine has %d cylinders; an engine holds at most %d (engines have one to four). Remove the others.", len(s.Cylinders), MaxCylinders)}
+	}
 	names := make([]string, len(s.Notches))
 	for i, n := range s.Notches {
 		names[i] = n.Name
@@ -225,34 +240,32 @@ func checkNames(list, what string, names []string) error {
 	return nil
 }
 
+// engineFile is how an engine file is read: the rules the session file
+// shares, with an engine file's bounds (one is a few kilobytes).
+func engineFile() JSONFile {
+	return JSONFile{Noun: "engine file", Kind: "an engine file", Opening: `{"name": "...", "engine": {...}, "valve": {...}, "gear": {...}}`,
+		MaxBytes: 1 << 20, MaxDepth: 64}
+}
+
 // DecodeEngineSpec reads an engine spec from JSON and validates every value.
 // Errors are *Error values whose Field is the key path of the value at fault
 // ("valve.front.port_width", "gear.walschaerts"), with a sentence saying
-// what is wrong. A key written twice counts once, its last value.
+// what is wrong. The file is read as JSONFile says: at most 1 MB of UTF-8
+// (a byte-order mark is dropped), syntax errors with their line and column,
+// a key written twice refused. A key not known is named with the nearest
+// known key when it looks like a typing slip.
 func DecodeEngineSpec(r io.Reader) (EngineSpec, error) {
 	var spec EngineSpec
-	data, err := io.ReadAll(r)
+	v, data, err := engineFile().Read(r)
 	if err != nil {
-		return spec, &Error{"", fmt.Sprintf("The engine file could not be read: %v.", err)}
+		return spec, err
 	}
-	raw := bytes.TrimSpace(data)
-	if len(raw) == 0 {
-		return spec, &Error{"", describePath("") + " is empty; it must be a JSON object."}
+	if v.Kind != jsonx.Object {
+		return spec, &Error{"", fmt.Sprintf("An engine file is one JSON object {...}; this file holds %s.", short(data[v.Start:v.End]))}
 	}
-	v, err := jsonx.Parse(raw, jsonx.Options{})
-	if err != nil || v.Kind != jsonx.Object {
-		return spec, &Error{"", describePath("") + fmt.Sprintf(" must be an object {...} (got %s).", short(raw))}
-	}
-	d := specDecoder{data: raw}
+	d := specDecoder{data: data}
 	if err := d.read("", v, &spec); err != nil {
 		return EngineSpec{}, err
-	}
-	if len(raw) != len(bytes.Trim(data, " \t\r\n")) {
-		// White space outside JSON's own (a no-break space, say) around
-		// the object: the file itself is not JSON.
-		if _, err := jsonx.Parse(data, jsonx.Options{}); err != nil {
-			return EngineSpec{}, &Error{"", fmt.Sprintf("The engine file is not valid: %v.", err)}
-		}
 	}
 	if d.wholeErr != nil {
 		return EngineSpec{}, d.wholeErr
@@ -472,16 +485,24 @@ func (d *specDecoder) number(v *jsonx.Value, p *float64, at func(string) error) 
 		return nil
 	case jsonx.Number:
 		f, err := strconv.ParseFloat(v.Text, 64)
-		if err == nil {
+		if err == nil && math.Abs(f) <= maxSpecNumber {
 			*p = f
 			return nil
 		}
+		return at("is %s, far beyond any engine (lengths are in mm, angles in degrees); check the number.")
 	}
 	return at("must be a number (got %s).")
 }
 
-// object reads the members of an object in the order of fields: the first
-// wrong or missing one is the error; keys not among them are refused after.
+// maxSpecNumber bounds every number of an engine file: a kilometre in mm,
+// or a thousand turns in degrees, is beyond any engine, so a larger number
+// is a slip (and kept out of the geometry, where it would overflow).
+const maxSpecNumber = 1e6
+
+// object reads the members of an object. A key not among fields is
+// refused first (a misspelt key is named as typed, with the key it looks
+// like, before that key is found missing); then the members are read in
+// the order of fields, the first wrong or missing one the error.
 func (d *specDecoder) object(path string, v *jsonx.Value, fields []specField, at func(string) error) error {
 	if v.Kind != jsonx.Object {
 		return at("must be an object {...} (got %s).")
@@ -489,23 +510,6 @@ func (d *specDecoder) object(path string, v *jsonx.Value, fields []specField, at
 	keys := make([]string, len(fields))
 	for i, f := range fields {
 		keys[i] = f.key
-		sub := f.key
-		if path != "" {
-			sub = path + "." + f.key
-		}
-		m := v.Last(f.key)
-		// Merging, a key the patch leaves out keeps its value; a patch's
-		// null takes a key out (reading it sets the value to zero).
-		missing := m == nil && d.patch != mergeInto || m != nil && m.Kind == jsonx.Null && d.patch != notPatch
-		if missing && !f.optional {
-			return &Error{sub, describePath(sub) + " is missing; it must be given."}
-		}
-		if m == nil {
-			continue
-		}
-		if err := d.read(sub, m, f.ptr); err != nil {
-			return err
-		}
 	}
 	var unknown []string
 	for i, k := range v.Keys {
@@ -516,13 +520,49 @@ func (d *specDecoder) object(path string, v *jsonx.Value, fields []specField, at
 	}
 	if len(unknown) > 0 {
 		sort.Slice(unknown, func(i, j int) bool { return unknown[i] < unknown[j] })
-		sub := unknown[0]
-		if path != "" {
-			sub = path + "." + sub
+		k := unknown[0]
+		if near := NearestKey(k, keys); near != "" {
+			return &Error{JoinKey(path, k), fmt.Sprintf("The key %q is not known here; did you mean %q? Correct its name.", k, near)}
 		}
-		return &Error{sub, fmt.Sprintf("The key %q is not known here; the keys here are: %s.", unknown[0], strings.Join(keys, ", "))}
+		return &Error{JoinKey(path, k), fmt.Sprintf("The key %q is not known here; the keys here are: %s.", k, strings.Join(keys, ", "))}
+	}
+	for _, f := range fields {
+		sub := f.key
+		if path != "" {
+			sub = path + "." + f.key
+		}
+		m := v.Last(f.key)
+		// Merging, a key the patch leaves out keeps its value; a patch's
+		// null takes a key out (reading it sets the value to zero).
+		missing := m == nil && d.patch != mergeInto || m != nil && m.Kind == jsonx.Null && d.patch != notPatch
+		if missing && !f.optional {
+			return &Error{sub, fmt.Sprintf("%s is missing; add %q with %s.", describePath(sub), f.key, valueWords(f.ptr))}
+		}
+		if m == nil {
+			continue
+		}
+		if err := d.read(sub, m, f.ptr); err != nil {
+			return err
+		}
 	}
 	return nil
+}
+
+// valueWords says what a field holds, for a sentence asking for it.
+func valueWords(ptr any) string {
+	switch ptr.(type) {
+	case *float64, *Reverser, *int:
+		return "a number"
+	case *bool:
+		return "true or false"
+	case *string:
+		return "a text in quotes"
+	case *Admission:
+		return `"external" or "internal"`
+	case *[]Notch, *[]Cylinder:
+		return "a list [...]"
+	}
+	return "an object {...}"
 }
 
 // readList reads a list of objects, or null.
@@ -683,10 +723,17 @@ func describePath(p string) string {
 		return "The engine file"
 	}
 	last := p[strings.LastIndexAny(p, ".]")+1:]
-	if last == "" {
-		last = "entry"
+	words := "The " + strings.ReplaceAll(last, "_", " ")
+	switch last {
+	case "":
+		words = "This entry"
+	case "invented", "slip", "crossed":
+		// Marks: "The invented (invented)" says nothing.
+		words = "The " + last + " mark"
+	case "u", "w":
+		words = "The " + last + " coordinate"
 	}
-	return "The " + strings.ReplaceAll(last, "_", " ") + " (" + p + ")"
+	return words + " (" + p + ")"
 }
 
 // short quotes a JSON value as written for a message, cut to a readable

@@ -3,6 +3,7 @@ package setting
 import (
 	"bytes"
 	"errors"
+	"math"
 	"os"
 	"path/filepath"
 	"reflect"
@@ -100,12 +101,30 @@ func TestDecodeEngineSpecErrors(t *testing.T) {
 }
 
 // FuzzDecodeEngineSpec: any input gives a spec or an *Error, never a panic;
-// a spec that decodes writes and reads back unchanged.
+// the error is one sentence (a capital first, a full stop or question mark
+// last) showing no NaN or Inf it was not given; a spec that decodes holds
+// no NaN or Inf, writes and reads back unchanged, and its warnings are
+// sentences. Seeds: the demo engines and the hostile inputs of issue 13
+// (a byte-order mark, UTF-16, bytes that are not UTF-8, a key twice, a
+// misspelt key, a crank of 1e308). Run:
+// go test -fuzz=FuzzDecodeEngineSpec -fuzzminimizetime=5s ./setting
 func FuzzDecodeEngineSpec(f *testing.F) {
 	f.Add(specJSON)
 	f.Add(`{}`)
 	f.Add(`{"name": "x", "invented": true, "engine": null, "notches": [null]}`)
 	f.Add(strings.Replace(specJSON, `"kind": "single-eccentric"`, `"kind": "walschaerts", "walschaerts": {}`, 1))
+	f.Add("\xef\xbb\xbf" + specJSON)
+	f.Add("\xff\xfe{\x00}\x00")
+	f.Add(strings.Replace(specJSON, `"Test engine"`, "\"Test \xe9ngine\"", 1))
+	f.Add(strings.Replace(specJSON, `"rod_length": 180`, `"rod_length": 180, "rod_length": 190`, 1))
+	f.Add(strings.Replace(specJSON, `"rod_length"`, `"rod_lenght"`, 1))
+	f.Add(strings.Replace(specJSON, `"crank_radius": 30`, `"crank_radius": 1e308`, 1))
+	f.Add(strings.Replace(specJSON, `"crank_radius": 30`, `"crank_radius": 999999`, 1))
+	files, _ := filepath.Glob(filepath.Join("..", "testdata", "engines", "*.json"))
+	for _, name := range files {
+		data, _ := os.ReadFile(name)
+		f.Add(string(data))
+	}
 	f.Fuzz(func(t *testing.T, in string) {
 		spec, err := DecodeEngineSpec(strings.NewReader(in))
 		if err != nil {
@@ -113,7 +132,19 @@ func FuzzDecodeEngineSpec(f *testing.F) {
 			if !errors.As(err, &e) || e.Message == "" {
 				t.Fatalf("error %v is not an *Error with a message", err)
 			}
+			m := e.Message
+			if first := m[0]; first < 'A' || first > 'Z' || !strings.HasSuffix(m, ".") && !strings.HasSuffix(m, "?") {
+				t.Fatalf("%q is not a sentence", m)
+			}
+			for _, bad := range []string{"NaN", "Inf"} {
+				if strings.Contains(m, bad) && !strings.Contains(in, bad) {
+					t.Fatalf("%q shows %s", m, bad)
+				}
+			}
 			return
+		}
+		if !finiteSpec(spec) {
+			t.Fatalf("accepted a NaN or Inf: %+v", spec)
 		}
 		var buf bytes.Buffer
 		if err := spec.Encode(&buf); err != nil {
@@ -123,7 +154,39 @@ func FuzzDecodeEngineSpec(f *testing.F) {
 		if err != nil || !reflect.DeepEqual(spec, again) {
 			t.Fatalf("round trip: %v\n%+v\n%+v", err, spec, again)
 		}
+		for _, w := range spec.Warnings() {
+			if strings.Contains(w, "NaN") || strings.Contains(w, "Inf") || !strings.HasSuffix(w, ".") {
+				t.Fatalf("warning %q", w)
+			}
+		}
 	})
+}
+
+// finiteSpec reports whether every number of the spec is finite.
+func finiteSpec(spec EngineSpec) bool {
+	var walk func(v reflect.Value) bool
+	walk = func(v reflect.Value) bool {
+		switch v.Kind() {
+		case reflect.Float64:
+			return !math.IsNaN(v.Float()) && !math.IsInf(v.Float(), 0)
+		case reflect.Pointer:
+			return v.IsNil() || walk(v.Elem())
+		case reflect.Struct:
+			for i := range v.NumField() {
+				if !walk(v.Field(i)) {
+					return false
+				}
+			}
+		case reflect.Slice:
+			for i := range v.Len() {
+				if !walk(v.Index(i)) {
+					return false
+				}
+			}
+		}
+		return true
+	}
+	return walk(reflect.ValueOf(spec))
 }
 
 // Reading an engine file (the Stephenson demo engine), validation included.
@@ -139,5 +202,28 @@ func BenchmarkDecodeEngineSpec(b *testing.B) {
 		if _, err := DecodeEngineSpec(bytes.NewReader(data)); err != nil {
 			b.Fatal(err)
 		}
+	}
+}
+
+// Notches and cylinders beyond the bounds are refused naming the list.
+func TestEngineListBounds(t *testing.T) {
+	spec, err := DecodeEngineSpec(strings.NewReader(specJSON))
+	if err != nil {
+		t.Fatal(err)
+	}
+	many := spec
+	for i := 0; i <= MaxNotches; i++ {
+		many.Notches = append(many.Notches, Notch{Name: "n" + strings.Repeat("i", i+1), Reverser: 0.5})
+	}
+	var e *Error
+	if err := many.Validate(); !errors.As(err, &e) || e.Field != "notches" || !strings.Contains(e.Message, "at most 40") {
+		t.Errorf("%d notches: %v", len(many.Notches), err)
+	}
+	many = spec
+	for i := 0; i <= MaxCylinders; i++ {
+		many.Cylinders = append(many.Cylinders, Cylinder{Name: "c" + strings.Repeat("i", i+1)})
+	}
+	if err := many.Validate(); !errors.As(err, &e) || e.Field != "cylinders" || !strings.Contains(e.Message, "at most 12") {
+		t.Errorf("%d cylinders: %v", len(many.Cylinders), err)
 	}
 }

@@ -14,6 +14,7 @@ import (
 	"sort"
 	"strings"
 	"testing"
+	"unicode/utf8"
 
 	"evenbeat/setting/jsonx/jsonxtest"
 )
@@ -21,17 +22,30 @@ import (
 // The engine decoder used to be encoding/json with a reflection walk
 // (checkJSON) in front of it. That code is kept here as the reference the
 // explicit decoder must match: same specs, same refusals with the same
-// field and sentence, same bytes written. Two differences are deliberate:
+// field and sentence, same bytes written. It has since been brought up to
+// the session reader, and the reference with it:
 //   - A count written as a whole number that is not an integer literal
 //     ("holes": 1.0) was refused with encoding/json's own wording and no
 //     field; it now names the field.
-//   - A key written twice counts once, its last value. encoding/json also
-//     decoded the earlier values, so an earlier wrong one failed the file
-//     and an earlier optional member could survive; inputs with a
-//     repeated key are left out of the comparison.
+//   - A key not known is refused before a missing one (a misspelt key is
+//     named as typed, with the key it looks like); a missing key's
+//     sentence says what to add.
+//   - A number beyond any engine (more than a million, or too large for
+//     a float) is refused as a slip.
+//   - Text that is not JSON is refused with its line and column, a key
+//     written twice is refused naming it, and a file must be UTF-8 (a
+//     byte-order mark is dropped): jsonx, tested against encoding/json,
+//     finds these, so here only the kind of refusal is compared.
 
 func refDecodeEngineSpec(data []byte) (EngineSpec, error) {
 	var spec EngineSpec
+	trimmed := bytes.TrimSpace(data)
+	if len(trimmed) == 0 {
+		return spec, &Error{"", "The engine file is empty; an engine file starts with {\"name\": \"...\", \"engine\": {...}, \"valve\": {...}, \"gear\": {...}}."}
+	}
+	if trimmed[0] != '{' {
+		return spec, &Error{"", fmt.Sprintf("An engine file is one JSON object {...}; this file holds %s.", short(trimmed))}
+	}
 	if err := refCheckJSON("", json.RawMessage(data), reflect.TypeOf(spec)); err != nil {
 		return spec, err
 	}
@@ -74,6 +88,11 @@ func refCheckJSON(path string, raw json.RawMessage, t reflect.Type) error {
 	switch t.Kind() {
 	case reflect.Float64, reflect.Float32, reflect.Int, reflect.Int64, reflect.Int32:
 		var f float64
+		if raw[0] == '-' || raw[0] >= '0' && raw[0] <= '9' {
+			if json.Unmarshal(raw, &f) != nil || math.Abs(f) > 1e6 {
+				return at("is %s, far beyond any engine (lengths are in mm, angles in degrees); check the number.", short(raw))
+			}
+		}
 		if raw[0] == '"' || json.Unmarshal(raw, &f) != nil {
 			return at("must be a number (got %s).", short(raw))
 		}
@@ -108,30 +127,9 @@ func refCheckJSON(path string, raw json.RawMessage, t reflect.Type) error {
 		known := map[string]bool{}
 		var keys []string
 		for i := range t.NumField() {
-			f := t.Field(i)
-			name, opts, _ := strings.Cut(f.Tag.Get("json"), ",")
-			if !f.IsExported() || name == "-" {
-				continue
-			}
-			if name == "" {
-				name = f.Name
-			}
+			name, _, _ := strings.Cut(t.Field(i).Tag.Get("json"), ",")
 			known[name] = true
 			keys = append(keys, name)
-			sub := name
-			if path != "" {
-				sub = path + "." + name
-			}
-			v, ok := obj[name]
-			if !ok {
-				if !strings.Contains(opts, "omitempty") {
-					return &Error{sub, describePath(sub) + " is missing; it must be given."}
-				}
-				continue
-			}
-			if err := refCheckJSON(sub, v, f.Type); err != nil {
-				return err
-			}
 		}
 		var unknown []string
 		for k := range obj {
@@ -141,14 +139,50 @@ func refCheckJSON(path string, raw json.RawMessage, t reflect.Type) error {
 		}
 		if len(unknown) > 0 {
 			sort.Strings(unknown)
-			sub := unknown[0]
-			if path != "" {
-				sub = path + "." + sub
+			sub := JoinKey(path, unknown[0]) // quoted when not a plain word
+			if near := NearestKey(unknown[0], keys); near != "" {
+				return &Error{sub, fmt.Sprintf("The key %q is not known here; did you mean %q? Correct its name.", unknown[0], near)}
 			}
 			return &Error{sub, fmt.Sprintf("The key %q is not known here; the keys here are: %s.", unknown[0], strings.Join(keys, ", "))}
 		}
+		for i := range t.NumField() {
+			f := t.Field(i)
+			name, opts, _ := strings.Cut(f.Tag.Get("json"), ",")
+			sub := name
+			if path != "" {
+				sub = path + "." + name
+			}
+			v, ok := obj[name]
+			if !ok {
+				if !strings.Contains(opts, "omitempty") {
+					return &Error{sub, fmt.Sprintf("%s is missing; add %q with %s.", describePath(sub), name, refValueWords(f.Type))}
+				}
+				continue
+			}
+			if err := refCheckJSON(sub, v, f.Type); err != nil {
+				return err
+			}
+		}
 	}
 	return nil
+}
+
+// refValueWords says what a value of type t is, for a sentence asking for it.
+func refValueWords(t reflect.Type) string {
+	if reflect.PointerTo(t).Implements(refTextUnmarshaler) {
+		return `"external" or "internal"`
+	}
+	switch t.Kind() {
+	case reflect.Float64, reflect.Int:
+		return "a number"
+	case reflect.Bool:
+		return "true or false"
+	case reflect.String:
+		return "a text in quotes"
+	case reflect.Slice:
+		return "a list [...]"
+	}
+	return "an object {...}"
 }
 
 // hasRepeatedKey reports whether any object in data repeats a key.
@@ -192,10 +226,33 @@ func hasRepeatedKey(data []byte) bool {
 // encodes with both encoders.
 func compareWithReference(t *testing.T, in []byte) {
 	t.Helper()
-	if hasRepeatedKey(in) {
-		return
-	}
 	got, err := DecodeEngineSpec(bytes.NewReader(in))
+	refuses := func(why string, says ...string) {
+		t.Helper()
+		var e *Error
+		if !errors.As(err, &e) {
+			t.Fatalf("%q (%s): got %v, want an *Error", in, why, err)
+		}
+		for _, s := range says {
+			if strings.Contains(e.Message, s) {
+				return
+			}
+		}
+		t.Fatalf("%q (%s): got %v, want a sentence saying one of %q", in, why, err, says)
+	}
+	switch body := bytes.TrimPrefix(in, []byte("\xef\xbb\xbf")); {
+	case !utf8.Valid(body) || bytes.HasPrefix(in, []byte{0xfe, 0xff}) || bytes.HasPrefix(in, []byte{0xff, 0xfe}):
+		refuses("not UTF-8", "UTF-8", "not valid JSON")
+		return
+	case len(bytes.TrimSpace(body)) > 0 && !json.Valid(body):
+		refuses("not JSON", "not valid JSON at line", "ends too early (line", "more text after its end (line", "is written twice") // a key twice may come first
+		return
+	case hasRepeatedKey(body):
+		refuses("a key twice", "is written twice")
+		return
+	default:
+		in = body
+	}
 	want, refErr := refDecodeEngineSpec(in)
 	if refErr != nil && strings.HasPrefix(refErr.Error(), "The engine file is not valid: json: cannot unmarshal number") {
 		var e *Error

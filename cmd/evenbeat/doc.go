@@ -18,7 +18,14 @@
 //
 // "plan", "events" and "report" (files.go) read session and engine files,
 // with flags before or after the file; a plan's aims not given as flags
-// come from the session's plan_aims.
+// come from the session's plan_aims. "plan" and "report" run the checks
+// the app runs before its plan: the session's warnings and what weakens
+// the plan go to stderr ("evenbeat: warning: field: sentence"), and a
+// cylinder whose readings block a plan (missing or contradictory
+// readings, session.Session.Readiness) is refused with every reason and
+// exit status 1, nothing planned or written. The file commands run with a
+// soft memory limit (unless GOMEMLIMIT is set), so the largest session
+// file (16 MB) is read in a few hundred MB.
 //
 // Main (Run/Close) is the whole command as a value; the end-to-end browser
 // test reuses it. This package may import setting and its subpackages,

@@ -6,7 +6,9 @@ import (
 	"flag"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
+	"runtime/debug"
 	"strings"
 
 	"evenbeat/render/report"
@@ -58,16 +60,19 @@ func (p *planFlags) options(s *session.Session) (plan.Options, error) {
 		}
 	}
 	if p.given("weight") {
-		if p.weight < 0 || p.weight > 1 {
-			return opt, fmt.Errorf("flag -weight: %g is outside 0 to 1", p.weight)
+		// Written so that NaN, which no comparison holds for, is refused.
+		if !(p.weight >= 0 && p.weight <= 1) {
+			return opt, fmt.Errorf("flag -weight: the share given to leads must be a number from 0 to 1 (got %g); give e.g. -weight 0.5", p.weight)
 		}
 		opt.Weight = p.weight
 	}
 	if p.given("target-lead") {
 		opt.TargetLeadMM = nil
 		if p.targetLead != -1 {
-			if p.targetLead < -2 || p.targetLead > 5 {
-				return opt, fmt.Errorf("flag -target-lead: %g mm is not a plausible lead; give millimetres, e.g. 0.2", p.targetLead)
+			// The bounds a session file's target_lead_mm holds; NaN is refused.
+			if !(p.targetLead >= session.MinTargetLeadMM && p.targetLead <= session.MaxTargetLeadMM) {
+				return opt, fmt.Errorf("flag -target-lead: the lead wanted must be a number of mm from %d to %d (got %g); give millimetres, e.g. -target-lead 0.2, or -1 for none",
+					session.MinTargetLeadMM, session.MaxTargetLeadMM, p.targetLead)
 			}
 			t := p.targetLead
 			opt.TargetLeadMM = &t
@@ -103,6 +108,40 @@ func (p *planFlags) load(path string) (*session.Session, plan.Options, error) {
 	}
 	opt, err := p.options(s)
 	return s, opt, err
+}
+
+// checkSession runs the checks the app runs before its plan: it writes the
+// session's warnings (Session.Check) and what weakens the plan of cylinder
+// cyl (Session.Readiness) to stderr, and refuses, with every reason, a
+// cylinder whose readings block a plan. Each line is "field: sentence",
+// the field as the file names it.
+func checkSession(s *session.Session, cyl int, stderr io.Writer) error {
+	for _, w := range s.Check() {
+		fmt.Fprintf(stderr, "evenbeat: warning: %s\n", w)
+	}
+	var blocking []string
+	for _, p := range s.Readiness(cyl) {
+		if p.Blocking {
+			blocking = append(blocking, p.String())
+		} else {
+			fmt.Fprintf(stderr, "evenbeat: note: %s\n", p)
+		}
+	}
+	if len(blocking) > 0 {
+		return fmt.Errorf("no plan for the %s cylinder until its readings are put right:\n  %s", s.Cylinders[cyl].Name, strings.Join(blocking, "\n  "))
+	}
+	return nil
+}
+
+// limitMemory sets a soft memory limit for the file commands, unless
+// GOMEMLIMIT is set: the garbage collector then works harder as the heap
+// nears it instead of letting the heap grow to twice what is live, so
+// reading the largest session file (16 MB) stays near 300 MB. It never
+// refuses memory.
+func limitMemory() {
+	if os.Getenv("GOMEMLIMIT") == "" {
+		debug.SetMemoryLimit(256 << 20)
+	}
 }
 
 // displayUnit is the unit the plan's words use: the flag's, else the session's.
@@ -163,6 +202,7 @@ var exampleFile = map[string]string{
 // runPlan is `evenbeat plan [flags] SESSION.json`: the plan as text, or as
 // JSON with -json.
 func runPlan(args []string, stdout, stderr io.Writer) error {
+	limitMemory()
 	fs := flag.NewFlagSet("plan", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	asJSON := fs.Bool("json", false, "write JSON (signed amounts in mm or degrees, sign conventions beside them)")
@@ -175,6 +215,9 @@ func runPlan(args []string, stdout, stderr io.Writer) error {
 	s, opt, err := pf.load(path)
 	if err != nil {
 		return err
+	}
+	if err := checkSession(s, opt.Cylinder, stderr); err != nil {
+		return fmt.Errorf("%s: %w", path, err)
 	}
 	p, err := plan.Make(s, opt)
 	if err != nil {
@@ -191,6 +234,7 @@ func runPlan(args []string, stdout, stderr io.Writer) error {
 // runEvents is `evenbeat events [-json] ENGINE.json`: the event table of an
 // engine file (or of the engine inside a session file).
 func runEvents(args []string, stdout, stderr io.Writer) error {
+	limitMemory()
 	fs := flag.NewFlagSet("events", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	asJSON := fs.Bool("json", false, "write JSON")
@@ -201,6 +245,9 @@ func runEvents(args []string, stdout, stderr io.Writer) error {
 	spec, err := readEngine(path)
 	if err != nil {
 		return err
+	}
+	for _, w := range spec.Warnings() {
+		fmt.Fprintf(stderr, "evenbeat: warning: %s\n", w)
 	}
 	return buffered(stdout, func(w io.Writer) error {
 		if *asJSON {
@@ -215,7 +262,11 @@ func runEvents(args []string, stdout, stderr io.Writer) error {
 func readEngine(path string) (setting.EngineSpec, error) {
 	data, err := os.ReadFile(path)
 	if err != nil {
-		return setting.EngineSpec{}, err
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			err = pe.Err
+		}
+		return setting.EngineSpec{}, fmt.Errorf("%s: the file cannot be opened (%v); check its name and the folder it is in", path, err)
 	}
 	if strings.Contains(string(data), `"evenbeat-session"`) {
 		s, err := session.Decode(strings.NewReader(string(data)))
@@ -233,6 +284,7 @@ func readEngine(path string) (setting.EngineSpec, error) {
 
 // runReport is `evenbeat report [flags] SESSION.json -o report.png`.
 func runReport(args []string, stdout, stderr io.Writer) error {
+	limitMemory()
 	fs := flag.NewFlagSet("report", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	out := fs.String("o", "", "PNG file to write (required)")
@@ -249,6 +301,9 @@ func runReport(args []string, stdout, stderr io.Writer) error {
 	s, opt, err := pf.load(path)
 	if err != nil {
 		return err
+	}
+	if err := checkSession(s, opt.Cylinder, stderr); err != nil {
+		return fmt.Errorf("%s: %w", path, err)
 	}
 	tmp := *out + ".part"
 	f, err := os.Create(tmp)

@@ -114,6 +114,9 @@ func TestFileCommandErrors(t *testing.T) {
 		{"no file", []string{"plan"}, "needs one session file"},
 		{"priority", []string{"plan", "-priority", "fast", demoSession}, "-priority"},
 		{"weight", []string{"plan", "-weight", "2", demoSession}, "-weight"},
+		{"weight NaN", []string{"plan", "-weight", "NaN", demoSession}, "flag -weight"},
+		{"target lead NaN", []string{"plan", "-target-lead", "NaN", demoSession}, "flag -target-lead"},
+		{"target lead beyond a file's", []string{"report", "-o", "x.png", "-target-lead", "26", demoSession}, "flag -target-lead"},
 		{"unit", []string{"plan", "-unit", "cubit", demoSession}, "-unit"},
 		{"cylinder", []string{"plan", "-cylinder", "middle", demoSession}, "no cylinder \"middle\""},
 		{"missing", []string{"plan", "nowhere.json"}, "nowhere.json"},
@@ -278,5 +281,51 @@ func TestFlagsAfterTheFile(t *testing.T) {
 		if err == nil || !strings.Contains(err.Error(), "reads one") || !strings.Contains(err.Error(), c.second) || out != "" {
 			t.Errorf("%q: error %v, output %q; want a refusal naming the second file", c.args, err, out)
 		}
+	}
+}
+
+// TestPlanRunsTheAppsChecks: plan and report run the checks the app runs
+// before its plan. A cylinder whose readings contradict (the demo's port
+// marks swapped) is refused with the reason and nothing planned or
+// written; the warnings of a session that plans go to stderr.
+func TestPlanRunsTheAppsChecks(t *testing.T) {
+	b, err := os.ReadFile(demoSession)
+	if err != nil {
+		t.Fatal(err)
+	}
+	swapped := strings.Replace(string(b), `"front_gauge_mm": 2.6,
+            "back_gauge_mm": 7.4`, `"front_gauge_mm": 7.4,
+            "back_gauge_mm": 2.6`, 1)
+	if swapped == string(b) {
+		t.Fatal("the demo session's port marks are not as this test expects")
+	}
+	path := filepath.Join(t.TempDir(), "swapped.json")
+	if err := os.WriteFile(path, []byte(swapped), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	png := filepath.Join(t.TempDir(), "r.png")
+	for _, args := range [][]string{{"plan", path}, {"plan", "-json", path}, {"report", "-o", png, path}} {
+		var out, errOut bytes.Buffer
+		err := run(context.Background(), args, &out, &errOut)
+		if err == nil || !strings.Contains(err.Error(), "no plan for the right cylinder") || !strings.Contains(err.Error(), "port marks are the wrong way round") {
+			t.Errorf("%q: error %v, want the refusal naming the port marks", args, err)
+		}
+		if out.Len() > 0 {
+			t.Errorf("%q: wrote %q from a blocked session", args, out.String())
+		}
+	}
+	if _, err := os.Stat(png); !os.IsNotExist(err) {
+		t.Errorf("a report was written from a blocked session (%v)", err)
+	}
+	var out, errOut bytes.Buffer
+	if err := run(context.Background(), []string{"plan", "-cylinder", "left", demoSession}, &out, &errOut); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(errOut.String(), "evenbeat: warning: cylinders[0].rounds[0].dead_centre_readings[0]: The lead at front dead centre") ||
+		!strings.Contains(errOut.String(), "evenbeat: note: cylinders[1].rounds[0]: There are no readings in back gear") {
+		t.Errorf("the demo's warnings and notes are not on stderr:\n%s", errOut.String())
+	}
+	if strings.Contains(out.String(), "warning") {
+		t.Errorf("warnings went to stdout:\n%s", out.String())
 	}
 }

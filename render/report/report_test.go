@@ -2,12 +2,14 @@ package report_test
 
 import (
 	"bytes"
+	"fmt"
 	"image/png"
 	"strings"
 	"testing"
 
 	"evenbeat/render"
 	"evenbeat/render/report"
+	"evenbeat/setting"
 	"evenbeat/setting/cpubench"
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
@@ -87,5 +89,32 @@ func BenchmarkReportDraw(b *testing.B) {
 	defer cpubench.Report(b, cpubench.Now())
 	for b.Loop() {
 		report.Draw(rm, report.Options{})
+	}
+}
+
+// A report stays short whatever the engine: with 30 notches it draws six
+// valve curves (full forward, the first notches, full back) and names the
+// others; the event table (two rows a notch) and the balance card (a row
+// a notch) grow, by less than a valve curve's card a notch.
+func TestReportOfManyNotchesStaysShort(t *testing.T) {
+	s := demoSession(t)
+	base, err := report.Build(s, report.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := 0; i < 30; i++ {
+		s.Engine.Notches = append(s.Engine.Notches, setting.Notch{Name: fmt.Sprintf("notch %d", i+2), Reverser: setting.Reverser(0.9 - 0.06*float64(i))})
+	}
+	many, err := report.Build(s, report.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(many.Model.Positions) != 33 {
+		t.Fatalf("%d positions, want 33", len(many.Model.Positions))
+	}
+	h0, h := render.ReportHeight(render.ReportWidth, base), render.ReportHeight(render.ReportWidth, many)
+	curve := render.LayoutValveCurve(render.Rect{Max: render.Point{X: render.ReportWidth, Y: 1e6}}, many.Model, 0).NeedH
+	if h-h0 > 30*curve {
+		t.Errorf("the report of 33 positions is %.0f units tall, the demo's (3 positions) %.0f: %.0f a notch, a valve curve's card is %.0f", h, h0, (h-h0)/30, curve)
 	}
 }

@@ -129,35 +129,10 @@ const suspectFloor = 0.15
 // roundObservations picks the observations of round number round (from
 // 1; 0 for the latest) of cylinder cyl.
 func roundObservations(s *session.Session, cyl, round int) ([]session.Observation, error) {
-	all, err := s.Observations(cyl)
-	if err != nil {
-		return nil, err
-	}
 	if round <= 0 || round > len(s.Cylinders[cyl].Rounds) {
 		round = len(s.Cylinders[cyl].Rounds)
 	}
-	round-- // to an index
-	// Observations come round by round, so the round is one run of them.
-	lo := 0
-	for lo < len(all) && all[lo].Round != round {
-		lo++
-	}
-	hi := lo
-	for hi < len(all) && all[hi].Round == round {
-		hi++
-	}
-	for _, o := range all[hi:] {
-		if o.Round == round { // not in one run after all: gather them
-			out := make([]session.Observation, 0, len(all))
-			for _, o := range all {
-				if o.Round == round {
-					out = append(out, o)
-				}
-			}
-			return out, nil
-		}
-	}
-	return all[lo:hi:hi], nil
+	return s.RoundObservations(cyl, round-1)
 }
 
 // FitSession fits cylinder cyl of a session (its latest round unless opt

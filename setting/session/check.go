@@ -35,6 +35,19 @@ const (
 	// unreliable (about 0.1 mm of lead per degree on a 5 in gauge engine,
 	// valve-setting primer section 4, common practice).
 	roughMarkDeg = 2
+	// inchLikeCrankMM and inchLikeLapMM: an engine with valve gear has a
+	// crank of more than this (a gauge 1 model's is about 6 mm), and laps
+	// or ports wider than this (about 0.5 and 1 mm on such a model); less
+	// is inches typed in mm (from memory).
+	inchLikeCrankMM = 3
+	inchLikeLapMM   = 0.25
+	// wrongDeadCentresDeg: bracketed dead centres further than this from
+	// where the geometry puts them (or from the same dead centre bracketed
+	// turning the other way) are wrong marks or a wrong wheel diameter,
+	// not backlash or a worn tyre (tyreScale takes up 5 % of the wheel,
+	// 9 degrees at back dead centre): Readiness refuses them; Check warns
+	// from 5 degrees (common practice, no source).
+	wrongDeadCentresDeg = 30
 )
 
 // Check returns the values that are possible but unusual: a lead outside
@@ -48,7 +61,14 @@ func (s *Session) Check() []Warning {
 	}
 	m := s.Measuring
 	if m.WheelDiameterMM < 40 || m.WheelDiameterMM > 2500 {
-		add("measuring.wheel_diameter_mm", "A wheel of %s mm is unusual for an engine with valve gear; check that the diameter is in mm.", fmtNum(m.WheelDiameterMM))
+		add("measuring.wheel_diameter_mm", "A wheel of %s mm is unusual for an engine with valve gear; check that the diameter is in mm (%s in would be %s mm).", fmtNum(m.WheelDiameterMM), fmtNum(m.WheelDiameterMM), fmtNum(math.Round(m.WheelDiameterMM*25.4)))
+	}
+	// Lengths not yet given (zero, in the app's set-up) say nothing.
+	e, v := s.Engine.Engine, s.Engine.Valve
+	small := math.Max(math.Max(v.Front.SteamLap, v.Back.SteamLap), math.Max(v.Front.Width(), v.Back.Width()))
+	if e.CrankRadius > 0 && (e.CrankRadius < inchLikeCrankMM || small > 0 && small <= inchLikeLapMM) {
+		add("engine", "The engine's lengths look like inches typed where mm are asked (crank radius %s, steam laps %s and %s, port widths %s and %s): the file holds every length in mm, and 1 in is 25.4 mm. Type them again in mm (or in the app with inches chosen as the unit).",
+			fmtNum(e.CrankRadius), fmtNum(v.Front.SteamLap), fmtNum(v.Back.SteamLap), fmtNum(v.Front.Width()), fmtNum(v.Back.Width()))
 	}
 	if m.GaugeResolutionMM > coarseGaugeMM {
 		add("measuring.gauge_resolution_mm", "A gauge reading to %s mm cannot show a lead to a hundredth of a mm; a 0.01 mm (or 0.001 in) gauge is usual.", fmtNum(m.GaugeResolutionMM))
@@ -98,25 +118,23 @@ func (s *Session) checkCylinder(ci int) []Warning {
 			bdc, okB := a.deadCentre(Back, dir)
 			if okF && okB {
 				got := wrap(bdc-fdc, 360)
-				if want := a.geomBack; math.Abs(got-want) > 5 {
+				if want := a.geomBack; math.Abs(got-want) > 5 && math.Abs(got-want) <= wrongDeadCentresDeg {
 					add(cp+".dead_centres", "Turning %s, the bracketed dead centres are %.1f degrees apart, but the engine's geometry puts them %.1f degrees apart. Check the marks, the wheel diameter and the cylinder offset.", dir, got, want)
 				}
 			}
 		}
-	}
-	obs, err := s.Observations(ci)
-	if err != nil {
-		return w
-	}
-	leads, err := s.Leads(ci)
-	if err != nil {
-		return w
 	}
 	band := 1.0
 	if cr := a.info.engine.CrankRadius; cr > 2*typicalCrankMM {
 		band = cr / typicalCrankMM
 	}
 	for ri, r := range c.Rounds {
+		// Round by round: a file of many rounds is checked in one pass,
+		// never held as observations all at once.
+		obs, err := a.observations(ri)
+		if err != nil {
+			return w
+		}
 		rp := fmt.Sprintf("%s.rounds[%d]", cp, ri)
 		if ri > 0 {
 			if d0, e0 := parseDate(c.Rounds[ri-1].Date); e0 == nil {
@@ -141,7 +159,7 @@ func (s *Session) checkCylinder(ci int) []Warning {
 			}
 		}
 		for _, o := range obs {
-			if o.Round != ri || !o.HasCrank {
+			if !o.HasCrank {
 				continue
 			}
 			if o.Reverser > 0 && o.Direction == Backward || o.Reverser < 0 && o.Direction == Forward {
@@ -157,8 +175,8 @@ func (s *Session) checkCylinder(ci int) []Warning {
 				}
 			}
 		}
-		for _, l := range leads {
-			if l.Round != ri || math.Abs(float64(l.Reverser)) != 1 {
+		for _, l := range a.leads(obs) {
+			if math.Abs(float64(l.Reverser)) != 1 {
 				continue
 			}
 			lo, hi := leadLowMM*band, leadHighMM*band
@@ -225,10 +243,15 @@ func (s *Session) Leads(cyl int) ([]LeadReading, error) {
 	if err != nil {
 		return nil, err
 	}
-	obs, err := s.Observations(cyl)
+	obs, err := a.observations(-1)
 	if err != nil {
 		return nil, err
 	}
+	return a.leads(obs), nil
+}
+
+// leads returns the leads of the observations obs (as Leads).
+func (a *angles) leads(obs []Observation) []LeadReading {
 	var out []LeadReading
 	for _, o := range obs {
 		lr := LeadReading{Round: o.Round, End: o.End, Reverser: o.Reverser, Notch: o.Notch, Direction: o.Direction, Field: o.Field, Label: o.Label}
@@ -251,7 +274,7 @@ func (s *Session) Leads(cyl int) ([]LeadReading, error) {
 		}
 		out = append(out, lr)
 	}
-	return out, nil
+	return out
 }
 
 // feelerOf returns the feeler opening a FeelerKind observation came from:
@@ -313,7 +336,8 @@ func (s *Session) Readiness(cyl int) []Problem {
 		add(true, cp+".differences", "This cylinder's engine cannot be read: %s", messageOf(err))
 		return ps
 	}
-	obs, err := s.Observations(cyl)
+	ri := len(c.Rounds) - 1
+	obs, err := a.observations(ri)
 	if err != nil {
 		f := cp
 		var e *setting.Error
@@ -323,14 +347,35 @@ func (s *Session) Readiness(cyl int) []Problem {
 		add(true, f, "%s", messageOf(err))
 		return ps
 	}
-	ri := len(c.Rounds) - 1
 	r := &c.Rounds[ri]
 	rp := fmt.Sprintf("%s.rounds[%d]", cp, ri)
 	res := s.Measuring.GaugeResolutionMM
 
+	wheel := s.Measuring.WheelDiameterMM
 	for i, dc := range c.DeadCentres {
+		f := fmt.Sprintf("%s.dead_centres[%d]", cp, i)
 		if dc.First == dc.Second {
-			add(true, fmt.Sprintf("%s.dead_centres[%d]", cp, i), "The two bracketing marks of the %s dead centre are the same (%s): mark the tyre once a little before dead centre and once after, where the crosshead comes back to the same place.", dc.End, fmtNum(dc.First))
+			add(true, f, "The two bracketing marks of the %s dead centre are the same (%s): mark the tyre once a little before dead centre and once after, where the crosshead comes back to the same place.", dc.End, fmtNum(dc.First))
+			continue
+		}
+		// The same dead centre bracketed turning each way.
+		for _, other := range c.DeadCentres[i+1:] {
+			if other.End == dc.End && other.First != other.Second {
+				d := wrap(other.Mark(wheel).Degrees(wheel)-dc.Mark(wheel).Degrees(wheel)+180, 360) - 180
+				if math.Abs(d) > wrongDeadCentresDeg {
+					add(true, f, "The %s dead centre bracketed turning forward and turning backward are %.0f degrees of crank apart; backlash moves it a degree or two. Bracket the %s dead centre again both ways.", dc.End, math.Abs(d), dc.End)
+				}
+			}
+		}
+	}
+	if a.info.haveEngine {
+		for _, dir := range []Direction{Forward, Backward} {
+			fdc, okF := a.deadCentre(Front, dir)
+			bdc, okB := a.deadCentre(Back, dir)
+			if got := wrap(bdc-fdc, 360); okF && okB && math.Abs(got-a.geomBack) > wrongDeadCentresDeg {
+				add(true, cp+".dead_centres", "Turning %s, the bracketed front and back dead centres are %.0f degrees of crank apart, but the engine's geometry puts them %.0f degrees apart: the marks of one of them, or the wheel diameter, are wrong. Bracket both dead centres again, and measure the wheel's diameter on the tread.", dir, got, a.geomBack)
+				break
+			}
 		}
 	}
 	usesMarks := false
@@ -358,6 +403,22 @@ func (s *Session) Readiness(cyl int) []Problem {
 	}
 	if haveEdges {
 		external := a.info.admission == setting.External
+		edgeField := fmt.Sprintf("%s.rounds[%d].port_marks", cp, from)
+		took := "the port marks"
+		if c.Rounds[from].PortMarks == nil {
+			edgeField, took = fmt.Sprintf("%s.rounds[%d].laps", cp, from), "the laps and the gauge reading at valve centre"
+		}
+		apart, laps := math.Abs(edges[1]-edges[0]), a.info.steamLap[0]+a.info.steamLap[1]
+		travel := fullTravel(a.spec)
+		switch {
+		case travel > 0 && apart >= travel:
+			// Each port opens only once the valve has moved its lap from
+			// centre, so laps adding up to the whole travel leave a port
+			// shut all the turn, however the valve sits on its spindle.
+			add(true, edgeField, "The steam edges are %s mm apart (the front and back laps together), but the valve travels %s mm in full gear as the gear is drawn: a port would never open. Take %s again, and check the gear's dimensions (the eccentric throw).", fmtNum(round3(apart)), fmtNum(math.Round(travel*100)/100), took)
+		case laps > 0 && math.Abs(apart-laps) > math.Max(1, 0.5*math.Max(apart, laps)):
+			add(true, edgeField, "The steam edges are %s mm apart (the front and back laps together), but the engine's steam laps add up to %s mm: one of them is wrong. Take %s again, or correct the steam laps in the engine's set-up.", fmtNum(round3(apart)), fmtNum(round3(laps)), took)
+		}
 		switch {
 		case edges[0] == edges[1]:
 			add(true, rp+".port_marks", "The front and back port marks are the same reading; the two steam edges crack at different valve positions (steam lap either side of centre). Re-take the port marks.")
@@ -472,6 +533,30 @@ func (s *Session) Readiness(cyl int) []Problem {
 		add(false, rp+".cut_offs", "Cut-off points need the port marks (the gauge reading at which the port closes); without them the cut-offs cannot be used.")
 	}
 	return ps
+}
+
+// fullTravel returns the valve's travel in full gear, forward or back
+// whichever is the larger, from the engine's gear as drawn (sampled every
+// 10 degrees of crank: a few hundredths of a mm short at most); 0 when
+// the gear cannot say.
+func fullTravel(spec setting.EngineSpec) float64 {
+	g, err := spec.Gear.Gear()
+	if err != nil || spec.Engine.Validate() != nil {
+		return 0
+	}
+	travel := 0.0
+	for _, r := range []setting.Reverser{1, -1} {
+		lo, hi := math.Inf(1), math.Inf(-1)
+		for deg := 0.0; deg < 360; deg += 10 {
+			x, err := g.Valve(spec.Engine, deg, r)
+			if err != nil {
+				return 0
+			}
+			lo, hi = math.Min(lo, x), math.Max(hi, x)
+		}
+		travel = math.Max(travel, hi-lo)
+	}
+	return travel
 }
 
 // spread returns the smallest and largest raw gauge readings of a list.

@@ -16,7 +16,7 @@ func TestCheckWarnings(t *testing.T) {
 		{"rough marks", `"mark_error_tyre_mm": 0.5`, `"mark_error_tyre_mm": 5`, "measuring.mark_error_tyre_mm", "rough"},
 		{"marks close", `[350.1, 10.3]`, `[0.1, 1.0]`, "cylinders[0].dead_centres[0]", "only 0.9 degrees apart"},
 		{"marks far", `[350.1, 10.3]`, `[10.3, 350.1]`, "cylinders[0].dead_centres[0]", "Check their order"},
-		{"dead centres disagree with geometry", `[160.2, 200.4]`, `[200.2, 240.4]`, "cylinders[0].dead_centres", "geometry puts them 180.0 degrees apart"},
+		{"dead centres disagree with geometry", `[160.2, 200.4]`, `[170.2, 210.4]`, "cylinders[0].dead_centres", "geometry puts them 180.0 degrees apart"},
 		{"dates out of order", `"date": "2026-11-29"`, `"date": "2026-11-27"`, "cylinders[0].rounds[1].date", "oldest first"},
 		{"change beyond limits", `"change_mm": -0.025`, `"change_mm": -5`, "cylinders[0].rounds[1].adjustments_before[0]", "outside the adjustment's limits"},
 		{"marks apart", `"back_gauge_mm": 8.0`, `"back_gauge_mm": 12.0`, "cylinders[0].rounds[0].port_marks", "laps add up to 6 mm"},
@@ -137,6 +137,25 @@ func TestReadiness(t *testing.T) {
 			r.DeadCentreReadings, r.Sweeps = nil, nil
 		}, r0, true, "no gauge readings at dead centres and no sweep"},
 		{"no such cylinder", func(s *Session) {}, "cylinders", true, "no cylinder 7"},
+		// Contradictions, named with the readings to take again (issue 13).
+		{"port marks further apart than the travel", func(s *Session) {
+			firstRound(s)
+			s.Cylinders[0].Rounds[0].PortMarks = &PortMarks{FrontGaugeMM: 1, BackGaugeMM: 15}
+		}, r0 + ".port_marks", true, "14 mm apart (the front and back laps together), but the valve travels 13"},
+		{"laps beyond the travel", func(s *Session) {
+			s.Cylinders[0].Rounds[1].Laps.FrontMM, s.Cylinders[0].Rounds[1].Laps.BackMM = 10, 10
+		}, "cylinders[0].rounds[1].laps", true, "a port would never open. Take the laps and the gauge reading at valve centre again"},
+		{"port marks against the engine's laps", func(s *Session) {
+			firstRound(s)
+			s.Cylinders[0].Rounds[0].PortMarks = &PortMarks{FrontGaugeMM: 4, BackGaugeMM: 5.5}
+		}, r0 + ".port_marks", true, "the engine's steam laps add up to 6 mm: one of them is wrong"},
+		{"dead centres half a turn out", func(s *Session) {
+			s.Cylinders[0].DeadCentres[1].First += 40
+			s.Cylinders[0].DeadCentres[1].Second += 40
+		}, "cylinders[0].dead_centres", true, "Bracket both dead centres again"},
+		{"a dead centre far from itself turning back", func(s *Session) {
+			s.Cylinders[0].DeadCentres = append(s.Cylinders[0].DeadCentres, DeadCentre{End: Front, Direction: Backward, Scale: TyreMM, First: 60, Second: 20})
+		}, "cylinders[0].dead_centres[0]", true, "Bracket the front dead centre again both ways"},
 	}
 	base := mustDecode(t, testJSON)
 	if ps := base.Readiness(0); len(ps) != 0 {
@@ -163,4 +182,20 @@ func TestReadiness(t *testing.T) {
 			t.Errorf("no problem on %s saying %q; got %v", c.field, c.says, ps)
 		})
 	}
+}
+
+// TestInchesTypedInMM: an engine whose laps and ports were typed in inches
+// where the file holds mm (0.118 in = 3 mm) is warned of, naming inches.
+func TestInchesTypedInMM(t *testing.T) {
+	in := strings.ReplaceAll(testJSON, `{"steam_lap": 3, "exhaust_lap": 0, "port_width": 3}`, `{"steam_lap": 0.118, "exhaust_lap": 0, "port_width": 0.118}`)
+	if in == testJSON {
+		t.Fatal("the test session's valve is not as this test expects")
+	}
+	for _, w := range mustDecode(t, in).Check() {
+		if w.Field == "engine" && strings.Contains(w.Message, "look like inches") {
+			fullSentence(t, w.Message)
+			return
+		}
+	}
+	t.Error("no warning that the engine's lengths look like inches")
 }

@@ -109,11 +109,11 @@ func (d *decoder) object(n *node, path, what string, allowed ...string) obj {
 	}
 	for _, k := range n.keys {
 		if !contains(allowed, k) {
-			hint := ""
-			if near := nearest(k, allowed); near != "" {
-				hint = fmt.Sprintf(" (did you mean %q?)", near)
+			if near := setting.NearestKey(k, allowed); near != "" {
+				d.fail(joinPath(path, k), "The key %q is not known in %s; did you mean %q? Correct its name.", k, what, near)
+			} else {
+				d.fail(joinPath(path, k), "The key %q is not part of %s in a version %d session file; remove it or correct its name.", k, what, d.version)
 			}
-			d.fail(joinPath(path, k), "This field is not part of %s in a version %d session file; remove it or correct its name%s.", what, d.version, hint)
 			return o
 		}
 	}
@@ -128,48 +128,6 @@ func contains(list []string, s string) bool {
 		}
 	}
 	return false
-}
-
-// nearest returns the allowed key closest to k, if it is a likely typing
-// slip (edit distance at most 2, or the same letters in another order).
-func nearest(k string, allowed []string) string {
-	best, bestD := "", 3
-	for _, a := range allowed {
-		if dd := editDistance(strings.ToLower(k), a); dd < bestD {
-			best, bestD = a, dd
-		}
-	}
-	return best
-}
-
-// editDistance is the Levenshtein distance, with a transposition counted as
-// one edit.
-func editDistance(a, b string) int {
-	if len(a) > 64 || len(b) > 64 {
-		return 99
-	}
-	ra, rb := []rune(a), []rune(b)
-	prev2 := make([]int, len(rb)+1)
-	prev := make([]int, len(rb)+1)
-	cur := make([]int, len(rb)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(ra); i++ {
-		cur[0] = i
-		for j := 1; j <= len(rb); j++ {
-			cost := 1
-			if ra[i-1] == rb[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-			if i > 1 && j > 1 && ra[i-1] == rb[j-2] && ra[i-2] == rb[j-1] {
-				cur[j] = min(cur[j], prev2[j-2]+1)
-			}
-		}
-		prev2, prev, cur = prev, cur, prev2
-	}
-	return prev[len(rb)]
 }
 
 // field returns the value of key, or nil; when required and missing it
@@ -294,8 +252,40 @@ func (o obj) list(key string, required bool, what string) []*node {
 		o.d.fail(joinPath(o.path, key), "must be a list [...] of %s, got %s.", what, v.describe())
 		return nil
 	}
+	if n, most, fix := len(v.elems), 0, ""; o.d.err == nil {
+		switch key {
+		case "cylinders":
+			most, fix = setting.MaxCylinders, "engines have one to four; remove the others"
+		case "rounds":
+			most, fix = MaxRounds, "start a new session for the next rounds and keep this file as the record"
+		case "readings":
+			most, fix = MaxSweepReadings, "one every half degree; a reading every 10 to 30 degrees is plenty"
+		case "adjustments_before":
+			most, fix = MaxChanges, "record the changes made since the round before"
+		case "dead_centre_readings", "cut_offs", "feeler_openings":
+			most, fix = MaxRoundReadings, "split them into rounds, one for each set of adjustments"
+		}
+		if most > 0 && n > most {
+			o.d.fail(joinPath(o.path, key), "The list of %s holds %d; a session file holds at most %d (%s).", what, n, most, fix)
+			return nil
+		}
+	}
 	return v.elems
 }
+
+// Bounds on a session file's lists: generous for any engine, they keep
+// every command fast and small whatever the file (format.md states them).
+const (
+	// MaxRounds bounds the rounds of one cylinder: a setting takes a few.
+	MaxRounds = 200
+	// MaxRoundReadings bounds one round's readings: dead-centre readings,
+	// sweep readings, cut-offs and feeler openings together.
+	MaxRoundReadings = 2000
+	// MaxSweepReadings bounds one sweep: a reading every half degree.
+	MaxSweepReadings = 720
+	// MaxChanges bounds the changes recorded before one round.
+	MaxChanges = 50
+)
 
 // oneOf reads exactly one of the given keys, which must be present; it
 // returns the key used.
@@ -672,6 +662,9 @@ func (d *decoder) round(n *node, path string, s *Session) Round {
 	for i, x := range o.list("feeler_openings", false, "feeler openings") {
 		r.FeelerOpenings = append(r.FeelerOpenings, d.feeler(x, fmt.Sprintf("%s.feeler_openings[%d]", path, i)))
 	}
+	if n := r.Readings(); n > MaxRoundReadings && d.err == nil {
+		d.fail(path, "This round holds %d readings; a round holds at most %d (dead-centre readings, sweep readings, cut-offs and feeler openings together). Split them into rounds, one for each set of adjustments.", n, MaxRoundReadings)
+	}
 	r.Note = o.text("note", false, "a note")
 	return r
 }
@@ -772,6 +765,7 @@ func (d *decoder) sweep(n *node, path string) Sweep {
 	if d.err == nil && len(readings) == 0 {
 		d.fail(path+".readings", "The list is empty; a sweep holds readings round the turn.")
 	}
+	w.Readings = make([]SweepReading, 0, len(readings))
 	for i, x := range readings {
 		p := fmt.Sprintf("%s.readings[%d]", path, i)
 		ro := d.object(x, p, "a sweep reading", "tyre_mm", "deg", "gauge_mm", "note")

@@ -23,7 +23,14 @@
 // every older one, and refuses files of another format or a newer version;
 // Encode always writes this version; Check gives warnings for values that
 // are possible but unusual; Readiness says what a plan for a cylinder still
-// lacks; Observations turns the readings into the list a fitter works on.
+// lacks, and refuses readings that contradict one another (port marks,
+// laps and the valve's travel; bracketed dead centres), naming the
+// readings to take again; the app and the command line run both before a
+// plan, alike. Observations (RoundObservations, one round) turns the
+// readings into the list a fitter works on. Lists are bounded
+// (MaxRounds, MaxRoundReadings, MaxSweepReadings, MaxChanges, and
+// setting's MaxCylinders and MaxNotches), generously for any engine, so
+// that every command stays fast and small whatever the file.
 // Version 2 added PlanAims, what the setter asks of the plan; a version 1
 // file is read with none and written back as version 2. A cylinder that
 // differs from the engine carries its Differences (a setting.EnginePatch),

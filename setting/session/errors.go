@@ -102,6 +102,10 @@ var fieldWords = map[string]string{
 	"dead_centre_readings":   "The list of dead-centre readings",
 	"cut_offs":               "The list of cut-off points",
 	"feeler_openings":        "The list of feeler openings",
+	"priority":               "The plan's priority",
+	"target_lead_mm":         "The target lead",
+	"lead_share":             "The share given to leads",
+	"running_notch":          "The running notch",
 }
 
 // itemWords names one entry of a list.

@@ -1,7 +1,9 @@
 package session
 
 import (
+	"errors"
 	"fmt"
+	"io/fs"
 	"os"
 )
 
@@ -10,7 +12,7 @@ import (
 func ReadFile(path string) (*Session, error) {
 	f, err := os.Open(path)
 	if err != nil {
-		return nil, err
+		return nil, openError(path, err)
 	}
 	defer f.Close()
 	s, err := Decode(f)
@@ -18,4 +20,14 @@ func ReadFile(path string) (*Session, error) {
 		return nil, fmt.Errorf("%s: %w", path, err)
 	}
 	return s, nil
+}
+
+// openError says in a sentence that the file at path cannot be opened, and
+// why (without repeating the path, as os's errors do).
+func openError(path string, err error) error {
+	var pe *fs.PathError
+	if errors.As(err, &pe) {
+		err = pe.Err
+	}
+	return fmt.Errorf("%s: the file cannot be opened (%v); check its name and the folder it is in", path, err)
 }

@@ -2,11 +2,10 @@ package session
 
 import (
 	"bytes"
-	"errors"
-	"fmt"
 	"io"
 	"strconv"
 
+	"evenbeat/setting"
 	"evenbeat/setting/jsonx"
 )
 
@@ -45,36 +44,24 @@ const maxFileBytes = 16 << 20
 // reader's recursion small.
 const maxDepth = 64
 
-// treeOptions: a key written twice is refused, nesting is bounded, and text
-// after the value is left for readTree to report.
-func treeOptions() jsonx.Options {
-	return jsonx.Options{MaxDepth: maxDepth, NoDuplicates: true, Prefix: true}
+// sessionFile is how a session file is read: the rules the engine file
+// shares (setting.JSONFile), with the session's bounds.
+func sessionFile() setting.JSONFile {
+	return setting.JSONFile{Noun: "file", Kind: "a session file", Opening: `{"format": "evenbeat-session", ...}`,
+		MaxBytes: maxFileBytes, MaxDepth: maxDepth}
 }
 
 // readTree reads one JSON value and nothing after it.
 func readTree(r io.Reader) (*node, []byte, error) {
-	data, err := io.ReadAll(io.LimitReader(r, maxFileBytes+1))
+	v, data, err := sessionFile().Read(r)
 	if err != nil {
-		return nil, nil, userError("", fmt.Sprintf("The session file could not be read: %v.", err))
-	}
-	if len(data) > maxFileBytes {
-		return nil, nil, userError("", fmt.Sprintf("The file is larger than %d MB; a session file is far smaller. Is this the right file?", maxFileBytes>>20))
-	}
-	if len(bytes.TrimSpace(data)) == 0 {
-		return nil, nil, userError("", "The file is empty; a session file starts with {\"format\": \"evenbeat-session\", ...}.")
-	}
-	v, err := jsonx.Parse(data, treeOptions())
-	if err != nil {
-		return nil, nil, syntaxError(data, err)
-	}
-	if rest := bytes.TrimLeft(data[v.End:], " \t\r\n"); len(rest) > 0 {
-		line, col := lineCol(data, int64(len(data)-len(rest)))
-		return nil, nil, userError("", fmt.Sprintf("The file has more text after the end of the session (line %d, column %d); a session file holds one JSON object.", line, col))
+		return nil, nil, err
 	}
 	return treeOf(v), data, nil
 }
 
-// treeOf copies a parsed value into a node tree.
+// treeOf copies a parsed value into a node tree, letting go of each part
+// of v once it is copied: a large file's two trees are never whole at once.
 func treeOf(v *jsonx.Value) *node {
 	n := &node{text: v.Text, b: v.Bool, keys: v.Keys}
 	switch v.Kind {
@@ -90,79 +77,16 @@ func treeOf(v *jsonx.Value) *node {
 		n.kind = nodeArray
 		n.elems = make([]*node, len(v.Elems))
 		for i, e := range v.Elems {
-			n.elems[i] = treeOf(e)
+			n.elems[i], v.Elems[i] = treeOf(e), nil
 		}
 	case jsonx.Object:
 		n.kind = nodeObject
 		n.vals = make([]*node, len(v.Vals))
 		for i, e := range v.Vals {
-			n.vals[i] = treeOf(e)
+			n.vals[i], v.Vals[i] = treeOf(e), nil
 		}
 	}
 	return n
-}
-
-// step is one step of the way to a value: an object key, or a list index
-// when key is empty. The path is only spelt out for a message.
-type step struct {
-	key   string
-	index int
-}
-
-// spell turns steps into a field name: "cylinders[1].name".
-func spell(steps []step) string {
-	path := ""
-	for _, s := range steps {
-		if s.key == "" {
-			path += "[" + strconv.Itoa(s.index) + "]"
-		} else {
-			path = joinPath(path, s.key)
-		}
-	}
-	return path
-}
-
-// syntaxError turns a JSON reading error into a sentence with a line and
-// column: where the offending byte is, or where the text stops.
-func syntaxError(data []byte, err error) error {
-	var deep *jsonx.DepthError
-	if errors.As(err, &deep) {
-		line, col := lineCol(data, deep.Offset)
-		return userError("", fmt.Sprintf("The file nests lists and objects more than %d deep (line %d, column %d); it is not a session file.", maxDepth, line, col))
-	}
-	var dup *jsonx.DuplicateKeyError
-	if errors.As(err, &dup) {
-		steps := make([]step, len(dup.Path))
-		for i, s := range dup.Path {
-			steps[i] = step{key: s.Key, index: s.Index}
-		}
-		return userError(spell(steps), "This field is written twice; keep one of them.")
-	}
-	var se *jsonx.SyntaxError
-	if errors.As(err, &se) && se.EOF {
-		line, col := lineCol(data, int64(len(bytes.TrimRight(data, " \t\r\n"))))
-		return userError("", fmt.Sprintf("The file ends too early (line %d, column %d): it is cut short or a bracket is missing.", line, col))
-	}
-	off := int64(len(data))
-	if se != nil {
-		off = se.Offset - 1 // the offending byte
-	}
-	line, col := lineCol(data, off)
-	return userError("", fmt.Sprintf("The file is not valid JSON at line %d, column %d: %s.", line, col, err.Error()))
-}
-
-// lineCol converts a byte offset to a 1-based line and column.
-func lineCol(data []byte, off int64) (line, col int) {
-	if off > int64(len(data)) {
-		off = int64(len(data))
-	}
-	if off < 0 {
-		off = 0
-	}
-	before := data[:off]
-	line = bytes.Count(before, []byte("\n")) + 1
-	col = int(off) - bytes.LastIndexByte(before, '\n')
-	return line, col
 }
 
 // get returns the value of key in an object node, or nil.
@@ -176,28 +100,7 @@ func (n *node) get(key string) *node {
 }
 
 // joinPath appends an object key to a JSON-path-like field name.
-func joinPath(path, key string) string {
-	if !plainKey(key) {
-		key = strconv.Quote(key)
-	}
-	if path == "" {
-		return key
-	}
-	return path + "." + key
-}
-
-// plainKey reports whether key can be shown without quotes.
-func plainKey(key string) bool {
-	if key == "" {
-		return false
-	}
-	for _, r := range key {
-		if !(r == '_' || r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9') {
-			return false
-		}
-	}
-	return true
-}
+func joinPath(path, key string) string { return setting.JoinKey(path, key) }
 
 // describe names a JSON value's type for messages ("the text \"NaN\"").
 func (n *node) describe() string {
@@ -293,7 +196,7 @@ func writeString(b *bytes.Buffer, s string) {
 // parseCompact parses JSON bytes known to be valid into a tree (text after
 // the value is ignored).
 func parseCompact(data []byte) (*node, error) {
-	v, err := jsonx.Parse(data, treeOptions())
+	v, err := jsonx.Parse(data, jsonx.Options{MaxDepth: maxDepth, NoDuplicates: true, Prefix: true})
 	if err != nil {
 		return nil, err
 	}

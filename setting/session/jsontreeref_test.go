@@ -8,22 +8,33 @@ import (
 	"io"
 	"math/rand/v2"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
+	"unicode/utf8"
 
+	"evenbeat/setting"
 	"evenbeat/setting/jsonx/jsonxtest"
 )
 
 // The session file used to be read through encoding/json's token stream.
 // That reader is kept here as the reference jsontree.go must match: the
 // same files read into the same tree, the same files refused with the same
-// sentence. Three differences are deliberate, and normalize removes them:
+// sentence. These differences are deliberate, and normalize (or
+// compareTreeWithReference) removes them:
 //   - Line and column now point at the offending byte (or where the text
 //     stops); the token stream often counted only some of the bytes read.
 //   - A file cut short inside a list or object said "...: EOF."; every file
 //     cut short now says it ends too early.
 //   - A non-key right after '{' said only "invalid character 'x'"; it now
 //     says "looking for beginning of object key string", as after a comma.
+//   - A key written twice is named, with the line of its second time (and
+//     an empty key is spelt "", no longer as a list index).
+//   - Text after the session says "after its end" (the engine reader
+//     shares the sentence).
+//   - A UTF-8 byte-order mark is dropped; a file with bytes that are not
+//     UTF-8 is refused, asking for the file to be saved as UTF-8 (the
+//     reference took them as U+FFFD).
 
 func refReadTree(data []byte) (*node, error) {
 	if len(bytes.TrimSpace(data)) == 0 {
@@ -37,12 +48,34 @@ func refReadTree(data []byte) (*node, error) {
 	}
 	if _, err := dec.Token(); err != io.EOF {
 		line, col := lineCol(data, dec.InputOffset())
-		return nil, userError("", fmt.Sprintf("The file has more text after the end of the session (line %d, column %d); a session file holds one JSON object.", line, col))
+		return nil, userError("", fmt.Sprintf("The file has more text after its end (line %d, column %d); a session file holds one JSON object.", line, col))
 	}
 	return n, nil
 }
 
 var refErrTooDeep = errors.New("lists and objects nested too deeply")
+
+// step is one step of the way to a value: an object key, or a list index.
+type step struct {
+	key   string
+	index int
+	list  bool
+}
+
+// spell turns steps into a field name: "cylinders[1].name".
+func spell(steps []step) string {
+	path := ""
+	for _, s := range steps {
+		if s.list {
+			path += "[" + strconv.Itoa(s.index) + "]"
+		} else {
+			path = joinPath(path, s.key)
+		}
+	}
+	return path
+}
+
+func lineCol(data []byte, off int64) (int, int) { return setting.LineCol(data, off) }
 
 type refDupKeyError struct{ path string }
 
@@ -73,7 +106,7 @@ func refReadValue(dec *json.Decoder, steps []step) (*node, error) {
 		case '[':
 			n := &node{kind: nodeArray}
 			for dec.More() {
-				e, err := refReadValue(dec, append(steps, step{index: len(n.elems)}))
+				e, err := refReadValue(dec, append(steps, step{index: len(n.elems), list: true}))
 				if err != nil {
 					return nil, err
 				}
@@ -120,7 +153,7 @@ func refSyntaxError(data []byte, dec *json.Decoder, err error) error {
 	}
 	var dup *refDupKeyError
 	if errors.As(err, &dup) {
-		return userError(dup.path, "This field is written twice; keep one of them.")
+		return userError(dup.path, "This field is written twice; keep one of them.") // normalize names it
 	}
 	off := dec.InputOffset()
 	var se *json.SyntaxError
@@ -137,12 +170,14 @@ func refSyntaxError(data []byte, dec *json.Decoder, err error) error {
 
 var (
 	refPosition = regexp.MustCompile(`line \d+, column \d+`)
+	refTwice    = regexp.MustCompile(`The key "(?:[^"\\]|\\.)*" is written twice here \(the second time on line \d+\); keep one of them\.`)
 	refNoKey    = regexp.MustCompile(`(invalid character '(?:[^'\\]|\\.[^']*)')\.$`)
 )
 
 // normalize removes the deliberate differences from a message.
 func normalize(msg string) string {
 	msg = refPosition.ReplaceAllString(msg, "line L, column C")
+	msg = refTwice.ReplaceAllString(msg, "This field is written twice; keep one of them.")
 	if strings.HasPrefix(msg, "The file is not valid JSON") && strings.HasSuffix(msg, ": EOF.") {
 		return "The file ends too early (line L, column C): it is cut short or a bracket is missing."
 	}
@@ -152,6 +187,15 @@ func normalize(msg string) string {
 func compareTreeWithReference(t *testing.T, data []byte) {
 	t.Helper()
 	got, _, err := readTree(bytes.NewReader(data))
+	if !utf8.Valid(bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))) || bytes.HasPrefix(data, []byte{0xfe, 0xff}) || bytes.HasPrefix(data, []byte{0xff, 0xfe}) {
+		// Not UTF-8: refused (unless JSON refuses it first, the UTF-16
+		// check looking at the first two bytes only).
+		if err == nil || !strings.Contains(err.Error(), "UTF") {
+			t.Fatalf("%q: %v, want a refusal asking for UTF-8", data, err)
+		}
+		return
+	}
+	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
 	want, refErr := refReadTree(data)
 	if (err == nil) != (refErr == nil) {
 		t.Fatalf("%q: error %v, reference %v", data, err, refErr)

@@ -121,6 +121,7 @@ type angles struct {
 	info     specInfo
 	markSig  float64 // one mark's error in degrees
 	geomBack float64 // back dead centre from the geometry, degrees
+	spec     setting.EngineSpec
 }
 
 func (s *Session) angles(cyl int) (*angles, error) {
@@ -128,7 +129,7 @@ func (s *Session) angles(cyl int) (*angles, error) {
 	if err != nil {
 		return nil, err
 	}
-	a := &angles{s: s, cyl: cyl, c: &s.Cylinders[cyl], info: infoOf(spec), geomBack: 180}
+	a := &angles{s: s, cyl: cyl, c: &s.Cylinders[cyl], info: infoOf(spec), geomBack: 180, spec: spec}
 	a.markSig = math.Abs(s.Measuring.MarkError.Degrees(s.Measuring.WheelDiameterMM))
 	if a.info.haveEngine {
 		a.geomBack = a.info.engine.BackDeadCentre()
@@ -340,14 +341,32 @@ func (a *angles) place(dc End, m Mark, dir Direction) (deg, sigma float64, words
 // saying so, so that each round can be fitted on its own. A fitter using
 // several rounds at once should count a port mark once per Field.
 func (s *Session) Observations(cyl int) ([]Observation, error) {
+	return s.RoundObservations(cyl, -1)
+}
+
+// RoundObservations returns the observations of round ri of cylinder cyl
+// (counting from 0), as Observations lists them; ri < 0 gives every round.
+// A fit or check of one round needs no more, and a session of many rounds
+// is then never held as observations all at once.
+func (s *Session) RoundObservations(cyl, ri int) ([]Observation, error) {
 	a, err := s.angles(cyl)
 	if err != nil {
 		return nil, err
 	}
+	return a.observations(ri)
+}
+
+// observations returns the observations of round only, or of every round
+// when only < 0.
+func (a *angles) observations(only int) ([]Observation, error) {
+	s, cyl := a.s, a.cyl
 	sign := a.gaugeSign()
 	gsig := s.Measuring.GaugeResolutionMM / math.Sqrt(12)
 	var out []Observation
 	for ri, r := range a.c.Rounds {
+		if only >= 0 && ri != only {
+			continue
+		}
 		// Paths and labels by concatenation: this runs for every plan, and
 		// fmt costs most of it in the browser's wasm.
 		cp := "cylinders[" + strconv.Itoa(cyl) + "]"

@@ -206,9 +206,9 @@ func TestCylinderEngineAppliesDifferences(t *testing.T) {
 	}{
 		{name: "an optional object that does not fit", spec: slip, patch: `{"gear": {"single_eccentric": {"rocker": ` + rocker + `}}}`, field: "gear.single_eccentric.eccentric.rod"},
 		{name: "a new object's nulls left out", spec: steph, patch: `{"gear": {"kind": "walschaerts", "stephenson": null, "walschaerts": ` + strings.Replace(walsGear, `{`, `{"x": null, `, 1) + `}}`, field: "gear.walschaerts"},
-		{name: "two gears", spec: wals, patch: `{"gear": {"stephenson": ` + rocker + `}}`, field: "gear.stephenson.forward"},
+		{name: "two gears", spec: wals, patch: `{"gear": {"stephenson": ` + rocker + `}}`, field: "gear.stephenson.drive_arm"}, // a key not known comes first
 		{name: "an unknown key", spec: steph, patch: `{"valve": {"front": {"steam_lap": 2.5, "stem_lap": 2}}}`, field: "valve.front.stem_lap"},
-		{name: "an unknown key after a wrong value", spec: steph, patch: `{"valve": {"front": {"stem_lap": 2, "port_width": "wide"}}}`, field: "valve.front.port_width"},
+		{name: "an unknown key before a wrong value", spec: steph, patch: `{"valve": {"front": {"stem_lap": 2, "port_width": "wide"}}}`, field: "valve.front.stem_lap"},
 		{name: "a wrong kind", spec: steph, patch: `{"engine": {"crank_radius": "38"}}`, field: "engine.crank_radius"},
 		{name: "an object for a number", spec: steph, patch: `{"engine": {"crank_radius": {"b": 1}}}`, field: "engine.crank_radius"},
 		{name: "an object with nulls for a number", spec: steph, patch: `{"engine": {"crank_radius": {"a": null, "b": 1}}}`, field: "engine.crank_radius",

@@ -323,6 +323,17 @@ type Round struct {
 	Note string
 }
 
+// Readings returns how many readings the round holds: dead-centre
+// readings, sweep readings, cut-offs and feeler openings (port marks and
+// laps not counted). A round holds at most MaxRoundReadings.
+func (r Round) Readings() int {
+	n := len(r.DeadCentreReadings) + len(r.CutOffs) + len(r.FeelerOpenings)
+	for _, w := range r.Sweeps {
+		n += len(w.Readings)
+	}
+	return n
+}
+
 // Change is an adjustment made before a round.
 type Change struct {
 	Kind      AdjustmentKind

@@ -20,7 +20,7 @@ func TestDecodeNamesTheField(t *testing.T) {
 		{"empty", testJSON, ` `, "", "empty"},
 		{"cut short", testJSON, testJSON[:200], "", "ends too early"},
 		{"syntax", `"name": "Test session",`, `"name": "Test session",,`, "", "line 4"},
-		{"trailing text", testJSON, testJSON + "{}", "", "more text after the end"},
+		{"trailing text", testJSON, testJSON + "{}", "", "more text after its end"},
 		{"duplicate key", `"invented": true,
   "display_unit"`, `"invented": true, "invented": false,
   "display_unit"`, "invented", "written twice"},
@@ -161,5 +161,56 @@ func TestDeepNestingRefused(t *testing.T) {
 		if !errors.As(err, &e) || !strings.Contains(e.Message, "nests lists and objects more than 64 deep") {
 			t.Errorf("got %v", err)
 		}
+	}
+}
+
+// TestListBounds: lists beyond the bounds format.md states are refused
+// with a sentence naming the list and the bound; at the bound they read.
+func TestListBounds(t *testing.T) {
+	reading := `{"tyre_mm": 30.3, "gauge_mm": 3.9}`
+	readings := func(n int) string {
+		return strings.TrimSuffix(strings.Repeat(`{"deg": 10, "gauge_mm": 3.9}, `, n), ", ")
+	}
+	dcr := `{"end": "front", "reverser": "full forward", "direction": "forward", "gauge_mm": 1.8}`
+	cases := []struct {
+		name, from, to, field, says string
+	}{
+		{"sweep readings", reading, readings(MaxSweepReadings + 1), "cylinders[0].rounds[0].sweeps[0].readings", "at most 720"},
+		{"round readings", dcr, strings.Repeat(dcr+", ", MaxRoundReadings) + dcr, "cylinders[0].rounds[0].dead_centre_readings", "at most 2000"},
+		{"round readings together", reading, readings(MaxSweepReadings-6) + `]}, {"reverser": "running", "direction": "forward", "readings": [` + readings(MaxSweepReadings) + `]}, {"reverser": "running", "direction": "forward", "readings": [` + readings(MaxSweepReadings-4),
+			"cylinders[0].rounds[0]", "readings; a round holds at most 2000"},
+		{"changes", `{"kind": "valve_on_spindle", "change_mm": -0.025, "note": "a twelfth of a turn"}`,
+			strings.Repeat(`{"kind": "valve_on_spindle", "change_mm": 0}, `, MaxChanges) + `{"kind": "valve_on_spindle", "change_mm": 0}`, "cylinders[0].rounds[1].adjustments_before", "at most 50"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			if !strings.Contains(testJSON, c.from) {
+				t.Fatalf("test session has no %q", c.from)
+			}
+			_, err := Decode(strings.NewReader(strings.Replace(testJSON, c.from, c.to, 1)))
+			var e *setting.Error
+			if !errors.As(err, &e) || e.Field != c.field || !strings.Contains(e.Message, c.says) {
+				t.Fatalf("got %v, want an error on %s saying %q", err, c.field, c.says)
+			}
+			fullSentence(t, e.Message)
+		})
+	}
+	// At the bound a sweep reads.
+	if _, err := Decode(strings.NewReader(strings.Replace(testJSON, reading, readings(MaxSweepReadings-5), 1))); err != nil {
+		t.Errorf("a sweep of %d readings: %v", MaxSweepReadings, err)
+	}
+	// Rounds and cylinders.
+	s := mustDecode(t, testJSON)
+	r := s.Cylinders[0].Rounds[1]
+	for len(s.Cylinders[0].Rounds) <= MaxRounds {
+		s.Cylinders[0].Rounds = append(s.Cylinders[0].Rounds, r)
+	}
+	// Encode checks what it writes as Decode reads it: a session beyond a
+	// bound is never written.
+	var b strings.Builder
+	err := Encode(&b, s)
+	var e *setting.Error
+	if !errors.As(err, &e) || e.Field != "cylinders[0].rounds" || !strings.Contains(e.Message, "at most 200") {
+		t.Errorf("%d rounds: %v, want the bound", len(s.Cylinders[0].Rounds), err)
 	}
 }

@@ -50,7 +50,10 @@ func near(t *testing.T, name string, got, want, tol float64) {
 func TestPublishedSinclairSingleEccentric(t *testing.T) {
 	r := 2.5 * inch
 	lap, lead := 1*inch, inch/16
-	delta := math.Asin((lap+lead)/r) * 180 / math.Pi
+	delta, err := AdvanceFor(lap+lead, r)
+	if err != nil {
+		t.Fatal(err)
+	}
 	near(t, "angle of advance", delta, 25.15, 0.05)
 	for _, adm := range []Admission{Internal, External} {
 		v := slideValve(adm, lap, 0, 1.5*inch)
@@ -96,7 +99,11 @@ func textbookSet(t *testing.T, rodCranks, r, delta, lap float64) EventSet {
 
 // advanceFor returns the angle of advance for lap + lead = r sin(delta).
 func advanceFor(r, lap, lead float64) float64 {
-	return math.Asin((lap+lead)/r) * 180 / math.Pi
+	a, err := AdvanceFor(lap+lead, r)
+	if err != nil {
+		panic(err)
+	}
+	return a
 }
 
 // C2. John Bourne, "A Catechism of the Steam Engine" (first published

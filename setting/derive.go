@@ -1,0 +1,418 @@
+package setting
+
+import (
+	"fmt"
+	"math"
+)
+
+// A setter knows an engine by what can be measured on it or read off a
+// drawing: stroke, valve travel, laps, the lead the drawing asks for, the
+// eccentrics' throws, rod and link lengths, roughly where the reverser's
+// parts sit. The model needs more: where the valve is central on its
+// spindle, each eccentric's angle of advance, a Stephenson reverse arm's
+// mid-gear angle and swing, a Walschaerts return crank's angle, eccentric
+// rod, radius rod and combination lever. The functions here derive those
+// so that the gear AS DESIGNED works (the primer's section 9), each by a
+// rule stated with it; the fit then finds how the engine as built
+// differs. Each changes the spec in place and says what it set.
+
+// AdvanceFor returns the angle of advance (degrees) that gives lap + lead
+// at dead centre from an eccentric of the given throw, with infinite rods:
+// sin(advance) = (lap + lead) / throw (the textbook relation; see the
+// published checks). It is an error when lap + lead is not less than the
+// throw: the valve would never reach the port.
+func AdvanceFor(lapPlusLead, throw float64) (float64, error) {
+	if !(throw > 0) || !(math.Abs(lapPlusLead) < throw) {
+		return 0, &Error{"throw", fmt.Sprintf("Lap and lead together (%.2f mm) must be less than the eccentric's throw (%.2f mm): half the valve travel must reach past the lap.", lapPlusLead, throw)}
+	}
+	return math.Asin(lapPlusLead/throw) * 180 / math.Pi, nil
+}
+
+// valveCentre returns a pointer to the gear's valve central position.
+func valveCentre(g GearSpec) *float64 {
+	switch g.Kind {
+	case KindSingleEccentric:
+		if g.SingleEccentric != nil {
+			return &g.SingleEccentric.ValveCentreU
+		}
+	case KindStephenson:
+		if g.Stephenson != nil {
+			return &g.Stephenson.ValveCentreU
+		}
+	case KindWalschaerts:
+		if g.Walschaerts != nil {
+			return &g.Walschaerts.ValveCentreU
+		}
+	}
+	return nil
+}
+
+// CentreValve sets the valve's central position (the valve-rod or
+// spindle length) so that the valve's mean place at the two dead centres
+// in full forward gear is central: with equal laps that gives equal leads
+// (the designer's rule). It returns the position set (mm).
+func CentreValve(spec *EngineSpec) (float64, error) {
+	c, err := spec.Engine.Prepare()
+	if err != nil {
+		return 0, within("engine", err)
+	}
+	u := valveCentre(spec.Gear)
+	if u == nil {
+		return 0, &Error{"gear", "The gear has no valve central position to set."}
+	}
+	for it := 0; it < 4; it++ {
+		g, err := spec.Gear.Gear()
+		if err != nil {
+			return 0, within("gear", err)
+		}
+		a, err1 := g.Valve(spec.Engine, 0, 1)
+		b, err2 := g.Valve(spec.Engine, c.BackDeadCentre(), 1)
+		if err := firstError(err1, err2); err != nil {
+			return 0, within("gear", err)
+		}
+		// Every gear reads the valve as (pin U - ValveCentreU).
+		m := (a + b) / 2
+		*u += m
+		if math.Abs(m) < 1e-9 {
+			break
+		}
+	}
+	return *u, nil
+}
+
+// meanLead returns the mean of the two leads in full gear running dir
+// (full forward, or full back for Backward) with the valve where it is.
+func meanLead(spec EngineSpec, dir Direction) (float64, error) {
+	c, err := spec.Engine.Prepare()
+	if err != nil {
+		return 0, err
+	}
+	g, err := spec.Gear.Gear()
+	if err != nil {
+		return 0, err
+	}
+	r := Reverser(1)
+	if dir == Backward {
+		r = -1
+	}
+	s := 0.0
+	for _, end := range []CylinderEnd{Front, Back} {
+		x, err := g.Valve(spec.Engine, c.DeadCentre(end), r)
+		if err != nil {
+			return 0, err
+		}
+		s += spec.Valve.SteamEdge(end, x)
+	}
+	return s / 2, nil
+}
+
+// SetAdvanceForLead sets the angle of advance of a single-eccentric or
+// Stephenson gear's eccentrics so that the mean lead in full gear (full
+// forward for the forward eccentric, full back for the backward one) is
+// lead mm, with the valve centred (CentreValve): from the textbook
+// relation, then by the secant method on the linkage itself (finite
+// rods, the link's geometry). It returns the advances set (degrees;
+// the second is zero for a single eccentric).
+func SetAdvanceForLead(spec *EngineSpec, lead float64) ([2]float64, error) {
+	var out [2]float64
+	lap := (spec.Valve.Front.SteamLap + spec.Valve.Back.SteamLap) / 2
+	type ecc struct {
+		x   *Eccentric
+		dir Direction
+	}
+	var es []ecc
+	switch g := spec.Gear; g.Kind {
+	case KindSingleEccentric:
+		if g.SingleEccentric != nil {
+			es = append(es, ecc{&g.SingleEccentric.Eccentric, Forward})
+		}
+	case KindStephenson:
+		if g.Stephenson != nil {
+			es = append(es, ecc{&g.Stephenson.Forward, Forward}, ecc{&g.Stephenson.Backward, Backward})
+		}
+	}
+	if len(es) == 0 {
+		return out, &Error{"gear", "Only a gear with eccentrics on the axle has an angle of advance to set."}
+	}
+	for k, e := range es {
+		a, err := AdvanceFor(lap+lead, e.x.Throw)
+		if err != nil {
+			return out, within(fmt.Sprintf("gear.%s", []string{"forward", "backward"}[k]), err)
+		}
+		e.x.Advance = a
+	}
+	// The forward eccentric first (it sets the valve's centre), then
+	// the backward one against the same centre; again while the second
+	// moves the first (a Stephenson die short of the rod pin feels both).
+	for pass := 0; pass < 6; pass++ {
+		last := out
+		for k, e := range es {
+			f := func(adv float64) (float64, error) {
+				e.x.Advance = adv
+				if k == 0 {
+					if _, err := CentreValve(spec); err != nil {
+						return 0, err
+					}
+				}
+				m, err := meanLead(*spec, e.dir)
+				return m - lead, err
+			}
+			a, err := secant(f, e.x.Advance, 1, 1e-9)
+			if err != nil {
+				return out, err
+			}
+			if !(math.Abs(a) < 89) {
+				return out, &Error{"advance", fmt.Sprintf("No angle of advance gives a lead of %.2f mm with these laps and throws.", lead)}
+			}
+			out[k] = a
+		}
+		if len(es) == 1 || math.Abs(out[0]-last[0])+math.Abs(out[1]-last[1]) < 1e-8 {
+			break
+		}
+	}
+	return out, nil
+}
+
+// secant finds x near x0 with |f(x)| <= tol by the secant method, first
+// step dx. Where f fails (out of the linkage's reach) the step is halved
+// back. It leaves f evaluated at the x returned, since f may set state.
+func secant(f func(float64) (float64, error), x0, dx, tol float64) (float64, error) {
+	f0, err := f(x0)
+	if err != nil {
+		return x0, err
+	}
+	x1 := x0 + dx
+	for it := 0; it < 40 && math.Abs(f0) > tol; it++ {
+		f1, err := f(x1)
+		if err != nil {
+			x1 = (x0 + x1) / 2
+			continue
+		}
+		if f1 == f0 {
+			break
+		}
+		x0, x1, f0 = x1, x1-f1*(x1-x0)/(f1-f0), f1
+	}
+	_, err = f(x0)
+	return x0, err
+}
+
+// DieShare returns a Stephenson gear's die block's place in the link at
+// crank angle th with the reverser at r: its distance from the link's
+// middle toward the forward rod's pin, as a share of the middle-to-pin
+// distance (+1 at the forward pin, -1 at the backward one).
+func (g Stephenson) DieShare(e Engine, th float64, r Reverser) (float64, error) {
+	p, err := g.solve(e, th, r, false)
+	if err != nil {
+		return 0, err
+	}
+	d := p.fwdPin.Sub(p.centre)
+	return p.die.Sub(p.centre).Dot(d) / d.Dot(d), nil
+}
+
+// meanShare returns DieShare averaged over a turn (12 crank angles).
+func (g Stephenson) meanShare(e Engine, r Reverser) (float64, error) {
+	s := 0.0
+	for k := 0; k < 12; k++ {
+		v, err := g.DieShare(e, float64(k)*30, r)
+		if err != nil {
+			return 0, err
+		}
+		s += v
+	}
+	return s / 12, nil
+}
+
+// SetReverser sets a Stephenson gear's reverse arm so that in mid gear the
+// die stands, over a turn, at the link's middle (MidArmAngle) and in full
+// forward gear at share of the way to the forward rod's pin (ArmSwing; 1
+// puts it at the pin, as most drawings do; less keeps a clearance short
+// of the slot's end). Full back is then the same swing the other way. It
+// returns the angle and swing set (degrees).
+func SetReverser(spec *EngineSpec, share float64) (mid, swing float64, err error) {
+	g := spec.Gear.Stephenson
+	if spec.Gear.Kind != KindStephenson || g == nil {
+		return 0, 0, &Error{"gear", "Only a Stephenson gear has a reverse arm to set."}
+	}
+	if !(share > 0 && share <= 1.2) {
+		return 0, 0, &Error{"full_gear_share", fmt.Sprintf("The die's place in full gear must be a share of the way to the rod pin, more than 0 and at most 1.2 (got %g).", share)}
+	}
+	solve := func(x *float64, r Reverser, want float64) error {
+		_, err := secant(func(v float64) (float64, error) {
+			*x = v
+			s, err := g.meanShare(spec.Engine, r)
+			return s - want, err
+		}, *x, 2, 1e-7)
+		return err
+	}
+	if err := solve(&g.MidArmAngle, 0, 0); err != nil {
+		return 0, 0, within("gear.stephenson.mid_arm_angle", err)
+	}
+	if err := solve(&g.ArmSwing, 1, share); err != nil {
+		return 0, 0, within("gear.stephenson.arm_swing", err)
+	}
+	return g.MidArmAngle, g.ArmSwing, nil
+}
+
+// DesignWalschaerts sets a Walschaerts gear's parts that follow from the
+// rest: the combination lever's valve pin from lap + lead (its ratio to the
+// union pin is (lap + lead) / crank radius, C4), the return crank's angle
+// and the eccentric rod's length that put the link at the middle of its
+// swing at both dead centres (CentreLink), the radius rod equal to the
+// link's radius (so the valve stands still when the reverser moves on a
+// dead centre), and the valve centred. The lever keeps its union-pin
+// distance; the return crank its throw.
+func DesignWalschaerts(spec *EngineSpec, lead float64) error {
+	g := spec.Gear.Walschaerts
+	if spec.Gear.Kind != KindWalschaerts || g == nil {
+		return &Error{"gear", "Only a Walschaerts gear has a combination lever to design."}
+	}
+	lap := (spec.Valve.Front.SteamLap + spec.Valve.Back.SteamLap) / 2
+	lever, err := DesignLever(lap, lead, spec.Engine.CrankRadius, g.Lever.UnionPin, spec.Valve.Admission == Internal)
+	if err != nil {
+		return within("gear.walschaerts.lever", err)
+	}
+	g.Lever = lever
+	w, err := g.CentreLink(spec.Engine)
+	if err != nil {
+		return within("gear.walschaerts", err)
+	}
+	w.RadiusRod = w.LinkRadius
+	*g = w
+	if _, err := CentreValve(spec); err != nil {
+		return err
+	}
+	return nil
+}
+
+// Full-gear cut-off band a design is held to (the primer's section 9,
+// common practice: about 65-85 % of the stroke).
+const (
+	designCutOffLow, designCutOffHigh = 65.0, 85.0
+)
+
+// Works checks that an engine as designed works, not only that its
+// linkage closes: both ports open to steam in full gear running each way
+// the gear runs, and the full-gear cut-off lies in a sensible band (65 to
+// 85 % of the stroke). Each failure is an *Error naming the dimension most
+// likely wrong, in words. A nil result means it works.
+func (s EngineSpec) Works() []error {
+	if err := s.Validate(); err != nil {
+		return []error{err}
+	}
+	g, _ := s.Gear.Gear()
+	var out []error
+	dirs := []struct {
+		r Reverser
+		d Direction
+	}{{1, Forward}, {-1, Backward}}
+	if s.Gear.Kind == KindSingleEccentric && s.Gear.SingleEccentric != nil && !s.Gear.SingleEccentric.Slip {
+		dirs = dirs[:1]
+	}
+	travel := "the eccentric's throw"
+	if s.Gear.Kind == KindWalschaerts {
+		travel = "the die's place in full gear (full_gear_die) or the return crank's throw"
+	}
+	for _, p := range dirs {
+		set, err := Events(s.Engine, s.Valve, func(th float64) (float64, error) { return g.Valve(s.Engine, th, p.r) }, p.d)
+		if err != nil {
+			out = append(out, err)
+			continue
+		}
+		name := "full forward"
+		if p.d == Backward {
+			name = "full back"
+		}
+		for _, end := range []CylinderEnd{Front, Back} {
+			e := set.End(end)
+			switch {
+			case e.NeverOpens:
+				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s port never opens to steam: the %s steam lap is more than the valve travels past centre, or the valve is off centre. Check the %s steam lap, %s, and the valve's central position.", name, end, end, end, travel)})
+			case e.NeverCloses:
+				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s port never closes to steam: the %s steam lap is too small for the travel. Check the %s steam lap and %s.", name, end, end, end, travel)})
+			case e.CutOff.StrokePercent < designCutOffLow:
+				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s cut-off is %.0f %% of the stroke; %.0f to %.0f %% is usual, so that the engine starts: the travel is short for the laps. Check %s and the %s steam lap.", name, end, e.CutOff.StrokePercent, designCutOffLow, designCutOffHigh, travel, end)})
+			case e.CutOff.StrokePercent > designCutOffHigh:
+				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s cut-off is %.0f %% of the stroke; %.0f to %.0f %% is usual: the travel is long for the laps. Check %s and the %s steam lap.", name, end, e.CutOff.StrokePercent, designCutOffLow, designCutOffHigh, travel, end)})
+			}
+		}
+	}
+	return out
+}
+
+// equalBackLeads sets a Stephenson gear's backward eccentric rod so that
+// the two leads in full back are equal, as a drawing's rods are set
+// (E. L. Ahrons: the eccentric rod's length shares the lead between the
+// ends). The valve's centre stays where full forward put it.
+func equalBackLeads(spec *EngineSpec) error {
+	g := spec.Gear.Stephenson
+	_, err := secant(func(l float64) (float64, error) {
+		g.Backward.Rod = l
+		c, err := spec.Engine.Prepare()
+		if err != nil {
+			return 0, err
+		}
+		gear, err := spec.Gear.Gear()
+		if err != nil {
+			return 0, err
+		}
+		var lead [2]float64
+		for k, end := range []CylinderEnd{Front, Back} {
+			x, err := gear.Valve(spec.Engine, c.DeadCentre(end), -1)
+			if err != nil {
+				return 0, err
+			}
+			lead[k] = spec.Valve.SteamEdge(end, x)
+		}
+		return lead[0] - lead[1], nil
+	}, g.Backward.Rod, 0.5, 1e-9)
+	return within("gear.stephenson.backward.rod", err)
+}
+
+// Aims are what a design sets out to give, beside the dimensions a setter
+// measures: the lead in full gear (mm) and, for Stephenson gear, the die's
+// place in full gear as a share of the way to the rod pin (0 means 1).
+type Aims struct {
+	Lead          float64
+	FullGearShare float64
+}
+
+// Derive sets every part of spec's gear that a setter does not measure so
+// that the gear as designed gives aims: a single eccentric's advance and
+// the valve's centre; a Stephenson gear's reverse arm and both advances
+// (in turn until they agree, since each moves the other a little); a
+// Walschaerts gear's lever, return crank, eccentric rod, radius rod and
+// valve centre. The dimensions a setter measures are left as they are.
+func Derive(spec *EngineSpec, aims Aims) error {
+	switch spec.Gear.Kind {
+	case KindSingleEccentric:
+		_, err := SetAdvanceForLead(spec, aims.Lead)
+		return err
+	case KindStephenson:
+		share := aims.FullGearShare
+		if share == 0 {
+			share = 1
+		}
+		var last [2]float64
+		for it := 0; it < 8; it++ {
+			if _, _, err := SetReverser(spec, share); err != nil {
+				return err
+			}
+			adv, err := SetAdvanceForLead(spec, aims.Lead)
+			if err != nil {
+				return err
+			}
+			if err := equalBackLeads(spec); err != nil {
+				return err
+			}
+			if math.Abs(adv[0]-last[0])+math.Abs(adv[1]-last[1]) < 1e-7 {
+				break
+			}
+			last = adv
+		}
+		return nil
+	case KindWalschaerts:
+		return DesignWalschaerts(spec, aims.Lead)
+	}
+	return &Error{"gear.kind", fmt.Sprintf("The gear kind %q has nothing to derive.", spec.Gear.Kind)}
+}

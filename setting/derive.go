@@ -3,6 +3,7 @@ package setting
 import (
 	"fmt"
 	"math"
+	"strings"
 )
 
 // A setter knows an engine by what can be measured on it or read off a
@@ -106,63 +107,70 @@ func meanLead(spec EngineSpec, dir Direction) (float64, error) {
 	return s / 2, nil
 }
 
-// SetAdvanceForLead sets the angle of advance of a single-eccentric or
+// setAdvances sets the angle of advance of a single-eccentric or
 // Stephenson gear's eccentrics so that the mean lead in full gear (full
 // forward for the forward eccentric, full back for the backward one) is
-// lead mm, with the valve centred (CentreValve): from the textbook
-// relation, then by the secant method on the linkage itself (finite
-// rods, the link's geometry). It returns the advances set (degrees;
-// the second is zero for a single eccentric).
-func SetAdvanceForLead(spec *EngineSpec, lead float64) ([2]float64, error) {
-	var out [2]float64
+// the aimed lead, with the valve centred (CentreValve): from the textbook
+// relation, then by the secant method on the linkage itself (finite rods,
+// the link's geometry). Parts the aims keep are left as given.
+func setAdvances(spec *EngineSpec, aims Aims) error {
 	lap := (spec.Valve.Front.SteamLap + spec.Valve.Back.SteamLap) / 2
 	type ecc struct {
 		x   *Eccentric
 		dir Direction
+		key string
 	}
 	var es []ecc
+	centre := "gear.single_eccentric.valve_centre_u"
 	switch g := spec.Gear; g.Kind {
 	case KindSingleEccentric:
-		if g.SingleEccentric != nil {
-			es = append(es, ecc{&g.SingleEccentric.Eccentric, Forward})
-		}
+		es = append(es, ecc{&g.SingleEccentric.Eccentric, Forward, "gear.single_eccentric.eccentric.advance"})
 	case KindStephenson:
-		if g.Stephenson != nil {
-			es = append(es, ecc{&g.Stephenson.Forward, Forward}, ecc{&g.Stephenson.Backward, Backward})
-		}
+		centre = "gear.stephenson.valve_centre_u"
+		es = append(es, ecc{&g.Stephenson.Forward, Forward, "gear.stephenson.forward.advance"},
+			ecc{&g.Stephenson.Backward, Backward, "gear.stephenson.backward.advance"})
 	}
-	if len(es) == 0 {
-		return out, &Error{"gear", "Only a gear with eccentrics on the axle has an angle of advance to set."}
-	}
-	for k, e := range es {
-		a, err := AdvanceFor(lap+lead, e.x.Throw)
-		if err != nil {
-			return out, within(fmt.Sprintf("gear.%s", []string{"forward", "backward"}[k]), err)
+	for _, e := range es {
+		if aims.derives(e.key) {
+			a, err := AdvanceFor(lap+aims.Lead, e.x.Throw)
+			if err != nil {
+				return within(strings.TrimSuffix(e.key, ".advance"), err)
+			}
+			e.x.Advance = a
 		}
-		e.x.Advance = a
 	}
 	// The forward eccentric first (it sets the valve's centre), then
 	// the backward one against the same centre; again while the second
 	// moves the first (a Stephenson die short of the rod pin feels both).
+	var out [2]float64
 	for pass := 0; pass < 6; pass++ {
 		last := out
 		for k, e := range es {
+			centres := k == 0 && aims.derives(centre)
+			if !aims.derives(e.key) {
+				if centres {
+					if _, err := CentreValve(spec); err != nil {
+						return err
+					}
+				}
+				continue
+			}
 			f := func(adv float64) (float64, error) {
 				e.x.Advance = adv
-				if k == 0 {
+				if centres {
 					if _, err := CentreValve(spec); err != nil {
 						return 0, err
 					}
 				}
 				m, err := meanLead(*spec, e.dir)
-				return m - lead, err
+				return m - aims.Lead, err
 			}
 			a, err := secant(f, e.x.Advance, 1, 1e-9)
 			if err != nil {
-				return out, err
+				return err
 			}
 			if !(math.Abs(a) < 89) {
-				return out, &Error{"advance", fmt.Sprintf("No angle of advance gives a lead of %.2f mm with these laps and throws.", lead)}
+				return &Error{e.key, fmt.Sprintf("No angle of advance gives a lead of %.2f mm with these laps and throws.", aims.Lead)}
 			}
 			out[k] = a
 		}
@@ -170,7 +178,7 @@ func SetAdvanceForLead(spec *EngineSpec, lead float64) ([2]float64, error) {
 			break
 		}
 	}
-	return out, nil
+	return nil
 }
 
 // secant finds x near x0 with |f(x)| <= tol by the secant method, first
@@ -223,64 +231,74 @@ func (g Stephenson) meanShare(e Engine, r Reverser) (float64, error) {
 	return s / 12, nil
 }
 
-// SetReverser sets a Stephenson gear's reverse arm so that in mid gear the
+// setReverser sets a Stephenson gear's reverse arm so that in mid gear the
 // die stands, over a turn, at the link's middle (MidArmAngle) and in full
-// forward gear at share of the way to the forward rod's pin (ArmSwing; 1
-// puts it at the pin, as most drawings do; less keeps a clearance short
-// of the slot's end). Full back is then the same swing the other way. It
-// returns the angle and swing set (degrees).
-func SetReverser(spec *EngineSpec, share float64) (mid, swing float64, err error) {
+// forward gear at the aimed share of the way to the forward rod's pin
+// (ArmSwing; 1 puts it at the pin, as most drawings do; less keeps a
+// clearance short of the slot's end). Full back is then the same swing the
+// other way.
+func setReverser(spec *EngineSpec, aims Aims) error {
 	g := spec.Gear.Stephenson
-	if spec.Gear.Kind != KindStephenson || g == nil {
-		return 0, 0, &Error{"gear", "Only a Stephenson gear has a reverse arm to set."}
+	share := aims.FullGearShare
+	if share == 0 {
+		share = 1
 	}
 	if !(share > 0 && share <= 1.2) {
-		return 0, 0, &Error{"full_gear_share", fmt.Sprintf("The die's place in full gear must be a share of the way to the rod pin, more than 0 and at most 1.2 (got %g).", share)}
+		return &Error{"design.full_gear_share", fmt.Sprintf("The die's place in full gear must be a share of the way to the rod pin, more than 0 and at most 1.2 (got %g).", share)}
 	}
-	solve := func(x *float64, r Reverser, want float64) error {
+	solve := func(key string, x *float64, r Reverser, want float64) error {
+		if !aims.derives(key) {
+			return nil
+		}
 		_, err := secant(func(v float64) (float64, error) {
 			*x = v
 			s, err := g.meanShare(spec.Engine, r)
 			return s - want, err
 		}, *x, 2, 1e-7)
-		return err
+		return within(key, err)
 	}
-	if err := solve(&g.MidArmAngle, 0, 0); err != nil {
-		return 0, 0, within("gear.stephenson.mid_arm_angle", err)
-	}
-	if err := solve(&g.ArmSwing, 1, share); err != nil {
-		return 0, 0, within("gear.stephenson.arm_swing", err)
-	}
-	return g.MidArmAngle, g.ArmSwing, nil
+	return firstError(solve("gear.stephenson.mid_arm_angle", &g.MidArmAngle, 0, 0),
+		solve("gear.stephenson.arm_swing", &g.ArmSwing, 1, share))
 }
 
-// DesignWalschaerts sets a Walschaerts gear's parts that follow from the
+// designWalschaerts sets a Walschaerts gear's parts that follow from the
 // rest: the combination lever's valve pin from lap + lead (its ratio to the
 // union pin is (lap + lead) / crank radius, C4), the return crank's angle
 // and the eccentric rod's length that put the link at the middle of its
 // swing at both dead centres (CentreLink), the radius rod equal to the
 // link's radius (so the valve stands still when the reverser moves on a
 // dead centre), and the valve centred. The lever keeps its union-pin
-// distance; the return crank its throw.
-func DesignWalschaerts(spec *EngineSpec, lead float64) error {
+// distance; the return crank its throw; parts the aims keep stay as given.
+func designWalschaerts(spec *EngineSpec, aims Aims) error {
 	g := spec.Gear.Walschaerts
-	if spec.Gear.Kind != KindWalschaerts || g == nil {
-		return &Error{"gear", "Only a Walschaerts gear has a combination lever to design."}
+	const p = "gear.walschaerts."
+	if aims.derives(p + "lever.valve_pin") {
+		lap := (spec.Valve.Front.SteamLap + spec.Valve.Back.SteamLap) / 2
+		lever, err := DesignLever(lap, aims.Lead, spec.Engine.CrankRadius, g.Lever.UnionPin, spec.Valve.Admission == Internal)
+		if err != nil {
+			return within(p+"lever", err)
+		}
+		g.Lever = lever
 	}
-	lap := (spec.Valve.Front.SteamLap + spec.Valve.Back.SteamLap) / 2
-	lever, err := DesignLever(lap, lead, spec.Engine.CrankRadius, g.Lever.UnionPin, spec.Valve.Admission == Internal)
-	if err != nil {
-		return within("gear.walschaerts.lever", err)
+	if aims.derives(p+"return_angle") || aims.derives(p+"eccentric_rod") {
+		w, err := g.CentreLink(spec.Engine)
+		if err != nil {
+			return within("gear.walschaerts", err)
+		}
+		if aims.derives(p + "return_angle") {
+			g.ReturnAngle = w.ReturnAngle
+		}
+		if aims.derives(p + "eccentric_rod") {
+			g.EccentricRod = w.EccentricRod
+		}
 	}
-	g.Lever = lever
-	w, err := g.CentreLink(spec.Engine)
-	if err != nil {
-		return within("gear.walschaerts", err)
+	if aims.derives(p + "radius_rod") {
+		g.RadiusRod = g.LinkRadius
 	}
-	w.RadiusRod = w.LinkRadius
-	*g = w
-	if _, err := CentreValve(spec); err != nil {
-		return err
+	if aims.derives(p + "valve_centre_u") {
+		if _, err := CentreValve(spec); err != nil {
+			return err
+		}
 	}
 	return nil
 }
@@ -372,47 +390,104 @@ func equalBackLeads(spec *EngineSpec) error {
 // Aims are what a design sets out to give, beside the dimensions a setter
 // measures: the lead in full gear (mm) and, for Stephenson gear, the die's
 // place in full gear as a share of the way to the rod pin (0 means 1).
+// Keep, when not nil, names the derivable parts to leave as given (by
+// their engine-file keys, as DerivableKeys lists them): a value the setter
+// measured or overrode.
 type Aims struct {
 	Lead          float64
 	FullGearShare float64
+	Keep          func(key string) bool
 }
 
-// Derive sets every part of spec's gear that a setter does not measure so
-// that the gear as designed gives aims: a single eccentric's advance and
-// the valve's centre; a Stephenson gear's reverse arm and both advances
-// (in turn until they agree, since each moves the other a little); a
+// Design is what an engine's drawing asks of its gear, kept with the
+// engine beside the dimensions: the lead in full gear (mm), for Stephenson
+// gear the die's place in full gear (a share of the way to the rod pin; 0
+// means 1), and which of the derivable parts (DerivableKeys) were derived
+// rather than measured or given, so that a change of a dimension derives
+// them again and leaves the rest alone.
+type Design struct {
+	Lead          float64  `json:"lead"`
+	FullGearShare float64  `json:"full_gear_share,omitempty"`
+	Derived       []string `json:"derived,omitempty"`
+}
+
+// Aims returns the aims that derive the parts d lists as derived and keep
+// the rest.
+func (d Design) Aims() Aims {
+	return Aims{Lead: d.Lead, FullGearShare: d.FullGearShare, Keep: func(key string) bool {
+		for _, k := range d.Derived {
+			if k == key {
+				return false
+			}
+		}
+		return true
+	}}
+}
+
+// derives reports whether the aims let Derive set the part at key.
+func (a Aims) derives(key string) bool { return a.Keep == nil || !a.Keep(key) }
+
+// DerivableKeys returns the engine-file keys of the parts of a gear of the
+// given kind that Derive sets, in the order a set-up shows them. None of
+// them is easily measured on the engine; the Stephenson backward rod and
+// the Walschaerts rods are, but a drawing sets them from the rest (the
+// backward rod for equal leads in full back, the eccentric rod for a
+// central link at both dead centres, the radius rod to the link's radius).
+func DerivableKeys(kind string) []string {
+	switch kind {
+	case KindSingleEccentric:
+		return []string{"gear.single_eccentric.eccentric.advance", "gear.single_eccentric.valve_centre_u"}
+	case KindStephenson:
+		const p = "gear.stephenson."
+		return []string{p + "forward.advance", p + "backward.advance", p + "mid_arm_angle", p + "arm_swing", p + "backward.rod", p + "valve_centre_u"}
+	case KindWalschaerts:
+		const p = "gear.walschaerts."
+		return []string{p + "lever.valve_pin", p + "return_angle", p + "eccentric_rod", p + "radius_rod", p + "valve_centre_u"}
+	}
+	return nil
+}
+
+// Derive sets every part of spec's gear that a setter does not measure
+// (DerivableKeys), but those aims.Keep holds, so that the gear as designed
+// gives the aims: a single eccentric's advance and the valve's centre; a
+// Stephenson gear's reverse arm, both advances and the backward rod (in
+// turn until they agree, since each moves the others a little); a
 // Walschaerts gear's lever, return crank, eccentric rod, radius rod and
 // valve centre. The dimensions a setter measures are left as they are.
 func Derive(spec *EngineSpec, aims Aims) error {
+	if _, gear, err := spec.Gear.member(); err != nil || gear == nil {
+		if err == nil {
+			err = &Error{"", fmt.Sprintf("The %s gear's dimensions are missing.", spec.Gear.Kind)}
+		}
+		return within("gear", err)
+	}
 	switch spec.Gear.Kind {
 	case KindSingleEccentric:
-		_, err := SetAdvanceForLead(spec, aims.Lead)
-		return err
+		return setAdvances(spec, aims)
 	case KindStephenson:
-		share := aims.FullGearShare
-		if share == 0 {
-			share = 1
-		}
-		var last [2]float64
+		g := spec.Gear.Stephenson
+		last := [3]float64{math.NaN()}
 		for it := 0; it < 8; it++ {
-			if _, _, err := SetReverser(spec, share); err != nil {
+			if err := setReverser(spec, aims); err != nil {
 				return err
 			}
-			adv, err := SetAdvanceForLead(spec, aims.Lead)
-			if err != nil {
+			if err := setAdvances(spec, aims); err != nil {
 				return err
 			}
-			if err := equalBackLeads(spec); err != nil {
-				return err
+			if aims.derives("gear.stephenson.backward.rod") {
+				if err := equalBackLeads(spec); err != nil {
+					return err
+				}
 			}
-			if math.Abs(adv[0]-last[0])+math.Abs(adv[1]-last[1]) < 1e-7 {
+			now := [3]float64{g.Forward.Advance, g.Backward.Advance, g.Backward.Rod}
+			if math.Abs(now[0]-last[0])+math.Abs(now[1]-last[1])+math.Abs(now[2]-last[2]) < 1e-7 {
 				break
 			}
-			last = adv
+			last = now
 		}
 		return nil
 	case KindWalschaerts:
-		return DesignWalschaerts(spec, aims.Lead)
+		return designWalschaerts(spec, aims)
 	}
 	return &Error{"gear.kind", fmt.Sprintf("The gear kind %q has nothing to derive.", spec.Gear.Kind)}
 }

@@ -140,3 +140,32 @@ func TestWorksNamesTheDimension(t *testing.T) {
 		t.Errorf("got %v, want the front steam lap named", errs)
 	}
 }
+
+// A part the setter gave (not listed as derived) is kept; the derived
+// parts are set around it: here a single eccentric's advance as measured,
+// with the valve still centred on it.
+func TestDeriveKeepsWhatWasGiven(t *testing.T) {
+	s := DemoSlipEccentric()
+	s.Gear.SingleEccentric.Eccentric.Advance = 27
+	s.Gear.SingleEccentric.ValveCentreU += 2
+	d := Design{Lead: 0.3, Derived: []string{"gear.single_eccentric.valve_centre_u"}}
+	if err := Derive(&s, d.Aims()); err != nil {
+		t.Fatal(err)
+	}
+	if a := s.Gear.SingleEccentric.Eccentric.Advance; a != 27 {
+		t.Errorf("the advance given was changed to %g", a)
+	}
+	f, b := leadsIn(t, s, Forward)
+	near(t, "lead difference", f-b, 0, 1e-6)
+	d.Derived = DerivableKeys(KindSingleEccentric)
+	if err := Derive(&s, d.Aims()); err != nil {
+		t.Fatal(err)
+	}
+	f, b = leadsIn(t, s, Forward)
+	near(t, "mean lead with the advance derived", (f+b)/2, 0.3, 1e-6)
+	var fe *Error
+	s.Gear.SingleEccentric = nil
+	if err := Derive(&s, d.Aims()); !errors.As(err, &fe) || fe.Field != "gear" {
+		t.Errorf("no gear dimensions: got %v, want an error naming the gear", err)
+	}
+}

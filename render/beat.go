@@ -45,7 +45,7 @@ func LayoutBeat(box Rect, pos beat.Position, heard []float64) CardLayout {
 		Sub:   BeatFigures(pos, heard),
 		Caption: "One turn of the wheel, running " + pos.Direction.String() + " clockwise from the top. Each dot is an exhaust, named by its cylinder and end; " +
 			"the figures between them are the gaps in degrees of crank. An even beat has every gap alike; the dashed spokes mark where it would fall.",
-		LegendRows: legend, MaxPlotH: 0.85 * box.W(),
+		LegendRows: legend, MaxPlotH: math.Min(0.85*box.W(), 380),
 	})
 }
 

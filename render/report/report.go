@@ -30,14 +30,17 @@ type Options struct {
 }
 
 // Build returns the report's model for a session: the fit and plan of the
-// chosen cylinder. Errors are the fit's and plan's *setting.Error
-// sentences.
+// chosen cylinder, then the engine's other cylinders and its beat
+// (render.WholeEngine). Errors are the chosen cylinder's fit's and plan's
+// *setting.Error sentences.
 func Build(s *session.Session, opt Options) (render.ReportModel, error) {
 	m, err := render.NewSessionModel(s, opt.Plan)
 	if err != nil {
 		return render.ReportModel{}, err
 	}
-	return render.ReportModel{Model: m, Session: s}, nil
+	o := opt.Plan
+	o.Fit = plan.FitOptions{} // the other cylinders' latest rounds
+	return render.WholeEngine(s, m, o), nil
 }
 
 // Draw draws the report of rm into a new raster canvas of the report's

@@ -7,6 +7,7 @@ import (
 	"unicode/utf8"
 
 	"evenbeat/render"
+	"evenbeat/setting/plan"
 )
 
 // maxNameRunes is the longest engine name taken.
@@ -76,7 +77,12 @@ func (a *App) share() {
 		return
 	}
 	a.finishPlan() // the report's notes compare the two priorities
-	a.opt.OnShare(a.reportName(), render.ReportModel{Model: a.model, Session: a.Session()})
+	// The whole engine: the other cylinders' latest rounds, planned with
+	// the session's aims, and the beat.
+	s := a.Session()
+	opt := plan.AimsOptions(s.Aims)
+	opt.Unit, opt.Cylinder = a.unit(), a.cyl
+	a.opt.OnShare(a.reportName(), render.WholeEngine(s, a.model, opt))
 }
 
 // copyWords hands the plan's words to the glue's OnCopy.

@@ -8,6 +8,7 @@ import (
 	"evenbeat/render"
 	"evenbeat/render/raster"
 	"evenbeat/render/recorder"
+	"evenbeat/render/report"
 	"evenbeat/setting/beat"
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
@@ -70,7 +71,7 @@ func TestBeatCard(t *testing.T) {
 			t.Fatal(err)
 		}
 		defer f.Close()
-		if err := c.WritePNG(f); err != nil {
+		if err := report.EncodePNG(f, c); err != nil {
 			t.Fatal(err)
 		}
 	}

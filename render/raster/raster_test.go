@@ -119,7 +119,7 @@ func TestWritePNG(t *testing.T) {
 	c := raster.New(8, 4, 1)
 	c.Clear(color.RGBA{1, 2, 3, 255})
 	var buf bytes.Buffer
-	if err := c.WritePNG(&buf); err != nil {
+	if err := report.EncodePNG(&buf, c); err != nil {
 		t.Fatal(err)
 	}
 	img, err := png.Decode(&buf)

@@ -64,6 +64,15 @@ func Draw(rm render.ReportModel, opt Options) *raster.Canvas {
 	return c
 }
 
+// EncodePNG encodes a drawn canvas as PNG (fast compression: the
+// pictures are mostly flat colour). It lives here, not in render/raster,
+// so that the browser app, which draws its reports with render/raster but
+// makes the PNG with the browser's own encoder, carries no PNG code.
+func EncodePNG(w io.Writer, c *raster.Canvas) error {
+	enc := png.Encoder{CompressionLevel: png.BestSpeed}
+	return enc.Encode(w, c.Image())
+}
+
 // WritePNG fits and plans a session and writes its report as a PNG to w
 // (fast compression: the picture is mostly flat colour).
 func WritePNG(w io.Writer, s *session.Session, opt Options) error {
@@ -71,6 +80,5 @@ func WritePNG(w io.Writer, s *session.Session, opt Options) error {
 	if err != nil {
 		return err
 	}
-	enc := png.Encoder{CompressionLevel: png.BestSpeed}
-	return enc.Encode(w, Draw(rm, opt).Image())
+	return EncodePNG(w, Draw(rm, opt))
 }

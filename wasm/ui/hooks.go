@@ -71,6 +71,9 @@ func (a *App) reportName() string {
 	return strings.TrimSuffix(a.exportName(), ".json") + "-report.png"
 }
 
+// Theme returns the app's palette, for what the glue draws over it.
+func (a *App) Theme() render.Theme { return a.theme }
+
 // share hands the plan's report to the glue's OnShare.
 func (a *App) share() {
 	if a.opt.OnShare == nil || a.model == nil {

@@ -3,6 +3,7 @@ package setting
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 )
 
@@ -409,6 +410,39 @@ type Design struct {
 	Lead          float64  `json:"lead"`
 	FullGearShare float64  `json:"full_gear_share,omitempty"`
 	Derived       []string `json:"derived,omitempty"`
+}
+
+// Bounds of a design's lead (mm): further from zero is a typing slip, not
+// a lead (the session file's target lead has the same bounds).
+const (
+	minDesignLead, maxDesignLead = -5.0, 25.0
+)
+
+// validate checks a design for a gear of the given kind: a lead within
+// its bounds, a full-gear share only for Stephenson gear (more than 0 and
+// at most 1.2), and derived parts that the gear has (DerivableKeys), each
+// listed once. Fields are under the design ("lead", "derived[2]").
+func (d Design) validate(kind string) error {
+	if !(d.Lead >= minDesignLead && d.Lead <= maxDesignLead) {
+		return &Error{"lead", fmt.Sprintf("The lead the design asks for must be from %g to %g mm (got %g); give the lead in full gear in mm, 0 for line and line.", minDesignLead, maxDesignLead, d.Lead)}
+	}
+	switch {
+	case d.FullGearShare != 0 && kind != KindStephenson:
+		return &Error{"full_gear_share", "The die's place in full gear is a Stephenson link's; this gear has no such link, so remove \"full_gear_share\"."}
+	case d.FullGearShare != 0 && !(d.FullGearShare > 0 && d.FullGearShare <= 1.2):
+		return &Error{"full_gear_share", fmt.Sprintf("The die's place in full gear must be a share of the way to the rod pin, more than 0 and at most 1.2 (got %g); 1 puts the die at the pin.", d.FullGearShare)}
+	}
+	keys := DerivableKeys(kind)
+	for i, k := range d.Derived {
+		field := fmt.Sprintf("derived[%d]", i)
+		if !slices.Contains(keys, k) {
+			return &Error{field, fmt.Sprintf("The part %q is not one Evenbeat derives for this gear; the parts it derives are: %s.", k, strings.Join(keys, ", "))}
+		}
+		if slices.Contains(d.Derived[:i], k) {
+			return &Error{field, fmt.Sprintf("The part %q is listed twice as derived; keep one.", k)}
+		}
+	}
+	return nil
 }
 
 // Aims returns the aims that derive the parts d lists as derived and keep

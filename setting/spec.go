@@ -30,8 +30,14 @@ import (
 //	    "front": {"steam_lap": 3.2, "exhaust_lap": 0, "port_width": 3.2},
 //	    "back":  {"steam_lap": 3.2, "exhaust_lap": 0, "port_width": 3.2}},
 //	  "gear": {"kind": "walschaerts", "walschaerts": {...}},
+//	  "design": {"lead": 0.25, "derived": ["gear.walschaerts.lever.valve_pin"]},
 //	  "notches": [{"name": "running", "reverser": 0.4}]
 //	}
+//
+// "design" (optional) is what the drawing asks of the gear (the lead in
+// full gear; for Stephenson gear the die's place in full gear) and which
+// of the parts DerivableKeys lists were derived from it (Derive) rather
+// than measured: a change of a dimension derives those again.
 type EngineSpec struct {
 	Name      string     `json:"name"`                // what the owner calls the engine
 	Invented  bool       `json:"invented"`            // true for demo engines made up for this program
@@ -39,6 +45,7 @@ type EngineSpec struct {
 	Engine    Engine     `json:"engine"`              // crank and cylinder
 	Valve     Valve      `json:"valve"`               // valve and ports
 	Gear      GearSpec   `json:"gear"`                // the valve gear
+	Design    *Design    `json:"design,omitempty"`    // what the drawing asks of the gear, and which parts were derived from it; nil when not given
 	Notches   []Notch    `json:"notches,omitempty"`   // named running positions of the reverser, besides full forward, mid and full back
 	Cylinders []Cylinder `json:"cylinders,omitempty"` // the cylinders of this design; empty means one
 }
@@ -198,6 +205,11 @@ func (s EngineSpec) Validate() error {
 	if a, ok := gearAdmission(gear); ok && a != s.Valve.Admission {
 		return &Error{"gear." + key, fmt.Sprintf("The gear is laid out for %s admission but the valve has %s admission; they must agree.", a, s.Valve.Admission)}
 	}
+	if s.Design != nil {
+		if err := s.Design.validate(s.Gear.Kind); err != nil {
+			return within("design", err)
+		}
+	}
 	switch {
 	case len(s.Notches) > MaxNotches:
 		return &Error{"notches", fmt.Sprintf("The engine has %d notches; an engine holds at most %d (the reverser positions it is run in). Keep the ones the engine is run in.", len(s.Notches), MaxNotches)}
@@ -311,10 +323,11 @@ func (s EngineSpec) write(w *jsonx.Writer) ([]byte, error) {
 type specField struct {
 	key      string
 	optional bool
-	// ptr is *float64, *Reverser, *int, *bool, *string or *Admission (a
-	// leaf); a pointer to one of the structs specFields lists; *[]Notch or
-	// *[]Cylinder; or **SingleEccentric, **Stephenson, **Walschaerts or
-	// **Rocker (an optional object, nil when absent).
+	// ptr is *float64, *Reverser, *int, *bool, *string, *Admission or
+	// *[]string (a leaf); a pointer to one of the structs specFields
+	// lists; *[]Notch or *[]Cylinder; or **SingleEccentric, **Stephenson,
+	// **Walschaerts, **Rocker or **Design (an optional object, nil when
+	// absent).
 	ptr any
 }
 
@@ -324,7 +337,10 @@ func specFields(ptr any) []specField {
 	case *EngineSpec:
 		return []specField{{"name", false, &p.Name}, {"invented", false, &p.Invented}, {"notes", true, &p.Notes},
 			{"engine", false, &p.Engine}, {"valve", false, &p.Valve}, {"gear", false, &p.Gear},
-			{"notches", true, &p.Notches}, {"cylinders", true, &p.Cylinders}}
+			{"design", true, &p.Design}, {"notches", true, &p.Notches}, {"cylinders", true, &p.Cylinders}}
+	case *Design:
+		return []specField{{"lead", false, &p.Lead}, {"full_gear_share", true, &p.FullGearShare},
+			{"derived", true, &p.Derived}}
 	case *Notch:
 		return []specField{{"name", false, &p.Name}, {"reverser", false, &p.Reverser}}
 	case *Cylinder:
@@ -463,6 +479,8 @@ func (d *specDecoder) read(path string, v *jsonx.Value, ptr any) error {
 		return readList(d, path, v, p, at)
 	case *[]Cylinder:
 		return readList(d, path, v, p, at)
+	case *[]string:
+		return readList(d, path, v, p, at)
 	case **SingleEccentric:
 		return readOptional(d, path, v, p)
 	case **Stephenson:
@@ -470,6 +488,8 @@ func (d *specDecoder) read(path string, v *jsonx.Value, ptr any) error {
 	case **Walschaerts:
 		return readOptional(d, path, v, p)
 	case **Rocker:
+		return readOptional(d, path, v, p)
+	case **Design:
 		return readOptional(d, path, v, p)
 	default:
 		return d.object(path, v, specFields(ptr), at)
@@ -559,7 +579,7 @@ func valueWords(ptr any) string {
 		return "a text in quotes"
 	case *Admission:
 		return `"external" or "internal"`
-	case *[]Notch, *[]Cylinder:
+	case *[]Notch, *[]Cylinder, *[]string:
 		return "a list [...]"
 	}
 	return "an object {...}"
@@ -648,6 +668,8 @@ func writeSpecValue(w *jsonx.Writer, ptr any) {
 		writeList(w, *p)
 	case *[]Cylinder:
 		writeList(w, *p)
+	case *[]string:
+		writeList(w, *p)
 	case **SingleEccentric:
 		writeOptional(w, *p)
 	case **Stephenson:
@@ -655,6 +677,8 @@ func writeSpecValue(w *jsonx.Writer, ptr any) {
 	case **Walschaerts:
 		writeOptional(w, *p)
 	case **Rocker:
+		writeOptional(w, *p)
+	case **Design:
 		writeOptional(w, *p)
 	default:
 		w.BeginObject()
@@ -703,6 +727,8 @@ func isZeroSpecValue(ptr any) bool {
 		return len(*p) == 0
 	case *[]Cylinder:
 		return len(*p) == 0
+	case *[]string:
+		return len(*p) == 0
 	case **SingleEccentric:
 		return *p == nil
 	case **Stephenson:
@@ -710,6 +736,8 @@ func isZeroSpecValue(ptr any) bool {
 	case **Walschaerts:
 		return *p == nil
 	case **Rocker:
+		return *p == nil
+	case **Design:
 		return *p == nil
 	}
 	return false

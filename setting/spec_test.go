@@ -227,3 +227,58 @@ func TestEngineListBounds(t *testing.T) {
 		t.Errorf("%d cylinders: %v", len(many.Cylinders), err)
 	}
 }
+
+// An engine's design (the lead the drawing asks for, the parts derived
+// from it) is written and read back unchanged, in the file's key order,
+// and left out when there is none.
+func TestDesignRoundTrip(t *testing.T) {
+	spec := DemoStephenson()
+	spec.Design = &Design{Lead: 0.25, FullGearShare: 0.95, Derived: []string{"gear.stephenson.forward.advance", "gear.stephenson.valve_centre_u"}}
+	var buf bytes.Buffer
+	if err := spec.Encode(&buf); err != nil {
+		t.Fatal(err)
+	}
+	text := buf.String()
+	if !strings.Contains(text, `"design": {`) || strings.Index(text, `"design"`) < strings.Index(text, `"gear"`) || strings.Index(text, `"design"`) > strings.Index(text, `"notches"`) {
+		t.Errorf("the design is not written between the gear and the notches:\n%s", text)
+	}
+	again, err := DecodeEngineSpec(strings.NewReader(text))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(spec, again) {
+		t.Errorf("round trip changed the design: %+v, want %+v", again.Design, spec.Design)
+	}
+	spec.Design = nil
+	buf.Reset()
+	if err := spec.Encode(&buf); err != nil {
+		t.Fatal(err)
+	}
+	if strings.Contains(buf.String(), "design") {
+		t.Errorf("an engine without a design writes one:\n%s", buf.String())
+	}
+}
+
+// A design that cannot be is refused naming its key.
+func TestDesignRefused(t *testing.T) {
+	cases := []struct {
+		name, design, field, says string
+	}{
+		{"lead far off", `{"lead": 30}`, "design.lead", "from -5 to 25 mm"},
+		{"lead missing", `{"derived": []}`, "design.lead", "missing"},
+		{"share on a single eccentric", `{"lead": 0.2, "full_gear_share": 1}`, "design.full_gear_share", "Stephenson"},
+		{"part of another gear", `{"lead": 0.2, "derived": ["gear.stephenson.arm_swing"]}`, "design.derived[0]", "gear.single_eccentric.eccentric.advance"},
+		{"part twice", `{"lead": 0.2, "derived": ["gear.single_eccentric.valve_centre_u", "gear.single_eccentric.valve_centre_u"]}`, "design.derived[1]", "twice"},
+		{"not a list", `{"lead": 0.2, "derived": "gear.single_eccentric.valve_centre_u"}`, "design.derived", "list"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			in := strings.Replace(specJSON, `"notches": [`, `"design": `+c.design+`, "notches": [`, 1)
+			_, err := DecodeEngineSpec(strings.NewReader(in))
+			var e *Error
+			if !errors.As(err, &e) || e.Field != c.field || !strings.Contains(e.Message, c.says) {
+				t.Fatalf("got %v, want %s saying %q", err, c.field, c.says)
+			}
+		})
+	}
+}

@@ -311,6 +311,16 @@ var specMutations = [][2]string{
 	{`"stephenson": {`, `"stephenson": null, "s": {`}, {`"walschaerts": {`, `"walschaerts": null, "w": {`},
 	{`"single_eccentric": {`, `"single_eccentric": null, "s": {`}, {`"u": `, `"u": -0, "uu": `},
 	{`"kind": "`, `"single_eccentric": null, "stephenson": null, "walschaerts": null, "kind": "`},
+	{`"notches": [`, `"design": {"lead": 0.2}, "notches": [`}, {`"notches": [`, `"design": null, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": ["gear.single_eccentric.valve_centre_u"]}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": "x"}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": [1]}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": [null]}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": null}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": ["gear.single_eccentric.valve_centre_u", "gear.single_eccentric.valve_centre_u"]}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": "0.2"}, "notches": [`}, {`"notches": [`, `"design": {"lead": 30}, "notches": [`},
+	{`"notches": [`, `"design": {"derived": []}, "notches": [`}, {`"notches": [`, `"design": {"lead": 0.2, "lede": 1}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "full_gear_share": 0.9}, "notches": [`}, {`"notches": [`, `"design": [], "notches": [`},
 }
 
 func TestDecodeMatchesReference(t *testing.T) {
@@ -355,7 +365,7 @@ func FuzzDecodeMatchesReference(f *testing.F) {
 // same order, the same ones optional.
 func TestSpecFieldsMatchTags(t *testing.T) {
 	values := []any{&EngineSpec{}, &Notch{}, &Cylinder{}, &Engine{}, &Valve{}, &End{}, &GearSpec{}, &Point{},
-		&Eccentric{}, &Rocker{}, &SingleEccentric{}, &ExpansionLink{}, &Stephenson{}, &CombinationLever{}, &Walschaerts{}}
+		&Eccentric{}, &Rocker{}, &SingleEccentric{}, &ExpansionLink{}, &Stephenson{}, &CombinationLever{}, &Walschaerts{}, &Design{}}
 	for _, v := range values {
 		rt := reflect.TypeOf(v).Elem()
 		var want []string

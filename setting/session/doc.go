@@ -9,7 +9,9 @@
 //
 //   - Lengths are mm, always, in the file and at the API; the display unit
 //     (mm or inch) only says how to show them. ParseLength reads what the
-//     user types ("0.005in", "5 thou", "1/16", "0.13 mm").
+//     user types ("0.005in", "5 thou", "1/16", "1 3/16", "0.13 mm");
+//     FormatLength shows a reading to the gauge's hundredth or thou,
+//     FormatInches a dimension as a drawing gives it ("1 3/16", "0.012").
 //   - Angles are degrees. Crank angle is measured from front dead centre
 //     in the forward running direction of the wheel.
 //   - Marks round the wheel are mm round the tyre (TyreMM) or degrees

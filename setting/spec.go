@@ -812,3 +812,79 @@ func (s EngineSpec) Warnings() []string {
 	}
 	return w
 }
+
+// Clone returns a copy of s that shares nothing with it: its lists, gear
+// member, rocker and design are copied, so that a change to the copy (a
+// set-up edited before it is accepted) leaves s as it was.
+func (s EngineSpec) Clone() EngineSpec {
+	c := s
+	c.Notches = slices.Clone(s.Notches)
+	c.Cylinders = slices.Clone(s.Cylinders)
+	if s.Design != nil {
+		d := *s.Design
+		d.Derived = slices.Clone(d.Derived)
+		c.Design = &d
+	}
+	if g := s.Gear.SingleEccentric; g != nil {
+		x := *g
+		if g.Rocker != nil {
+			r := *g.Rocker
+			x.Rocker = &r
+		}
+		c.Gear.SingleEccentric = &x
+	}
+	if g := s.Gear.Stephenson; g != nil {
+		x := *g
+		c.Gear.Stephenson = &x
+	}
+	if g := s.Gear.Walschaerts; g != nil {
+		x := *g
+		c.Gear.Walschaerts = &x
+	}
+	return c
+}
+
+// Number returns the number at key, an engine-file key path such as
+// "engine.rod_length" or "gear.stephenson.forward.advance" (the keys
+// DerivableKeys lists among them), so that a part can be read or set by
+// the key the file and the design name it by. It is nil when key names no
+// number of s: a key the format does not know, a gear member or design
+// not given, or a value that is not a number.
+func (s *EngineSpec) Number(key string) *float64 {
+	var ptr any = s
+	for _, part := range strings.Split(key, ".") {
+		var next any
+		for _, f := range specFields(ptr) {
+			if f.key == part {
+				next = f.ptr
+			}
+		}
+		switch p := next.(type) {
+		case **SingleEccentric:
+			next = optionalObject(p)
+		case **Stephenson:
+			next = optionalObject(p)
+		case **Walschaerts:
+			next = optionalObject(p)
+		case **Rocker:
+			next = optionalObject(p)
+		case **Design:
+			next = optionalObject(p)
+		}
+		if next == nil {
+			return nil
+		}
+		ptr = next
+	}
+	f, _ := ptr.(*float64)
+	return f
+}
+
+// optionalObject returns the object an optional member points to, or an
+// untyped nil when it is absent.
+func optionalObject[T any](p **T) any {
+	if *p == nil {
+		return nil
+	}
+	return *p
+}

@@ -3,6 +3,7 @@ package setting
 import (
 	"bytes"
 	"errors"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -280,5 +281,62 @@ func TestDesignRefused(t *testing.T) {
 				t.Fatalf("got %v, want %s saying %q", err, c.field, c.says)
 			}
 		})
+	}
+}
+
+// A clone shares nothing with its engine: every part changed in the clone
+// leaves the engine as it was.
+func TestCloneSharesNothing(t *testing.T) {
+	for _, spec := range DemoEngines() {
+		spec.Design = &Design{Lead: 0.2, Derived: DerivableKeys(spec.Gear.Kind)[:1]}
+		if spec.Gear.SingleEccentric != nil {
+			spec.Gear.SingleEccentric.Rocker = &Rocker{DriveArm: 20, ValveArm: 20, ValveRod: 50}
+		}
+		was := fmt.Sprintf("%+v %+v %+v %+v %+v", spec, *spec.Design, spec.Gear.SingleEccentric, spec.Gear.Stephenson, spec.Gear.Walschaerts)
+		c := spec.Clone()
+		if !reflect.DeepEqual(c, spec) {
+			t.Fatalf("%s: the clone differs", spec.Name)
+		}
+		for _, key := range DerivableKeys(spec.Gear.Kind) {
+			*c.Number(key) += 1
+		}
+		c.Design.Derived[0] = "x"
+		c.Design.Lead = 1
+		c.Notches = append(c.Notches[:0], Notch{"other", 0.1})
+		c.Cylinders[0].Name = "other"
+		if c.Gear.SingleEccentric != nil {
+			c.Gear.SingleEccentric.Rocker.ValveRod = 1
+		}
+		if now := fmt.Sprintf("%+v %+v %+v %+v %+v", spec, *spec.Design, spec.Gear.SingleEccentric, spec.Gear.Stephenson, spec.Gear.Walschaerts); now != was {
+			t.Errorf("%s: changing the clone changed the engine:\n%s\n%s", spec.Name, was, now)
+		}
+	}
+}
+
+// Number finds a number by its engine-file key, and nothing where there is
+// no number.
+func TestNumberByKey(t *testing.T) {
+	s := DemoStephenson()
+	if p := s.Number("engine.rod_length"); p == nil || *p != 132 {
+		t.Errorf("engine.rod_length: %v", p)
+	}
+	*s.Number("gear.stephenson.backward.rod") = 131
+	if s.Gear.Stephenson.Backward.Rod != 131 {
+		t.Error("setting gear.stephenson.backward.rod through Number did not set it")
+	}
+	if p := s.Number("gear.stephenson.link.suspension.w"); p != &s.Gear.Stephenson.Link.Suspension.W {
+		t.Error("gear.stephenson.link.suspension.w is not the suspension's w")
+	}
+	for _, key := range []string{"", "name", "gear.kind", "gear.walschaerts.radius_rod", "design.lead", "engine.rod_length.x", "engine.stroke", "gear.stephenson.forward"} {
+		if p := s.Number(key); p != nil {
+			t.Errorf("%q names a number: %v", key, *p)
+		}
+	}
+	for _, spec := range DemoEngines() {
+		for _, key := range DerivableKeys(spec.Gear.Kind) {
+			if spec.Number(key) == nil {
+				t.Errorf("%s: the derivable part %s is no number", spec.Name, key)
+			}
+		}
 	}
 }

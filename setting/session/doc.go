@@ -34,7 +34,11 @@
 // setting's MaxCylinders and MaxNotches), generously for any engine, so
 // that every command stays fast and small whatever the file.
 // Version 2 added PlanAims, what the setter asks of the plan; a version 1
-// file is read with none and written back as version 2. A cylinder that
+// file is read with none and written back as version 2. The profile (the
+// engine, adjustments, measuring set-up and display unit) may be changed
+// at any time by Edit, readings or not: the readings are kept, derived
+// parts of the engine's design are derived again, and each value changed
+// is kept in the file's history of the engine (EngineChanges). A cylinder that
 // differs from the engine carries its Differences (a setting.EnginePatch),
 // applied to the engine's values by CylinderEngine.
 //

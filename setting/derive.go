@@ -270,6 +270,13 @@ func setReverser(spec *EngineSpec, aims Aims) error {
 // link's radius (so the valve stands still when the reverser moves on a
 // dead centre), and the valve centred. The lever keeps its union-pin
 // distance; the return crank its throw; parts the aims keep stay as given.
+//
+// Two return-crank angles, about half a turn apart, centre the link; one
+// runs the engine forward in full forward gear, the other backward (its
+// full-forward cut-off running forward near nothing). When the angle is
+// derived both are tried and the one whose full-forward cut-off running
+// forward lies nearest the middle of the usual band is taken, so that a
+// setter need not know which side the return crank points.
 func designWalschaerts(spec *EngineSpec, aims Aims) error {
 	g := spec.Gear.Walschaerts
 	const p = "gear.walschaerts."
@@ -281,8 +288,11 @@ func designWalschaerts(spec *EngineSpec, aims Aims) error {
 		}
 		g.Lever = lever
 	}
+	if aims.derives(p + "radius_rod") {
+		g.RadiusRod = g.LinkRadius
+	}
 	if aims.derives(p+"return_angle") || aims.derives(p+"eccentric_rod") {
-		w, err := g.CentreLink(spec.Engine)
+		w, err := centredLink(spec, aims)
 		if err != nil {
 			return within("gear.walschaerts", err)
 		}
@@ -293,9 +303,6 @@ func designWalschaerts(spec *EngineSpec, aims Aims) error {
 			g.EccentricRod = w.EccentricRod
 		}
 	}
-	if aims.derives(p + "radius_rod") {
-		g.RadiusRod = g.LinkRadius
-	}
 	if aims.derives(p + "valve_centre_u") {
 		if _, err := CentreValve(spec); err != nil {
 			return err
@@ -304,10 +311,63 @@ func designWalschaerts(spec *EngineSpec, aims Aims) error {
 	return nil
 }
 
+// centredLink returns the Walschaerts gear with the return crank's angle
+// and the eccentric rod that centre the link (CentreLink). With the angle
+// kept, that from the angle given; with it derived, of the two that centre
+// the link the one that runs the engine forward in full forward gear (see
+// designWalschaerts).
+func centredLink(spec *EngineSpec, aims Aims) (Walschaerts, error) {
+	g := *spec.Gear.Walschaerts
+	first, err := g.CentreLink(spec.Engine)
+	if err != nil || !aims.derives("gear.walschaerts.return_angle") {
+		return first, err
+	}
+	g.ReturnAngle += 180
+	other, err := g.CentreLink(spec.Engine)
+	if err != nil || math.Abs(math.Remainder(other.ReturnAngle-first.ReturnAngle, 360)) < 1e-6 {
+		return first, nil
+	}
+	best, bestOff := first, math.Inf(1)
+	for _, w := range []Walschaerts{first, other} {
+		trial := spec.Clone()
+		t := trial.Gear.Walschaerts
+		t.ReturnAngle, t.EccentricRod = w.ReturnAngle, w.EccentricRod
+		if aims.derives("gear.walschaerts.valve_centre_u") {
+			if _, err := CentreValve(&trial); err != nil {
+				continue
+			}
+		}
+		if cut, ok := forwardCutOff(trial); ok && math.Abs(cut-designCutOffMiddle) < bestOff {
+			best, bestOff = w, math.Abs(cut-designCutOffMiddle)
+		}
+	}
+	return best, nil
+}
+
+// forwardCutOff returns the mean cut-off (% of the stroke) of both ends
+// in full forward gear running forward; false when a port never opens or
+// never closes there.
+func forwardCutOff(s EngineSpec) (float64, bool) {
+	g, err := s.Gear.Gear()
+	if err != nil {
+		return 0, false
+	}
+	set, err := Events(s.Engine, s.Valve, func(th float64) (float64, error) { return g.Valve(s.Engine, th, 1) }, Forward)
+	if err != nil {
+		return 0, false
+	}
+	f, b := set.End(Front), set.End(Back)
+	if f.NeverOpens || b.NeverOpens || f.NeverCloses || b.NeverCloses {
+		return 0, false
+	}
+	return (f.CutOff.StrokePercent + b.CutOff.StrokePercent) / 2, true
+}
+
 // Full-gear cut-off band a design is held to (the primer's section 9,
 // common practice: about 65-85 % of the stroke).
 const (
 	designCutOffLow, designCutOffHigh = 65.0, 85.0
+	designCutOffMiddle                = (designCutOffLow + designCutOffHigh) / 2
 )
 
 // Works checks that an engine as designed works, not only that its
@@ -524,4 +584,153 @@ func Derive(spec *EngineSpec, aims Aims) error {
 		return designWalschaerts(spec, aims)
 	}
 	return &Error{"gear.kind", fmt.Sprintf("The gear kind %q has nothing to derive.", spec.Gear.Kind)}
+}
+
+// DefaultKeys returns the engine-file keys that an engine file with a
+// design may leave out because they have a usual value that a setter need
+// not give, for a gear of the given kind: the demo mark (not invented),
+// the cylinder's inclination and offset (level, on the axle's line: 0),
+// both exhaust laps (0, line and line), and for a single eccentric or a
+// Stephenson gear the gear's admission (the valve's), the valve guide's
+// height (0: in line with the axle), a fixed eccentric (not slipping) and
+// for Stephenson open rods and a link hung by its middle (suspension 0,
+// 0). A Walschaerts gear's parts are all measured or derived.
+func DefaultKeys(kind string) []string {
+	keys := []string{"invented", "engine.inclination", "engine.offset", "valve.front.exhaust_lap", "valve.back.exhaust_lap"}
+	switch kind {
+	case KindSingleEccentric:
+		const p = "gear.single_eccentric."
+		keys = append(keys, p+"slip", p+"admission", p+"guide")
+	case KindStephenson:
+		const p = "gear.stephenson."
+		keys = append(keys, p+"crossed", p+"admission", p+"link.suspension", p+"guide")
+	}
+	return keys
+}
+
+// leftOutWords says, for a key missing from an engine file without a
+// design, whether a design would let it be left out: words to end the
+// refusal's sentence with, or "".
+func leftOutWords(key string) string {
+	for _, kind := range []string{KindSingleEccentric, KindStephenson, KindWalschaerts} {
+		if slices.Contains(DerivableKeys(kind), key) {
+			return `, or give the engine's "design" (the lead it is drawn for) to have it derived`
+		}
+	}
+	for _, kind := range []string{KindSingleEccentric, KindStephenson} {
+		if slices.Contains(DefaultKeys(kind), key) {
+			return `, or give the engine's "design" (the lead it is drawn for) to take the usual value`
+		}
+	}
+	return ""
+}
+
+// completeDesigned fills in what an engine file with a design left out
+// (omitted, by key path): the usual values of DefaultKeys (zero, which
+// reading left; the gear's admission is set to the valve's), and the
+// derivable parts left out, derived by Derive from a start each states
+// and added to the design's derived list. The parts given are kept. The
+// crank, the valve, the gear's kind and the design are checked first, so
+// that a slip there is named as such rather than as a part that cannot
+// be derived.
+func completeDesigned(spec *EngineSpec, omitted []string) error {
+	kind := spec.Gear.Kind
+	if err := firstError(within("engine", spec.Engine.Validate()), within("valve", spec.Valve.Validate())); err != nil {
+		return err
+	}
+	if _, err := spec.Gear.Gear(); err != nil {
+		return within("gear", err)
+	}
+	if err := spec.Design.validate(kind); err != nil {
+		return within("design", err)
+	}
+	switch g := spec.Gear; {
+	case g.SingleEccentric != nil && slices.Contains(omitted, "gear.single_eccentric.admission"):
+		g.SingleEccentric.Admission = spec.Valve.Admission
+	case g.Stephenson != nil && slices.Contains(omitted, "gear.stephenson.admission"):
+		g.Stephenson.Admission = spec.Valve.Admission
+	}
+	var derive []string
+	for _, key := range DerivableKeys(kind) {
+		if slices.Contains(omitted, key) {
+			derive = append(derive, key)
+		}
+	}
+	if len(derive) == 0 {
+		return nil
+	}
+	startDerived(spec, derive)
+	aims := spec.Design.Aims()
+	aims.Keep = func(key string) bool { return !slices.Contains(derive, key) }
+	if err := Derive(spec, aims); err != nil {
+		return err
+	}
+	var listed []string
+	for _, key := range DerivableKeys(kind) {
+		if slices.Contains(spec.Design.Derived, key) || slices.Contains(derive, key) {
+			listed = append(listed, key)
+		}
+	}
+	spec.Design.Derived = listed
+	return nil
+}
+
+// startDerived sets the derivable parts of spec listed in derive, which
+// an engine file left out (zero), to where Derive starts from: the valve
+// central a rod's length ahead (the eccentric rod's; a rocker's valve rod
+// ahead of its pivot; Stephenson, the forward rod's; Walschaerts, the
+// radius rod's ahead of the trunnion), a Stephenson backward rod as long
+// as the forward one and its reverse arm standing over the link's
+// suspension pin, a Walschaerts radius rod as long as the link's radius.
+// Advances, the arm's swing, the lever, the return crank and its rod are
+// found from scratch.
+func startDerived(spec *EngineSpec, derive []string) {
+	has := func(key string) bool { return slices.Contains(derive, key) }
+	switch g := spec.Gear; g.Kind {
+	case KindSingleEccentric:
+		e := g.SingleEccentric
+		if has("gear.single_eccentric.valve_centre_u") {
+			e.ValveCentreU = e.Eccentric.Rod
+			if e.Rocker != nil {
+				e.ValveCentreU = e.Rocker.Pivot.U + e.Rocker.ValveRod
+			}
+		}
+	case KindStephenson:
+		s := g.Stephenson
+		if has("gear.stephenson.backward.rod") {
+			s.Backward.Rod = s.Forward.Rod
+		}
+		if has("gear.stephenson.valve_centre_u") {
+			s.ValveCentreU = s.Forward.Rod
+		}
+		if has("gear.stephenson.mid_arm_angle") {
+			s.MidArmAngle = s.hangingArmAngle()
+		}
+	case KindWalschaerts:
+		w := g.Walschaerts
+		if has("gear.walschaerts.radius_rod") {
+			w.RadiusRod = w.LinkRadius
+		}
+		if has("gear.walschaerts.valve_centre_u") {
+			w.ValveCentreU = w.Trunnion.U + w.RadiusRod
+		}
+	}
+}
+
+// hangingArmAngle returns the reverse arm's angle (degrees) that puts its
+// lifting-link pin straight over (or under) the link's suspension pin,
+// with the link's middle a forward rod's length ahead of the axle on the
+// valve guide's line: about where a drawing's arm stands in mid gear. Of
+// the two angles at that reach, the one whose pin is nearer the height
+// the lifting link asks.
+func (g Stephenson) hangingArmAngle() float64 {
+	pin := Point{U: g.Forward.Rod + g.Link.Suspension.U, W: g.Guide + g.Link.Suspension.W}
+	hang := sign(pin.W - g.Weighshaft.W) // -1: the link hangs below the weighshaft
+	pin.W -= hang * g.LiftingLink
+	c := math.Max(-1, math.Min(1, (pin.U-g.Weighshaft.U)/g.ReverseArm))
+	a := math.Acos(c)
+	if up := g.Weighshaft.W + g.ReverseArm*math.Sin(a); math.Abs(up-pin.W) > math.Abs(g.Weighshaft.W-g.ReverseArm*math.Sin(a)-pin.W) {
+		a = -a
+	}
+	return a * 180 / math.Pi
 }

@@ -266,23 +266,62 @@ func engineFile() JSONFile {
 // (a byte-order mark is dropped), syntax errors with their line and column,
 // a key written twice refused. A key not known is named with the nearest
 // known key when it looks like a typing slip.
+//
+// An engine with a design ("design") may leave out what a setter does not
+// measure: every part its gear derives (DerivableKeys), which is then
+// derived (Derive, from the design's lead) and listed in the design's
+// derived parts, and the keys with a usual value (DefaultKeys). Parts
+// given are kept as written. DecodeEngineFile says which were left out.
 func DecodeEngineSpec(r io.Reader) (EngineSpec, error) {
+	spec, _, err := DecodeEngineFile(r)
+	return spec, err
+}
+
+// DecodeEngineFile reads an engine file as DecodeEngineSpec does, and
+// returns too the keys the file left out under its design, in the order
+// read: the parts derived and those taken at their usual value.
+func DecodeEngineFile(r io.Reader) (EngineSpec, []string, error) {
 	var spec EngineSpec
 	v, data, err := engineFile().Read(r)
 	if err != nil {
-		return spec, err
+		return spec, nil, err
 	}
 	if v.Kind != jsonx.Object {
-		return spec, &Error{"", fmt.Sprintf("An engine file is one JSON object {...}; this file holds %s.", short(data[v.Start:v.End]))}
+		return spec, nil, &Error{"", fmt.Sprintf("An engine file is one JSON object {...}; this file holds %s.", short(data[v.Start:v.End]))}
 	}
-	d := specDecoder{data: data}
+	d := specDecoder{data: data, mayOmit: leftOutKeys(v)}
 	if err := d.read("", v, &spec); err != nil {
-		return EngineSpec{}, err
+		return EngineSpec{}, nil, err
 	}
 	if d.wholeErr != nil {
-		return EngineSpec{}, d.wholeErr
+		return EngineSpec{}, nil, d.wholeErr
 	}
-	return spec, spec.Validate()
+	if spec.Design != nil && len(d.omitted) > 0 {
+		if err := completeDesigned(&spec, d.omitted); err != nil {
+			return EngineSpec{}, nil, err
+		}
+	}
+	if err := spec.Validate(); err != nil {
+		return spec, nil, err
+	}
+	return spec, d.omitted, nil
+}
+
+// leftOutKeys returns the required keys an engine file may leave out: with
+// a design (an object at "design"), the parts its gear derives and those
+// with a usual value (DerivableKeys and DefaultKeys of the kind at
+// "gear.kind"); none without.
+func leftOutKeys(v *jsonx.Value) []string {
+	if design := v.Last("design"); design == nil || design.Kind != jsonx.Object {
+		return nil
+	}
+	kind := ""
+	if g := v.Last("gear"); g != nil && g.Kind == jsonx.Object {
+		if k := g.Last("kind"); k != nil && k.Kind == jsonx.String {
+			kind = k.Text
+		}
+	}
+	return append(DerivableKeys(kind), DefaultKeys(kind)...)
 }
 
 // Encode writes the spec as indented JSON, after validating it.
@@ -405,6 +444,10 @@ type specDecoder struct {
 	// of an RFC 7396 merge patch (EnginePatch), merged into the values
 	// there or read afresh where there is no object to merge into.
 	patch patchMode
+	// mayOmit lists the required keys a file may leave out (a file with
+	// a design: DerivableKeys and DefaultKeys), by key path; omitted
+	// collects those it did leave out.
+	mayOmit, omitted []string
 }
 
 // patchMode is how specDecoder reads objects.
@@ -555,8 +598,12 @@ func (d *specDecoder) object(path string, v *jsonx.Value, fields []specField, at
 		// Merging, a key the patch leaves out keeps its value; a patch's
 		// null takes a key out (reading it sets the value to zero).
 		missing := m == nil && d.patch != mergeInto || m != nil && m.Kind == jsonx.Null && d.patch != notPatch
+		if missing && !f.optional && d.patch == notPatch && slices.Contains(d.mayOmit, sub) {
+			d.omitted = append(d.omitted, sub)
+			continue
+		}
 		if missing && !f.optional {
-			return &Error{sub, fmt.Sprintf("%s is missing; add %q with %s.", describePath(sub), f.key, valueWords(f.ptr))}
+			return &Error{sub, fmt.Sprintf("%s is missing; add %q with %s%s.", describePath(sub), f.key, valueWords(f.ptr), leftOutWords(sub))}
 		}
 		if m == nil {
 			continue

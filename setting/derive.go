@@ -1,6 +1,7 @@
 package setting
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"slices"
@@ -284,7 +285,7 @@ func designWalschaerts(spec *EngineSpec, aims Aims) error {
 		lap := (spec.Valve.Front.SteamLap + spec.Valve.Back.SteamLap) / 2
 		lever, err := DesignLever(lap, aims.Lead, spec.Engine.CrankRadius, g.Lever.UnionPin, spec.Valve.Admission == Internal)
 		if err != nil {
-			return within(p+"lever", err)
+			return leverError(err)
 		}
 		g.Lever = lever
 	}
@@ -309,6 +310,23 @@ func designWalschaerts(spec *EngineSpec, aims Aims) error {
 		}
 	}
 	return nil
+}
+
+// leverError places an error of DesignLever on the engine's key that
+// holds the value at fault: the design's lead (lap and lead against the
+// crank), the crank radius, or the lever's union-pin distance.
+func leverError(err error) error {
+	var e *Error
+	if !errors.As(err, &e) {
+		return within("gear.walschaerts.lever", err)
+	}
+	switch e.Field {
+	case "steam_lap":
+		return &Error{"design.lead", e.Message + " Check the lead the design asks for (mm) and the steam laps."}
+	case "crank_radius":
+		return &Error{"engine.crank_radius", e.Message}
+	}
+	return &Error{"gear.walschaerts.lever." + e.Field, e.Message}
 }
 
 // centredLink returns the Walschaerts gear with the return crank's angle
@@ -374,13 +392,25 @@ const (
 // linkage closes: both ports open to steam in full gear running each way
 // the gear runs, and the full-gear cut-off lies in a sensible band (65 to
 // 85 % of the stroke). Each failure is an *Error naming the dimension most
-// likely wrong, in words. A nil result means it works.
+// likely wrong, in words, its Field that end's steam lap
+// ("valve.front.steam_lap"), or the field Validate names. A nil result
+// means it works. WorkChecks says which failures forbid a plan.
 func (s EngineSpec) Works() []error {
+	refusals, warnings := s.WorkChecks()
+	return append(refusals, warnings...)
+}
+
+// WorkChecks is Works told apart by weight. Refusals: the spec does not
+// validate, or a port never opens to steam in full gear; the engine as
+// described could not run, so a plan fitted to it would mislead (the
+// session's Readiness blocks the plan). Warnings: a full-gear cut-off
+// outside 65 to 85 % of the stroke, or a port that never closes (cut-off
+// at the end of the stroke); possible, but a dimension is likely wrong.
+func (s EngineSpec) WorkChecks() (refusals, warnings []error) {
 	if err := s.Validate(); err != nil {
-		return []error{err}
+		return []error{err}, nil
 	}
 	g, _ := s.Gear.Gear()
-	var out []error
 	dirs := []struct {
 		r Reverser
 		d Direction
@@ -395,7 +425,7 @@ func (s EngineSpec) Works() []error {
 	for _, p := range dirs {
 		set, err := Events(s.Engine, s.Valve, func(th float64) (float64, error) { return g.Valve(s.Engine, th, p.r) }, p.d)
 		if err != nil {
-			out = append(out, err)
+			refusals = append(refusals, err)
 			continue
 		}
 		name := "full forward"
@@ -404,19 +434,20 @@ func (s EngineSpec) Works() []error {
 		}
 		for _, end := range []CylinderEnd{Front, Back} {
 			e := set.End(end)
+			lap := fmt.Sprintf("valve.%s.steam_lap", end)
 			switch {
 			case e.NeverOpens:
-				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s port never opens to steam: the %s steam lap is more than the valve travels past centre, or the valve is off centre. Check the %s steam lap, %s, and the valve's central position.", name, end, end, end, travel)})
+				refusals = append(refusals, &Error{lap, fmt.Sprintf("In %s the %s port never opens to steam: the %s steam lap is more than the valve travels past centre, or the valve is off centre. Check the %s steam lap, %s, and the valve's central position (the valve-rod or spindle length).", name, end, end, end, travel)})
 			case e.NeverCloses:
-				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s port never closes to steam: the %s steam lap is too small for the travel. Check the %s steam lap and %s.", name, end, end, end, travel)})
+				warnings = append(warnings, &Error{lap, fmt.Sprintf("In %s the %s port never closes to steam: the %s steam lap is too small for the travel. Check the %s steam lap and %s.", name, end, end, end, travel)})
 			case e.CutOff.StrokePercent < designCutOffLow:
-				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s cut-off is %.0f %% of the stroke; %.0f to %.0f %% is usual, so that the engine starts: the travel is short for the laps. Check %s and the %s steam lap.", name, end, e.CutOff.StrokePercent, designCutOffLow, designCutOffHigh, travel, end)})
+				warnings = append(warnings, &Error{lap, fmt.Sprintf("In %s the %s cut-off is %.0f %% of the stroke; %.0f to %.0f %% is usual, so that the engine starts: the travel is short for the laps. Check %s and the %s steam lap.", name, end, e.CutOff.StrokePercent, designCutOffLow, designCutOffHigh, travel, end)})
 			case e.CutOff.StrokePercent > designCutOffHigh:
-				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s cut-off is %.0f %% of the stroke; %.0f to %.0f %% is usual: the travel is long for the laps. Check %s and the %s steam lap.", name, end, e.CutOff.StrokePercent, designCutOffLow, designCutOffHigh, travel, end)})
+				warnings = append(warnings, &Error{lap, fmt.Sprintf("In %s the %s cut-off is %.0f %% of the stroke; %.0f to %.0f %% is usual: the travel is long for the laps. Check %s and the %s steam lap.", name, end, e.CutOff.StrokePercent, designCutOffLow, designCutOffHigh, travel, end)})
 			}
 		}
 	}
-	return out
+	return refusals, warnings
 }
 
 // equalBackLeads sets a Stephenson gear's backward eccentric rod so that

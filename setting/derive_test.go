@@ -326,3 +326,40 @@ func TestEngineFileDerivationRefused(t *testing.T) {
 		t.Errorf("a rod shorter than the crank: got %v", err)
 	}
 }
+
+// WorkChecks tells a port that never opens (the engine could not run: a
+// refusal) from a cut-off outside the usual band (a warning), each on the
+// steam lap of its end, and Warnings says both, leaving out its own
+// easy-starting check then (common practice, no source: 65-85 % full-gear
+// cut-off, the primer's section 9).
+func TestWorkChecksWeighs(t *testing.T) {
+	s := DemoSlipEccentric()
+	if r, w := s.WorkChecks(); len(r)+len(w) > 0 {
+		t.Fatalf("the demo engine: refusals %v, warnings %v", r, w)
+	}
+	s.Valve.Front.SteamLap = s.Gear.SingleEccentric.Eccentric.Throw + 1
+	r, w := s.WorkChecks()
+	var fe *Error
+	if len(r) == 0 || !errors.As(r[0], &fe) || fe.Field != "valve.front.steam_lap" || !strings.Contains(fe.Message, "never opens") {
+		t.Errorf("a front lap beyond the throw: refusals %v, warnings %v", r, w)
+	}
+	if got := strings.Join(s.Warnings(), "\n"); !strings.Contains(got, "front port never opens") {
+		t.Errorf("the engine's warnings do not say the front port never opens:\n%s", got)
+	}
+	s = DemoSlipEccentric()
+	s.Gear.SingleEccentric.Eccentric.Throw = 3.2 // travel short for 2.4 mm laps
+	if _, err := CentreValve(&s); err != nil {
+		t.Fatal(err)
+	}
+	r, w = s.WorkChecks()
+	if len(r) != 0 || len(w) == 0 || !errors.As(w[0], &fe) || !strings.Contains(fe.Message, "65 to 85 %") {
+		t.Fatalf("a short travel: refusals %v, warnings %v", r, w)
+	}
+	got := strings.Join(s.Warnings(), "\n")
+	if !strings.Contains(got, "65 to 85 %") || strings.Contains(got, "starts easily") {
+		t.Errorf("the engine's warnings for a short travel:\n%s", got)
+	}
+	if n := len(s.Works()); n != len(r)+len(w) {
+		t.Errorf("Works gives %d failures, WorkChecks %d", n, len(r)+len(w))
+	}
+}

@@ -130,7 +130,7 @@ func checkSession(s *session.Session, cyl int, stderr io.Writer) error {
 		}
 	}
 	if len(blocking) > 0 {
-		return fmt.Errorf("no plan for the %s cylinder until its readings are put right:\n  %s", s.Cylinders[cyl].Name, strings.Join(blocking, "\n  "))
+		return fmt.Errorf("no plan for the %s cylinder until these are put right:\n  %s", s.Cylinders[cyl].Name, strings.Join(blocking, "\n  "))
 	}
 	return nil
 }

@@ -27,7 +27,8 @@
 // are possible but unusual; Readiness says what a plan for a cylinder still
 // lacks, and refuses readings that contradict one another (port marks,
 // laps and the valve's travel; bracketed dead centres), naming the
-// readings to take again; the app and the command line run both before a
+// readings to take again, and an engine that could not run as described
+// (a port that never opens in full gear), naming the dimension; the app and the command line run both before a
 // plan, alike. Observations (RoundObservations, one round) turns the
 // readings into the list a fitter works on. Lists are bounded
 // (MaxRounds, MaxRoundReadings, MaxSweepReadings, MaxChanges, and

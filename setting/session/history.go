@@ -5,7 +5,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"regexp"
 	"slices"
 	"strings"
 
@@ -280,10 +279,39 @@ func unionKeys(a, b leafSet) []string {
 	return keys
 }
 
-// historyKey is the form of a history record's key: a session-file key
-// path into the engine, the adjustments or the measuring set-up, or the
-// display unit.
-var historyKey = regexp.MustCompile(`^(display_unit|(engine|measuring|adjustments\[[0-9]+\])(\.[a-z_]+(\[[0-9]+\])?)+)$`)
+// historyKey reports whether key has the form of a history record's key:
+// a session-file key path into the engine, the measuring set-up or an
+// adjustment ("engine.gear.stephenson.arm_swing",
+// "adjustments[2].thread.tpi"), or the display unit.
+func historyKey(key string) bool {
+	if key == "display_unit" {
+		return true
+	}
+	parts := strings.Split(key, ".")
+	if len(parts) < 2 || parts[0] != "engine" && parts[0] != "measuring" && !(strings.HasPrefix(parts[0], "adjustments[") && keyPart(parts[0])) {
+		return false
+	}
+	for _, p := range parts[1:] {
+		if !keyPart(p) {
+			return false
+		}
+	}
+	return true
+}
+
+// keyPart reports whether p is one step of a key path: a snake_case key,
+// optionally with a list index ("suspension", "notches[0]").
+func keyPart(p string) bool {
+	name, index, listed := strings.Cut(p, "[")
+	if name == "" || strings.TrimLeft(name, "abcdefghijklmnopqrstuvwxyz_") != "" {
+		return false
+	}
+	if !listed {
+		return true
+	}
+	digits, ok := strings.CutSuffix(index, "]")
+	return ok && digits != "" && strings.TrimLeft(digits, "0123456789") == ""
+}
 
 // maxHistoryValue bounds the text of a history record's value: a number,
 // a word, the engine's name or notes, the list of derived parts.
@@ -300,7 +328,7 @@ func (d *decoder) engineChange(n *node, path string) EngineChange {
 		}
 	}
 	c.Key = o.text("key", true, "the key path of the value changed, such as \"engine.engine.rod_length\"")
-	if d.err == nil && !historyKey.MatchString(c.Key) {
+	if d.err == nil && !historyKey(c.Key) {
 		d.fail(path+".key", "The key %q is not a value of the engine's history: give the key path of a value of the engine, the adjustments or the measuring set-up (\"engine.engine.rod_length\", \"adjustments[0].min_mm\"), or \"display_unit\".", c.Key)
 	}
 	value := func(key string) string {

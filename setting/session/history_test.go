@@ -281,3 +281,18 @@ func TestHistoryRefused(t *testing.T) {
 		t.Errorf("a list of words as a value: %+v, %v", s, err)
 	}
 }
+
+// The keys a history record may have: the profile's key paths.
+func TestHistoryKeys(t *testing.T) {
+	for key, want := range map[string]bool{
+		"display_unit": true, "engine.engine.rod_length": true, "engine.notches[0].reverser": true,
+		"adjustments[12].thread.tpi": true, "measuring.wheel_diameter_mm": true, "engine.design.derived": true,
+		"": false, "engine": false, "name": false, "cylinders[0].name": false, "adjustments.min_mm": false,
+		"adjustments[].min_mm": false, "adjustments[x].min_mm": false, "engine..name": false, "engine.Name": false,
+		"engine.notches[0": false, "measuring.wheel diameter": false, "plan_aims.priority": false,
+	} {
+		if got := historyKey(key); got != want {
+			t.Errorf("historyKey(%q) = %v, want %v", key, got, want)
+		}
+	}
+}

@@ -1,8 +1,10 @@
 package setting
 
 import (
+	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 )
 
@@ -269,6 +271,13 @@ func setReverser(spec *EngineSpec, aims Aims) error {
 // link's radius (so the valve stands still when the reverser moves on a
 // dead centre), and the valve centred. The lever keeps its union-pin
 // distance; the return crank its throw; parts the aims keep stay as given.
+//
+// Two return-crank angles, about half a turn apart, centre the link; one
+// runs the engine forward in full forward gear, the other backward (its
+// full-forward cut-off running forward near nothing). When the angle is
+// derived both are tried and the one whose full-forward cut-off running
+// forward lies nearest the middle of the usual band is taken, so that a
+// setter need not know which side the return crank points.
 func designWalschaerts(spec *EngineSpec, aims Aims) error {
 	g := spec.Gear.Walschaerts
 	const p = "gear.walschaerts."
@@ -276,12 +285,15 @@ func designWalschaerts(spec *EngineSpec, aims Aims) error {
 		lap := (spec.Valve.Front.SteamLap + spec.Valve.Back.SteamLap) / 2
 		lever, err := DesignLever(lap, aims.Lead, spec.Engine.CrankRadius, g.Lever.UnionPin, spec.Valve.Admission == Internal)
 		if err != nil {
-			return within(p+"lever", err)
+			return leverError(err)
 		}
 		g.Lever = lever
 	}
+	if aims.derives(p + "radius_rod") {
+		g.RadiusRod = g.LinkRadius
+	}
 	if aims.derives(p+"return_angle") || aims.derives(p+"eccentric_rod") {
-		w, err := g.CentreLink(spec.Engine)
+		w, err := centredLink(spec, aims)
 		if err != nil {
 			return within("gear.walschaerts", err)
 		}
@@ -292,9 +304,6 @@ func designWalschaerts(spec *EngineSpec, aims Aims) error {
 			g.EccentricRod = w.EccentricRod
 		}
 	}
-	if aims.derives(p + "radius_rod") {
-		g.RadiusRod = g.LinkRadius
-	}
 	if aims.derives(p + "valve_centre_u") {
 		if _, err := CentreValve(spec); err != nil {
 			return err
@@ -303,23 +312,105 @@ func designWalschaerts(spec *EngineSpec, aims Aims) error {
 	return nil
 }
 
+// leverError places an error of DesignLever on the engine's key that
+// holds the value at fault: the design's lead (lap and lead against the
+// crank), the crank radius, or the lever's union-pin distance.
+func leverError(err error) error {
+	var e *Error
+	if !errors.As(err, &e) {
+		return within("gear.walschaerts.lever", err)
+	}
+	switch e.Field {
+	case "steam_lap":
+		return &Error{"design.lead", e.Message + " Check the lead the design asks for (mm) and the steam laps."}
+	case "crank_radius":
+		return &Error{"engine.crank_radius", e.Message}
+	}
+	return &Error{"gear.walschaerts.lever." + e.Field, e.Message}
+}
+
+// centredLink returns the Walschaerts gear with the return crank's angle
+// and the eccentric rod that centre the link (CentreLink). With the angle
+// kept, that from the angle given; with it derived, of the two that centre
+// the link the one that runs the engine forward in full forward gear (see
+// designWalschaerts).
+func centredLink(spec *EngineSpec, aims Aims) (Walschaerts, error) {
+	g := *spec.Gear.Walschaerts
+	first, err := g.CentreLink(spec.Engine)
+	if err != nil || !aims.derives("gear.walschaerts.return_angle") {
+		return first, err
+	}
+	g.ReturnAngle += 180
+	other, err := g.CentreLink(spec.Engine)
+	if err != nil || math.Abs(math.Remainder(other.ReturnAngle-first.ReturnAngle, 360)) < 1e-6 {
+		return first, nil
+	}
+	best, bestOff := first, math.Inf(1)
+	for _, w := range []Walschaerts{first, other} {
+		trial := spec.Clone()
+		t := trial.Gear.Walschaerts
+		t.ReturnAngle, t.EccentricRod = w.ReturnAngle, w.EccentricRod
+		if aims.derives("gear.walschaerts.valve_centre_u") {
+			if _, err := CentreValve(&trial); err != nil {
+				continue
+			}
+		}
+		if cut, ok := forwardCutOff(trial); ok && math.Abs(cut-designCutOffMiddle) < bestOff {
+			best, bestOff = w, math.Abs(cut-designCutOffMiddle)
+		}
+	}
+	return best, nil
+}
+
+// forwardCutOff returns the mean cut-off (% of the stroke) of both ends
+// in full forward gear running forward; false when a port never opens or
+// never closes there.
+func forwardCutOff(s EngineSpec) (float64, bool) {
+	g, err := s.Gear.Gear()
+	if err != nil {
+		return 0, false
+	}
+	set, err := Events(s.Engine, s.Valve, func(th float64) (float64, error) { return g.Valve(s.Engine, th, 1) }, Forward)
+	if err != nil {
+		return 0, false
+	}
+	f, b := set.End(Front), set.End(Back)
+	if f.NeverOpens || b.NeverOpens || f.NeverCloses || b.NeverCloses {
+		return 0, false
+	}
+	return (f.CutOff.StrokePercent + b.CutOff.StrokePercent) / 2, true
+}
+
 // Full-gear cut-off band a design is held to (the primer's section 9,
 // common practice: about 65-85 % of the stroke).
 const (
 	designCutOffLow, designCutOffHigh = 65.0, 85.0
+	designCutOffMiddle                = (designCutOffLow + designCutOffHigh) / 2
 )
 
 // Works checks that an engine as designed works, not only that its
 // linkage closes: both ports open to steam in full gear running each way
 // the gear runs, and the full-gear cut-off lies in a sensible band (65 to
 // 85 % of the stroke). Each failure is an *Error naming the dimension most
-// likely wrong, in words. A nil result means it works.
+// likely wrong, in words, its Field that end's steam lap
+// ("valve.front.steam_lap"), or the field Validate names. A nil result
+// means it works. WorkChecks says which failures forbid a plan.
 func (s EngineSpec) Works() []error {
+	refusals, warnings := s.WorkChecks()
+	return append(refusals, warnings...)
+}
+
+// WorkChecks is Works told apart by weight. Refusals: the spec does not
+// validate, or a port never opens to steam in full gear; the engine as
+// described could not run, so a plan fitted to it would mislead (the
+// session's Readiness blocks the plan). Warnings: a full-gear cut-off
+// outside 65 to 85 % of the stroke, or a port that never closes (cut-off
+// at the end of the stroke); possible, but a dimension is likely wrong.
+func (s EngineSpec) WorkChecks() (refusals, warnings []error) {
 	if err := s.Validate(); err != nil {
-		return []error{err}
+		return []error{err}, nil
 	}
 	g, _ := s.Gear.Gear()
-	var out []error
 	dirs := []struct {
 		r Reverser
 		d Direction
@@ -334,7 +425,7 @@ func (s EngineSpec) Works() []error {
 	for _, p := range dirs {
 		set, err := Events(s.Engine, s.Valve, func(th float64) (float64, error) { return g.Valve(s.Engine, th, p.r) }, p.d)
 		if err != nil {
-			out = append(out, err)
+			refusals = append(refusals, err)
 			continue
 		}
 		name := "full forward"
@@ -343,19 +434,20 @@ func (s EngineSpec) Works() []error {
 		}
 		for _, end := range []CylinderEnd{Front, Back} {
 			e := set.End(end)
+			lap := fmt.Sprintf("valve.%s.steam_lap", end)
 			switch {
 			case e.NeverOpens:
-				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s port never opens to steam: the %s steam lap is more than the valve travels past centre, or the valve is off centre. Check the %s steam lap, %s, and the valve's central position.", name, end, end, end, travel)})
+				refusals = append(refusals, &Error{lap, fmt.Sprintf("In %s the %s port never opens to steam: the %s steam lap is more than the valve travels past centre, or the valve is off centre. Check the %s steam lap, %s, and the valve's central position (the valve-rod or spindle length).", name, end, end, end, travel)})
 			case e.NeverCloses:
-				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s port never closes to steam: the %s steam lap is too small for the travel. Check the %s steam lap and %s.", name, end, end, end, travel)})
+				warnings = append(warnings, &Error{lap, fmt.Sprintf("In %s the %s port never closes to steam: the %s steam lap is too small for the travel. Check the %s steam lap and %s.", name, end, end, end, travel)})
 			case e.CutOff.StrokePercent < designCutOffLow:
-				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s cut-off is %.0f %% of the stroke; %.0f to %.0f %% is usual, so that the engine starts: the travel is short for the laps. Check %s and the %s steam lap.", name, end, e.CutOff.StrokePercent, designCutOffLow, designCutOffHigh, travel, end)})
+				warnings = append(warnings, &Error{lap, fmt.Sprintf("In %s the %s cut-off is %.0f %% of the stroke; %.0f to %.0f %% is usual, so that the engine starts: the travel is short for the laps. Check %s and the %s steam lap.", name, end, e.CutOff.StrokePercent, designCutOffLow, designCutOffHigh, travel, end)})
 			case e.CutOff.StrokePercent > designCutOffHigh:
-				out = append(out, &Error{"valve", fmt.Sprintf("In %s the %s cut-off is %.0f %% of the stroke; %.0f to %.0f %% is usual: the travel is long for the laps. Check %s and the %s steam lap.", name, end, e.CutOff.StrokePercent, designCutOffLow, designCutOffHigh, travel, end)})
+				warnings = append(warnings, &Error{lap, fmt.Sprintf("In %s the %s cut-off is %.0f %% of the stroke; %.0f to %.0f %% is usual: the travel is long for the laps. Check %s and the %s steam lap.", name, end, e.CutOff.StrokePercent, designCutOffLow, designCutOffHigh, travel, end)})
 			}
 		}
 	}
-	return out
+	return refusals, warnings
 }
 
 // equalBackLeads sets a Stephenson gear's backward eccentric rod so that
@@ -409,6 +501,39 @@ type Design struct {
 	Lead          float64  `json:"lead"`
 	FullGearShare float64  `json:"full_gear_share,omitempty"`
 	Derived       []string `json:"derived,omitempty"`
+}
+
+// Bounds of a design's lead (mm): further from zero is a typing slip, not
+// a lead (the session file's target lead has the same bounds).
+const (
+	minDesignLead, maxDesignLead = -5.0, 25.0
+)
+
+// validate checks a design for a gear of the given kind: a lead within
+// its bounds, a full-gear share only for Stephenson gear (more than 0 and
+// at most 1.2), and derived parts that the gear has (DerivableKeys), each
+// listed once. Fields are under the design ("lead", "derived[2]").
+func (d Design) validate(kind string) error {
+	if !(d.Lead >= minDesignLead && d.Lead <= maxDesignLead) {
+		return &Error{"lead", fmt.Sprintf("The lead the design asks for must be from %g to %g mm (got %g); give the lead in full gear in mm, 0 for line and line.", minDesignLead, maxDesignLead, d.Lead)}
+	}
+	switch {
+	case d.FullGearShare != 0 && kind != KindStephenson:
+		return &Error{"full_gear_share", "The die's place in full gear is a Stephenson link's; this gear has no such link, so remove \"full_gear_share\"."}
+	case d.FullGearShare != 0 && !(d.FullGearShare > 0 && d.FullGearShare <= 1.2):
+		return &Error{"full_gear_share", fmt.Sprintf("The die's place in full gear must be a share of the way to the rod pin, more than 0 and at most 1.2 (got %g); 1 puts the die at the pin.", d.FullGearShare)}
+	}
+	keys := DerivableKeys(kind)
+	for i, k := range d.Derived {
+		field := fmt.Sprintf("derived[%d]", i)
+		if !slices.Contains(keys, k) {
+			return &Error{field, fmt.Sprintf("The part %q is not one Evenbeat derives for this gear; the parts it derives are: %s.", k, strings.Join(keys, ", "))}
+		}
+		if slices.Contains(d.Derived[:i], k) {
+			return &Error{field, fmt.Sprintf("The part %q is listed twice as derived; keep one.", k)}
+		}
+	}
+	return nil
 }
 
 // Aims returns the aims that derive the parts d lists as derived and keep
@@ -490,4 +615,153 @@ func Derive(spec *EngineSpec, aims Aims) error {
 		return designWalschaerts(spec, aims)
 	}
 	return &Error{"gear.kind", fmt.Sprintf("The gear kind %q has nothing to derive.", spec.Gear.Kind)}
+}
+
+// DefaultKeys returns the engine-file keys that an engine file with a
+// design may leave out because they have a usual value that a setter need
+// not give, for a gear of the given kind: the demo mark (not invented),
+// the cylinder's inclination and offset (level, on the axle's line: 0),
+// both exhaust laps (0, line and line), and for a single eccentric or a
+// Stephenson gear the gear's admission (the valve's), the valve guide's
+// height (0: in line with the axle), a fixed eccentric (not slipping) and
+// for Stephenson open rods and a link hung by its middle (suspension 0,
+// 0). A Walschaerts gear's parts are all measured or derived.
+func DefaultKeys(kind string) []string {
+	keys := []string{"invented", "engine.inclination", "engine.offset", "valve.front.exhaust_lap", "valve.back.exhaust_lap"}
+	switch kind {
+	case KindSingleEccentric:
+		const p = "gear.single_eccentric."
+		keys = append(keys, p+"slip", p+"admission", p+"guide")
+	case KindStephenson:
+		const p = "gear.stephenson."
+		keys = append(keys, p+"crossed", p+"admission", p+"link.suspension", p+"guide")
+	}
+	return keys
+}
+
+// leftOutWords says, for a key missing from an engine file without a
+// design, whether a design would let it be left out: words to end the
+// refusal's sentence with, or "".
+func leftOutWords(key string) string {
+	for _, kind := range []string{KindSingleEccentric, KindStephenson, KindWalschaerts} {
+		if slices.Contains(DerivableKeys(kind), key) {
+			return `, or give the engine's "design" (the lead it is drawn for) to have it derived`
+		}
+	}
+	for _, kind := range []string{KindSingleEccentric, KindStephenson} {
+		if slices.Contains(DefaultKeys(kind), key) {
+			return `, or give the engine's "design" (the lead it is drawn for) to take the usual value`
+		}
+	}
+	return ""
+}
+
+// completeDesigned fills in what an engine file with a design left out
+// (omitted, by key path): the usual values of DefaultKeys (zero, which
+// reading left; the gear's admission is set to the valve's), and the
+// derivable parts left out, derived by Derive from a start each states
+// and added to the design's derived list. The parts given are kept. The
+// crank, the valve, the gear's kind and the design are checked first, so
+// that a slip there is named as such rather than as a part that cannot
+// be derived.
+func completeDesigned(spec *EngineSpec, omitted []string) error {
+	kind := spec.Gear.Kind
+	if err := firstError(within("engine", spec.Engine.Validate()), within("valve", spec.Valve.Validate())); err != nil {
+		return err
+	}
+	if _, err := spec.Gear.Gear(); err != nil {
+		return within("gear", err)
+	}
+	if err := spec.Design.validate(kind); err != nil {
+		return within("design", err)
+	}
+	switch g := spec.Gear; {
+	case g.SingleEccentric != nil && slices.Contains(omitted, "gear.single_eccentric.admission"):
+		g.SingleEccentric.Admission = spec.Valve.Admission
+	case g.Stephenson != nil && slices.Contains(omitted, "gear.stephenson.admission"):
+		g.Stephenson.Admission = spec.Valve.Admission
+	}
+	var derive []string
+	for _, key := range DerivableKeys(kind) {
+		if slices.Contains(omitted, key) {
+			derive = append(derive, key)
+		}
+	}
+	if len(derive) == 0 {
+		return nil
+	}
+	startDerived(spec, derive)
+	aims := spec.Design.Aims()
+	aims.Keep = func(key string) bool { return !slices.Contains(derive, key) }
+	if err := Derive(spec, aims); err != nil {
+		return err
+	}
+	var listed []string
+	for _, key := range DerivableKeys(kind) {
+		if slices.Contains(spec.Design.Derived, key) || slices.Contains(derive, key) {
+			listed = append(listed, key)
+		}
+	}
+	spec.Design.Derived = listed
+	return nil
+}
+
+// startDerived sets the derivable parts of spec listed in derive, which
+// an engine file left out (zero), to where Derive starts from: the valve
+// central a rod's length ahead (the eccentric rod's; a rocker's valve rod
+// ahead of its pivot; Stephenson, the forward rod's; Walschaerts, the
+// radius rod's ahead of the trunnion), a Stephenson backward rod as long
+// as the forward one and its reverse arm standing over the link's
+// suspension pin, a Walschaerts radius rod as long as the link's radius.
+// Advances, the arm's swing, the lever, the return crank and its rod are
+// found from scratch.
+func startDerived(spec *EngineSpec, derive []string) {
+	has := func(key string) bool { return slices.Contains(derive, key) }
+	switch g := spec.Gear; g.Kind {
+	case KindSingleEccentric:
+		e := g.SingleEccentric
+		if has("gear.single_eccentric.valve_centre_u") {
+			e.ValveCentreU = e.Eccentric.Rod
+			if e.Rocker != nil {
+				e.ValveCentreU = e.Rocker.Pivot.U + e.Rocker.ValveRod
+			}
+		}
+	case KindStephenson:
+		s := g.Stephenson
+		if has("gear.stephenson.backward.rod") {
+			s.Backward.Rod = s.Forward.Rod
+		}
+		if has("gear.stephenson.valve_centre_u") {
+			s.ValveCentreU = s.Forward.Rod
+		}
+		if has("gear.stephenson.mid_arm_angle") {
+			s.MidArmAngle = s.hangingArmAngle()
+		}
+	case KindWalschaerts:
+		w := g.Walschaerts
+		if has("gear.walschaerts.radius_rod") {
+			w.RadiusRod = w.LinkRadius
+		}
+		if has("gear.walschaerts.valve_centre_u") {
+			w.ValveCentreU = w.Trunnion.U + w.RadiusRod
+		}
+	}
+}
+
+// hangingArmAngle returns the reverse arm's angle (degrees) that puts its
+// lifting-link pin straight over (or under) the link's suspension pin,
+// with the link's middle a forward rod's length ahead of the axle on the
+// valve guide's line: about where a drawing's arm stands in mid gear. Of
+// the two angles at that reach, the one whose pin is nearer the height
+// the lifting link asks.
+func (g Stephenson) hangingArmAngle() float64 {
+	pin := Point{U: g.Forward.Rod + g.Link.Suspension.U, W: g.Guide + g.Link.Suspension.W}
+	hang := sign(pin.W - g.Weighshaft.W) // -1: the link hangs below the weighshaft
+	pin.W -= hang * g.LiftingLink
+	c := math.Max(-1, math.Min(1, (pin.U-g.Weighshaft.U)/g.ReverseArm))
+	a := math.Acos(c)
+	if up := g.Weighshaft.W + g.ReverseArm*math.Sin(a); math.Abs(up-pin.W) > math.Abs(g.Weighshaft.W-g.ReverseArm*math.Sin(a)-pin.W) {
+		a = -a
+	}
+	return a * 180 / math.Pi
 }

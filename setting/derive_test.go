@@ -1,8 +1,11 @@
 package setting
 
 import (
+	"bytes"
+	"encoding/json"
 	"errors"
 	"math"
+	"reflect"
 	"strings"
 	"testing"
 )
@@ -167,5 +170,196 @@ func TestDeriveKeepsWhatWasGiven(t *testing.T) {
 	s.Gear.SingleEccentric = nil
 	if err := Derive(&s, d.Aims()); !errors.As(err, &fe) || fe.Field != "gear" {
 		t.Errorf("no gear dimensions: got %v, want an error naming the gear", err)
+	}
+}
+
+// withoutKeys returns spec's engine file as JSON with a design of the
+// given lead and the keys at the given paths taken out.
+func withoutKeys(t *testing.T, spec EngineSpec, lead float64, keys []string) []byte {
+	t.Helper()
+	spec.Design = nil
+	raw, err := spec.AppendJSON(nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var m map[string]any
+	if err := json.Unmarshal(raw, &m); err != nil {
+		t.Fatal(err)
+	}
+	m["design"] = map[string]any{"lead": lead}
+	for _, key := range keys {
+		parts := strings.Split(key, ".")
+		at := m
+		for _, p := range parts[:len(parts)-1] {
+			at = at[p].(map[string]any)
+		}
+		delete(at, parts[len(parts)-1])
+	}
+	out, err := json.MarshalIndent(m, "", "  ")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return out
+}
+
+// usualKeys returns the keys of DefaultKeys whose value in spec is the
+// usual one, so that leaving them out changes nothing.
+func usualKeys(spec EngineSpec) []string {
+	var keys []string
+	for _, key := range DefaultKeys(spec.Gear.Kind) {
+		usual := true
+		switch key {
+		case "invented":
+			usual = !spec.Invented
+		case "gear.single_eccentric.slip":
+			usual = !spec.Gear.SingleEccentric.Slip
+		case "gear.stephenson.crossed":
+			usual = !spec.Gear.Stephenson.Crossed
+		case "gear.single_eccentric.admission", "gear.stephenson.admission":
+		case "gear.stephenson.link.suspension":
+			usual = spec.Gear.Stephenson.Link.Suspension == Point{}
+		default:
+			usual = *spec.Number(key) == 0
+		}
+		if usual {
+			keys = append(keys, key)
+		}
+	}
+	return keys
+}
+
+// An engine file with a design may leave out every part its gear derives
+// and the keys with a usual value: what is left out is derived (and
+// listed as derived) so that the gear as designed gives the design's lead
+// and works (both ports open in full gear, cut-off in the band), the same
+// as the reference decoder reads it. Each demo gear, with everything left
+// out and with each part left out alone (the rest kept as given).
+func TestEngineFileLeavesOutWhatIsDerived(t *testing.T) {
+	for _, demo := range DemoEngines() {
+		demo.Invented = false
+		kind := demo.Gear.Kind
+		const lead = 0.25
+		all := append(DerivableKeys(kind), usualKeys(demo)...)
+		data := withoutKeys(t, demo, lead, all)
+		compareWithReference(t, data)
+		spec, err := DecodeEngineSpec(bytes.NewReader(data))
+		if err != nil {
+			t.Fatalf("%s with every derivable part left out: %v\n%s", kind, err, data)
+		}
+		if !reflect.DeepEqual(spec.Design.Derived, DerivableKeys(kind)) {
+			t.Errorf("%s: derived %v, want %v", kind, spec.Design.Derived, DerivableKeys(kind))
+		}
+		f, b := leadsIn(t, spec, Forward)
+		near(t, kind+" mean lead in full forward", (f+b)/2, lead, 0.03)
+		if errs := spec.Works(); len(errs) > 0 {
+			t.Errorf("%s derived from what a setter knows does not work: %v", kind, errs)
+		}
+		if kind == KindStephenson && spec.Gear.Stephenson.Admission != spec.Valve.Admission {
+			t.Errorf("the gear's admission left out is %v, the valve's %v", spec.Gear.Stephenson.Admission, spec.Valve.Admission)
+		}
+		for _, key := range DerivableKeys(kind) {
+			data := withoutKeys(t, demo, lead, []string{key})
+			compareWithReference(t, data)
+			one, err := DecodeEngineSpec(bytes.NewReader(data))
+			if err != nil {
+				t.Errorf("%s without %s: %v", kind, key, err)
+				continue
+			}
+			if !reflect.DeepEqual(one.Design.Derived, []string{key}) {
+				t.Errorf("%s without %s: derived %v", kind, key, one.Design.Derived)
+			}
+			for _, other := range DerivableKeys(kind) {
+				if other != key && *one.Number(other) != *demo.Number(other) {
+					t.Errorf("%s without %s: %s given as %v became %v", kind, key, other, *demo.Number(other), *one.Number(other))
+				}
+			}
+		}
+	}
+}
+
+// Parts given are kept as written, even when the design lists them as
+// derived (a file the app wrote); without a design every key is asked
+// for, the refusal saying that a design would derive it.
+func TestEngineFileKeepsWhatIsGiven(t *testing.T) {
+	spec := DemoStephenson()
+	spec.Design = &Design{Lead: 0.25, Derived: DerivableKeys(KindStephenson)}
+	var buf bytes.Buffer
+	if err := spec.Encode(&buf); err != nil {
+		t.Fatal(err)
+	}
+	got, err := DecodeEngineSpec(&buf)
+	if err != nil || !reflect.DeepEqual(got, spec) {
+		t.Fatalf("a designed engine with every part given read back as %+v, %v", got.Gear.Stephenson, err)
+	}
+	var m map[string]any
+	if err := json.Unmarshal(withoutKeys(t, DemoStephenson(), 0.25, []string{"gear.stephenson.arm_swing"}), &m); err != nil {
+		t.Fatal(err)
+	}
+	delete(m, "design")
+	data, _ := json.Marshal(m)
+	compareWithReference(t, data)
+	_, err = DecodeEngineSpec(bytes.NewReader(data))
+	var e *Error
+	if !errors.As(err, &e) || e.Field != "gear.stephenson.arm_swing" || !strings.Contains(e.Message, `give the engine's "design"`) {
+		t.Errorf("the arm swing missing without a design: got %v", err)
+	}
+}
+
+// What cannot be derived is refused naming the dimension to check: a lap
+// and lead beyond the eccentric's throw; a crank that is no crank is
+// named as such before anything is derived.
+func TestEngineFileDerivationRefused(t *testing.T) {
+	demo := DemoSlipEccentric()
+	demo.Valve.Front.SteamLap, demo.Valve.Back.SteamLap = 6, 6
+	data := withoutKeys(t, demo, 0.25, DerivableKeys(KindSingleEccentric))
+	compareWithReference(t, data)
+	_, err := DecodeEngineSpec(bytes.NewReader(data))
+	var e *Error
+	if !errors.As(err, &e) || !strings.HasPrefix(e.Field, "gear.single_eccentric.eccentric") || !strings.Contains(e.Message, "throw") {
+		t.Errorf("laps beyond the throw: got %v", err)
+	}
+	demo = DemoSlipEccentric()
+	demo.Engine.RodLength = 10
+	data = withoutKeys(t, demo, 0.25, DerivableKeys(KindSingleEccentric))
+	compareWithReference(t, data)
+	if _, err := DecodeEngineSpec(bytes.NewReader(data)); !errors.As(err, &e) || e.Field != "engine.rod_length" {
+		t.Errorf("a rod shorter than the crank: got %v", err)
+	}
+}
+
+// WorkChecks tells a port that never opens (the engine could not run: a
+// refusal) from a cut-off outside the usual band (a warning), each on the
+// steam lap of its end, and Warnings says both, leaving out its own
+// easy-starting check then (common practice, no source: 65-85 % full-gear
+// cut-off, the primer's section 9).
+func TestWorkChecksWeighs(t *testing.T) {
+	s := DemoSlipEccentric()
+	if r, w := s.WorkChecks(); len(r)+len(w) > 0 {
+		t.Fatalf("the demo engine: refusals %v, warnings %v", r, w)
+	}
+	s.Valve.Front.SteamLap = s.Gear.SingleEccentric.Eccentric.Throw + 1
+	r, w := s.WorkChecks()
+	var fe *Error
+	if len(r) == 0 || !errors.As(r[0], &fe) || fe.Field != "valve.front.steam_lap" || !strings.Contains(fe.Message, "never opens") {
+		t.Errorf("a front lap beyond the throw: refusals %v, warnings %v", r, w)
+	}
+	if got := strings.Join(s.Warnings(), "\n"); !strings.Contains(got, "front port never opens") {
+		t.Errorf("the engine's warnings do not say the front port never opens:\n%s", got)
+	}
+	s = DemoSlipEccentric()
+	s.Gear.SingleEccentric.Eccentric.Throw = 3.2 // travel short for 2.4 mm laps
+	if _, err := CentreValve(&s); err != nil {
+		t.Fatal(err)
+	}
+	r, w = s.WorkChecks()
+	if len(r) != 0 || len(w) == 0 || !errors.As(w[0], &fe) || !strings.Contains(fe.Message, "65 to 85 %") {
+		t.Fatalf("a short travel: refusals %v, warnings %v", r, w)
+	}
+	got := strings.Join(s.Warnings(), "\n")
+	if !strings.Contains(got, "65 to 85 %") || strings.Contains(got, "starts easily") {
+		t.Errorf("the engine's warnings for a short travel:\n%s", got)
+	}
+	if n := len(s.Works()); n != len(r)+len(w) {
+		t.Errorf("Works gives %d failures, WorkChecks %d", n, len(r)+len(w))
 	}
 }

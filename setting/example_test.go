@@ -75,7 +75,7 @@ func ExampleDecodeEngineSpec() {
 	fmt.Println(err)
 	// Output:
 	// engine.rod_length: The connecting rod 40 mm is shorter than the crank radius 57 mm; it must be longer.
-	// valve.front.exhaust_lap: The exhaust lap (valve.front.exhaust_lap) is missing; add "exhaust_lap" with a number.
+	// valve.front.exhaust_lap: The exhaust lap (valve.front.exhaust_lap) is missing; add "exhaust_lap" with a number, or give the engine's "design" (the lead it is drawn for) to take the usual value.
 	// engine.rod_lenght: The key "rod_lenght" is not known here; did you mean "rod_length"? Correct its name.
 }
 

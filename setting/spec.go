@@ -30,8 +30,14 @@ import (
 //	    "front": {"steam_lap": 3.2, "exhaust_lap": 0, "port_width": 3.2},
 //	    "back":  {"steam_lap": 3.2, "exhaust_lap": 0, "port_width": 3.2}},
 //	  "gear": {"kind": "walschaerts", "walschaerts": {...}},
+//	  "design": {"lead": 0.25, "derived": ["gear.walschaerts.lever.valve_pin"]},
 //	  "notches": [{"name": "running", "reverser": 0.4}]
 //	}
+//
+// "design" (optional) is what the drawing asks of the gear (the lead in
+// full gear; for Stephenson gear the die's place in full gear) and which
+// of the parts DerivableKeys lists were derived from it (Derive) rather
+// than measured: a change of a dimension derives those again.
 type EngineSpec struct {
 	Name      string     `json:"name"`                // what the owner calls the engine
 	Invented  bool       `json:"invented"`            // true for demo engines made up for this program
@@ -39,6 +45,7 @@ type EngineSpec struct {
 	Engine    Engine     `json:"engine"`              // crank and cylinder
 	Valve     Valve      `json:"valve"`               // valve and ports
 	Gear      GearSpec   `json:"gear"`                // the valve gear
+	Design    *Design    `json:"design,omitempty"`    // what the drawing asks of the gear, and which parts were derived from it; nil when not given
 	Notches   []Notch    `json:"notches,omitempty"`   // named running positions of the reverser, besides full forward, mid and full back
 	Cylinders []Cylinder `json:"cylinders,omitempty"` // the cylinders of this design; empty means one
 }
@@ -198,6 +205,11 @@ func (s EngineSpec) Validate() error {
 	if a, ok := gearAdmission(gear); ok && a != s.Valve.Admission {
 		return &Error{"gear." + key, fmt.Sprintf("The gear is laid out for %s admission but the valve has %s admission; they must agree.", a, s.Valve.Admission)}
 	}
+	if s.Design != nil {
+		if err := s.Design.validate(s.Gear.Kind); err != nil {
+			return within("design", err)
+		}
+	}
 	switch {
 	case len(s.Notches) > MaxNotches:
 		return &Error{"notches", fmt.Sprintf("The engine has %d notches; an engine holds at most %d (the reverser positions it is run in). Keep the ones the engine is run in.", len(s.Notches), MaxNotches)}
@@ -254,23 +266,62 @@ func engineFile() JSONFile {
 // (a byte-order mark is dropped), syntax errors with their line and column,
 // a key written twice refused. A key not known is named with the nearest
 // known key when it looks like a typing slip.
+//
+// An engine with a design ("design") may leave out what a setter does not
+// measure: every part its gear derives (DerivableKeys), which is then
+// derived (Derive, from the design's lead) and listed in the design's
+// derived parts, and the keys with a usual value (DefaultKeys). Parts
+// given are kept as written. DecodeEngineFile says which were left out.
 func DecodeEngineSpec(r io.Reader) (EngineSpec, error) {
+	spec, _, err := DecodeEngineFile(r)
+	return spec, err
+}
+
+// DecodeEngineFile reads an engine file as DecodeEngineSpec does, and
+// returns too the keys the file left out under its design, in the order
+// read: the parts derived and those taken at their usual value.
+func DecodeEngineFile(r io.Reader) (EngineSpec, []string, error) {
 	var spec EngineSpec
 	v, data, err := engineFile().Read(r)
 	if err != nil {
-		return spec, err
+		return spec, nil, err
 	}
 	if v.Kind != jsonx.Object {
-		return spec, &Error{"", fmt.Sprintf("An engine file is one JSON object {...}; this file holds %s.", short(data[v.Start:v.End]))}
+		return spec, nil, &Error{"", fmt.Sprintf("An engine file is one JSON object {...}; this file holds %s.", short(data[v.Start:v.End]))}
 	}
-	d := specDecoder{data: data}
+	d := specDecoder{data: data, mayOmit: leftOutKeys(v)}
 	if err := d.read("", v, &spec); err != nil {
-		return EngineSpec{}, err
+		return EngineSpec{}, nil, err
 	}
 	if d.wholeErr != nil {
-		return EngineSpec{}, d.wholeErr
+		return EngineSpec{}, nil, d.wholeErr
 	}
-	return spec, spec.Validate()
+	if spec.Design != nil && len(d.omitted) > 0 {
+		if err := completeDesigned(&spec, d.omitted); err != nil {
+			return EngineSpec{}, nil, err
+		}
+	}
+	if err := spec.Validate(); err != nil {
+		return spec, nil, err
+	}
+	return spec, d.omitted, nil
+}
+
+// leftOutKeys returns the required keys an engine file may leave out: with
+// a design (an object at "design"), the parts its gear derives and those
+// with a usual value (DerivableKeys and DefaultKeys of the kind at
+// "gear.kind"); none without.
+func leftOutKeys(v *jsonx.Value) []string {
+	if design := v.Last("design"); design == nil || design.Kind != jsonx.Object {
+		return nil
+	}
+	kind := ""
+	if g := v.Last("gear"); g != nil && g.Kind == jsonx.Object {
+		if k := g.Last("kind"); k != nil && k.Kind == jsonx.String {
+			kind = k.Text
+		}
+	}
+	return append(DerivableKeys(kind), DefaultKeys(kind)...)
 }
 
 // Encode writes the spec as indented JSON, after validating it.
@@ -311,10 +362,11 @@ func (s EngineSpec) write(w *jsonx.Writer) ([]byte, error) {
 type specField struct {
 	key      string
 	optional bool
-	// ptr is *float64, *Reverser, *int, *bool, *string or *Admission (a
-	// leaf); a pointer to one of the structs specFields lists; *[]Notch or
-	// *[]Cylinder; or **SingleEccentric, **Stephenson, **Walschaerts or
-	// **Rocker (an optional object, nil when absent).
+	// ptr is *float64, *Reverser, *int, *bool, *string, *Admission or
+	// *[]string (a leaf); a pointer to one of the structs specFields
+	// lists; *[]Notch or *[]Cylinder; or **SingleEccentric, **Stephenson,
+	// **Walschaerts, **Rocker or **Design (an optional object, nil when
+	// absent).
 	ptr any
 }
 
@@ -324,7 +376,10 @@ func specFields(ptr any) []specField {
 	case *EngineSpec:
 		return []specField{{"name", false, &p.Name}, {"invented", false, &p.Invented}, {"notes", true, &p.Notes},
 			{"engine", false, &p.Engine}, {"valve", false, &p.Valve}, {"gear", false, &p.Gear},
-			{"notches", true, &p.Notches}, {"cylinders", true, &p.Cylinders}}
+			{"design", true, &p.Design}, {"notches", true, &p.Notches}, {"cylinders", true, &p.Cylinders}}
+	case *Design:
+		return []specField{{"lead", false, &p.Lead}, {"full_gear_share", true, &p.FullGearShare},
+			{"derived", true, &p.Derived}}
 	case *Notch:
 		return []specField{{"name", false, &p.Name}, {"reverser", false, &p.Reverser}}
 	case *Cylinder:
@@ -389,6 +444,10 @@ type specDecoder struct {
 	// of an RFC 7396 merge patch (EnginePatch), merged into the values
 	// there or read afresh where there is no object to merge into.
 	patch patchMode
+	// mayOmit lists the required keys a file may leave out (a file with
+	// a design: DerivableKeys and DefaultKeys), by key path; omitted
+	// collects those it did leave out.
+	mayOmit, omitted []string
 }
 
 // patchMode is how specDecoder reads objects.
@@ -463,6 +522,8 @@ func (d *specDecoder) read(path string, v *jsonx.Value, ptr any) error {
 		return readList(d, path, v, p, at)
 	case *[]Cylinder:
 		return readList(d, path, v, p, at)
+	case *[]string:
+		return readList(d, path, v, p, at)
 	case **SingleEccentric:
 		return readOptional(d, path, v, p)
 	case **Stephenson:
@@ -470,6 +531,8 @@ func (d *specDecoder) read(path string, v *jsonx.Value, ptr any) error {
 	case **Walschaerts:
 		return readOptional(d, path, v, p)
 	case **Rocker:
+		return readOptional(d, path, v, p)
+	case **Design:
 		return readOptional(d, path, v, p)
 	default:
 		return d.object(path, v, specFields(ptr), at)
@@ -535,8 +598,12 @@ func (d *specDecoder) object(path string, v *jsonx.Value, fields []specField, at
 		// Merging, a key the patch leaves out keeps its value; a patch's
 		// null takes a key out (reading it sets the value to zero).
 		missing := m == nil && d.patch != mergeInto || m != nil && m.Kind == jsonx.Null && d.patch != notPatch
+		if missing && !f.optional && d.patch == notPatch && slices.Contains(d.mayOmit, sub) {
+			d.omitted = append(d.omitted, sub)
+			continue
+		}
 		if missing && !f.optional {
-			return &Error{sub, fmt.Sprintf("%s is missing; add %q with %s.", describePath(sub), f.key, valueWords(f.ptr))}
+			return &Error{sub, fmt.Sprintf("%s is missing; add %q with %s%s.", describePath(sub), f.key, valueWords(f.ptr), leftOutWords(sub))}
 		}
 		if m == nil {
 			continue
@@ -559,7 +626,7 @@ func valueWords(ptr any) string {
 		return "a text in quotes"
 	case *Admission:
 		return `"external" or "internal"`
-	case *[]Notch, *[]Cylinder:
+	case *[]Notch, *[]Cylinder, *[]string:
 		return "a list [...]"
 	}
 	return "an object {...}"
@@ -648,6 +715,8 @@ func writeSpecValue(w *jsonx.Writer, ptr any) {
 		writeList(w, *p)
 	case *[]Cylinder:
 		writeList(w, *p)
+	case *[]string:
+		writeList(w, *p)
 	case **SingleEccentric:
 		writeOptional(w, *p)
 	case **Stephenson:
@@ -655,6 +724,8 @@ func writeSpecValue(w *jsonx.Writer, ptr any) {
 	case **Walschaerts:
 		writeOptional(w, *p)
 	case **Rocker:
+		writeOptional(w, *p)
+	case **Design:
 		writeOptional(w, *p)
 	default:
 		w.BeginObject()
@@ -703,6 +774,8 @@ func isZeroSpecValue(ptr any) bool {
 		return len(*p) == 0
 	case *[]Cylinder:
 		return len(*p) == 0
+	case *[]string:
+		return len(*p) == 0
 	case **SingleEccentric:
 		return *p == nil
 	case **Stephenson:
@@ -710,6 +783,8 @@ func isZeroSpecValue(ptr any) bool {
 	case **Walschaerts:
 		return *p == nil
 	case **Rocker:
+		return *p == nil
+	case **Design:
 		return *p == nil
 	}
 	return false
@@ -756,14 +831,27 @@ const (
 
 // Warnings returns sentences about values of a valid spec that lie far
 // outside what is usual, for the user to confirm; it never refuses
-// anything. It checks the rod length in cranks, each end's exhaust
-// clearance, and the mean full-forward-gear cut-off. A spec that does not
-// validate gives no warnings (Validate says what is wrong).
+// anything. It checks that the engine works (WorkChecks: a port that
+// never opens in full gear first, then full-gear cut-offs outside 65 to
+// 85 %), the rod length in cranks, each end's exhaust clearance, and,
+// when the ends are in that band, the mean full-forward-gear cut-off
+// against the 75 % a miniature engine starts easily with. A spec that
+// does not validate gives no warnings (Validate says what is wrong).
 func (s EngineSpec) Warnings() []string {
 	if s.Validate() != nil {
 		return nil
 	}
+	refusals, warnings := s.WorkChecks()
 	var w []string
+	for _, err := range append(refusals, warnings...) {
+		var e *Error
+		if errors.As(err, &e) {
+			w = append(w, e.Message)
+		} else {
+			w = append(w, err.Error())
+		}
+	}
+	works := len(w) == 0
 	if k := s.Engine.RodLength / s.Engine.CrankRadius; k < rodCranksLow || k > rodCranksHigh {
 		w = append(w, fmt.Sprintf("The connecting rod is %.1f cranks long; about 6 is usual. Check the rod length and crank radius.", k))
 	}
@@ -774,7 +862,7 @@ func (s EngineSpec) Warnings() []string {
 	}
 	g, _ := s.Gear.Gear()
 	t, err := Table(s.Engine, s.Valve, g, []Notch{{"full forward", 1}}, []Direction{Forward})
-	if err == nil {
+	if err == nil && works {
 		f, b := t.Rows[0].Events.Front, t.Rows[0].Events.Back
 		if !f.NeverOpens && !b.NeverOpens && !f.NeverCloses && !b.NeverCloses {
 			if m := (f.CutOff.StrokePercent + b.CutOff.StrokePercent) / 2; m < fullGearCutOffMin {
@@ -783,4 +871,80 @@ func (s EngineSpec) Warnings() []string {
 		}
 	}
 	return w
+}
+
+// Clone returns a copy of s that shares nothing with it: its lists, gear
+// member, rocker and design are copied, so that a change to the copy (a
+// set-up edited before it is accepted) leaves s as it was.
+func (s EngineSpec) Clone() EngineSpec {
+	c := s
+	c.Notches = slices.Clone(s.Notches)
+	c.Cylinders = slices.Clone(s.Cylinders)
+	if s.Design != nil {
+		d := *s.Design
+		d.Derived = slices.Clone(d.Derived)
+		c.Design = &d
+	}
+	if g := s.Gear.SingleEccentric; g != nil {
+		x := *g
+		if g.Rocker != nil {
+			r := *g.Rocker
+			x.Rocker = &r
+		}
+		c.Gear.SingleEccentric = &x
+	}
+	if g := s.Gear.Stephenson; g != nil {
+		x := *g
+		c.Gear.Stephenson = &x
+	}
+	if g := s.Gear.Walschaerts; g != nil {
+		x := *g
+		c.Gear.Walschaerts = &x
+	}
+	return c
+}
+
+// Number returns the number at key, an engine-file key path such as
+// "engine.rod_length" or "gear.stephenson.forward.advance" (the keys
+// DerivableKeys lists among them), so that a part can be read or set by
+// the key the file and the design name it by. It is nil when key names no
+// number of s: a key the format does not know, a gear member or design
+// not given, or a value that is not a number.
+func (s *EngineSpec) Number(key string) *float64 {
+	var ptr any = s
+	for _, part := range strings.Split(key, ".") {
+		var next any
+		for _, f := range specFields(ptr) {
+			if f.key == part {
+				next = f.ptr
+			}
+		}
+		switch p := next.(type) {
+		case **SingleEccentric:
+			next = optionalObject(p)
+		case **Stephenson:
+			next = optionalObject(p)
+		case **Walschaerts:
+			next = optionalObject(p)
+		case **Rocker:
+			next = optionalObject(p)
+		case **Design:
+			next = optionalObject(p)
+		}
+		if next == nil {
+			return nil
+		}
+		ptr = next
+	}
+	f, _ := ptr.(*float64)
+	return f
+}
+
+// optionalObject returns the object an optional member points to, or an
+// untyped nil when it is absent.
+func optionalObject[T any](p **T) any {
+	if *p == nil {
+		return nil
+	}
+	return *p
 }

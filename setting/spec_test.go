@@ -3,6 +3,7 @@ package setting
 import (
 	"bytes"
 	"errors"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -225,5 +226,117 @@ func TestEngineListBounds(t *testing.T) {
 	}
 	if err := many.Validate(); !errors.As(err, &e) || e.Field != "cylinders" || !strings.Contains(e.Message, "at most 12") {
 		t.Errorf("%d cylinders: %v", len(many.Cylinders), err)
+	}
+}
+
+// An engine's design (the lead the drawing asks for, the parts derived
+// from it) is written and read back unchanged, in the file's key order,
+// and left out when there is none.
+func TestDesignRoundTrip(t *testing.T) {
+	spec := DemoStephenson()
+	spec.Design = &Design{Lead: 0.25, FullGearShare: 0.95, Derived: []string{"gear.stephenson.forward.advance", "gear.stephenson.valve_centre_u"}}
+	var buf bytes.Buffer
+	if err := spec.Encode(&buf); err != nil {
+		t.Fatal(err)
+	}
+	text := buf.String()
+	if !strings.Contains(text, `"design": {`) || strings.Index(text, `"design"`) < strings.Index(text, `"gear"`) || strings.Index(text, `"design"`) > strings.Index(text, `"notches"`) {
+		t.Errorf("the design is not written between the gear and the notches:\n%s", text)
+	}
+	again, err := DecodeEngineSpec(strings.NewReader(text))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(spec, again) {
+		t.Errorf("round trip changed the design: %+v, want %+v", again.Design, spec.Design)
+	}
+	spec.Design = nil
+	buf.Reset()
+	if err := spec.Encode(&buf); err != nil {
+		t.Fatal(err)
+	}
+	if strings.Contains(buf.String(), "design") {
+		t.Errorf("an engine without a design writes one:\n%s", buf.String())
+	}
+}
+
+// A design that cannot be is refused naming its key.
+func TestDesignRefused(t *testing.T) {
+	cases := []struct {
+		name, design, field, says string
+	}{
+		{"lead far off", `{"lead": 30}`, "design.lead", "from -5 to 25 mm"},
+		{"lead missing", `{"derived": []}`, "design.lead", "missing"},
+		{"share on a single eccentric", `{"lead": 0.2, "full_gear_share": 1}`, "design.full_gear_share", "Stephenson"},
+		{"part of another gear", `{"lead": 0.2, "derived": ["gear.stephenson.arm_swing"]}`, "design.derived[0]", "gear.single_eccentric.eccentric.advance"},
+		{"part twice", `{"lead": 0.2, "derived": ["gear.single_eccentric.valve_centre_u", "gear.single_eccentric.valve_centre_u"]}`, "design.derived[1]", "twice"},
+		{"not a list", `{"lead": 0.2, "derived": "gear.single_eccentric.valve_centre_u"}`, "design.derived", "list"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			in := strings.Replace(specJSON, `"notches": [`, `"design": `+c.design+`, "notches": [`, 1)
+			_, err := DecodeEngineSpec(strings.NewReader(in))
+			var e *Error
+			if !errors.As(err, &e) || e.Field != c.field || !strings.Contains(e.Message, c.says) {
+				t.Fatalf("got %v, want %s saying %q", err, c.field, c.says)
+			}
+		})
+	}
+}
+
+// A clone shares nothing with its engine: every part changed in the clone
+// leaves the engine as it was.
+func TestCloneSharesNothing(t *testing.T) {
+	for _, spec := range DemoEngines() {
+		spec.Design = &Design{Lead: 0.2, Derived: DerivableKeys(spec.Gear.Kind)[:1]}
+		if spec.Gear.SingleEccentric != nil {
+			spec.Gear.SingleEccentric.Rocker = &Rocker{DriveArm: 20, ValveArm: 20, ValveRod: 50}
+		}
+		was := fmt.Sprintf("%+v %+v %+v %+v %+v", spec, *spec.Design, spec.Gear.SingleEccentric, spec.Gear.Stephenson, spec.Gear.Walschaerts)
+		c := spec.Clone()
+		if !reflect.DeepEqual(c, spec) {
+			t.Fatalf("%s: the clone differs", spec.Name)
+		}
+		for _, key := range DerivableKeys(spec.Gear.Kind) {
+			*c.Number(key) += 1
+		}
+		c.Design.Derived[0] = "x"
+		c.Design.Lead = 1
+		c.Notches = append(c.Notches[:0], Notch{"other", 0.1})
+		c.Cylinders[0].Name = "other"
+		if c.Gear.SingleEccentric != nil {
+			c.Gear.SingleEccentric.Rocker.ValveRod = 1
+		}
+		if now := fmt.Sprintf("%+v %+v %+v %+v %+v", spec, *spec.Design, spec.Gear.SingleEccentric, spec.Gear.Stephenson, spec.Gear.Walschaerts); now != was {
+			t.Errorf("%s: changing the clone changed the engine:\n%s\n%s", spec.Name, was, now)
+		}
+	}
+}
+
+// Number finds a number by its engine-file key, and nothing where there is
+// no number.
+func TestNumberByKey(t *testing.T) {
+	s := DemoStephenson()
+	if p := s.Number("engine.rod_length"); p == nil || *p != 132 {
+		t.Errorf("engine.rod_length: %v", p)
+	}
+	*s.Number("gear.stephenson.backward.rod") = 131
+	if s.Gear.Stephenson.Backward.Rod != 131 {
+		t.Error("setting gear.stephenson.backward.rod through Number did not set it")
+	}
+	if p := s.Number("gear.stephenson.link.suspension.w"); p != &s.Gear.Stephenson.Link.Suspension.W {
+		t.Error("gear.stephenson.link.suspension.w is not the suspension's w")
+	}
+	for _, key := range []string{"", "name", "gear.kind", "gear.walschaerts.radius_rod", "design.lead", "engine.rod_length.x", "engine.stroke", "gear.stephenson.forward"} {
+		if p := s.Number(key); p != nil {
+			t.Errorf("%q names a number: %v", key, *p)
+		}
+	}
+	for _, spec := range DemoEngines() {
+		for _, key := range DerivableKeys(spec.Gear.Kind) {
+			if spec.Number(key) == nil {
+				t.Errorf("%s: the derivable part %s is no number", spec.Name, key)
+			}
+		}
 	}
 }

@@ -11,6 +11,7 @@ import (
 	"os"
 	"path/filepath"
 	"reflect"
+	"slices"
 	"sort"
 	"strings"
 	"testing"
@@ -46,18 +47,43 @@ func refDecodeEngineSpec(data []byte) (EngineSpec, error) {
 	if trimmed[0] != '{' {
 		return spec, &Error{"", fmt.Sprintf("An engine file is one JSON object {...}; this file holds %s.", short(trimmed))}
 	}
-	if err := refCheckJSON("", json.RawMessage(data), reflect.TypeOf(spec)); err != nil {
+	omit := &refOmit{may: refLeftOutKeys(data)}
+	if err := refCheckJSON("", json.RawMessage(data), reflect.TypeOf(spec), omit); err != nil {
 		return spec, err
 	}
 	if err := json.Unmarshal(data, &spec); err != nil {
 		return spec, &Error{"", fmt.Sprintf("The engine file is not valid: %v.", err)}
 	}
+	if spec.Design != nil && len(omit.did) > 0 {
+		if err := completeDesigned(&spec, omit.did); err != nil {
+			return EngineSpec{}, err
+		}
+	}
 	return spec, spec.Validate()
+}
+
+// refOmit is the keys a file may leave out (with a design) and those it
+// did.
+type refOmit struct{ may, did []string }
+
+// refLeftOutKeys returns the keys a file may leave out: with a "design"
+// object, the derivable and usual keys of the gear kind it names.
+func refLeftOutKeys(data []byte) []string {
+	var top struct {
+		Design json.RawMessage
+		Gear   struct{ Kind json.RawMessage }
+	}
+	if json.Unmarshal(data, &top) != nil || !bytes.HasPrefix(bytes.TrimSpace(top.Design), []byte("{")) {
+		return nil
+	}
+	var kind string
+	json.Unmarshal(top.Gear.Kind, &kind)
+	return append(DerivableKeys(kind), DefaultKeys(kind)...)
 }
 
 var refTextUnmarshaler = reflect.TypeFor[encoding.TextUnmarshaler]()
 
-func refCheckJSON(path string, raw json.RawMessage, t reflect.Type) error {
+func refCheckJSON(path string, raw json.RawMessage, t reflect.Type, omit *refOmit) error {
 	raw = bytes.TrimSpace(raw)
 	at := func(msg string, args ...any) error {
 		return &Error{path, describePath(path) + " " + fmt.Sprintf(msg, args...)}
@@ -115,7 +141,7 @@ func refCheckJSON(path string, raw json.RawMessage, t reflect.Type) error {
 			return at("must be a list [...] (got %s).", short(raw))
 		}
 		for i, it := range items {
-			if err := refCheckJSON(fmt.Sprintf("%s[%d]", path, i), it, t.Elem()); err != nil {
+			if err := refCheckJSON(fmt.Sprintf("%s[%d]", path, i), it, t.Elem(), omit); err != nil {
 				return err
 			}
 		}
@@ -154,12 +180,16 @@ func refCheckJSON(path string, raw json.RawMessage, t reflect.Type) error {
 			}
 			v, ok := obj[name]
 			if !ok {
-				if !strings.Contains(opts, "omitempty") {
-					return &Error{sub, fmt.Sprintf("%s is missing; add %q with %s.", describePath(sub), name, refValueWords(f.Type))}
+				switch {
+				case strings.Contains(opts, "omitempty"):
+				case slices.Contains(omit.may, sub):
+					omit.did = append(omit.did, sub)
+				default:
+					return &Error{sub, fmt.Sprintf("%s is missing; add %q with %s%s.", describePath(sub), name, refValueWords(f.Type), leftOutWords(sub))}
 				}
 				continue
 			}
-			if err := refCheckJSON(sub, v, f.Type); err != nil {
+			if err := refCheckJSON(sub, v, f.Type, omit); err != nil {
 				return err
 			}
 		}
@@ -311,6 +341,16 @@ var specMutations = [][2]string{
 	{`"stephenson": {`, `"stephenson": null, "s": {`}, {`"walschaerts": {`, `"walschaerts": null, "w": {`},
 	{`"single_eccentric": {`, `"single_eccentric": null, "s": {`}, {`"u": `, `"u": -0, "uu": `},
 	{`"kind": "`, `"single_eccentric": null, "stephenson": null, "walschaerts": null, "kind": "`},
+	{`"notches": [`, `"design": {"lead": 0.2}, "notches": [`}, {`"notches": [`, `"design": null, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": ["gear.single_eccentric.valve_centre_u"]}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": "x"}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": [1]}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": [null]}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": null}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "derived": ["gear.single_eccentric.valve_centre_u", "gear.single_eccentric.valve_centre_u"]}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": "0.2"}, "notches": [`}, {`"notches": [`, `"design": {"lead": 30}, "notches": [`},
+	{`"notches": [`, `"design": {"derived": []}, "notches": [`}, {`"notches": [`, `"design": {"lead": 0.2, "lede": 1}, "notches": [`},
+	{`"notches": [`, `"design": {"lead": 0.2, "full_gear_share": 0.9}, "notches": [`}, {`"notches": [`, `"design": [], "notches": [`},
 }
 
 func TestDecodeMatchesReference(t *testing.T) {
@@ -355,7 +395,7 @@ func FuzzDecodeMatchesReference(f *testing.F) {
 // same order, the same ones optional.
 func TestSpecFieldsMatchTags(t *testing.T) {
 	values := []any{&EngineSpec{}, &Notch{}, &Cylinder{}, &Engine{}, &Valve{}, &End{}, &GearSpec{}, &Point{},
-		&Eccentric{}, &Rocker{}, &SingleEccentric{}, &ExpansionLink{}, &Stephenson{}, &CombinationLever{}, &Walschaerts{}}
+		&Eccentric{}, &Rocker{}, &SingleEccentric{}, &ExpansionLink{}, &Stephenson{}, &CombinationLever{}, &Walschaerts{}, &Design{}}
 	for _, v := range values {
 		rt := reflect.TypeOf(v).Elem()
 		var want []string

@@ -9,6 +9,8 @@ import (
 	"io/fs"
 	"os"
 	"runtime/debug"
+	"slices"
+	"strconv"
 	"strings"
 
 	"evenbeat/render/report"
@@ -128,7 +130,7 @@ func checkSession(s *session.Session, cyl int, stderr io.Writer) error {
 		}
 	}
 	if len(blocking) > 0 {
-		return fmt.Errorf("no plan for the %s cylinder until its readings are put right:\n  %s", s.Cylinders[cyl].Name, strings.Join(blocking, "\n  "))
+		return fmt.Errorf("no plan for the %s cylinder until these are put right:\n  %s", s.Cylinders[cyl].Name, strings.Join(blocking, "\n  "))
 	}
 	return nil
 }
@@ -216,6 +218,7 @@ func runPlan(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
+	writeDerived(stderr, s.Engine, nil)
 	if err := checkSession(s, opt.Cylinder, stderr); err != nil {
 		return fmt.Errorf("%s: %w", path, err)
 	}
@@ -242,10 +245,11 @@ func runEvents(args []string, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	spec, err := readEngine(path)
+	spec, leftOut, err := readEngine(path)
 	if err != nil {
 		return err
 	}
+	writeDerived(stderr, spec, leftOut)
 	for _, w := range spec.Warnings() {
 		fmt.Fprintf(stderr, "evenbeat: warning: %s\n", w)
 	}
@@ -258,28 +262,111 @@ func runEvents(args []string, stdout, stderr io.Writer) error {
 }
 
 // readEngine reads an engine file; a session file is accepted too, for its
-// engine.
-func readEngine(path string) (setting.EngineSpec, error) {
+// engine. It returns the keys an engine file left out under its design
+// (setting.DecodeEngineFile; none for a session's engine, which the app
+// writes whole).
+func readEngine(path string) (setting.EngineSpec, []string, error) {
 	data, err := os.ReadFile(path)
 	if err != nil {
 		var pe *fs.PathError
 		if errors.As(err, &pe) {
 			err = pe.Err
 		}
-		return setting.EngineSpec{}, fmt.Errorf("%s: the file cannot be opened (%v); check its name and the folder it is in", path, err)
+		return setting.EngineSpec{}, nil, fmt.Errorf("%s: the file cannot be opened (%v); check its name and the folder it is in", path, err)
 	}
 	if strings.Contains(string(data), `"evenbeat-session"`) {
 		s, err := session.Decode(strings.NewReader(string(data)))
 		if err != nil {
-			return setting.EngineSpec{}, fmt.Errorf("%s: %w", path, err)
+			return setting.EngineSpec{}, nil, fmt.Errorf("%s: %w", path, err)
 		}
-		return s.Engine, nil
+		return s.Engine, nil, nil
 	}
-	spec, err := setting.DecodeEngineSpec(strings.NewReader(string(data)))
+	spec, leftOut, err := setting.DecodeEngineFile(strings.NewReader(string(data)))
 	if err != nil {
-		return setting.EngineSpec{}, fmt.Errorf("%s: %w", path, err)
+		return setting.EngineSpec{}, nil, fmt.Errorf("%s: %w", path, err)
 	}
-	return spec, nil
+	return spec, leftOut, nil
+}
+
+// writeDerived writes to stderr what the engine's design gave it, so that
+// no value is taken silently: each part derived from the design (not
+// measured), with its value, then the keys the engine file left out and
+// took at their usual value (leftOut less the derived parts). Nothing
+// for an engine without a design.
+func writeDerived(stderr io.Writer, spec setting.EngineSpec, leftOut []string) {
+	d := spec.Design
+	if d == nil {
+		return
+	}
+	if len(d.Derived) > 0 {
+		fmt.Fprintf(stderr, "evenbeat: note: derived from the design (lead %s mm), not measured; give a value in the file to keep it as measured:\n", trimNumber(d.Lead, 3))
+		for _, key := range d.Derived {
+			if v := spec.Number(key); v != nil {
+				fmt.Fprintf(stderr, "evenbeat: derived: %s = %s %s\n", key, trimNumber(*v, 3), keyUnit(key))
+			}
+		}
+	}
+	var usual []string
+	for _, key := range leftOut {
+		if !slices.Contains(d.Derived, key) {
+			usual = append(usual, key)
+		}
+	}
+	if len(usual) > 0 {
+		fmt.Fprintln(stderr, "evenbeat: note: left out of the file, so taken at their usual value:")
+		for _, key := range usual {
+			fmt.Fprintf(stderr, "evenbeat: usual: %s = %s\n", key, usualWords(key, spec))
+		}
+	}
+}
+
+// usualWords says what a key of setting.DefaultKeys left out is taken as.
+func usualWords(key string, spec setting.EngineSpec) string {
+	switch key[strings.LastIndex(key, ".")+1:] {
+	case "inclination":
+		return "0 degrees (the cylinder level)"
+	case "offset":
+		return "0 mm (the cylinder's line through the axle)"
+	case "guide":
+		return "0 mm (the valve rod's line level with the axle)"
+	case "exhaust_lap":
+		return "0 mm (line and line)"
+	case "admission":
+		return spec.Valve.Admission.String() + " (the valve's)"
+	case "crossed":
+		return "false (open rods)"
+	case "slip":
+		return "false (a fixed eccentric)"
+	case "suspension":
+		return "(0, 0) (the link hung by its middle)"
+	case "invented":
+		return "false"
+	}
+	return "0"
+}
+
+// keyUnit is the unit of the number at an engine-file key: degrees for an
+// angle, else mm.
+func keyUnit(key string) string {
+	for _, angle := range []string{"advance", "angle", "arm_swing", "inclination"} {
+		if strings.HasSuffix(key, angle) {
+			return "degrees"
+		}
+	}
+	return "mm"
+}
+
+// trimNumber writes v with at most places decimals, trailing zeros
+// dropped.
+func trimNumber(v float64, places int) string {
+	s := strconv.FormatFloat(v, 'f', places, 64)
+	if strings.Contains(s, ".") {
+		s = strings.TrimSuffix(strings.TrimRight(s, "0"), ".")
+	}
+	if s == "-0" {
+		s = "0"
+	}
+	return s
 }
 
 // runReport is `evenbeat report [flags] SESSION.json -o report.png`.

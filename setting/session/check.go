@@ -76,6 +76,7 @@ func (s *Session) Check() []Warning {
 	if md := math.Abs(m.MarkError.Degrees(m.WheelDiameterMM)); md > roughMarkDeg {
 		add("measuring.mark_error_"+string(m.MarkError.Scale), "A mark error of %.1f degrees of crank is rough: near dead centre each degree can move the valve about 0.1 mm on a 5 in gauge engine. Finer marks, or sweeps, give a better plan.", md)
 	}
+	w = append(w, engineWarnings(s.Engine)...)
 	for i, a := range s.Adjustments {
 		if p := a.Thread.Pitch(); a.Thread != (Thread{}) && (p < 0.2 || p > 6) {
 			add(fmt.Sprintf("adjustments[%d].thread", i), "A thread pitch of %s mm is unusual for an adjusting thread; check the pitch (or the threads per inch).", fmtNum(p))
@@ -327,6 +328,9 @@ func (s *Session) Readiness(cyl int) []Problem {
 	}
 	c := &s.Cylinders[cyl]
 	cp := fmt.Sprintf("cylinders[%d]", cyl)
+	if spec, err := s.CylinderEngine(cyl); err == nil {
+		ps = append(ps, engineRefusals(spec)...)
+	}
 	if len(c.Rounds) == 0 {
 		add(true, cp+".rounds", "There are no readings for the %s cylinder yet. Take a round: the port marks, then gauge readings at both dead centres in full forward and full back gear (a sweep every 30 degrees is better still).", c.Name)
 		return ps
@@ -533,6 +537,48 @@ func (s *Session) Readiness(cyl int) []Problem {
 		add(false, rp+".cut_offs", "Cut-off points need the port marks (the gauge reading at which the port closes); without them the cut-offs cannot be used.")
 	}
 	return ps
+}
+
+// engineWarnings returns the engine's design faults that are worth a
+// word but allow a plan (setting.EngineSpec.WorkChecks: a full-gear
+// cut-off outside the usual band, a port that never closes), each on the
+// engine's field. An engine that does not yet validate (an app's set-up
+// half done) gives none.
+func engineWarnings(spec setting.EngineSpec) []Warning {
+	var w []Warning
+	_, warnings := spec.WorkChecks()
+	for _, err := range warnings {
+		w = append(w, Warning{engineField(err), messageOf(err)})
+	}
+	return w
+}
+
+// engineRefusals returns, as blocking problems, the ways the engine as
+// described could not run (setting.EngineSpec.WorkChecks: a port that
+// never opens to steam in full gear): a plan fitted to such an engine
+// would mislead, so the dimension is named to be put right first. An
+// engine that does not yet validate gives none: Decode refuses it, and an
+// app's set-up names the part that does not fit as it is typed.
+func engineRefusals(spec setting.EngineSpec) []Problem {
+	if spec.Validate() != nil {
+		return nil
+	}
+	var ps []Problem
+	refusals, _ := spec.WorkChecks()
+	for _, err := range refusals {
+		ps = append(ps, Problem{Field: engineField(err), Blocking: true, Message: messageOf(err) + " The readings are kept; correct the engine's dimensions and the plan is made again."})
+	}
+	return ps
+}
+
+// engineField places an engine error's field under the session's
+// "engine".
+func engineField(err error) string {
+	var e *setting.Error
+	if errors.As(err, &e) && e.Field != "" {
+		return "engine." + e.Field
+	}
+	return "engine"
 }
 
 // fullTravel returns the valve's travel in full gear, forward or back

@@ -199,3 +199,51 @@ func TestInchesTypedInMM(t *testing.T) {
 	}
 	t.Error("no warning that the engine's lengths look like inches")
 }
+
+// An engine whose port never opens in full gear could not run as it is
+// described (here the valve rod 10 mm long, so the valve sits off centre,
+// as in the issue that asked for this check): the plan is refused naming
+// the steam lap and the valve's central position, the readings kept. A
+// cut-off outside the usual band is only a warning of Check.
+func TestEngineThatCannotRun(t *testing.T) {
+	s := example(t)
+	s.Engine.Gear.Stephenson.ValveCentreU += 10
+	var found *Problem
+	for _, p := range s.Readiness(0) {
+		if strings.HasPrefix(p.Field, "engine.valve.") && p.Blocking {
+			found = &p
+			break
+		}
+	}
+	if found == nil || !strings.Contains(found.Message, "never opens") || !strings.Contains(found.Message, "central position") {
+		t.Fatalf("Readiness of an engine whose port never opens: %v", s.Readiness(0))
+	}
+	if len(s.Cylinders[0].Rounds) != 2 {
+		t.Error("readings lost")
+	}
+	s = example(t)
+	for _, p := range s.Readiness(0) {
+		if strings.HasPrefix(p.Field, "engine.") {
+			t.Errorf("the demo engine: %s", p)
+		}
+	}
+	for _, w := range s.Check() {
+		if strings.HasPrefix(w.Field, "engine.valve") {
+			t.Errorf("the demo engine: %s", w)
+		}
+	}
+	s.Engine.Gear.Stephenson.Forward.Throw = 3.4 // short travel for 2.4 mm laps
+	s.Engine.Gear.Stephenson.Backward.Throw = 3.4
+	var warned bool
+	for _, w := range s.Check() {
+		warned = warned || strings.HasPrefix(w.Field, "engine.valve.") && strings.Contains(w.Message, "65 to 85 %")
+	}
+	if !warned {
+		t.Errorf("a short travel is not warned of: %v", s.Check())
+	}
+	for _, p := range s.Readiness(0) {
+		if strings.HasPrefix(p.Field, "engine.") && p.Blocking {
+			t.Errorf("a short travel blocks the plan: %s", p)
+		}
+	}
+}

@@ -264,6 +264,8 @@ func (o obj) list(key string, required bool, what string) []*node {
 			most, fix = MaxChanges, "record the changes made since the round before"
 		case "dead_centre_readings", "cut_offs", "feeler_openings":
 			most, fix = MaxRoundReadings, "split them into rounds, one for each set of adjustments"
+		case "engine_changes":
+			most, fix = MaxEngineChanges, "keep the most recent; the engine as it is now is in \"engine\""
 		}
 		if most > 0 && n > most {
 			o.d.fail(joinPath(o.path, key), "The list of %s holds %d; a session file holds at most %d (%s).", what, n, most, fix)
@@ -319,7 +321,7 @@ const (
 )
 
 func (d *decoder) session(root *node) *Session {
-	keys := []string{"format", "version", "name", "invented", "note", "display_unit", "engine", "measuring", "adjustments", "plan_aims", "cylinders"}
+	keys := []string{"format", "version", "name", "invented", "note", "display_unit", "engine", "measuring", "adjustments", "plan_aims", "cylinders", "engine_changes"}
 	if d.version < 2 && root.get("plan_aims") != nil {
 		d.fail("plan_aims", "Plan aims are part of session files from version 2 on, and this file says it is version %d; change its \"version\" to 2, or remove \"plan_aims\".", d.version)
 	}
@@ -362,6 +364,9 @@ func (d *decoder) session(root *node) *Session {
 			d.fail(fmt.Sprintf("cylinders[%d].name", i), "The engine has no cylinder called %q; its cylinders are %s.", cy.Name, quoteList(d.info.cylinders))
 		}
 		s.Cylinders = append(s.Cylinders, cy)
+	}
+	for i, c := range o.list("engine_changes", false, "records of the engine's history") {
+		s.EngineChanges = append(s.EngineChanges, d.engineChange(c, fmt.Sprintf("engine_changes[%d]", i)))
 	}
 	if d.err != nil {
 		return nil

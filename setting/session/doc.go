@@ -9,7 +9,9 @@
 //
 //   - Lengths are mm, always, in the file and at the API; the display unit
 //     (mm or inch) only says how to show them. ParseLength reads what the
-//     user types ("0.005in", "5 thou", "1/16", "0.13 mm").
+//     user types ("0.005in", "5 thou", "1/16", "1 3/16", "0.13 mm");
+//     FormatLength shows a reading to the gauge's hundredth or thou,
+//     FormatInches a dimension as a drawing gives it ("1 3/16", "0.012").
 //   - Angles are degrees. Crank angle is measured from front dead centre
 //     in the forward running direction of the wheel.
 //   - Marks round the wheel are mm round the tyre (TyreMM) or degrees
@@ -25,14 +27,19 @@
 // are possible but unusual; Readiness says what a plan for a cylinder still
 // lacks, and refuses readings that contradict one another (port marks,
 // laps and the valve's travel; bracketed dead centres), naming the
-// readings to take again; the app and the command line run both before a
+// readings to take again, and an engine that could not run as described
+// (a port that never opens in full gear), naming the dimension; the app and the command line run both before a
 // plan, alike. Observations (RoundObservations, one round) turns the
 // readings into the list a fitter works on. Lists are bounded
 // (MaxRounds, MaxRoundReadings, MaxSweepReadings, MaxChanges, and
 // setting's MaxCylinders and MaxNotches), generously for any engine, so
 // that every command stays fast and small whatever the file.
 // Version 2 added PlanAims, what the setter asks of the plan; a version 1
-// file is read with none and written back as version 2. A cylinder that
+// file is read with none and written back as version 2. The profile (the
+// engine, adjustments, measuring set-up and display unit) may be changed
+// at any time by Edit, readings or not: the readings are kept, derived
+// parts of the engine's design are derived again, and each value changed
+// is kept in the file's history of the engine (EngineChanges). A cylinder that
 // differs from the engine carries its Differences (a setting.EnginePatch),
 // applied to the engine's values by CylinderEngine.
 //

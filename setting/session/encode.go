@@ -137,6 +137,11 @@ func (e *encoder) session(s *Session) *node {
 		cyl = append(cyl, e.cylinder(c, fmt.Sprintf("cylinders[%d]", i)))
 	}
 	o.put("cylinders", &node{kind: nodeArray, elems: cyl})
+	var hist []*node
+	for i, c := range s.EngineChanges {
+		hist = append(hist, e.engineChange(c, fmt.Sprintf("engine_changes[%d]", i)))
+	}
+	o.arr("engine_changes", hist)
 	return o.n
 }
 

@@ -106,6 +106,11 @@ var fieldWords = map[string]string{
 	"target_lead_mm":         "The target lead",
 	"lead_share":             "The share given to leads",
 	"running_notch":          "The running notch",
+	"engine_changes":         "The engine's history",
+	"key":                    "The key",
+	"before":                 "The value before",
+	"after":                  "The value after",
+	"derived":                "The derived mark",
 }
 
 // itemWords names one entry of a list.
@@ -122,6 +127,7 @@ var itemWords = map[string]string{
 	"feeler_openings":      "This feeler opening",
 	"marks_tyre_mm":        "This mark",
 	"marks_deg":            "This mark",
+	"engine_changes":       "This record of the engine's history",
 }
 
 // subject names the value at field in words: "The gauge reading".

@@ -29,6 +29,7 @@ func FuzzDecode(f *testing.F) {
 	v2 := strings.Replace(testJSON, `"version": 1,`, `"version": 2,`, 1)
 	f.Add([]byte(strings.Replace(v2, `"display_unit": "mm",`, `"display_unit": "mm", "plan_aims": {"priority": "balanced", "target_lead_mm": 0.2, "lead_share": 0.6, "running_notch": "full forward"},`, 1)))
 	f.Add([]byte(strings.Replace(v2, `"display_unit": "mm",`, `"display_unit": "mm", "plan_aims": {"target_lead_mm": -0},`, 1)))
+	f.Add([]byte(strings.TrimSuffix(strings.TrimSpace(v2), "}") + `, "engine_changes": [{"date": "2026-12-01", "key": "engine.design.derived", "before": ["a"], "after": 1.50, "derived": true}, {"date": "2026-12-01", "key": "display_unit", "before": "mm\u00e9"}]}`))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		s, err := Decode(bytes.NewReader(data))
 		if err != nil {

@@ -2,7 +2,9 @@ package session
 
 import (
 	"errors"
+	"fmt"
 	"math"
+	"strings"
 	"testing"
 
 	"evenbeat/setting"
@@ -41,6 +43,31 @@ func TestParseLength(t *testing.T) {
 		{"+2 mm", UnitMM, 2},
 		{".5 mm", UnitMM, 0.5},
 		{"5. mm", UnitMM, 5},
+		// Inches as a drawing gives them: fractions and mixed numbers,
+		// with or without the unit, in either session unit.
+		{"3/16", UnitInch, 4.7625},
+		{"3/16", UnitMM, 4.7625},
+		{"1 3/16", UnitInch, 30.1625},
+		{"1-3/16", UnitInch, 30.1625},
+		{"1 3/16 in", UnitMM, 30.1625},
+		{"1 3/16in", UnitMM, 30.1625},
+		{"1  3/16", UnitInch, 30.1625},
+		{"1 3/16\"", UnitMM, 30.1625},
+		{"-1/8", UnitInch, -3.175},
+		{"-1 3/16", UnitInch, -30.1625},
+		{"0.012", UnitInch, 0.3048},
+		{"0.012", UnitMM, 0.012},
+		{"2", UnitInch, 50.8},
+		// The keypad's own output: digits, one point (a lone point is
+		// typed as "0."), the sign key's leading minus, a space and a
+		// fraction bar.
+		{"0.", UnitInch, 0},
+		{"12.", UnitMM, 12},
+		{"-0.012", UnitInch, -0.3048},
+		{"-0.", UnitMM, 0},
+		{"1 ", UnitInch, 25.4},
+		{"5 1/2", UnitInch, 139.7},
+		{"-5 1/2", UnitInch, -139.7},
 	}
 	for _, c := range cases {
 		got, err := ParseLength(c.in, c.unit)
@@ -55,7 +82,7 @@ func TestParseLength(t *testing.T) {
 }
 
 func TestParseLengthRefuses(t *testing.T) {
-	for _, in := range []string{"", "mm", "abc", "5 furlongs", "1/0", "1//2", "NaN", "Inf mm", "1e999", "0x10", "1.2.3 mm", "5 mm mm", "--1", "1/2/3", "1e3"} {
+	for _, in := range []string{"", "mm", "abc", "5 furlongs", "1/0", "1//2", "NaN", "Inf mm", "1e999", "0x10", "1.2.3 mm", "5 mm mm", "--1", "1/2/3", "1e3", "-", "-/", "1.5/2"} {
 		mm, err := ParseLength(in, UnitMM)
 		var e *setting.Error
 		if !errors.As(err, &e) || e.Field != "length" {
@@ -63,6 +90,81 @@ func TestParseLengthRefuses(t *testing.T) {
 			continue
 		}
 		fullSentence(t, e.Message)
+		if !strings.Contains(e.Message, fmt.Sprintf("%q", in)) {
+			t.Errorf("ParseLength(%q): %q does not quote what was typed", in, e.Message)
+		}
+	}
+}
+
+// A fraction typed wrong (on the keypad: a bar too many, a zero or nothing
+// below it) is refused saying what is wrong with it.
+func TestParseLengthSaysWhatIsWrong(t *testing.T) {
+	cases := []struct{ in, says string }{
+		{"3/0", "cannot have 0 below the bar"},
+		{"1 3/0", "cannot have 0 below the bar"},
+		{"1/2/3", "more than one fraction bar"},
+		{"3/", "no number below the fraction bar"},
+		{"1 3/", "no number below the fraction bar"},
+		{"/16", "no number above the fraction bar"},
+		{"1.5 3/16", "whole inches before the fraction"},
+		{"3/16.5", "whole numbers either side of the bar"},
+		{"5 furlongs", `the unit "furlongs"`},
+		{"", "it is empty"},
+		{"-", "there is no number"},
+	}
+	for _, c := range cases {
+		_, err := ParseLength(c.in, UnitInch)
+		if err == nil || !strings.Contains(err.Error(), c.says) {
+			t.Errorf("ParseLength(%q): got %v, want it to say %q", c.in, err, c.says)
+		}
+	}
+}
+
+// Lengths off a drawing are shown as a setter writes them: the nearest
+// 64th in lowest terms when within half a thou of one, else decimals to
+// the thou; each reads back (ParseLength) as the length shown.
+func TestFormatInches(t *testing.T) {
+	cases := []struct {
+		in   float64 // inches
+		want string
+	}{
+		{0, "0"},
+		{3.0 / 16, "3/16"},
+		{1 + 3.0/16, "1 3/16"},
+		{-1.0 / 8, "-1/8"},
+		{-(1 + 3.0/16), "-1 3/16"},
+		{2, "2"},
+		{1.0 / 64, "1/64"},
+		{32.0 / 64, "1/2"},
+		{0.1875 + 0.0004, "3/16"}, // within half a thou
+		{0.1875 + 0.00063, "0.188"},
+		{0.012, "0.012"},
+		{0.3, "0.3"},
+		{0.0125, "0.0125"},
+		{5.11634, "5.116"},
+		{0.0001, "0"},
+		{63.9999 / 64, "1"},
+		{-0.012, "-0.012"},
+		{-0.0002, "0"},
+	}
+	for _, c := range cases {
+		got := FormatInches(c.in * MMPerInch)
+		if got != c.want {
+			t.Errorf("FormatInches(%v in) = %q, want %q", c.in, got, c.want)
+		}
+		back, err := ParseLength(got, UnitInch)
+		if err != nil || math.Abs(back/MMPerInch-c.in) > 0.0005+1e-9 {
+			t.Errorf("%q reads back as %v in (%v), want %v", got, back/MMPerInch, err, c.in)
+		}
+	}
+	for n := -200; n <= 200; n++ {
+		mm := float64(n) / 64 * MMPerInch
+		if back, err := ParseLength(FormatInches(mm), UnitInch); err != nil || math.Abs(back-mm) > 1e-12 {
+			t.Errorf("%d/64 in shown as %q reads back as %v mm (%v), want %v", n, FormatInches(mm), back, err, mm)
+		}
+	}
+	if got := FormatInches(math.NaN()); got != "?" {
+		t.Errorf("NaN shown as %q", got)
 	}
 }
 

@@ -42,6 +42,10 @@ type Session struct {
 	Aims PlanAims
 	// Cylinders holds each cylinder's dead centres and rounds of readings.
 	Cylinders []Cylinder
+	// EngineChanges is the history of the engine: every value of the
+	// profile (engine, adjustments, measuring set-up, display unit)
+	// changed since set-up, oldest first (see Edit).
+	EngineChanges []EngineChange
 }
 
 // PlanAims are the setter's choices for the plan, kept with the readings so

@@ -260,3 +260,29 @@ func TestVersionAndFormatRefused(t *testing.T) {
 		})
 	}
 }
+
+// The engine's design (the lead its drawing asks for and the parts derived
+// from it) travels inside the session's engine object, in version 2: read
+// and written back exactly, and refused by the engine reader's rules,
+// named under "engine.".
+func TestEngineDesignRoundTrip(t *testing.T) {
+	s := mustDecode(t, testJSON)
+	s.Engine.Design = &setting.Design{Lead: 0.2, Derived: []string{"gear.single_eccentric.valve_centre_u"}}
+	var b bytes.Buffer
+	if err := Encode(&b, s); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(b.String(), `"design": {`) || !strings.Contains(b.String(), `"version": 2,`) {
+		t.Fatalf("the design is not written in a version 2 file:\n%s", b.String())
+	}
+	again := mustDecode(t, b.String())
+	if !reflect.DeepEqual(s, again) {
+		t.Fatalf("the design did not come back: %+v", again.Engine.Design)
+	}
+	bad := strings.Replace(b.String(), `"lead": 0.2`, `"lead": 0.2, "derivd": []`, 1)
+	_, err := Decode(strings.NewReader(bad))
+	var e *setting.Error
+	if !errors.As(err, &e) || e.Field != "engine.design.derivd" || !strings.Contains(e.Message, `did you mean "derived"`) {
+		t.Errorf("a misspelt design key: got %v", err)
+	}
+}

@@ -346,6 +346,11 @@ func (b *builder) cases() []Case {
 			Refused: true, Field: r0 + ".dead_centre_readings", Words: []string{"gauge readings at dead centres", "2001"}, Fix: []string{"split them into rounds"}},
 		{Name: "larger than 16 MB", Kind: Session, Command: "plan", File: b.s(`"note": "Invented example`, `"note": "`+strings.Repeat("x", 17<<20)+`Invented example`),
 			Refused: true, Words: []string{"larger than 16 MB"}, Fix: []string{"Is this the right file?"}},
+		{Name: "engine whose port never opens", Kind: Session, Command: "plan", File: b.s(`"valve_centre_u": 129.94`, `"valve_centre_u": 139.94`),
+			Refused: true, Blocked: true, Field: "engine.valve.back.steam_lap", Words: []string{"back port never opens"}, Fix: []string{"the valve's central position"}},
+		{Name: "history of a reading", Kind: Session, Command: "plan", File: []byte(strings.TrimSuffix(strings.TrimSpace(b.session), "}") +
+			`, "engine_changes": [{"date": "2026-12-01", "key": "cylinders[0].rounds[0].port_marks.front_gauge_mm", "before": 2.48, "after": 2.5}]}`),
+			Refused: true, Field: "engine_changes[0].key", Words: []string{"not a value of the engine's history"}, Fix: []string{"give the key path"}},
 
 		// Unusual but possible: planned, with a warning.
 		{Name: "everything typed in inches", Kind: Session, Command: "plan", File: b.inches(),
@@ -371,6 +376,16 @@ func (b *builder) cases() []Case {
 			Warns: "evenbeat: warning: The front exhaust clearance is 3.00 mm; more than 1.6 mm is unusual. Check the sign of the exhaust lap"},
 		{Name: "engine: larger than 1 MB", Kind: Engine, Command: "events", File: b.e(`"invented": true,`, `"invented": true, "notes": "`+strings.Repeat("x", 1<<20)+`",`),
 			Refused: true, Words: []string{"larger than 1 MB"}, Fix: []string{"Is this the right file?"}},
+		{Name: "engine: a port that never opens", Kind: Engine, Command: "events", File: []byte(strings.ReplaceAll(b.engine, `"steam_lap": 2.4,`, `"steam_lap": 6,`)),
+			Warns: "evenbeat: warning: In full forward the front port never opens to steam: the front steam lap is more than the valve travels past centre"},
+		{Name: "engine: full-gear cut-off short", Kind: Engine, Command: "events", File: b.e(`"full_gear_die": 14.05,`, `"full_gear_die": 9,`),
+			Warns: "evenbeat: warning: In full forward the front cut-off is 54 % of the stroke; 65 to 85 % is usual"},
+		{Name: "engine: a derivable part left out without a design", Kind: Engine, Command: "events", File: b.e(`"return_angle": 149.72,`, ``),
+			Refused: true, Field: "gear.walschaerts.return_angle", Words: []string{"The return angle", "missing"}, Fix: []string{`give the engine's "design"`}},
+		{Name: "engine: a design the gear cannot give", Kind: Engine, Command: "events", File: []byte(b.edit(string(b.e(`"valve_pin": 7.09,`, ``)), `"notches": [`, `"design": {"lead": 20}, "notches": [`)),
+			Refused: true, Field: "design.lead", Words: []string{"crank radius"}, Fix: []string{"must be less than"}},
+		{Name: "engine: a derived part of another gear", Kind: Engine, Command: "events", File: b.e(`"notches": [`, `"design": {"lead": 0.2, "derived": ["gear.stephenson.arm_swing"]}, "notches": [`),
+			Refused: true, Field: "design.derived[0]", Words: []string{"gear.stephenson.arm_swing"}, Fix: []string{"the parts it derives are"}},
 		{Name: "engine: 41 notches", Kind: Engine, Command: "events", File: b.e("\"notches\": [\n    {\n      \"name\": \"running notch\",\n      \"reverser\": 0.4\n    }\n  ],", manyNotches(40)),
 			Refused: true, Field: "notches", Words: []string{"41 notches"}, Fix: []string{"at most 40"}},
 

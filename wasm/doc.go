@@ -34,8 +34,8 @@
 // after the plan's first frame), evenbeatSettled, evenbeatName, evenbeatNaming,
 // evenbeatUpdateReady, evenbeatShare and evenbeatStoreError. The page
 // (site/index.html) offers a waiting new version through evenbeatOnUpdate
-// and evenbeatActivateUpdate, and makes and shares the report PNG with the
-// browser's own encoder in evenbeatSharePNG. The engine-name box is
+// and evenbeatActivateUpdate, and shares the report (a PDF the app makes)
+// in evenbeatShareFile. The engine-name box is
 // name_js.go, the report share share_js.go, the update offer update_js.go.
 //
 // Units: logical units are CSS pixels, origin top-left, y down, as in

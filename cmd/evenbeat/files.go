@@ -8,6 +8,7 @@ import (
 	"io"
 	"io/fs"
 	"os"
+	"path/filepath"
 	"runtime/debug"
 	"slices"
 	"strconv"
@@ -369,12 +370,13 @@ func trimNumber(v float64, places int) string {
 	return s
 }
 
-// runReport is `evenbeat report [flags] SESSION.json -o report.png`.
+// runReport is `evenbeat report [flags] SESSION.json -o report.png` (or
+// report.pdf: A4 pages).
 func runReport(args []string, stdout, stderr io.Writer) error {
 	limitMemory()
 	fs := flag.NewFlagSet("report", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	out := fs.String("o", "", "PNG file to write (required)")
+	out := fs.String("o", "", "file to write (required): report.pdf for A4 pages, report.png for one tall picture")
 	dark := fs.Bool("dark", false, "dark theme")
 	var pf planFlags
 	pf.register(fs)
@@ -398,7 +400,11 @@ func runReport(args []string, stdout, stderr io.Writer) error {
 		return fmt.Errorf("flag -o: %w", err)
 	}
 	w := bufio.NewWriter(f)
-	err = report.WritePNG(w, s, report.Options{Plan: opt, Dark: *dark})
+	if strings.EqualFold(filepath.Ext(*out), ".pdf") {
+		err = report.WritePDF(w, s, report.Options{Plan: opt})
+	} else {
+		err = report.WritePNG(w, s, report.Options{Plan: opt, Dark: *dark})
+	}
 	if err == nil {
 		err = w.Flush()
 	}

@@ -68,7 +68,7 @@ func (a *App) OtherTime() time.Duration { return a.otherTime }
 
 // reportName is the file name of the shared report.
 func (a *App) reportName() string {
-	return strings.TrimSuffix(a.exportName(), ".json") + "-report.png"
+	return strings.TrimSuffix(a.exportName(), ".json") + "-report.pdf"
 }
 
 // Theme returns the app's palette, for what the glue draws over it.

@@ -16,6 +16,7 @@ import (
 
 	"evenbeat/render/report"
 	"evenbeat/setting"
+	"evenbeat/setting/beat"
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
 )
@@ -231,7 +232,13 @@ func runPlan(args []string, stdout, stderr io.Writer) error {
 		if *asJSON {
 			return plan.WriteJSON(w, p, displayUnit(opt, s))
 		}
-		return plan.WriteText(w, p, displayUnit(opt, s))
+		if err := plan.WriteText(w, p, displayUnit(opt, s)); err != nil {
+			return err
+		}
+		if len(s.Cylinders) < 2 {
+			return nil
+		}
+		return writeWholeEngine(w, s, p, opt)
 	})
 }
 
@@ -258,8 +265,51 @@ func runEvents(args []string, stdout, stderr io.Writer) error {
 		if *asJSON {
 			return plan.WriteEventsJSON(w, spec)
 		}
-		return plan.WriteEventsText(w, spec)
+		if err := plan.WriteEventsText(w, spec); err != nil {
+			return err
+		}
+		// An engine of several cylinders: its beat as drawn, every
+		// cylinder alike at its crank angle.
+		ps, err := beat.Designed(spec, beat.DefaultSteam)
+		if err != nil || len(ps) == 0 {
+			return err
+		}
+		fmt.Fprintln(w, "\nAs drawn, every cylinder alike at its crank angle:")
+		return beat.WriteText(w, ps, nil)
 	})
+}
+
+// writeWholeEngine writes the whole engine after a cylinder's plan: every
+// other cylinder planned with the same choices, then the beat, the work
+// and the quartering. A cylinder without readings is named instead.
+func writeWholeEngine(w io.Writer, s *session.Session, main *plan.Plan, opt plan.Options) error {
+	plans := make([]*plan.Plan, len(s.Cylinders))
+	plans[opt.Cylinder] = main
+	for i, c := range s.Cylinders {
+		if i == opt.Cylinder {
+			continue
+		}
+		if len(c.Rounds) == 0 {
+			_, err := fmt.Fprintf(w, "\nThe whole engine's beat needs readings of every cylinder: the %s cylinder has none yet.\n", c.Name)
+			return err
+		}
+		o := opt
+		o.Cylinder, o.Fit = i, plan.FitOptions{}
+		p, err := plan.Make(s, o)
+		if err != nil {
+			_, err = fmt.Fprintf(w, "\nThe whole engine's beat needs a plan of every cylinder: the %s cylinder's: %v\n", c.Name, err)
+			return err
+		}
+		plans[i] = p
+	}
+	ps, err := beat.FromPlans(s, plans, beat.DefaultSteam)
+	if err != nil {
+		_, err = fmt.Fprintf(w, "\nThe whole engine's beat cannot be drawn: %v\n", err)
+		return err
+	}
+	qs, _ := beat.Quarterings(s)
+	fmt.Fprintln(w)
+	return beat.WriteText(w, ps, qs)
 }
 
 // readEngine reads an engine file; a session file is accepted too, for its

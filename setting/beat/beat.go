@@ -134,31 +134,55 @@ func (c Circle) Evenness() float64 {
 	return hi / lo
 }
 
+// deviations returns how far each exhaust comes from where the even beat
+// laid on them best (least squares) puts it, degrees, positive late.
+func (c Circle) deviations() []float64 {
+	n := len(c.Exhausts)
+	offs := make([]float64, n)
+	at, mean := 0.0, 0.0
+	for k := range offs {
+		offs[k] = at - float64(k)*360/float64(n)
+		at += c.Gaps[k]
+		mean += offs[k] / float64(n)
+	}
+	for k := range offs {
+		offs[k] -= mean
+	}
+	return offs
+}
+
 // Late returns the index of the exhaust that comes furthest from where an
 // even beat would put it, and by how much (degrees, positive late): the
 // even beat laid on the exhausts so that the sum of squared offsets is
 // least. -1 when there are fewer than two beats.
 func (c Circle) Late() (int, float64) {
-	n := len(c.Exhausts)
-	if n < 2 {
+	if len(c.Exhausts) < 2 {
 		return -1, 0
 	}
-	// Offsets from the even places k * 360/n after the first, in the
-	// running direction; the best even beat shifts by their mean.
-	offs := make([]float64, n)
-	at, mean := 0.0, 0.0
-	for i := range offs {
-		offs[i] = at - float64(i)*360/float64(n)
-		at += c.Gaps[i]
-		mean += offs[i] / float64(n)
-	}
 	worst, by := -1, 0.0
-	for i, o := range offs {
-		if d := o - mean; worst < 0 || math.Abs(d) > math.Abs(by) {
+	for i, d := range c.deviations() {
+		if worst < 0 || math.Abs(d) > math.Abs(by) {
 			worst, by = i, d
 		}
 	}
 	return worst, by
+}
+
+// Odd returns the exhaust that stands out from an even beat: the one
+// Late names, when it is off by at least minDeg and by half as much again
+// as any other (a beat limping in pairs, front ends against back, has no
+// one odd exhaust). ok is false when none stands out.
+func (c Circle) Odd(minDeg float64) (i int, by float64, ok bool) {
+	i, by = c.Late()
+	if i < 0 || math.Abs(by) < minDeg {
+		return i, by, false
+	}
+	for k, d := range c.deviations() {
+		if k != i && math.Abs(d)*1.5 > math.Abs(by) {
+			return i, by, false
+		}
+	}
+	return i, by, true
 }
 
 func wrap360(x float64) float64 {

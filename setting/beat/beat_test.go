@@ -139,7 +139,7 @@ func quarterTrials(t *testing.T, n int, outBy, noise float64) (within, within100
 	for trial := 0; trial < n; trial++ {
 		s := &session.Session{
 			Engine:    setting.DemoStephenson(),
-			Measuring: session.Measuring{WheelDiameterMM: wheel, GaugeResolutionMM: 0.01, MarkError: session.Mark{Scale: session.TyreMM, Value: noise}},
+			Measuring: session.Measuring{WheelDiameterMM: wheel, GaugeResolutionMM: 0.01, MarkError: session.Mark{Scale: session.TyreMM, Value: noise}, DatumsMatched: true},
 		}
 		crank, _ := s.Engine.Engine.Prepare()
 		// The right crank's front dead centre somewhere on its tyre; the
@@ -199,5 +199,21 @@ func TestQuarteringFromMarks(t *testing.T) {
 	t.Logf("called out of quarter: 4 deg out %d of %d, true %d of %d", told4, n, told0, n)
 	if told4 < n*95/100 || told0 > n/100 {
 		t.Errorf("called out of quarter: 4 deg out in %d of %d (want 95 %%), true in %d (want under 1 %%)", told4, n, told0)
+	}
+}
+
+// Without the datums matched, the marks of two wheels are counted from
+// unrelated places: no quartering is claimed from them.
+func TestNoQuarteringWithoutMatchedDatums(t *testing.T) {
+	s := &session.Session{Engine: setting.DemoStephenson(), Measuring: session.Measuring{WheelDiameterMM: 120, MarkError: session.Mark{Scale: session.TyreMM, Value: 0.5}}}
+	for _, name := range []string{"right", "left"} {
+		s.Cylinders = append(s.Cylinders, session.Cylinder{Name: name, DeadCentres: []session.DeadCentre{{End: session.Front, Direction: session.Forward, Scale: session.TyreMM, First: 10, Second: 40}}})
+	}
+	if qs, err := Quarterings(s); err != nil || len(qs) != 0 {
+		t.Errorf("got %v, %v; want nothing without matched datums", qs, err)
+	}
+	s.Measuring.DatumsMatched = true
+	if qs, err := Quarterings(s); err != nil || len(qs) != 1 {
+		t.Errorf("got %v, %v; want one quartering with matched datums", qs, err)
 	}
 }

@@ -34,8 +34,10 @@ type Quartering struct {
 func (q Quartering) Uncertainty() float64 { return 2.5 * q.Sigma }
 
 // Quarterings returns the quartering of every cylinder after the first
-// against the first. A cylinder without a bracketed dead centre is left
-// out. The error of each dead centre is that of the midpoint of two marks
+// against the first, when the session's datums are matched
+// (Measuring.DatumsMatched; without it the marks of two wheels are
+// counted from unrelated places, and nothing is returned). A cylinder
+// without a bracketed dead centre is left out. The error of each dead centre is that of the midpoint of two marks
 // (one mark's error, Measuring.MarkError, over the square root of two);
 // every bracketed dead centre of a cylinder (both ends, both ways) gives
 // its front dead centre, the back ones through the back dead centre the
@@ -43,7 +45,7 @@ func (q Quartering) Uncertainty() float64 { return 2.5 * q.Sigma }
 // mark's error, and it counts in full: however many dead centres are
 // bracketed, they are all counted from it.
 func Quarterings(s *session.Session) ([]Quartering, error) {
-	if len(s.Cylinders) < 2 {
+	if len(s.Cylinders) < 2 || !s.Measuring.DatumsMatched {
 		return nil, nil
 	}
 	design := map[string]float64{}

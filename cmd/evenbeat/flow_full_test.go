@@ -262,6 +262,10 @@ func (m memStore) Put(key string, value []byte, done func(error)) {
 	m[key] = append([]byte(nil), value...)
 	done(nil)
 }
+func (m memStore) Delete(key string, done func(error)) {
+	delete(m, key)
+	done(nil)
+}
 
 // TestDemoRoundByTapsNative types the demo session's latest round into the
 // app natively, through the same scripts as the browser test (the whole

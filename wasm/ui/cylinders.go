@@ -101,13 +101,14 @@ func (a *App) switchCylinder(ci int) {
 }
 
 // latestRound opens the current cylinder's latest round (a new one dated
-// today when it has none) at its first reading not yet taken.
+// today when it has none, a draft stored with its first value) at its
+// first reading not yet taken.
 func (a *App) latestRound() {
 	s := a.Session()
 	c := &s.Cylinders[a.cyl]
 	if len(c.Rounds) == 0 {
 		c.Rounds = append(c.Rounds, session.Round{Date: a.today()})
-		a.save()
+		a.markDraft(s, a.cyl)
 	}
 	a.round = len(c.Rounds) - 1
 	a.fields = a.roundFields(a.round)

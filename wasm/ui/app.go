@@ -215,6 +215,8 @@ func New(opt Options) *App {
 	}
 	if opt.Store == nil {
 		a.loadNote = "This browser gives the app no storage: nothing you enter will be kept. Export the session file before you close the page."
+		a.noStore = "Not saved: this browser gives the app no storage. Export the session file (Menu, Export) to keep it."
+		a.setStatus()
 		return a
 	}
 	stored, index, err := loadAll(opt.Store)

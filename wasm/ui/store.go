@@ -273,9 +273,7 @@ func (a *App) remove(key string) {
 // the answer is taken in by Update.
 func (a *App) write(key string, op func(done func(error))) {
 	if a.opt.Store == nil {
-		a.noStore = "Not saved: this browser gives the app no storage. Export the session file (Menu, Export) to keep it."
-		a.setStatus()
-		return
+		return // New says so
 	}
 	a.seq++
 	a.open++

@@ -467,8 +467,11 @@ func keyWords(p string, s *session.Session) string {
 		}
 		name = key
 	}
-	w := keyNames()[name]
-	if w == "" {
+	w := ""
+	if i := strings.Index(keyNames, "\n"+name+"\t"); i >= 0 {
+		w = keyNames[i+len(name)+2:]
+		w = w[:strings.IndexByte(w, '\n')]
+	} else {
 		w = "the " + strings.ReplaceAll(strings.TrimSuffix(strings.TrimSuffix(name, "_mm"), "_deg"), "_", " ")
 	}
 	if round >= 0 && name != "rounds" {
@@ -480,21 +483,21 @@ func keyWords(p string, s *session.Session) string {
 	return w
 }
 
-// keyNames are the words for keys whose name alone reads badly.
-func keyNames() map[string]string {
-	return map[string]string{
-		"gauge_increases_toward": "which way the gauge reading grows",
-		"port_marks":             "the port marks",
-		"laps":                   "the laps",
-		"dead_centres":           "the dead-centre marks",
-		"dead_centre_readings":   "the readings at dead centre",
-		"sweeps":                 "the sweep",
-		"readings":               "the sweep's readings",
-		"cut_offs":               "the cut-off",
-		"feeler_openings":        "the feeler opening",
-		"marks_tyre_mm":          "the tyre marks",
-		"rounds":                 "the rounds",
-		"differences":            "the cylinder's differences",
-		"target_lead_mm":         "the target lead",
-	}
-}
+// keyNames are the words for keys whose name alone reads badly, a line
+// each: the key, a tab, the words (a table, not a map: the app carries
+// less code).
+const keyNames = `
+gauge_increases_toward	which way the gauge reading grows
+port_marks	the port marks
+laps	the laps
+dead_centres	the dead-centre marks
+dead_centre_readings	the readings at dead centre
+sweeps	the sweep
+readings	the sweep's readings
+cut_offs	the cut-off
+feeler_openings	the feeler opening
+marks_tyre_mm	the tyre marks
+rounds	the rounds
+differences	the cylinder's differences
+target_lead_mm	the target lead
+`

@@ -540,15 +540,8 @@ func importByChooser(b *browserApp, path string) {
 // export is byte for byte the first, and both decode to the demo file's
 // session.
 func TestPhoneExportImport(t *testing.T) {
-	ctx := openPhone(t)
-	src, err := os.ReadFile(demoSessionFile)
-	if err != nil {
-		t.Fatal(err)
-	}
-	eval[bool](t, ctx, "(window.evenbeatImport("+strconv.Quote(string(src))+"), true)")
-	waitFor(t, ctx, 90*time.Second, `window.evenbeatState === "plan" && window.evenbeatStatus === "Saved"`)
-	readyForTouch(t, ctx)
-	b := &browserApp{T: t, ctx: ctx, hold: 60 * time.Millisecond}
+	b, src := openDemoFile(t)
+	ctx := b.ctx
 
 	path, first := exportSession(b)
 	t.Logf("exported %s (%d bytes)", filepath.Base(path), len(first))

@@ -745,7 +745,7 @@ func (a *App) showWhere() {
 	if a.engine == nil || a.engineOf != s {
 		m, err := render.NewEngineModel(s.Engine)
 		if err != nil {
-			a.note = sentence(err)
+			a.note = a.inWords(sentence(err))
 			return
 		}
 		a.engine, a.engineOf = m, s

@@ -20,13 +20,13 @@ func (a *App) setCylinders(n int) {
 	a.dirty = true
 	a.note = ""
 	if n < 1 || n > len(cylinderNames()) {
-		a.note = fmt.Sprintf("cylinders: an engine here has 1 to %d cylinders, not %d.", len(cylinderNames()), n)
+		a.note = fmt.Sprintf("Cylinders: an engine here has 1 to %d cylinders, not %d.", len(cylinderNames()), n)
 		return
 	}
 	for i := n; i < len(s.Cylinders); i++ {
 		c := s.Cylinders[i]
 		if len(c.Rounds) > 0 || len(c.DeadCentres) > 0 {
-			a.note = fmt.Sprintf("cylinders: the %s cylinder already has readings, so it is kept; export the session first if you mean to drop them.", c.Name)
+			a.note = fmt.Sprintf("Cylinders: the %s cylinder already has readings, so it is kept; export the session first if you mean to drop them.", c.Name)
 			return
 		}
 	}

@@ -91,7 +91,7 @@ func decodeSession(b []byte) (*session.Session, error) {
 		return nil, errors.New(sentence(err))
 	}
 	if len(s.Cylinders) == 0 {
-		return nil, errors.New("cylinders: the file has no cylinder to set; add one with its name.")
+		return nil, errors.New("The file has no cylinder to set; add one to its \"cylinders\" list, with its name.")
 	}
 	return s, nil
 }

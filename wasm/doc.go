@@ -24,7 +24,8 @@
 // drawn frame), evenbeatFirstFrame and evenbeatFirstScreen (when the first
 // frame was drawn and what it showed), evenbeatGoStart (when the program
 // started), evenbeatTheme ("light" or "dark"), evenbeatStatus (the saving
-// state), evenbeatField (the keypad's field), evenbeatTargets (JSON: label
+// state), evenbeatField (the keypad's field), evenbeatNote (the sentence
+// under the keypad's entry: a value held, or asked again), evenbeatTargets (JSON: label
 // and rect of every touch target) and evenbeatPlanText (the plan's words).
 // The page may hand a session file's text to window.evenbeatImport.
 // The app also publishes evenbeatDraws (frames really drawn),

@@ -25,6 +25,8 @@ func (s uiStore) Put(key string, value []byte, done func(error)) {
 	s.st.Put(key, string(value), done)
 }
 
+func (s uiStore) Delete(key string, done func(error)) { s.st.Delete(key, done) }
+
 // flowGame runs package ui's app on the game's plumbing (size, pointer
 // queue, taps, polled touches, keys) and canvas.
 type flowGame struct {
@@ -163,6 +165,7 @@ func (g *flowGame) publish() {
 	g.window.Set("evenbeatState", g.ui.Screen().String())
 	g.window.Set("evenbeatStatus", g.ui.Status())
 	g.window.Set("evenbeatField", g.ui.Field())
+	g.window.Set("evenbeatNote", g.ui.Note())
 	targets := g.ui.Targets()
 	g.window.Set("evenbeatTargets", targetsJSON(targets))
 	// The plan's words, unless the plan waits for its other priority (made

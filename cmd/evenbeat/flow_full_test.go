@@ -265,6 +265,10 @@ func (m memStore) Put(key string, value []byte, done func(error)) {
 	m[key] = append([]byte(nil), value...)
 	done(nil)
 }
+func (m memStore) Delete(key string, done func(error)) {
+	delete(m, key)
+	done(nil)
+}
 
 // TestDemoRoundByTapsNative types the demo session's latest round into the
 // app natively, through the same scripts as the browser test (the whole
@@ -539,15 +543,8 @@ func importByChooser(b *browserApp, path string) {
 // export is byte for byte the first, and both decode to the demo file's
 // session.
 func TestPhoneExportImport(t *testing.T) {
-	ctx := openPhone(t)
-	src, err := os.ReadFile(demoSessionFile)
-	if err != nil {
-		t.Fatal(err)
-	}
-	eval[bool](t, ctx, "(window.evenbeatImport("+strconv.Quote(string(src))+"), true)")
-	waitFor(t, ctx, 90*time.Second, `window.evenbeatState === "plan" && window.evenbeatStatus === "Saved"`)
-	readyForTouch(t, ctx)
-	b := &browserApp{T: t, ctx: ctx, hold: 60 * time.Millisecond}
+	b, src := openDemoFile(t)
+	ctx := b.ctx
 
 	path, first := exportSession(b)
 	t.Logf("exported %s (%d bytes)", filepath.Base(path), len(first))

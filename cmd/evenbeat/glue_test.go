@@ -378,6 +378,8 @@ func TestNoStorage(t *testing.T) {
 		t.Fatalf("the database did not open: %s", e)
 	}
 	slowTapLabel(t, ctx, "Brackenfold (Stephenson) (invented demo)")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatState === "units"`)
+	slowTapLabel(t, ctx, "inch") // a change: the demo engine is stored with its first
 	st := waitValue[string](t, ctx, 30*time.Second, `window.evenbeatStatus.startsWith("Not saved:") && window.evenbeatStatus`)
 	t.Logf("storage full: %s", st)
 	for _, want := range []string{"storage for this app is full", "QuotaExceededError", "export"} {
@@ -444,6 +446,8 @@ func TestStorageSlowToAnswer(t *testing.T) {
 		t.Errorf("after the late answer the app runs without storage: %s", e)
 	}
 	slowTapLabel(t, ctx, "Brackenfold (Stephenson) (invented demo)")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatState === "units"`)
+	slowTapLabel(t, ctx, "inch") // a change: the demo engine is stored with its first
 	waitFor(t, ctx, 60*time.Second, `window.evenbeatStatus === "Saved"`)
 }
 

@@ -99,9 +99,11 @@
 // least squared difference. Another way round is as good, and the match
 // ambiguous, when its squared difference is within 2 s^2 ln 20 of the best
 // (a likelihood at least a twentieth of the best's, s^2 the heard places'
-// variance plus PredictionDoubtDeg squared): an even prediction fits every
-// way round, a prediction with a half-turn symmetry two. The odd beat is
-// named for each way round that fits.
+// variance plus PredictionDoubtDeg squared, or what the best fit leaves
+// when that is more): an even prediction fits every way round, a
+// prediction with a half-turn symmetry two, and a beat the readings do not
+// foresee (the best fit leaving over twice the doubt allowed, Disagrees)
+// may fit any. The odd beat is named for each way round that fits.
 //
 // # Tests
 //

@@ -43,10 +43,19 @@ type Match struct {
 	// RMSDeg is the root mean square difference of the heard places from
 	// the predicted ones, degrees, after the best turn and shift.
 	RMSDeg float64
-	// Ambiguous is set when another way round fits nearly as well (within
-	// the places' doubts, a likelihood of at least a twentieth of the
-	// best's): an even prediction fits every way round.
+	// Ambiguous is set when another way round fits nearly as well (a
+	// likelihood of at least a twentieth of the best's, the places' doubt
+	// taken as the larger of what the recording and PredictionDoubtDeg
+	// allow and what the best fit leaves): an even prediction fits every
+	// way round, and so does any when the heard beat is far from what the
+	// readings foresee.
 	Ambiguous bool
+	// Disagrees is set when even the best way round leaves the heard
+	// places further from the predicted ones than the doubts allow (by a
+	// root mean square over twice what they allow): the engine does not
+	// beat as the readings foresee; take them again, or look at the
+	// quartering.
+	Disagrees bool
 	// Odd names the cylinder end the odd beat (Result.Beats[0]) most likely
 	// is: one beat when the match is sure, each candidate when it is
 	// ambiguous, none when no beat stands out in the recording.
@@ -109,6 +118,12 @@ func (r *Result) Match(predicted []Beat) (*Match, error) {
 		}
 	}
 	m := &Match{RMSDeg: math.Sqrt(cost[best] / float64(n))}
+	// When even the best way round fits worse than the doubts allow (the
+	// readings do not foresee what was heard), the doubt is what the fit
+	// leaves: n places less the one shift fitted.
+	left := cost[best] / float64(n-1)
+	m.Disagrees = left > 4*s2
+	s2 = max(s2, left)
 	// A likelihood ratio of 20 between Gaussian fits: 2 s^2 ln 20.
 	limit := 2 * s2 * math.Log(20)
 	var ways []int

@@ -117,15 +117,8 @@ func lowPass(cut, rate float64) biquad {
 	}
 }
 
-func (f *biquad) step(x float64) float64 {
-	y := f.b0*x + f.b1*f.x1 + f.b2*f.x2 - f.a1*f.y1 - f.a2*f.y2
-	f.x2, f.x1 = f.x1, x
-	f.y2, f.y1 = f.y1, y
-	return y
-}
-
-// filter runs src through f into dst (which may be src), keeping the
-// state in locals: the same as step on each sample, faster.
+// filter runs src through f into dst (which may be src), the state kept
+// in locals while it runs and in f between calls.
 func (f *biquad) filter(dst, src []float64) {
 	b0, b1, b2, a1, a2 := f.b0, f.b1, f.b2, f.a1, f.a2
 	x1, x2, y1, y2 := f.x1, f.x2, f.y1, f.y2

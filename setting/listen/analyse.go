@@ -142,19 +142,15 @@ func (r *Result) fold(d *detector) error {
 		return refuse("Only %d beats were heard in %.1f s, too few to find %d beats a turn; record at least %d turns (10 to 20 seconds), with the phone at the chimney or exhaust.",
 			len(times), r.Seconds, n, 2*minTurns)
 	}
-	rough := roughTurn(times, n)
-	if rough <= 0 {
-		return refuse("No rhythm was found in the %d onsets heard; record a steady run of at least %d turns, with the phone at the chimney or exhaust.", len(times), 2*minTurns)
+	rise := make([]float64, len(r.Onsets))
+	for i, o := range r.Onsets {
+		rise[i] = o.RiseDB
 	}
-	model, used := fitSpeed(times, n, rough)
-	if used < n {
+	rh, ok := findRhythm(times, rise, n)
+	if !ok {
 		return r.noFold()
 	}
-	ph := phases(times, model)
-	places := beatPlaces(ph, n)
-	if len(places) < n {
-		return r.noFold()
-	}
+	model, ph, places := rh.model, rh.ph, rh.places
 	k := r.assign(ph, places)
 	spread := r.placeAgain(d, ph, places, k, model)
 	r.Onsets, k = r.recoverBeats(d, k, spread, model)

@@ -44,15 +44,16 @@ func (m *speedModel) turnsBetween(a, b float64) float64 {
 	return sum * h / 3
 }
 
-// roughTurn is the time of a turn from the onsets' mean spacing, then the
-// strongest lag of the onset train within 0.4 of a beat of it (a missed
-// and a spurious onset cancel in the mean; the lag finds the turn however
+// roughTurn is the time of a turn from the spacing of the onsets in
+// guide (the beats a turn times their mean spacing: a missed and a
+// spurious onset cancel in the mean), then the strongest lag of the whole
+// onset train within 0.4 of a beat of it (the lag finds the turn however
 // uneven the beats within it). It returns 0 when nothing repeats.
-func roughTurn(times []float64, n int) float64 {
-	if len(times) < 2 {
+func roughTurn(guide, times []float64, n int) float64 {
+	if len(guide) < 2 {
 		return 0
 	}
-	guess := float64(n) * (times[len(times)-1] - times[0]) / float64(len(times)-1)
+	guess := float64(n) * (guide[len(guide)-1] - guide[0]) / float64(len(guide)-1)
 	lo, hi := guess*(1-0.4/float64(n)), guess*(1+0.4/float64(n))
 	sigma := 0.004 * guess
 	const steps = 240
@@ -256,6 +257,63 @@ func beatPlaces(ph []float64, n int) []float64 {
 	}
 	sortFloats(places)
 	return places
+}
+
+// rhythm is the speed of the wheel through the recording and the places
+// of the beats in a turn.
+type rhythm struct {
+	model  *speedModel
+	ph     []float64 // each onset's place, turns
+	places []float64 // the beats' places in a turn, fractions
+	near   int       // onsets within a fifth of a beat of a place
+}
+
+// findRhythm finds the rhythm of the onsets at times that rose rise dB,
+// n beats a turn. The rough turn comes from the mean spacing of all the
+// onsets, and of those that rose more than a fifth, a third, a half and
+// two thirds of the rest: spurious onsets (a loud roar at a slow speed
+// lets many through) shorten the mean spacing of them all, missed beats
+// lengthen that of the loudest. Each rough turn is taken through to the
+// beats' places; the rhythm kept is the one with the most onsets near a
+// place. ok is false when none folds.
+func findRhythm(times, rise []float64, n int) (best rhythm, ok bool) {
+	sorted := append([]float64(nil), rise...)
+	sortFloats(sorted)
+	for _, q := range []float64{0, 0.2, 0.35, 0.5, 0.65} {
+		least := sorted[int(q*float64(len(sorted)-1))]
+		var guide []float64
+		for i, t := range times {
+			if rise[i] >= least {
+				guide = append(guide, t)
+			}
+		}
+		rough := roughTurn(guide, times, n)
+		if rough <= 0 {
+			continue
+		}
+		model, used := fitSpeed(times, n, rough)
+		if used < n {
+			continue
+		}
+		ph := phases(times, model)
+		places := beatPlaces(ph, n)
+		if len(places) < n {
+			continue
+		}
+		r := rhythm{model: model, ph: ph, places: places}
+		for _, p := range ph {
+			for _, pc := range places {
+				if math.Abs(circularOffset(p, pc)) < 0.2/float64(n) {
+					r.near++
+					break
+				}
+			}
+		}
+		if !ok || r.near > best.near {
+			best, ok = r, true
+		}
+	}
+	return best, ok
 }
 
 // circularOffset is a - b in turns, wrapped into -0.5..0.5.

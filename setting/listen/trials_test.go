@@ -41,7 +41,10 @@ type trial struct {
 // the roar 10 dB under the beats, hiss 35 dB under; one beat missed and
 // one spurious burst. The readings' prediction handed to Match is the true
 // beats, each off by a normal 0.5 degree.
-func runTrial(seed int) trial {
+func runTrial(seed int) trial { return runTrialWith(seed, false) }
+
+// runTrialWith is runTrial, with a roar as low as the beats when dull.
+func runTrialWith(seed int, dull bool) trial {
 	rng := rand.New(rand.NewPCG(15, uint64(seed)))
 	rates := []int{8000, 11025, 16000, 22050, 32000, 44100, 48000}
 	t := trial{seed: seed, cylinders: 2}
@@ -55,7 +58,7 @@ func runTrial(seed int) trial {
 	t.engine = listentest.RandomEngine(rng, t.cylinders)
 	t.rec = listentest.Synthesise(rng, listentest.Take{
 		Beats: t.engine.Beats, RevPerSec: t.revPerSec, SpeedChange: t.change,
-		Seconds: t.seconds, Rate: t.rate, RoarDB: -10, HissDB: -35, Missed: 1, Extra: 1,
+		Seconds: t.seconds, Rate: t.rate, RoarDB: -10, HissDB: -35, Missed: 1, Extra: 1, DullRoar: dull,
 	})
 	n := 2 * t.cylinders
 	t.result, t.err = listen.Analyse(t.rec.Samples, t.rate, n)
@@ -179,11 +182,24 @@ func trialCount(t *testing.T) int {
 // It prints the figures; the floors sit a little under what the analysis
 // reaches, and a trial that fails is named with what it held.
 func TestListeningTrials(t *testing.T) {
-	n := trialCount(t)
+	runTrials(t, trialCount(t), false, 97)
+}
+
+// TestListeningTrialsDullRoar is the same with the roar as low as the
+// beats, where no band is quieter for the onsets to rise in: at the
+// slowest speeds, with few turns and many spurious onsets, a recording
+// may be refused. Half as many trials.
+func TestListeningTrialsDullRoar(t *testing.T) {
+	runTrials(t, trialCount(t)/2, true, 95)
+}
+
+// runTrials runs n trials and holds the share of them that must pass to
+// floor (%), the others a little over it.
+func runTrials(t *testing.T, n int, dull bool, floor float64) {
 	var both, onsets, named, extraLeft, refused, ambiguous int
 	var all, gaps []float64
 	for seed := range n {
-		tr := runTrial(seed)
+		tr := runTrialWith(seed, dull)
 		for _, g := range tr.gapErrors {
 			gaps = append(gaps, math.Abs(g))
 		}
@@ -218,7 +234,7 @@ func TestListeningTrials(t *testing.T) {
 		t.Logf("onsets: %d beats sounded, %.3f %% within 2 ms; error median %.2f ms, 99th centile %.2f ms, worst %.2f ms",
 			len(all), 100*float64(within)/float64(len(all)), all[len(all)/2], all[len(all)*99/100], all[len(all)-1])
 	}
-	sort.Float64s(gaps)
+	sort.Slice(gaps, func(i, j int) bool { return gaps[i] < gaps[j] })
 	if len(gaps) > 0 {
 		t.Logf("gaps: %d measured, error median %.2f deg, 95th centile %.2f deg, worst %.2f deg",
 			len(gaps), gaps[len(gaps)/2], gaps[len(gaps)*95/100], gaps[len(gaps)-1])
@@ -231,10 +247,10 @@ func TestListeningTrials(t *testing.T) {
 		got   int
 		floor float64 // %
 	}{
-		{"onsets within 2 ms and the late beat named right", both, 97},
-		{"every onset within 2 ms", onsets, 97},
-		{"the late beat named right", named, 98},
-		{"the spurious burst left out", extraLeft, 97},
+		{"onsets within 2 ms and the late beat named right", both, floor},
+		{"every onset within 2 ms", onsets, floor},
+		{"the late beat named right", named, floor + 1},
+		{"the spurious burst left out", extraLeft, floor},
 	}
 	for _, f := range floors {
 		if pct(f.got) < f.floor {

@@ -107,8 +107,12 @@ type Take struct {
 	Rate        int
 	RoarDB      float64 // the steam roar's level against a beat's peak, dB (e.g. -10)
 	HissDB      float64 // the background hiss's, dB (e.g. -40)
-	Missed      int     // beats left out
-	Extra       int     // spurious bursts between the beats
+	// DullRoar makes the roar as low as the beats (noise through a
+	// one-pole low-pass at 1200 Hz) instead of brighter: the hardest
+	// roar for the onset detector, whose bands then see no quieter place.
+	DullRoar bool
+	Missed   int // beats left out
+	Extra    int // spurious bursts between the beats
 }
 
 // Recording is a synthesised recording and what it holds.
@@ -182,7 +186,7 @@ func Synthesise(rng *rand.Rand, t Take) Recording {
 		addBurst(rng, x, rate, at, 0.005+0.01*rng.Float64(), math.Pow(10, -rng.Float64()*6/20))
 		out.Extra = append(out.Extra, at)
 	}
-	addRoar(rng, x, rate, math.Pow(10, t.RoarDB/20))
+	addRoar(rng, x, rate, math.Pow(10, t.RoarDB/20), t.DullRoar)
 	hiss := math.Pow(10, t.HissDB/20)
 	for i := range x {
 		x[i] += hiss * rng.NormFloat64()
@@ -239,11 +243,16 @@ func addBurst(rng *rand.Rand, x []float64, rate, at, tau, level float64) {
 }
 
 // addRoar adds the steam's continuous roar: white noise through a
-// one-pole high-pass at 300 Hz (brighter than the beats), at root mean
+// one-pole high-pass at 300 Hz (brighter than the beats), or with dull
+// through a one-pole low-pass at 1200 Hz (as low as they), at root mean
 // square level, its level wandering 1.5 dB at under a hertz.
-func addRoar(rng *rand.Rand, x []float64, rate, level float64) {
-	a := math.Exp(-2 * math.Pi * 300 / rate)
-	gain := math.Sqrt(2 / (1 + a))
+func addRoar(rng *rand.Rand, x []float64, rate, level float64, dull bool) {
+	hp := math.Exp(-2 * math.Pi * 300 / rate)
+	lp := math.Exp(-2 * math.Pi * 1200 / rate)
+	gain := math.Sqrt(2 / (1 + hp)) // unit power out of unit-power white noise
+	if dull {
+		gain = math.Sqrt((1 - lp) / (1 + lp))
+	}
 	wander, phase := 0.2+0.6*rng.Float64(), 2*math.Pi*rng.Float64()
 	var px, py, g float64
 	for i := range x {
@@ -252,8 +261,12 @@ func addRoar(rng *rand.Rand, x []float64, rate, level float64) {
 			g = level * math.Pow(10, db/20) / gain
 		}
 		w := rng.NormFloat64()
-		py = a*py + w - px
-		px = w
+		if dull {
+			py = lp*py + (1-lp)*w
+		} else {
+			py = hp*py + w - px
+			px = w
+		}
 		x[i] += g * py
 	}
 }

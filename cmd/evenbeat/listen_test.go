@@ -6,6 +6,7 @@ import (
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -148,6 +149,30 @@ func TestListenRefusals(t *testing.T) {
 		_, _, err := runBoth(t, c.args...)
 		if err == nil || !strings.Contains(err.Error(), c.says) {
 			t.Errorf("%q: %v, want an error saying %q", c.args, err, c.says)
+		}
+	}
+}
+
+// TestListeningStaysPortable: setting/listen runs in the app as on the
+// command line, so built for js/wasm it depends on the standard library
+// alone, without encoding/json (the app's build carries none), and no
+// package of it imports syscall/js.
+func TestListeningStaysPortable(t *testing.T) {
+	lines := goListDeps(t, []string{"GOOS=js", "GOARCH=wasm"}, "{{.ImportPath}} {{.Standard}} {{join .Imports \" \"}}", "./setting/listen")
+	if len(lines) < 5 {
+		t.Fatalf("go list listed only %d packages: %q", len(lines), lines)
+	}
+	for _, line := range lines {
+		f := strings.Fields(line)
+		pkg, std, imports := f[0], f[1] == "true", f[2:]
+		if pkg == "encoding/json" {
+			t.Errorf("setting/listen depends on encoding/json in the browser build")
+		}
+		if !std && pkg != "evenbeat/setting/listen" {
+			t.Errorf("setting/listen depends on %s; it may use the standard library only", pkg)
+		}
+		if strings.HasPrefix(pkg, "evenbeat/") && slices.Contains(imports, "syscall/js") {
+			t.Errorf("%s imports syscall/js", pkg)
 		}
 	}
 }

@@ -249,3 +249,45 @@ func TestMatchWaysRound(t *testing.T) {
 		t.Errorf("rms %g, ambiguous %v, odd %v; want an exact, sure match naming the right back", m.RMSDeg, m.Ambiguous, m.Odd)
 	}
 }
+
+// TestAnalyseHardRecordings: a recording held at full scale is analysed
+// with a note saying so; one with a steady offset (a microphone's DC) is
+// analysed as if it had none; one of a four-beat engine analysed for six
+// beats is refused or gives finite figures.
+func TestAnalyseHardRecordings(t *testing.T) {
+	limping := evenBeats()
+	limping[2].Deg -= 7 // right back early
+	rec := take(4, limping)
+	clean, err := listen.Analyse(rec.Samples, rec.Rate, 4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	loud := make([]float32, len(rec.Samples))
+	offset := make([]float32, len(rec.Samples))
+	for i, v := range rec.Samples {
+		loud[i] = float32(math.Max(-1, math.Min(1, float64(v)*4)))
+		offset[i] = v*0.5 + 0.3
+	}
+	r, err := listen.Analyse(loud, rec.Rate, 4)
+	if err != nil {
+		t.Fatalf("overloaded: %v", err)
+	}
+	if len(r.Notes) == 0 || !strings.Contains(r.Notes[0], "overloaded") {
+		t.Errorf("overloaded recording: notes %q, want one saying so", r.Notes)
+	}
+	r, err = listen.Analyse(offset, rec.Rate, 4)
+	if err != nil {
+		t.Fatalf("with an offset: %v", err)
+	}
+	for j := range r.Beats {
+		if d := r.Beats[j].Gap.Deg - clean.Beats[j].Gap.Deg; math.Abs(d) > 0.1 {
+			t.Errorf("with an offset, gap %d is %.2f deg, without %.2f", j+1, r.Beats[j].Gap.Deg, clean.Beats[j].Gap.Deg)
+		}
+	}
+	if !clean.Odd.StandsOut || clean.Odd.Late() {
+		t.Errorf("the right back 7 degrees early: odd beat %+.2f deg, stands out %v", clean.Odd.Deg, clean.Odd.StandsOut)
+	}
+	if r, err := listen.Analyse(rec.Samples, rec.Rate, 6); err == nil {
+		checkFinite(t, "six beats asked of four", r)
+	}
+}

@@ -147,17 +147,27 @@ func bandEnergies(x []float64, rate, size int) [][]float64 {
 	for i := range out {
 		out[i] = make([]float64, nb)
 	}
-	below := make([]float64, size)
-	low := make([]float64, size)
-	for b := range nb {
-		in := x[b*size : (b+1)*size]
-		clear(below)
+	// A chunk of blocks at a time through each filter (fewer calls; the
+	// filters keep their state from chunk to chunk).
+	const chunk = 64
+	lows := make([][]float64, len(filters)+2) // zeros, each low-pass, the sound
+	for i := range lows {
+		lows[i] = make([]float64, chunk*size)
+	}
+	for b0 := 0; b0 < nb; b0 += chunk {
+		m := min(chunk, nb-b0) * size
+		in := x[b0*size : b0*size+m]
+		copy(lows[len(lows)-1], in)
 		for i := range filters {
-			filters[i].filter(low, in)
-			out[i][b] = diffEnergy(low, below)
-			below, low = low, below
+			filters[i].filter(lows[i+1][:m], in)
 		}
-		out[len(filters)][b] = diffEnergy(in, below)
+		for k := range out {
+			below, upTo := lows[k][:m], lows[k+1][:m]
+			e := out[k][b0:]
+			for b := 0; b*size < m; b++ {
+				e[b] = diffEnergy(upTo[b*size:(b+1)*size], below[b*size:(b+1)*size])
+			}
+		}
 	}
 	return out
 }

@@ -182,3 +182,32 @@ func TestReadWAVFloatNotNumbers(t *testing.T) {
 		}
 	}
 }
+
+// FuzzReadWAV: whatever the bytes, the reader refuses them with a sentence
+// or gives finite samples from -1 to 1, never panicking; seeded with every
+// form it reads and the refusals above.
+func FuzzReadWAV(f *testing.F) {
+	ramp := []float32{-1, -0.5, 0, 0.5, 1, 0.25}
+	for _, form := range []listentest.Format{{Bits: 8}, {Bits: 16}, {Bits: 24}, {Bits: 32}, {Bits: 32, Float: true}, {Bits: 64, Float: true}, {Bits: 16, Extensible: true}} {
+		f.Add(listentest.WAV(ramp, 2, 8000, form))
+	}
+	f.Add([]byte("RIFF\x04\x00\x00\x00WAVEdata\xff\xff\xff\xff"))
+	f.Fuzz(func(t *testing.T, b []byte) {
+		s, err := listen.ReadWAV(bytes.NewReader(b))
+		if err != nil {
+			var le *listen.Error
+			if !errors.As(err, &le) || !strings.HasSuffix(le.Message, ".") {
+				t.Fatalf("%v is not a refusal in a sentence", err)
+			}
+			return
+		}
+		if s.Rate < listen.MinRate || s.Rate > listen.MaxRate || len(s.Samples) == 0 {
+			t.Fatalf("rate %d, %d samples", s.Rate, len(s.Samples))
+		}
+		for _, v := range s.Samples {
+			if !(v >= -1 && v <= 1) {
+				t.Fatalf("sample %g", v)
+			}
+		}
+	})
+}

@@ -248,6 +248,16 @@ func TestMatchWaysRound(t *testing.T) {
 	if m.RMSDeg > 1e-9 || m.Ambiguous || len(m.Odd) != 1 || m.Odd[0].String() != "right back" {
 		t.Errorf("rms %g, ambiguous %v, odd %v; want an exact, sure match naming the right back", m.RMSDeg, m.Ambiguous, m.Odd)
 	}
+	// From the right front as a beat circle draws it: 101, 76, 93, 90.
+	gaps := m.GapsFrom(listen.Beat{Cylinder: "right", Front: true})
+	for k, want := range []float64{101, 76, 93, 90} {
+		if len(gaps) != 4 || math.Abs(gaps[k]-want) > 1e-9 {
+			t.Fatalf("gaps from the right front %v, want 101 76 93 90", gaps)
+		}
+	}
+	if g := m.GapsFrom(listen.Beat{Cylinder: "middle", Front: true}); g != nil {
+		t.Errorf("gaps from a middle cylinder the engine has not: %v", g)
+	}
 }
 
 // TestAnalyseHardRecordings: a recording held at full scale is analysed

@@ -104,6 +104,8 @@
 // prediction with a half-turn symmetry two, and a beat the readings do not
 // foresee (the best fit leaving over twice the doubt allowed, Disagrees)
 // may fit any. The odd beat is named for each way round that fits.
+// Match.GapsFrom gives the heard gaps from any predicted exhaust round the
+// turn, as a beat circle drawn from that exhaust lists its gaps.
 //
 // # Tests
 //

@@ -151,6 +151,30 @@ func (r *Result) Match(predicted []Beat) (*Match, error) {
 	return m, nil
 }
 
+// GapsFrom returns the heard gaps (degrees of crank, summing to 360) in
+// order round the turn from the heard beat matched to the cylinder end
+// of first: what a beat circle drawn from that exhaust shows beside its
+// predicted gaps. It is nil when no heard beat was matched to that end.
+// When the match is ambiguous it follows the best way round.
+func (m *Match) GapsFrom(first Beat) []float64 {
+	n := len(m.Beats)
+	for j, b := range m.Beats {
+		if b.Cylinder != first.Cylinder || b.Front != first.Front {
+			continue
+		}
+		gaps := make([]float64, n)
+		for k := range n {
+			from, to := m.Beats[(j+k)%n].HeardDeg, m.Beats[(j+k+1)%n].HeardDeg
+			gaps[k] = math.Mod(to-from+720, 360)
+			if n == 1 {
+				gaps[k] = 360
+			}
+		}
+		return gaps
+	}
+	return nil
+}
+
 // rotated is the place of heard beat (rot + c) % n counted from heard beat
 // rot, degrees, 0 to 360.
 func rotated(heard []float64, rot, c int) float64 {

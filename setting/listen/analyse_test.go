@@ -54,6 +54,7 @@ func TestAnalyseRefusals(t *testing.T) {
 		{"infinite", inf, 16000, 4, "recording", "not numbers"},
 		{"eleven minutes", make([]float32, 8000*660), 8000, 4, "recording", "11.0 minutes"},
 		{"one second", rec.Samples[:16000], 16000, 4, "recording", "too few"},
+		{"three samples", []float32{0.1, 0.2, 0.3}, 48000, 4, "recording", "only 0.00 s long"},
 	}
 	for _, c := range cases {
 		_, err := listen.Analyse(c.samples, c.rate, c.n)

@@ -18,15 +18,15 @@ type Onset struct {
 
 // The onset detector's settings. A block is one millisecond of sound.
 const (
-	afterBlocks  = 8    // the window after a candidate onset, ms
-	beforeBlocks = 16   // the window before it, ms
-	pickBlocks   = 10   // an onset is the largest rise within this many ms either side
-	minRiseDB    = 6.0  // the least rise an onset may have
-	strongShare  = 0.3  // and at least this share of the strong rise near it:
-	strongRank   = 3    // the third largest within two seconds either side
-	highPassHz   = 40.0 // rumble and a microphone's DC are taken out below this
-	refineBefore = 20e-3
-	refineAfter  = 9e-3
+	afterBlocks  = 8      // the window after a candidate onset, ms
+	beforeBlocks = 16     // the window before it, ms
+	pickBlocks   = 10     // an onset is the largest rise within this many ms either side
+	minRiseDB    = 6.0    // the least rise an onset may have
+	strongShare  = 0.3    // and at least this share of the strong rise near it:
+	strongRank   = 3      // the third largest within two seconds either side
+	highPassHz   = 40.0   // rumble and a microphone's DC are taken out below this
+	refineBefore = 20e-3  // an onset is placed within this stretch before the block found...
+	refineAfter  = 9e-3   // ...and this after it, seconds
 	refineMin    = 0.5e-3 // the least length of either side of a change point
 	splitBefore  = 8e-3   // the splits tried: from this before the block found...
 	splitAfter   = 4e-3   // ...to this after it
@@ -35,7 +35,7 @@ const (
 // analysisRate is the most samples a second the onsets are found at: a
 // recording made faster is thinned to about it first (48000 Hz to 16000),
 // which keeps the bands the exhaust is heard in and places an onset to
-// 0.07 ms, for a third of the work.
+// 0.06 ms, for a third of the work.
 const analysisRate = 16000
 
 // prepared is the recording as the analysis works on it, and what one

@@ -9,7 +9,6 @@ import (
 	"os"
 	"strings"
 
-	"evenbeat/setting"
 	"evenbeat/setting/beat"
 	hear "evenbeat/setting/listen" // package main has a func listen (app.go)
 	"evenbeat/setting/plan"
@@ -119,16 +118,9 @@ func predictedBeats(path, position string) ([]hear.Beat, error) {
 	if err != nil {
 		return nil, err
 	}
-	plans := make([]*plan.Plan, len(s.Cylinders))
-	for i, c := range s.Cylinders {
-		if len(c.Rounds) == 0 {
-			return nil, fmt.Errorf("%s: the %s cylinder has no readings yet, so its exhausts cannot be predicted; take a round of readings on every cylinder first", path, c.Name)
-		}
-		opt := plan.AimsOptions(s.Aims)
-		opt.Cylinder = i
-		if plans[i], err = plan.Make(s, opt); err != nil {
-			return nil, fmt.Errorf("%s: the %s cylinder's exhausts cannot be predicted: %w", path, c.Name, err)
-		}
+	plans, err := beat.PlanAll(s, plan.AimsOptions(s.Aims))
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", path, err)
 	}
 	ps, err := beat.FromPlans(s, plans, beat.DefaultSteam)
 	if err != nil {
@@ -140,14 +132,7 @@ func predictedBeats(path, position string) ([]hear.Beat, error) {
 		if !strings.EqualFold(p.Name, position) {
 			continue
 		}
-		var out []hear.Beat
-		for _, e := range p.Now.Exhausts {
-			deg := e.Deg
-			if p.Direction == setting.Backward {
-				deg = 360 - deg // degrees in the direction of running
-			}
-			out = append(out, hear.Beat{Deg: deg, Cylinder: e.Cylinder, Front: e.End == setting.Front})
-		}
+		out := p.Now.Beats()
 		if len(out) == 0 {
 			return nil, fmt.Errorf("%s: no exhaust opens in %s, so there is no beat to predict", path, p.Name)
 		}

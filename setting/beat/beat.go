@@ -12,8 +12,9 @@
 // first cylinder's front dead centre in the forward running direction; a
 // cylinder's CrankDeg is how far its crank leads the first one's.
 //
-// The package imports only the standard library, evenbeat/setting and
-// evenbeat/setting/session.
+// The package imports only the standard library, evenbeat/setting and its
+// session, plan and listen packages (Circle.Beats gives the beats a
+// recording is laid against).
 package beat
 
 import (

@@ -114,3 +114,24 @@ func findPosition(list []plan.PositionState, ps plan.PositionState) int {
 	}
 	return -1
 }
+
+// PlanAll plans every cylinder of s with opt (its Cylinder set to each in
+// turn), for FromPlans. A cylinder without readings, or whose plan cannot
+// be made, is an error naming it: the whole engine's beat needs them all.
+func PlanAll(s *session.Session, opt plan.Options) ([]*plan.Plan, error) {
+	plans := make([]*plan.Plan, len(s.Cylinders))
+	for i, c := range s.Cylinders {
+		field := fmt.Sprintf("cylinders[%d]", i)
+		if len(c.Rounds) == 0 {
+			return nil, &setting.Error{Field: field, Message: "The " + c.Name + " cylinder has no readings yet, so its exhausts cannot be placed on the beat circle; take a round of readings on every cylinder first."}
+		}
+		o := opt
+		o.Cylinder = i
+		p, err := plan.Make(s, o)
+		if err != nil {
+			return nil, &setting.Error{Field: field, Message: "The " + c.Name + " cylinder's exhausts cannot be placed on the beat circle: " + err.Error()}
+		}
+		plans[i] = p
+	}
+	return plans, nil
+}

@@ -9,10 +9,9 @@ import (
 	"evenbeat/setting/session"
 )
 
-// The demo session's two cylinders, each planned, give four beats a turn
-// in every position both plan, their gaps adding to a turn, and the work
-// of all four ends sharing the mean.
-func TestFromPlansDemo(t *testing.T) {
+// demo reads the invented demo session.
+func demo(t *testing.T) *session.Session {
+	t.Helper()
 	f, err := os.Open("../../testdata/sessions/brackenfold-stephenson.json")
 	if err != nil {
 		t.Fatal(err)
@@ -22,6 +21,14 @@ func TestFromPlansDemo(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	return s
+}
+
+// The demo session's two cylinders, each planned, give four beats a turn
+// in every position both plan, their gaps adding to a turn, and the work
+// of all four ends sharing the mean.
+func TestFromPlansDemo(t *testing.T) {
+	s := demo(t)
 	var plans []*plan.Plan
 	for i := range s.Cylinders {
 		p, err := plan.Make(s, plan.Options{Cylinder: i, Priority: plan.EqualLeads})

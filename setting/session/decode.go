@@ -7,7 +7,6 @@ import (
 	"math"
 	"strconv"
 	"strings"
-	"time"
 
 	"evenbeat/setting"
 )
@@ -266,6 +265,8 @@ func (o obj) list(key string, required bool, what string) []*node {
 			most, fix = MaxRoundReadings, "split them into rounds, one for each set of adjustments"
 		case "engine_changes":
 			most, fix = MaxEngineChanges, "keep the most recent; the engine as it is now is in \"engine\""
+		case "heard":
+			most, fix = MaxHeard, "keep the most recent"
 		}
 		if most > 0 && n > most {
 			o.d.fail(joinPath(o.path, key), "The list of %s holds %d; a session file holds at most %d (%s).", what, n, most, fix)
@@ -321,7 +322,7 @@ const (
 )
 
 func (d *decoder) session(root *node) *Session {
-	keys := []string{"format", "version", "name", "invented", "note", "display_unit", "engine", "measuring", "adjustments", "plan_aims", "cylinders", "engine_changes"}
+	keys := []string{"format", "version", "name", "invented", "note", "display_unit", "engine", "measuring", "adjustments", "plan_aims", "cylinders", "engine_changes", "heard"}
 	if d.version < 2 && root.get("plan_aims") != nil {
 		d.fail("plan_aims", "Plan aims are part of session files from version 2 on, and this file says it is version %d; change its \"version\" to 2, or remove \"plan_aims\".", d.version)
 	}
@@ -367,6 +368,9 @@ func (d *decoder) session(root *node) *Session {
 	}
 	for i, c := range o.list("engine_changes", false, "records of the engine's history") {
 		s.EngineChanges = append(s.EngineChanges, d.engineChange(c, fmt.Sprintf("engine_changes[%d]", i)))
+	}
+	for i, h := range o.list("heard", false, "heard beats") {
+		s.Heard = append(s.Heard, d.heard(h, fmt.Sprintf("heard[%d]", i)))
 	}
 	if d.err != nil {
 		return nil
@@ -617,14 +621,7 @@ func (d *decoder) mark(n *node, path string) float64 {
 func (d *decoder) round(n *node, path string, s *Session) Round {
 	o := d.object(n, path, "a round of readings", "date", "adjustments_before", "port_marks", "laps", "dead_centre_readings", "sweeps", "cut_offs", "feeler_openings", "note")
 	var r Round
-	r.Date = o.text("date", true, "the date the readings were taken, as \"2026-11-28\"")
-	if d.err == nil {
-		if _, err := time.Parse("2006-01-02", r.Date); err != nil {
-			if _, err := time.Parse(time.RFC3339, r.Date); err != nil {
-				d.fail(path+".date", "The date %q cannot be read; write it as year-month-day, \"2026-11-28\" (or with a time, \"2026-11-28T14:30:00Z\").", r.Date)
-			}
-		}
-	}
+	r.Date = o.date("the date the readings were taken")
 	for i, c := range o.list("adjustments_before", false, "changes made before this round") {
 		r.AdjustmentsBefore = append(r.AdjustmentsBefore, d.change(c, fmt.Sprintf("%s.adjustments_before[%d]", path, i), s))
 	}
@@ -703,6 +700,18 @@ func (d *decoder) change(n *node, path string, s *Session) Change {
 		}
 	}
 	return c
+}
+
+// date reads the required key "date": a date, or a date and time (RFC
+// 3339); what says whose date it is.
+func (o obj) date(what string) string {
+	v := o.text("date", true, what+", as \"2026-11-28\"")
+	if o.d.err == nil {
+		if _, err := parseDate(v); err != nil {
+			o.d.fail(o.path+".date", "The date %q cannot be read; write it as year-month-day, \"2026-11-28\" (or with a time, \"2026-11-28T14:30:00Z\").", v)
+		}
+	}
+	return v
 }
 
 // gauge reads a dial-gauge reading in mm.

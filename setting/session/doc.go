@@ -30,8 +30,10 @@
 // readings to take again, and an engine that could not run as described
 // (a port that never opens in full gear), naming the dimension; the app and the command line run both before a
 // plan, alike. Observations (RoundObservations, one round) turns the
-// readings into the list a fitter works on. Lists are bounded
-// (MaxRounds, MaxRoundReadings, MaxSweepReadings, MaxChanges, and
+// readings into the list a fitter works on. Heard keeps the beats heard
+// in recordings of the exhaust: their gaps only, never the sound. Lists
+// are bounded (MaxRounds, MaxRoundReadings, MaxSweepReadings, MaxChanges,
+// MaxHeard, and
 // setting's MaxCylinders and MaxNotches), generously for any engine, so
 // that every command stays fast and small whatever the file.
 // Version 2 added PlanAims, what the setter asks of the plan; a version 1

@@ -142,6 +142,11 @@ func (e *encoder) session(s *Session) *node {
 		hist = append(hist, e.engineChange(c, fmt.Sprintf("engine_changes[%d]", i)))
 	}
 	o.arr("engine_changes", hist)
+	var heard []*node
+	for i, h := range s.Heard {
+		heard = append(heard, e.heard(h, fmt.Sprintf("heard[%d]", i)))
+	}
+	o.arr("heard", heard)
 	return o.n
 }
 

@@ -327,12 +327,7 @@ const maxHistoryValue = 64 << 10
 func (d *decoder) engineChange(n *node, path string) EngineChange {
 	o := d.object(n, path, "a record of the engine's history", "date", "key", "before", "after", "derived")
 	var c EngineChange
-	c.Date = o.text("date", true, "the date of the change, as \"2026-11-28\"")
-	if d.err == nil {
-		if _, err := parseDate(c.Date); err != nil {
-			d.fail(path+".date", "The date %q cannot be read; write it as year-month-day, \"2026-11-28\" (or with a time, \"2026-11-28T14:30:00Z\").", c.Date)
-		}
-	}
+	c.Date = o.date("the date of the change")
 	c.Key = o.text("key", true, "the key path of the value changed, such as \"engine.engine.rod_length\"")
 	if d.err == nil && !historyKey(c.Key) {
 		d.fail(path+".key", "The key %q is not a value of the engine's history: give the key path of a value of the engine, the adjustments or the measuring set-up (\"engine.engine.rod_length\", \"adjustments[0].min_mm\"), or \"display_unit\".", c.Key)

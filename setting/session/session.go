@@ -46,6 +46,9 @@ type Session struct {
 	// profile (engine, adjustments, measuring set-up, display unit)
 	// changed since set-up, oldest first (see Edit).
 	EngineChanges []EngineChange
+	// Heard are the beats heard in recordings of the exhaust, oldest
+	// first: only their gaps (see Heard).
+	Heard []Heard
 }
 
 // PlanAims are the setter's choices for the plan, kept with the readings so

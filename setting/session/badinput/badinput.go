@@ -351,6 +351,9 @@ func (b *builder) cases() []Case {
 		{Name: "history of a reading", Kind: Session, Command: "plan", File: []byte(strings.TrimSuffix(strings.TrimSpace(b.session), "}") +
 			`, "engine_changes": [{"date": "2026-12-01", "key": "cylinders[0].rounds[0].port_marks.front_gauge_mm", "before": 2.48, "after": 2.5}]}`),
 			Refused: true, Field: "engine_changes[0].key", Words: []string{"not a value of the engine's history"}, Fix: []string{"give the key path"}},
+		{Name: "heard gaps that are not a turn", Kind: Session, Command: "plan", File: []byte(strings.TrimSuffix(strings.TrimSpace(b.session), "}") +
+			`, "heard": [{"date": "2026-12-03", "position": "running notch", "gaps_deg": [88.6, 91.2, 89.7, 99.5], "rev_per_min": 72.4}]}`),
+			Refused: true, Field: "heard[0].gaps_deg", Words: []string{"369 degrees"}, Fix: []string{"add up to 360"}},
 
 		// Unusual but possible: planned, with a warning.
 		{Name: "everything typed in inches", Kind: Session, Command: "plan", File: b.inches(),

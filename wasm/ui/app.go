@@ -32,11 +32,13 @@ const (
 	Menu                   // everywhere else from anywhere
 	Where                  // the engine drawn where it stands for the reading asked
 	Lead                   // the plan's target lead, on the keypad
+	Whole                  // the whole engine: the beat, each end's work, the quartering
+	Listen                 // listening to the beat: the cautions, the recording
 )
 
 // String names the screen for the page's state (tests, the History API).
 func (s Screen) String() string {
-	names := [...]string{"engines", "gear", "units", "sizes", "adjust", "cautions", "measure", "readings", "plan", "history", "menu", "where", "lead"}
+	names := [...]string{"engines", "gear", "units", "sizes", "adjust", "cautions", "measure", "readings", "plan", "history", "menu", "where", "lead", "whole", "listen"}
 	if int(s) < len(names) {
 		return names[s]
 	}
@@ -91,6 +93,8 @@ type Options struct {
 	// to copy them; the glue puts them on the clipboard and reports how it
 	// went through App.CopyDone.
 	OnCopy func(text string)
+	// Microphone, when set, records the engine's exhaust (listen.go).
+	Microphone Microphone
 }
 
 // App is the phone app's screens and flow. Handle, Update, Back, Resize,
@@ -185,6 +189,9 @@ type App struct {
 	gen    int
 	readyK readyKey
 	readyV bool
+
+	whole wholeEngine // the whole engine's beat (whole.go)
+	lis   listening   // listening to it (listen.go)
 }
 
 // readyKey is what the cached readiness was worked out for.
@@ -283,6 +290,7 @@ func (a *App) Update() bool {
 		a.dirty = true
 	}
 	a.expireUndo()
+	a.listenTick()
 	if a.drawnPlan {
 		a.finishPlan()
 	}

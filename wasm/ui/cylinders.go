@@ -67,7 +67,8 @@ func (a *App) cylinderCountRow(l *layouter) {
 }
 
 // cylinderRow is the row of buttons that switches between the cylinders,
-// the one shown chosen; nothing for a one-cylinder engine.
+// the one shown chosen; nothing for a one-cylinder engine. On the plan and
+// the whole engine it ends with the whole engine, chosen on its screen.
 func (a *App) cylinderRow(l *layouter) {
 	s := a.Session()
 	if s == nil || len(s.Cylinders) < 2 {
@@ -78,8 +79,11 @@ func (a *App) cylinderRow(l *layouter) {
 	acts := make([]func(), len(labels))
 	for i, c := range s.Cylinders {
 		labels[i] = title(c.Name)
-		on[i] = i == a.cyl
+		on[i] = i == a.cyl && a.screen != Whole
 		acts[i] = func() { a.switchCylinder(i) }
+	}
+	if a.screen == Plan || a.screen == Whole {
+		labels, on, acts = append(labels, WholeLabel), append(on, a.screen == Whole), append(acts, a.showWhole)
 	}
 	l.row(labels, on, acts)
 }
@@ -87,6 +91,11 @@ func (a *App) cylinderRow(l *layouter) {
 // switchCylinder shows cylinder ci on the screen shown: its latest round
 // to measure or list, its plan, or its rounds.
 func (a *App) switchCylinder(ci int) {
+	if a.screen == Whole { // a cylinder chosen on the whole engine: its plan
+		a.cyl = ci
+		a.wholeToPlan()
+		return
+	}
 	if ci == a.cyl {
 		return
 	}

@@ -53,6 +53,18 @@
 // render. Lengths are mm inside; the user types them in the session's
 // display unit (mm or inch) and session.ParseLength turns them into mm.
 //
+// The whole engine (whole.go), from the plan's row of cylinders or the
+// menu, puts every cylinder's plan together (setting/beat): the beat card
+// of a position (the running notch first) today and after the plans, each
+// end's work, and, once both wheels' datums are marked at the same angle
+// (measuring.datums_matched, an edit of the profile), the quartering with
+// its caution. Listening (listen.go) shows the cautions, asks the glue's
+// Options.Microphone only on Start, shows the recording's seconds and
+// stops it at ListenSeconds, works the samples out with setting/listen in
+// a goroutine of its own, keeps the gaps in the session (session.Heard),
+// draws them on the beat card and names the odd beat's cylinder end with
+// what to do; the glue answers through MicOpened, MicFailed and Recorded.
+//
 // Imports: setting and its subpackages, render and the standard library.
 // Never ebiten or syscall/js.
 package ui

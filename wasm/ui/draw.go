@@ -23,6 +23,10 @@ func (a *App) Draw(c render.Canvas) {
 			render.DrawScreen(c, m, a.renderScreen(), v.body, th)
 		}
 		a.drawnPlan = a.PlanPending()
+	case Whole:
+		a.drawWhole(c, v)
+	case Listen:
+		a.drawListen(c, v)
 	}
 	for _, p := range v.paras {
 		col := th.Ink

@@ -47,8 +47,13 @@ func (a *App) isDraft(s *session.Session, ci int) bool {
 func emptyRound(r session.Round) bool { return !r.HasMarks() && r.Readings() == 0 }
 
 // encode returns the session file of s as it is stored: without a draft
-// round. A round that has had a value is a draft no more.
-func (a *App) encode(s *session.Session) ([]byte, error) {
+// round.
+func (a *App) encode(s *session.Session) ([]byte, error) { return encodeSession(a.asStored(s)) }
+
+// asStored returns s as it is stored: a copy without its draft rounds, or
+// s itself when it has none. A round that has had a value is a draft no
+// more.
+func (a *App) asStored(s *session.Session) *session.Session {
 	out := s
 	for ci := range s.Cylinders {
 		k := draftKey{s, s.Cylinders[ci].Name}
@@ -67,7 +72,7 @@ func (a *App) encode(s *session.Session) ([]byte, error) {
 		rs := s.Cylinders[ci].Rounds
 		out.Cylinders[ci].Rounds = rs[:len(rs)-1]
 	}
-	return encodeSession(out)
+	return out
 }
 
 // roundsTaken counts the rounds of s's busiest cylinder that hold values

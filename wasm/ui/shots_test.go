@@ -69,4 +69,8 @@ func TestShots(t *testing.T) {
 	tap(t, p, "History of rounds")
 	tap(t, p, "Round 1")
 	shot(p, "round1-readings")
+	w, _, _, _ := wholeApp(t, limpingDemo(t))
+	shot(w, "whole")
+	tap(t, w, ListenLabel)
+	shot(w, "listen")
 }

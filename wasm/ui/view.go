@@ -113,6 +113,10 @@ func (a *App) layout() *view {
 		a.historyView(lay)
 	case Menu:
 		a.menuView(lay)
+	case Whole:
+		a.wholeView(lay)
+	case Listen:
+		a.listenView(lay)
 	case Where:
 		f := a.fields[a.fi]
 		lay.muted(f.Label + ": the engine as drawn, about where it stands for this reading. Drag sideways to turn the wheel.")
@@ -534,6 +538,7 @@ func (a *App) menuView(l *layouter) {
 		})
 		l.button("Plan", false, func() { a.planRound = 0; a.navigate(Plan); a.makePlan() })
 		l.button("History of rounds", false, func() { a.navigate(History) })
+		l.button(WholeLabel, false, a.showWhole)
 		l.button("Export the session file", false, a.export)
 		if a.opt.OnName != nil {
 			l.button(RenameLabel, false, a.rename)

@@ -189,7 +189,7 @@ func report(c Canvas, rm ReportModel, th Theme, w float64) float64 {
 // from "engine, left cylinder".
 func cylinderName(m *Model) string {
 	if i := strings.LastIndex(m.Title, ", "); i >= 0 {
-		return capital(m.Title[i+2:])
+		return Capital(m.Title[i+2:])
 	}
 	return m.Title
 }
@@ -377,15 +377,18 @@ func engineFigures(m *Model) string {
 	}
 	return fmt.Sprintf("Crank radius %s, connecting rod %s, stroke %s; back dead centre at %s°. %s admission; steam lap front %s, back %s; exhaust lap front %s, back %s; front port %s, back port %s. Gear: %s.",
 		m.length(e.CrankRadius), m.length(e.RodLength), m.length(m.Crank.Stroke()), deg(m.Crank.BackDeadCentre()),
-		capital(v.Admission.String()), m.length(v.Front.SteamLap), m.length(v.Back.SteamLap),
+		Capital(v.Admission.String()), m.length(v.Front.SteamLap), m.length(v.Back.SteamLap),
 		m.length(v.Front.ExhaustLap), m.length(v.Back.ExhaustLap), port(v.Front), port(v.Back), kind)
 }
 
-func capital(s string) string {
-	if s == "" {
+// Capital returns s with its first letter a capital: a small ASCII
+// letter raised, anything else left as it is (the app's words start with
+// ASCII; strings.ToUpper would bring Unicode's case tables).
+func Capital(s string) string {
+	if s == "" || s[0] < 'a' || s[0] > 'z' {
 		return s
 	}
-	return strings.ToUpper(s[:1]) + s[1:]
+	return string(s[0]-'a'+'A') + s[1:]
 }
 
 // eventRows returns the event table: a header and two rows per position.

@@ -399,11 +399,20 @@ func pdfString(s string) string {
 			ascii = false
 		}
 	}
-	if ascii {
-		r := strings.NewReplacer(`\`, `\\`, `(`, `\(`, `)`, `\)`)
-		return "(" + r.Replace(s) + ")"
-	}
 	var b strings.Builder
+	if ascii {
+		// Escaped by hand: strings.NewReplacer would bring its whole
+		// machinery (about 6 KB gzip) into the app for three characters.
+		b.WriteByte('(')
+		for i := 0; i < len(s); i++ {
+			if c := s[i]; c == '\\' || c == '(' || c == ')' {
+				b.WriteByte('\\')
+			}
+			b.WriteByte(s[i])
+		}
+		b.WriteByte(')')
+		return b.String()
+	}
 	b.WriteString("<FEFF")
 	for _, r := range s {
 		if r > 0xffff {

@@ -5,6 +5,7 @@ import (
 	"math"
 	"strings"
 
+	"evenbeat/render"
 	"evenbeat/setting"
 	"evenbeat/setting/session"
 )
@@ -627,10 +628,6 @@ func half(gauge bool) string {
 	return "tyre mark"
 }
 
-// title returns s with its first letter in capitals.
-func title(s string) string {
-	if s == "" {
-		return s
-	}
-	return string(s[0]-'a'+'A') + s[1:]
-}
+// title returns s with its first letter a capital (a notch named "2nd
+// notch" stays as it is).
+func title(s string) string { return render.Capital(s) }

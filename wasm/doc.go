@@ -38,6 +38,12 @@
 // and evenbeatActivateUpdate, and shares the report (a PDF the app makes)
 // in evenbeatShareFile. The engine-name box is
 // name_js.go, the report share share_js.go, the update offer update_js.go.
+// Listening (listen_js.go) records the microphone through a small
+// AudioWorklet, asked for only inside the tap on Start listening, and
+// publishes evenbeatListen (where listening has come to), evenbeatHeard
+// (the whole engine's words about the beat heard) and evenbeatListenMs
+// (the analysis of a recording evenbeatListenSeconds long, in the
+// browser).
 //
 // Units: logical units are CSS pixels, origin top-left, y down, as in
 // render; the screen has scale device pixels per logical unit

@@ -64,18 +64,20 @@ type flowGame struct {
 	copiedInGesture bool
 	copyText        string  // the plan's words as last published (under mu)
 	copies          []error // how clipboard writes went, for the next tick (under mu)
+	mic             *microphone
 }
 
 // runFlow starts the app.
 func runFlow(st *store, th render.Theme) error {
-	g := &flowGame{game: newGame(), window: js.Global(), gestureAt: map[string]render.Rect{}}
+	g := &flowGame{game: newGame(), window: js.Global(), gestureAt: map[string]render.Rect{}, mic: &microphone{}}
 	g.queue.onUp = g.tapInGesture
 	opt := ui.Options{Theme: th, OnExport: download, OnImport: g.chooseFile,
-		OnName: g.openName, OnShare: g.queueShare, OnUpdate: g.askRestart, OnCopy: g.copyWords}
+		OnName: g.openName, OnShare: g.queueShare, OnUpdate: g.askRestart, OnCopy: g.copyWords, Microphone: g.mic}
 	if st != nil {
 		opt.Store = uiStore{st}
 	}
 	g.ui = ui.New(opt)
+	g.mic.app = g.ui
 	g.live = liveRegion()
 	g.window.Set("evenbeatDraws", 0)
 	g.window.Set("evenbeatPlanMs", -1)
@@ -180,7 +182,7 @@ func (g *flowGame) publish() {
 	g.barBottom, g.copyText = g.ui.BarBottom(), copyText
 	clear(g.gestureAt)
 	for _, t := range targets {
-		if t.Label == ui.RenameLabel || t.Label == ui.ImportLabel || t.Label == ui.CopyLabel {
+		if t.Label == ui.RenameLabel || t.Label == ui.ImportLabel || t.Label == ui.CopyLabel || t.Label == ui.StartLabel {
 			g.gestureAt[t.Label] = t.Rect
 		}
 	}
@@ -195,6 +197,7 @@ func (g *flowGame) publish() {
 	}
 	g.window.Set("evenbeatPlanText", words)
 	g.window.Set("evenbeatSettled", g.settled())
+	g.publishListen()
 	// How long the last plan took, in ms; -1 before the first.
 	planMs := -1.0
 	if d := g.ui.PlanTime(); d > 0 {

@@ -81,13 +81,15 @@ func (g *flowGame) openName(current string) {
 }
 
 // tapInGesture is the pointer queue's onUp: a pointer that went down and
-// came up on the rename, import or copy button opens the name box or the
-// file chooser, or writes the clipboard, at once, inside the browser's
-// event. iOS raises the keyboard for a focus, opens a file chooser, and
-// browsers write the clipboard, only inside a user's gesture. The app's
-// own handling of the tap, on the next tick, then finds the box open
-// (openName keeps it), the chooser opened (chooseFile skips it) or the
-// words copied (copyWords skips them).
+// came up on the rename, import, copy or Start listening button opens the
+// name box or the file chooser, writes the clipboard, or starts the
+// microphone, at once, inside the browser's event. iOS raises the
+// keyboard for a focus, opens a file chooser, and browsers write the
+// clipboard and start sound, only inside a user's gesture. The app's own
+// handling of the tap, on the next tick, then finds the box open
+// (openName keeps it), the chooser opened (chooseFile skips it), the words
+// copied (copyWords skips them) or the microphone started (Start does
+// nothing twice).
 func (g *flowGame) tapInGesture(down, up render.Point) {
 	g.mu.Lock()
 	// As the app's own hit test: a button scrolled under the top bar is
@@ -97,6 +99,7 @@ func (g *flowGame) tapInGesture(down, up render.Point) {
 		return ok && r.Contains(down) && r.Contains(up) && down.Y >= g.barBottom && up.Y >= g.barBottom
 	}
 	rename, choose, copies := on(ui.RenameLabel), on(ui.ImportLabel), on(ui.CopyLabel) && g.copyText != ""
+	listens := on(ui.StartLabel)
 	name, text := g.nameNow, g.copyText
 	g.chooserOpened = g.chooserOpened || choose
 	g.copiedInGesture = g.copiedInGesture || copies
@@ -108,6 +111,8 @@ func (g *flowGame) tapInGesture(down, up render.Point) {
 		g.openChooser()
 	case copies:
 		g.writeClipboard(text)
+	case listens:
+		g.mic.Start() // the app's own Start on the next tick finds it started
 	}
 }
 
@@ -148,10 +153,7 @@ func (g *flowGame) renameTick() {
 		}
 		if b != nil {
 			// The app's error names the field; the box's label already does.
-			msg := strings.TrimPrefix(err.Error(), "name: ")
-			if msg != "" {
-				msg = strings.ToUpper(msg[:1]) + msg[1:]
-			}
+			msg := render.Capital(strings.TrimPrefix(err.Error(), "name: "))
 			b.msg.Set("textContent", msg)
 			b.input.Call("focus")
 		}

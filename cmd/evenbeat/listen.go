@@ -118,11 +118,7 @@ func predictedBeats(path, position string) ([]hear.Beat, error) {
 	if err != nil {
 		return nil, err
 	}
-	plans, err := beat.PlanAll(s, plan.AimsOptions(s.Aims))
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", path, err)
-	}
-	ps, err := beat.FromPlans(s, plans, beat.DefaultSteam)
+	ps, err := beat.Whole(s, plan.AimsOptions(s.Aims), beat.DefaultSteam)
 	if err != nil {
 		return nil, fmt.Errorf("%s: %w", path, err)
 	}

@@ -158,3 +158,14 @@ func PlanAll(s *session.Session, opt plan.Options) ([]*plan.Plan, error) {
 	}
 	return plans, nil
 }
+
+// Whole plans every cylinder of s with opt (PlanAll) and puts the plans
+// together (FromPlans): the whole engine's beat and work in every
+// position they all plan.
+func Whole(s *session.Session, opt plan.Options, st Steam) ([]Position, error) {
+	plans, err := PlanAll(s, opt)
+	if err != nil {
+		return nil, err
+	}
+	return FromPlans(s, plans, st)
+}

@@ -35,8 +35,8 @@ func TestBeatsInTheDirectionOfRunning(t *testing.T) {
 	}
 }
 
-// PlanAll plans every cylinder of the demo session, and names a cylinder
-// without readings.
+// PlanAll plans every cylinder of the demo session, and Whole names a
+// cylinder without readings.
 func TestPlanAll(t *testing.T) {
 	s := demo(t)
 	plans, err := PlanAll(s, plan.AimsOptions(s.Aims))
@@ -44,7 +44,7 @@ func TestPlanAll(t *testing.T) {
 		t.Fatalf("demo: %d plans, %v", len(plans), err)
 	}
 	s.Cylinders[1].Rounds = nil
-	if _, err := PlanAll(s, plan.Options{}); err == nil || !strings.Contains(err.Error(), "The left cylinder has no readings yet") {
+	if _, err := Whole(s, plan.Options{}, DefaultSteam); err == nil || !strings.Contains(err.Error(), "The left cylinder has no readings yet") {
 		t.Errorf("a cylinder without readings: %v", err)
 	}
 }

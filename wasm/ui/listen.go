@@ -121,11 +121,12 @@ func (a *App) ListenState() string {
 // length in seconds; 0 before the first.
 func (a *App) ListenTime() (time.Duration, float64) { return a.lis.took, a.lis.seconds }
 
-// HeardText returns what the screen says of the latest beat heard in this
-// run, one sentence a line ("" before one).
+// HeardText returns what the whole engine says of the latest beat heard
+// in this run, one sentence a line ("" before one, and off the whole
+// engine).
 func (a *App) HeardText() string {
 	h := a.lis.heard
-	if h == nil || h.s != a.Session() {
+	if h == nil || h.s != a.Session() || a.screen != Whole {
 		return ""
 	}
 	for _, p := range a.wholeBeat().ps {
@@ -178,9 +179,11 @@ func (a *App) listenTick() {
 			l.step, l.started, l.secs = listenRecording, a.now(), 0
 		case e.opened:
 			a.opt.Microphone.Stop() // opened after the screen was left
-		case e.why != "" && (l.step == listenAsking || l.step == listenRecording):
+		case e.why != "" && l.step >= listenAsking && l.step <= listenStopping:
 			l.step, l.why = listenReady, e.why
-		case e.why == "" && l.step == listenStopping:
+		case l.step == listenStopping && len(e.samples) == 0: // stopped before it began
+			l.step = listenReady
+		case l.step == listenStopping:
 			l.step, l.rec, l.rate, l.shown = listenWorking, e.samples, e.rate, false
 		}
 	}

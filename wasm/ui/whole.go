@@ -47,11 +47,8 @@ func (a *App) wholeBeat() *wholeEngine {
 	stored := a.asStored(s) // a round begun and still empty: the plan is the round's before
 	opt := plan.AimsOptions(s.Aims)
 	opt.Unit, opt.OtherLater = a.unit(), true
-	plans, err := beat.PlanAll(stored, opt)
-	if err == nil {
-		w.ps, err = beat.FromPlans(stored, plans, beat.DefaultSteam)
-	}
-	if err != nil {
+	var err error
+	if w.ps, err = beat.Whole(stored, opt, beat.DefaultSteam); err != nil {
 		w.why = a.inWords(sentence(err))
 		for i, c := range stored.Cylinders {
 			if len(c.Rounds) == 0 && w.measure < 0 {

@@ -77,11 +77,7 @@ func limpingDemo(t testing.TB) *session.Session {
 // worked out as the command line does.
 func positionOf(t *testing.T, s *session.Session, name string) beat.Position {
 	t.Helper()
-	plans, err := beat.PlanAll(s, plan.AimsOptions(s.Aims))
-	if err != nil {
-		t.Fatal(err)
-	}
-	ps, err := beat.FromPlans(s, plans, beat.DefaultSteam)
+	ps, err := beat.Whole(s, plan.AimsOptions(s.Aims), beat.DefaultSteam)
 	if err != nil {
 		t.Fatal(err)
 	}

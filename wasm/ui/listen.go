@@ -1,9 +1,9 @@
 package ui
 
 import (
-	"fmt"
 	"math"
 	"slices"
+	"strconv"
 	"strings"
 	"time"
 
@@ -231,6 +231,9 @@ func (a *App) analyse(samples []float32, rate int, pos beat.Position) {
 	a.lis.seconds = float64(len(samples)) / float64(rate)
 }
 
+// fixed writes x with dec decimals.
+func fixed(x float64, dec int) string { return strconv.FormatFloat(x, 'f', dec, 64) }
+
 // withinRate returns samples at a rate the analysis takes: a recording
 // made faster than listen.MaxRate has each pair of samples averaged, as
 // often as it takes. x is overwritten.
@@ -280,12 +283,12 @@ func (a *App) heardWords(pos beat.Position) []string {
 	h := a.lis.heard
 	if h == nil || h.s != a.Session() || h.pos != pos.Name {
 		if st := latestHeard(a.Session(), pos); st != nil {
-			return []string{fmt.Sprintf("Heard on %s at %.0f rev/min (the squares): largest gap over smallest %.2f.", st.Date, st.RevPerMin, evenness(st.GapsDeg))}
+			return []string{"Heard on " + st.Date + " at " + fixed(st.RevPerMin, 0) + " rev/min (the squares): largest gap over smallest " + fixed(evenness(st.GapsDeg), 2) + "."}
 		}
 		return nil
 	}
 	r, m := h.r, h.m
-	out := []string{fmt.Sprintf("Heard over %d turns at %.0f rev/min (the squares): largest gap over smallest %.2f, where today's readings foresee %.2f.", r.Turns, r.RevPerMin, r.Evenness, pos.Now.Evenness())}
+	out := []string{"Heard over " + strconv.Itoa(r.Turns) + " turns at " + fixed(r.RevPerMin, 0) + " rev/min (the squares): largest gap over smallest " + fixed(r.Evenness, 2) + ", where today's readings foresee " + fixed(pos.Now.Evenness(), 2) + "."}
 	word := "late"
 	if !r.Odd.Late() {
 		word = "early"
@@ -302,7 +305,7 @@ func (a *App) heardWords(pos beat.Position) []string {
 	case m.Ambiguous:
 		out = append(out, "The match is ambiguous: the readings foresee a beat that fits more than one way round, so the "+word+" beat may be "+strings.Join(ends, " or ")+" exhaust.")
 	default:
-		out = append(out, fmt.Sprintf("The %s beat is %s exhaust, %.1f° %s against an even beat.", word, ends[0], math.Abs(r.Odd.Deg), word))
+		out = append(out, "The "+word+" beat is "+ends[0]+" exhaust, "+fixed(math.Abs(r.Odd.Deg), 1)+"° "+word+" against an even beat.")
 	}
 	return append(append(out, whatToDo(pos, m)), r.Notes...)
 }
@@ -313,7 +316,7 @@ func whatToDo(pos beat.Position, m *listen.Match) string {
 	case m.Disagrees:
 		return "What to do: take every cylinder's readings again (a reading may be wrong, or something has moved), and mark both wheels' datums at the same angle to see the quartering. Cranks out of quarter are a fitter's job on the wheels, never the valves'."
 	case pos.After.Evenness() < pos.Now.Evenness()-0.005:
-		return fmt.Sprintf("What to do: make each cylinder's planned steps (on its plan); they bring the largest gap over the smallest to %.2f. Then listen again.", pos.After.Evenness())
+		return "What to do: make each cylinder's planned steps (on its plan); they bring the largest gap over the smallest to " + fixed(pos.After.Evenness(), 2) + ". Then listen again."
 	case len(m.Odd) == 0:
 		return "What to do: nothing for the beat; it is as even as the recording and the readings can tell."
 	}
@@ -333,7 +336,7 @@ func (a *App) listenView(l *layouter) {
 	l.title("Listen to the beat, " + lis.pos.Name)
 	switch lis.step {
 	case listenReady:
-		l.text(fmt.Sprintf("Run the engine in %s, slowly and steadily on air, and let the phone hear its exhaust for up to %d seconds. Nothing leaves the phone: the recording is worked out here and only the gaps between the beats are kept.", lis.pos.Name, ListenSeconds), false)
+		l.text("Run the engine in "+lis.pos.Name+", slowly and steadily on air, and let the phone hear its exhaust for up to "+strconv.Itoa(ListenSeconds)+" seconds. Nothing leaves the phone: the recording is worked out here and only the gaps between the beats are kept.", false)
 		l.para("Before the air goes on:", render.BodySize+2, true, false, false)
 		for _, c := range listen.Cautions() {
 			l.text("- "+c, false)
@@ -349,7 +352,7 @@ func (a *App) listenView(l *layouter) {
 	case listenRecording:
 		l.v.body = rect(l.x, l.y, l.w, 72)
 		l.y += 72 + gap
-		l.text(fmt.Sprintf("Hold the phone at the chimney or exhaust, never within reach of the motion. The recording stops by itself after %d seconds.", ListenSeconds), false)
+		l.text("Hold the phone at the chimney or exhaust, never within reach of the motion. The recording stops by itself after "+strconv.Itoa(ListenSeconds)+" seconds.", false)
 		l.button("Stop", false, a.stopListening)
 	default:
 		l.text("Working out the beat from the recording...", false)
@@ -363,7 +366,7 @@ func (a *App) drawListen(c render.Canvas, v *view) {
 	case listenRecording:
 		mid := (v.body.Min.Y + v.body.Max.Y) / 2
 		c.Fill(render.Circle(render.Point{X: v.body.Min.X + 24, Y: mid}, 14), render.FillStyle{Color: a.theme.Warn})
-		c.Text(render.Point{X: v.body.Min.X + 56, Y: mid}, fmt.Sprintf("Recording %d s", a.lis.secs), render.TextStyle{Color: a.theme.Ink, Size: 30, Bold: true, VAlign: render.Middle})
+		c.Text(render.Point{X: v.body.Min.X + 56, Y: mid}, "Recording "+strconv.Itoa(a.lis.secs)+" s", render.TextStyle{Color: a.theme.Ink, Size: 30, Bold: true, VAlign: render.Middle})
 	case listenWorking:
 		a.lis.shown = true
 	}

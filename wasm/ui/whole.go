@@ -1,7 +1,6 @@
 package ui
 
 import (
-	"fmt"
 	"math"
 
 	"evenbeat/render"
@@ -164,7 +163,7 @@ func (a *App) wholeView(l *layouter) {
 	if len(pos.WorkNow) > 0 && len(pos.WorkAfter) == len(pos.WorkNow) {
 		l.para("Work of each end, as a share of the mean of them all (a simple indicator diagram):", render.BodySize+2, true, false, false)
 		for k, wk := range pos.WorkNow {
-			l.text(fmt.Sprintf("%s %s: %.0f %% today, %.0f %% after the plans", title(wk.Cylinder), wk.End, wk.Share, pos.WorkAfter[k].Share), false)
+			l.text(title(wk.Cylinder)+" "+wk.End.String()+": "+fixed(wk.Share, 0)+" % today, "+fixed(pos.WorkAfter[k].Share, 0)+" % after the plans", false)
 		}
 	}
 	a.quarteringWords(l, w)
@@ -189,7 +188,7 @@ func oddToday(pos beat.Position) string {
 	if by < 0 {
 		word, by = "early", -by
 	}
-	return fmt.Sprintf("Today the %s exhaust comes %.1f° %s against an even beat.", pos.Now.Exhausts[i].Label(), by, word)
+	return "Today the " + pos.Now.Exhausts[i].Label() + " exhaust comes " + fixed(by, 1) + "° " + word + " against an even beat."
 }
 
 // quarteringWords says what the dead-centre marks show of the angle
@@ -204,7 +203,7 @@ func (a *App) quarteringWords(l *layouter, w *wholeEngine) {
 		return
 	}
 	for _, q := range w.qs {
-		s := fmt.Sprintf("Quartering: the marks put the %s crank %.1f° from the %s crank (drawing %.0f°), %.1f° ± %.1f° off", q.Other, q.Measured, q.First, q.Design, q.Error, q.Uncertainty())
+		s := "Quartering: the marks put the " + q.Other + " crank " + fixed(q.Measured, 1) + "° from the " + q.First + " crank (drawing " + fixed(q.Design, 0) + "°), " + fixed(q.Error, 1) + "° ± " + fixed(q.Uncertainty(), 1) + "° off"
 		switch {
 		case math.Abs(q.Error) > 20:
 			l.text(s+": far more than cranks are ever out. The datums were most likely not marked at the same angle, or the marks were counted from elsewhere: mark them again before anything is done to the wheels.", true)

@@ -19,24 +19,25 @@ type Screen uint8
 
 // The screens, in the order of the flow.
 const (
-	Engines  Screen = iota // saved engines, the invented demo engines, a new engine
-	Gear                   // set-up: the gear type first
-	Units                  // set-up: mm or inch, the gauge's division
-	Sizes                  // set-up: the dimensions, on the keypad
-	Adjust                 // set-up: which adjustments this engine has
-	Cautions               // the safety card: first run, and from the menu
-	Measure                // one reading at a time, on the keypad
-	Readings               // every reading of the round, to choose one to edit
-	Plan                   // the plan's steps, balance, valve curve, motion; what-if
-	History                // the rounds so far
-	Menu                   // everywhere else from anywhere
-	Where                  // the engine drawn where it stands for the reading asked
-	Lead                   // the plan's target lead, on the keypad
+	Engines     Screen = iota // saved engines, the invented demo engines, a new engine
+	Gear                      // set-up: the gear type first
+	Units                     // set-up: mm or inch, the gauge's division
+	Sizes                     // set-up: the dimensions, on the keypad
+	Adjust                    // set-up: which adjustments this engine has
+	Cautions                  // the safety card: first run, and from the menu
+	Measure                   // one reading at a time, on the keypad
+	Readings                  // every reading of the round, to choose one to edit
+	Plan                      // the plan's steps, balance, valve curve, motion; what-if
+	History                   // the rounds so far
+	Menu                      // everywhere else from anywhere
+	Where                     // the engine drawn where it stands for the reading asked
+	Lead                      // the plan's target lead, on the keypad
+	EngineSheet               // what was worked out and given of the engine: the end of set-up, and its editing
 )
 
 // String names the screen for the page's state (tests, the History API).
 func (s Screen) String() string {
-	names := [...]string{"engines", "gear", "units", "sizes", "adjust", "cautions", "measure", "readings", "plan", "history", "menu", "where", "lead"}
+	names := [...]string{"engines", "gear", "units", "sizes", "adjust", "cautions", "measure", "readings", "plan", "history", "menu", "where", "lead", "engine"}
 	if int(s) < len(names) {
 		return names[s]
 	}
@@ -172,6 +173,15 @@ type App struct {
 	needV      float64
 	paths      map[pathKey]render.Path // the buttons' outlines, kept between frames
 
+	// su is the set-up's state (setupflow.go); draftSession and
+	// draftSetUp a new engine's set-up left unfinished, to carry on;
+	// sheetGen the change the engine's sheet last worked out.
+	su setUp
+	findingsCache
+	draftSession *session.Session
+	draftSetUp   setUp
+	sheetGen     int
+
 	// gen counts changes to the session; readiness is worked out again
 	// only when it, the session or the cylinder changes.
 	gen    int
@@ -201,7 +211,7 @@ func (a *App) ready() bool {
 // New starts the app: it loads the stored sessions (keeping any that
 // cannot be read, with the reason) and opens on the engines list.
 func New(opt Options) *App {
-	a := &App{opt: opt, theme: opt.Theme, dirty: true, status: "Not saved yet"}
+	a := &App{opt: opt, theme: opt.Theme, dirty: true, status: "Not saved yet", su: newSetUp(false)}
 	if a.theme == (render.Theme{}) {
 		a.theme = render.Light()
 	}
@@ -217,6 +227,7 @@ func New(opt Options) *App {
 	if _, ok, err := opt.Store.Get(AckKey); err == nil && ok {
 		a.acked = true
 	}
+	a.loadDraft()
 	return a
 }
 
@@ -302,8 +313,12 @@ func (a *App) setStatus() {
 // file.
 func (a *App) save() {
 	a.gen++
-	if a.cur == nil || a.cur.Session == nil {
+	if a.cur == nil || a.cur.Session == nil || a.saveDraft() {
 		return
+	}
+	fresh := a.cur.Key == "" // a new engine just whole, or a demo first changed
+	if fresh {
+		a.keep(a.cur)
 	}
 	b, err := encodeSession(a.cur.Session)
 	if err != nil {
@@ -313,6 +328,9 @@ func (a *App) save() {
 	}
 	a.cur.Raw = b
 	a.put(a.cur.Key, b)
+	if fresh {
+		a.put(IndexKey, encodeIndex(a.index))
+	}
 }
 
 // put writes one value, counted for the saving state.
@@ -335,6 +353,15 @@ func (a *App) put(key string, b []byte) {
 
 // addSession stores s under a new key and makes it current.
 func (a *App) addSession(s *session.Session) {
+	a.cur = &Stored{Session: s}
+	a.clearPlan()
+	a.cyl = 0
+	a.save()
+}
+
+// keep gives e, a session not yet stored, a new key in the list of
+// stored sessions.
+func (a *App) keep(e *Stored) {
 	used := map[string]bool{}
 	for _, k := range a.index {
 		used[k] = true
@@ -343,14 +370,9 @@ func (a *App) addSession(s *session.Session) {
 	for used[sessionPrefix+strconv.Itoa(n)] {
 		n++
 	}
-	e := &Stored{Key: sessionPrefix + strconv.Itoa(n), Session: s}
+	e.Key = sessionPrefix + strconv.Itoa(n)
 	a.stored = append(a.stored, e)
 	a.index = append(a.index, e.Key)
-	a.cur = e
-	a.clearPlan()
-	a.cyl = 0
-	a.save()
-	a.put(IndexKey, encodeIndex(a.index))
 }
 
 // navigate shows screen s, remembering where Back returns to.
@@ -438,10 +460,13 @@ func (a *App) openSession(e *Stored) {
 	a.makePlan()
 }
 
-// startSetUp begins a new session from a demo engine's design.
+// startSetUp opens a demo engine's design to look at: it is kept as a
+// session of its own only once something is changed or measured.
 func (a *App) startSetUp(spec setting.EngineSpec) {
-	s := newSession(spec, session.UnitMM)
-	a.addSession(s)
+	a.su = newSetUp(false)
+	a.cur = &Stored{Session: newSession(spec, session.UnitMM)}
+	a.clearPlan()
+	a.cyl = 0
 	a.navigate(Units)
 }
 
@@ -510,6 +535,9 @@ func (a *App) key(k Key) {
 	a.text = press(a.text, k)
 	a.typed = true
 	a.check()
+	if a.note == "" && a.fractions() && wholeFraction(a.text) {
+		a.commit() // a fraction is whole once its bottom is typed
+	}
 }
 
 // check judges the typed text as it stands: a sentence when the number
@@ -540,9 +568,12 @@ func (a *App) commit() {
 	if !a.typed || a.text == "" {
 		if _, ok := f.get(s); !ok {
 			a.note = f.Label + ": type the value with the keypad, then Next."
+			if len(f.Choices) > 0 {
+				a.note = f.Label + ": choose one."
+			}
 			return
 		}
-		if a.screen == Sizes && a.fi == len(a.fields)-1 {
+		if a.screen == Sizes {
 			if why := a.assembles(); why != "" {
 				a.note = f.Label + ": " + why
 				return
@@ -561,8 +592,12 @@ func (a *App) commit() {
 			formatNumber(session.MinTargetLeadMM, false), formatNumber(session.MaxTargetLeadMM, false))
 		return
 	}
-	f.set(s, v)
+	if err := a.setValue(f, v); err != nil {
+		a.note = f.Label + ": " + sentence(err) + " Nothing was changed; correct the value typed."
+		return
+	}
 	a.gen++
+	a.refreshFields() // the questions follow the answers
 	if a.screen == Lead {
 		a.Back() // the plan, made again for the target
 		a.makePlan()
@@ -581,7 +616,7 @@ func (a *App) commit() {
 	a.warn = ""
 	path := f.Path(s)
 	for _, w := range s.Check() {
-		if strings.HasPrefix(w.Field, path) || strings.HasPrefix(path, w.Field) {
+		if (strings.HasPrefix(w.Field, path) || strings.HasPrefix(path, w.Field)) && !(f.open != nil && f.open(s)) {
 			a.warn = f.Label + ": " + w.Message
 			break
 		}
@@ -596,7 +631,7 @@ func (a *App) advance() {
 		a.Back()
 		return
 	}
-	if a.fi+1 < len(a.fields) {
+	if a.fi+1 < len(a.fields) && !a.enoughForPlan() {
 		a.setField(a.fi + 1)
 		return
 	}
@@ -605,7 +640,7 @@ func (a *App) advance() {
 		a.Back()
 		a.makePlan()
 	case Sizes:
-		a.navigate(Adjust)
+		a.sizesDone()
 	case Measure:
 		a.planRound = 0
 		a.navigate(Plan)

@@ -78,13 +78,16 @@ func tap(t testing.TB, a *App, label string) {
 	t.Fatalf("on %s: no target %q among %q", a.Screen(), label, ls)
 }
 
-// typeKeys taps the keypad keys spelling text ('-' taps the sign key).
+// typeKeys taps the keypad keys spelling text ('-' taps the sign key, ' '
+// the space).
 func typeKeys(t testing.TB, a *App, text string) {
 	t.Helper()
 	for _, r := range text {
 		switch r {
 		case '-':
 			tap(t, a, KeySign.Label())
+		case ' ':
+			tap(t, a, KeySpace.Label())
 		default:
 			tap(t, a, string(r))
 		}
@@ -155,7 +158,7 @@ func TestFullDemoSessionByTaps(t *testing.T) {
 	ref.Cylinders[0].Rounds = ref.Cylinders[0].Rounds[:1]
 	setUpDemo(t, a, st)
 	entries, writes := 0, len(st.puts)
-	for a.Screen() == Measure {
+	for more := true; a.Screen() == Measure; {
 		f := a.fields[a.fi]
 		v, ok := f.get(ref)
 		if !ok && f.Optional {
@@ -173,6 +176,12 @@ func TestFullDemoSessionByTaps(t *testing.T) {
 		}
 		if a.Note() != "" && a.fields[a.fi].Key == f.Key {
 			t.Fatalf("%s: entry refused: %s", f.Key, a.Note())
+		}
+		if a.Screen() == Plan && more {
+			// The plan comes once the readings it needs are in; the
+			// round's sweep and cut-offs are typed from More readings.
+			more = false
+			tap(t, a, moreReadings)
 		}
 	}
 	if a.Screen() != Plan {
@@ -340,7 +349,7 @@ func TestKeypadEntryAndEditing(t *testing.T) {
 func TestKeypadTargets(t *testing.T) {
 	for _, sz := range [][2]float64{{320, 568}, {360, 640}, {390, 844}, {430, 932}} {
 		box := render.Rect{Min: render.Point{X: margin, Y: margin}, Max: render.Point{X: sz[0] - margin, Y: sz[1] - margin}}
-		keys := LayoutKeypad(box)
+		keys := LayoutKeypad(box, false)
 		if len(keys) != 14 {
 			t.Fatalf("%v: %d keys, want 14", sz, len(keys))
 		}

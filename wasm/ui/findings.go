@@ -2,6 +2,7 @@ package ui
 
 import (
 	"fmt"
+	"strconv"
 	"strings"
 
 	"evenbeat/render"
@@ -61,4 +62,52 @@ type findingsCache struct {
 	findingsOf   *plan.Fit
 	findingsUnit session.Unit
 	findings     []string
+}
+
+// plannedRound is the index of the round of the cylinder shown that the
+// plan made last is of (the round its fit's readings are of), or -1
+// without one.
+func (a *App) plannedRound() int {
+	s := a.Session()
+	if a.plan == nil || a.fit == nil || s == nil || a.plan.Cylinder != s.Cylinders[a.cyl].Name {
+		return -1
+	}
+	prefix := fmt.Sprintf("cylinders[%d].rounds[", a.cyl)
+	for _, o := range a.fit.Observations() {
+		if rest, ok := strings.CutPrefix(o.Field, prefix); ok {
+			if n, err := strconv.Atoi(rest[:max(0, strings.Index(rest, "]"))]); err == nil {
+				return n
+			}
+		}
+	}
+	return -1
+}
+
+// plannedLeads are the full-forward leads (front, back; mm) of the plan
+// made last as the plan has them today (plan.Plan.Now: the readings' own,
+// which the plan works from), so that the history says of that round what
+// the plan, the curve and the balance say.
+func (a *App) plannedLeads() [2]*float64 {
+	for _, st := range a.plan.Now {
+		if st.Notch == session.FullForward {
+			return [2]*float64{&st.Front.LeadMM, &st.Back.LeadMM}
+		}
+	}
+	return [2]*float64{}
+}
+
+// leadPair words a front and a back lead short, for a row: "front 0.25,
+// back 0.20 mm", each as session.FormatLength shows it.
+func (a *App) leadPair(front, back float64) string {
+	f := session.FormatLength(front, a.unit())
+	unit := f[strings.LastIndex(f, " "):]
+	return "front " + strings.TrimSuffix(f, unit) + ", back " + session.FormatLength(back, a.unit())
+}
+
+// endIndex is 0 for the front end, 1 for the back.
+func endIndex(e session.End) int {
+	if e == session.Back {
+		return 1
+	}
+	return 0
 }

@@ -209,3 +209,115 @@ func decodeOrFatal(t testing.TB, b []byte) *session.Session {
 	}
 	return s
 }
+
+// TestSameLeadOnEveryScreen: for the round planned, the history of
+// rounds, the plan's valve curve and its words give the same full-forward
+// leads (the readings' own, which the plan works from).
+func TestSameLeadOnEveryScreen(t *testing.T) {
+	a := newTestApp(t, newMemStore())
+	setUpOwn(t, a, "Stephenson", false, kestrel())
+	e, r := benchEngine(t, a.Session(), 9)
+	sim, err := e.Session(r, trial.DeadCentresRound())
+	if err != nil {
+		t.Fatal(err)
+	}
+	typeRound(t, a, sim, 0)
+	tap(t, a, "Curve")
+	curve, _ := drawText(a)
+	i := strings.Index(curve, "Today: lead front ")
+	if i < 0 {
+		t.Fatalf("the curve gives no lead:\n%s", curve)
+	}
+	front, back, _ := strings.Cut(strings.TrimPrefix(curve[i:], "Today: lead front "), ", back ")
+	back, _, _ = strings.Cut(back, ";")
+	tap(t, a, "Rounds")
+	history, _ := drawText(a)
+	if !strings.Contains(history, "front "+strings.TrimSuffix(front, " mm")+", back "+back) {
+		t.Errorf("the curve says front %s, back %s; the history:\n%s", front, back, history)
+	}
+	if words := a.PlanText(); !strings.Contains(words, front) || !strings.Contains(words, back) {
+		t.Errorf("the plan's words do not give front %s, back %s:\n%s", front, back, words)
+	}
+}
+
+// TestSetUpSurvivesAReload: the answers given to a new engine's set-up
+// are kept (a draft, until the engine is whole) and a reload carries on
+// where it stopped, every answer and form as given.
+func TestSetUpSurvivesAReload(t *testing.T) {
+	st := newMemStore()
+	a := newTestApp(t, st)
+	tap(t, a, "New engine")
+	tap(t, a, "Stephenson")
+	tap(t, a, "inch")
+	if err := a.Rename("Kestrel"); err != nil {
+		t.Fatal(err)
+	}
+	tap(t, a, "Next")
+	tap(t, a, "As the valve moves back")
+	tap(t, a, "Slide valve")
+	typeKeys(t, a, "1 3/4") // the stroke, in as the fraction is whole
+	typeKeys(t, a, "5 1/4")
+	st.complete()
+	b := New(Options{Store: st})
+	b.Resize(phoneW, phoneH)
+	tap(t, b, "Carry on setting up Kestrel")
+	tap(t, b, "Next")
+	if b.Field() != "Wheel diameter" {
+		t.Fatalf("carried on at %q", b.Field())
+	}
+	s := b.Session()
+	if s.DisplayUnit != session.UnitInch || s.Measuring.GaugeIncreases != session.GaugeBack || math.Abs(s.Engine.Engine.CrankRadius-22.225) > 1e-9 || math.Abs(s.Engine.Engine.RodLength-133.35) > 1e-9 {
+		t.Errorf("the draft came back as %+v, %+v", s.Measuring, s.Engine.Engine)
+	}
+	if len(b.StoredSessions()) != 0 {
+		t.Errorf("an engine half set up was stored as a session")
+	}
+}
+
+// TestWordsAtTheEngine: the port-mark steps follow the admission (with
+// steam outside, as on a slide valve, the valve moves back to crack the
+// front port and forward for the back; with steam inside, the other way)
+// and say how to move it; in an inch session no step of a round speaks of
+// mm; once both marks of a dead centre are in, the next step gives the
+// dead centre as a tyre mark, and a half-typed pair draws no warning.
+func TestWordsAtTheEngine(t *testing.T) {
+	for _, c := range []struct {
+		valve       string
+		front, back string
+	}{{"Slide valve (steam outside)", "Move the valve back", "move the valve forward"}, {"Piston valve (steam inside)", "Move the valve forward", "move the valve back"}} {
+		answers := kestrel()
+		answers["The valve"], answers["Piston valve diameter"] = c.valve, "16"
+		a := newTestApp(t, newMemStore())
+		setUpOwn(t, a, "Stephenson", false, answers)
+		front, back := portMarkWords(a.Session())
+		if !strings.HasPrefix(front, c.front) || !strings.Contains(back, c.back) || !strings.Contains(front, "turn the wheels, or push the valve with its rod disconnected") {
+			t.Errorf("%s: port marks say %q / %q", c.valve, front, back)
+		}
+	}
+	a := newTestApp(t, newMemStore())
+	setUpOwn(t, a, "Stephenson", false, kestrel())
+	tap(t, a, "Menu")
+	tap(t, a, "Units and dial gauge")
+	tap(t, a, "inch")
+	tap(t, a, "Done")
+	a.syncFields()
+	for _, f := range a.fields {
+		if strings.Contains(f.Say, "mm") {
+			t.Errorf("%s says %q in an inch session", f.Label, f.Say)
+		}
+	}
+	for a.Field() != "Front dead centre turning forward, first mark" {
+		typeKeys(t, a, ".2")
+		tap(t, a, "Next")
+	}
+	typeKeys(t, a, "6")
+	tap(t, a, "Next")
+	if a.warn != "" {
+		t.Errorf("a half-typed pair was judged: %q", a.warn)
+	}
+	typeKeys(t, a, "7 1/2")
+	text, _ := drawText(a)
+	if !strings.Contains(text, "Front dead centre found: 6 3/4 in round the tyre") {
+		t.Errorf("the dead centre is not given as a tyre mark:\n%s", text)
+	}
+}

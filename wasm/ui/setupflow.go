@@ -215,7 +215,8 @@ func (a *App) edit(change func(*session.Session)) error {
 		return err
 	}
 	a.engine = nil
-	a.clearPlan() // made again from the readings, on the engine as it now is
+	a.clearPlan()             // made again from the readings, on the engine as it now is
+	a.fieldsFor = fieldsKey{} // a round's words listed again (the unit, the valve)
 	return nil
 }
 

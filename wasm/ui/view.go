@@ -516,17 +516,21 @@ func (a *App) historyView(l *layouter) {
 	}
 	a.cylinderRow(l)
 	leads, _ := s.Leads(a.cyl)
+	planned := a.plannedRound()
 	for ri, r := range s.Cylinders[a.cyl].Rounds {
 		ri := ri
-		var ws []string
+		var lead [2]*float64 // front, back: full forward, as read
 		for _, ld := range leads {
 			if ld.Round == ri && ld.Notch == session.FullForward {
-				ws = append(ws, fmt.Sprintf("%s lead %s", ld.End, session.FormatLength(ld.LeadMM, a.unit())))
+				lead[endIndex(ld.End)] = &ld.LeadMM
 			}
 		}
+		if ri == planned {
+			lead = a.plannedLeads() // the very figures the plan, curve and balance show
+		}
 		label := fmt.Sprintf("Round %d, %s", ri+1, r.Date)
-		if len(ws) > 0 {
-			label += ": " + strings.Join(ws, ", ")
+		if lead[0] != nil && lead[1] != nil {
+			label += ": " + a.leadPair(*lead[0], *lead[1])
 		}
 		l.button(label, false, func() { a.showRound(ri) })
 	}

@@ -290,9 +290,11 @@ func demoWords(text string) string {
 type ownApp struct {
 	*nativeApp
 	engine string
+	labels []string // every target tapped, in order
 }
 
 func (o *ownApp) Tap(tg flowTarget) {
+	o.labels = append(o.labels, tg.Label)
 	o.nativeApp.Tap(tg)
 	c := recorder.New(phoneW, phoneH)
 	o.a.Draw(c)
@@ -375,7 +377,11 @@ func TestOwnEnginesByTaps(t *testing.T) {
 					typeMore(n, more)
 				}
 				if round == 1 {
-					t.Logf("taps from New engine to the first plan: %d (set-up %d, the round %d)", n.taps, setUp, n.taps-before)
+					kinds, others := tapKinds(n.labels, e)
+					t.Logf("taps from New engine to the first plan: %d (set-up %d, the round %d): %s", n.taps, setUp, n.taps-before, kinds)
+					if len(others) != 1 || others[0] != render.AckLabel {
+						t.Errorf("taps spent on something else than a value, a choice or Next (besides the cautions once): %q", others)
+					}
 				}
 				file := exportOwn(t, n.a, e.Name)
 				checkCommandLine(t, n.a, file)
@@ -504,4 +510,33 @@ func readingsTell(p *plan.Plan) float64 {
 		tell = math.Min(tell, math.Hypot(st.Front.LeadSigmaMM, st.Back.LeadSigmaMM))
 	}
 	return tell
+}
+
+// tapKinds sorts the taps of a set-up and its first round by what they
+// were spent on: keys of a value, answers chosen (the gear, the unit and
+// the answers to questions), Next, and anything else (the cautions'
+// acknowledgement, asked once on a first run), those listed.
+func tapKinds(labels []string, e ownEngine) (string, []string) {
+	chosen := map[string]bool{"New engine": true, e.Gear: true, "inch": true}
+	for _, a := range e.Answers {
+		if a.Choice {
+			chosen[a.Text] = true
+		}
+	}
+	var keys, choices, next, other int
+	var others []string
+	for _, l := range labels {
+		switch {
+		case len(l) == 1 || l == "Space" || l == "+/-" || l == "Del":
+			keys++
+		case chosen[l]:
+			choices++
+		case l == "Next" || l == "Next: start measuring":
+			next++
+		default:
+			other++
+			others = append(others, l)
+		}
+	}
+	return fmt.Sprintf("%d keys of values, %d answers chosen, %d Next, %d else (%s)", keys, choices, next, other, strings.Join(others, ", ")), others
 }

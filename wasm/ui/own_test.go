@@ -321,3 +321,43 @@ func TestWordsAtTheEngine(t *testing.T) {
 		t.Errorf("the dead centre is not given as a tyre mark:\n%s", text)
 	}
 }
+
+// TestDraftKeepsTheForms: a draft taken back gives every value as it was
+// given in the form it was asked in: the throw rather than the travel, a
+// pitch in an inch session, the laps of each end apart.
+func TestDraftKeepsTheForms(t *testing.T) {
+	st := newMemStore()
+	a := newTestApp(t, st)
+	tap(t, a, "New engine")
+	tap(t, a, "Stephenson")
+	tap(t, a, "inch")
+	tap(t, a, "Next")
+	answers := map[string]string{"Gauge reading grows": "As the valve moves forward", "The valve": "Slide valve (steam outside)", "Stroke": "1 3/4", "Connecting rod": "5 1/4",
+		"Wheel diameter": "4 1/2", "Front steam lap": "3/32", "Back steam lap": "1/8", "Exhaust lap": "0", "Port width": "3/32", "Lead as drawn": "1/64",
+		"The eccentric rods": "Open rods", "Eccentric throw": "13/64"}
+	for a.Field() != "Eccentric rods" {
+		f := a.fields[a.fi]
+		switch {
+		case f.Label == "Steam lap":
+			tap(t, a, "Front and back differ")
+		case f.Label == "Valve travel":
+			tap(t, a, "Eccentric throw instead")
+		case len(f.Choices) > 0:
+			tap(t, a, answers[f.Label])
+		default:
+			typeKeys(t, a, answers[f.Label])
+			if !wholeFraction(answers[f.Label]) {
+				tap(t, a, "Next")
+			}
+		}
+	}
+	want := a.Session().Engine
+	st.complete()
+	b := New(Options{Store: st})
+	b.Resize(phoneW, phoneH)
+	tap(t, b, "Carry on setting up")
+	got := b.Session().Engine
+	if got.Valve != want.Valve || *got.Gear.Stephenson != *want.Gear.Stephenson || got.Engine != want.Engine || got.Design.Lead != want.Design.Lead {
+		t.Errorf("the draft came back as\n%+v %+v\nwant\n%+v %+v", got.Valve, *got.Gear.Stephenson, want.Valve, *want.Gear.Stephenson)
+	}
+}

@@ -79,8 +79,8 @@ func plainNumber(f field, unit string) field {
 	return f
 }
 
-// ask is a question with a few answers, each a button.
-func ask(key, step, label, say string, cs ...choice) field {
+// question is a question with a few answers, each a button.
+func question(key, step, label, say string, cs ...choice) field {
 	f := field{Key: key, Step: step, Label: label, Say: say, Choices: cs}
 	f.get = func(s *session.Session) (float64, bool) {
 		for i, c := range cs {
@@ -100,19 +100,58 @@ type choice struct {
 	set   func(s *session.Session)
 }
 
+// place returns where the session keeps the value at key, a session-file
+// path: an engine's number by its engine-file key (EngineSpec.Number), or
+// the wheel's diameter; nil when there is none (a gear member not given).
+func place(key string) func(*session.Session) *float64 {
+	if key == "measuring.wheel_diameter_mm" {
+		return func(s *session.Session) *float64 { return &s.Measuring.WheelDiameterMM }
+	}
+	part := strings.TrimPrefix(key, "engine.")
+	return func(s *session.Session) *float64 { return s.Engine.Number(part) }
+}
+
+// ask is a question of a set-up length, by the keys of the values it sets
+// (the first is its own: shown, and named in warnings; the others are set
+// alike, as the back port's lap with the front one's).
+type ask struct {
+	keys       []string
+	label, say string
+	lo, hi, k  float64 // the plausible range shown, and the value shown per value kept
+	step       string
+	form       string // see field.form
+	toggleForm func(su *setUp, s *session.Session)
+}
+
+// field makes the question a field.
+func (q ask) field() field {
+	var also []func(*session.Session) *float64
+	for _, k := range q.keys[1:] {
+		also = append(also, place(k))
+	}
+	k := q.k
+	if k == 0 {
+		k = 1
+	}
+	f := length(q.keys[0], q.step, q.label, q.say, q.lo, q.hi, k, place(q.keys[0]), also...)
+	f.form, f.toggle = q.form, q.toggleForm
+	return f
+}
+
+// choiceOf is an answer that sets the engine's value at key (a Boolean
+// choice of the gear: slip, crossed) to on.
+func choiceOf(label string, on bool, set func(s *session.Session, on bool), get func(s *session.Session) (bool, bool)) choice {
+	return choice{Label: label,
+		on: func(s *session.Session) bool {
+			v, ok := get(s)
+			return ok && v == on
+		},
+		set: func(s *session.Session) { set(s, on) }}
+}
+
 // engineFields are the engine's own questions: how it is measured, its
 // valve, its crank and rod, the laps, the port and the lead drawn.
 func engineFields(s *session.Session, su *setUp) []field {
-	v := func(get func(s *session.Session) *setting.Valve) func(end string, q func(*setting.End) *float64) func(*session.Session) *float64 {
-		return func(end string, q func(*setting.End) *float64) func(*session.Session) *float64 {
-			return func(s *session.Session) *float64 {
-				if end == "back" {
-					return q(&get(s).Back)
-				}
-				return q(&get(s).Front)
-			}
-		}
-	}(func(s *session.Session) *setting.Valve { return &s.Engine.Valve })
 	admission := func(label string, adm setting.Admission, piston bool) choice {
 		return choice{Label: label,
 			on: func(s *session.Session) bool {
@@ -131,51 +170,43 @@ func engineFields(s *session.Session, su *setUp) []field {
 			set: func(s *session.Session) { s.Measuring.GaugeIncreases = end }}
 	}
 	fs := []field{
-		ask("measuring.gauge_increases", stepEngine, "Gauge reading grows", "Which way does the dial gauge's reading grow? It grows as its plunger is pushed in: with the gauge ahead of the spindle's end that is as the valve moves forward, toward the front cover; with it behind, as the valve moves back.",
+		question("measuring.gauge_increases", stepEngine, "Gauge reading grows", "Which way does the dial gauge's reading grow? It grows as its plunger is pushed in: with the gauge ahead of the spindle's end that is as the valve moves forward, toward the front cover; with it behind, as the valve moves back.",
 			grows("As the valve moves forward", session.GaugeFront), grows("As the valve moves back", session.GaugeBack)),
-		ask("engine.valve.admission", stepEngine, "The valve", "Which valve does the engine have? It decides which way the valve moves to open each port to steam.",
+		question("engine.valve.admission", stepEngine, "The valve", "Which valve does the engine have? It decides which way the valve moves to open each port to steam.",
 			admission("Slide valve (steam outside)", setting.External, false),
 			admission("Piston valve (steam inside)", setting.Internal, true),
 			admission("Piston valve (steam outside)", setting.External, true)),
-		length("engine.engine.crank_radius", stepEngine, "Stroke", "The piston's stroke, from the drawing or between the crosshead's two ends of travel on the slide bar.", 10, 1200, 2,
-			func(s *session.Session) *float64 { return &s.Engine.Engine.CrankRadius }),
-		length("engine.engine.rod_length", stepEngine, "Connecting rod", "Centre to centre of the connecting rod, crosshead pin to crank pin.", 20, 4000, 1,
-			func(s *session.Session) *float64 { return &s.Engine.Engine.RodLength }),
-		length("measuring.wheel_diameter_mm", stepEngine, "Wheel diameter", "Diameter of the driving wheel on the tread, where you will mark the tyre.", 40, 2500, 1,
-			func(s *session.Session) *float64 { return &s.Measuring.WheelDiameterMM }),
+	}
+	qs := []ask{
+		{keys: []string{"engine.engine.crank_radius"}, label: "Stroke", say: "The piston's stroke, from the drawing or between the crosshead's two ends of travel on the slide bar.", lo: 10, hi: 1200, k: 2},
+		{keys: []string{"engine.engine.rod_length"}, label: "Connecting rod", say: "Centre to centre of the connecting rod, crosshead pin to crank pin.", lo: 20, hi: 4000},
+		{keys: []string{"measuring.wheel_diameter_mm"}, label: "Wheel diameter", say: "Diameter of the driving wheel on the tread, where you will mark the tyre.", lo: 40, hi: 2500},
 	}
 	if su.piston(s) {
-		fs = append(fs, length("engine.valve.liner_diameter", stepEngine, "Piston valve diameter", "The piston valve's diameter (the liner's bore).", 5, 600, 1,
-			func(s *session.Session) *float64 { return &s.Engine.Valve.LinerDiameter }))
+		qs = append(qs, ask{keys: []string{"engine.valve.liner_diameter"}, label: "Piston valve diameter", say: "The piston valve's diameter (the liner's bore).", lo: 5, hi: 600})
 	}
-	ends := func(key, label, say, sayBack string, lo, hi float64, q func(*setting.End) *float64) []field {
-		front, back := v("front", q), v("back", q)
-		lower := strings.ToLower(label[:1]) + label[1:]
-		if su.apart[key] || *front(s) != *back(s) {
-			f := length("engine.valve.front."+key, stepEngine, "Front "+lower, say, lo, hi, 1, front)
-			b := length("engine.valve.back."+key, stepEngine, "Back "+lower, sayBack, lo, hi, 1, back)
-			return []field{f, b}
+	ends := func(key, label, say, sayBack string, lo, hi float64) {
+		front, back := "engine.valve.front."+key, "engine.valve.back."+key
+		if su.apart[key] || *place(front)(s) != *place(back)(s) {
+			lower := strings.ToLower(label[:1]) + label[1:]
+			qs = append(qs, ask{keys: []string{front}, label: "Front " + lower, say: say, lo: lo, hi: hi},
+				ask{keys: []string{back}, label: "Back " + lower, say: sayBack, lo: lo, hi: hi})
+			return
 		}
-		f := length("engine.valve.front."+key, stepEngine, label, say+" The same at both ends; if they differ, tap Front and back differ.", lo, hi, 1, front, back)
-		f.form, f.toggle = "Front and back differ", func(su *setUp, _ *session.Session) { su.apart[key] = true }
-		return []field{f}
+		qs = append(qs, ask{keys: []string{front, back}, label: label, say: say + " The same at both ends; if they differ, tap Front and back differ.", lo: lo, hi: hi,
+			form: "Front and back differ", toggleForm: func(su *setUp, _ *session.Session) { su.apart[key] = true }})
 	}
-	fs = append(fs, ends("steam_lap", "Steam lap", "How far the valve overlaps the port's steam edge with the valve central, from the drawing or measured with the cover off.", "The same overlap at the back port.", 0, 60,
-		func(e *setting.End) *float64 { return &e.SteamLap })...)
-	fs = append(fs, ends("exhaust_lap", "Exhaust lap", "How far the valve overlaps the port's exhaust edge with the valve central; negative when the port is already open to exhaust (clearance), 0 for line and line.", "The same at the back port.", -20, 30,
-		func(e *setting.End) *float64 { return &e.ExhaustLap })...)
+	ends("steam_lap", "Steam lap", "How far the valve overlaps the port's steam edge with the valve central, from the drawing or measured with the cover off.", "The same overlap at the back port.", 0, 60)
+	ends("exhaust_lap", "Exhaust lap", "How far the valve overlaps the port's exhaust edge with the valve central; negative when the port is already open to exhaust (clearance), 0 for line and line.", "The same at the back port.", -20, 30)
 	if s.Engine.Valve.Front.Holes == 0 && s.Engine.Valve.Back.Holes == 0 {
-		fs = append(fs, ends("port_width", "Port width", "The steam port's width along the cylinder, edge to edge on the port face.", "The back steam port's width, edge to edge.", 0.5, 120,
-			func(e *setting.End) *float64 { return &e.PortWidth })...)
+		ends("port_width", "Port width", "The steam port's width along the cylinder, edge to edge on the port face.", "The back steam port's width, edge to edge.", 0.5, 120)
 	}
 	if s.Engine.Design != nil {
-		fs = append(fs, length("engine.design.lead", stepEngine, "Lead as drawn", "The lead the drawing asks for in full gear: how far each steam port is open with the piston on dead centre (0 for line and line).", -3, 10, 1,
-			func(s *session.Session) *float64 {
-				if s.Engine.Design == nil {
-					return nil
-				}
-				return &s.Engine.Design.Lead
-			}))
+		qs = append(qs, ask{keys: []string{"engine.design.lead"}, label: "Lead as drawn", say: "The lead the drawing asks for in full gear: how far each steam port is open with the piston on dead centre (0 for line and line).", lo: -3, hi: 10})
+	}
+	for _, q := range qs {
+		q.step = stepEngine
+		fs = append(fs, q.field())
 	}
 	return fs
 }
@@ -183,95 +214,77 @@ func engineFields(s *session.Session, su *setUp) []field {
 // gearFields are the questions of s's gear that a setter can answer from
 // the engine or its drawing.
 func gearFields(s *session.Session, su *setUp) []field {
+	var fs []field
+	var qs []ask
 	switch g := s.Engine.Gear; g.Kind {
 	case setting.KindSingleEccentric:
-		e := func(s *session.Session) *setting.SingleEccentric { return s.Engine.Gear.SingleEccentric }
-		slip := func(label string, on bool) choice {
-			return choice{Label: label, on: func(s *session.Session) bool { return e(s) != nil && e(s).Slip == on },
-				set: func(s *session.Session) { e(s).Slip = on }}
-		}
-		ecc := func(s *session.Session) *setting.Eccentric { return &e(s).Eccentric }
-		return append([]field{ask("engine.gear.single_eccentric.slip", stepGear, "The eccentric", "Is the sheave keyed to the axle, or a slip eccentric driven by a stop, which reverses the engine?",
-			slip("Fixed (keyed)", false), slip("Slip eccentric", true))},
-			travelField("engine.gear.single_eccentric.eccentric.throw", su, ecc),
-			length("engine.gear.single_eccentric.eccentric.rod", stepGear, "Eccentric rod", "The eccentric rod from the sheave's centre to the pin at its far end.", 20, 4000, 1,
-				func(s *session.Session) *float64 { return &ecc(s).Rod }))
+		const p = "engine.gear.single_eccentric."
+		fs = append(fs, question(p+"slip", stepGear, "The eccentric", "Is the sheave keyed to the axle, or a slip eccentric driven by a stop, which reverses the engine?",
+			choiceOf("Fixed (keyed)", false, setSlip, slip), choiceOf("Slip eccentric", true, setSlip, slip)),
+			travelField(su, p+"eccentric.throw"))
+		qs = []ask{{keys: []string{p + "eccentric.rod"}, label: "Eccentric rod", say: "The eccentric rod from the sheave's centre to the pin at its far end.", lo: 20, hi: 4000}}
 	case setting.KindStephenson:
-		st := func(s *session.Session) *setting.Stephenson { return s.Engine.Gear.Stephenson }
-		crossed := func(label string, on bool) choice {
-			return choice{Label: label, on: func(s *session.Session) bool { return st(s) != nil && st(s).Crossed == on },
-				set: func(s *session.Session) { st(s).Crossed = on }}
-		}
-		of := func(q func(g *setting.Stephenson) *float64) func(*session.Session) *float64 {
-			return func(s *session.Session) *float64 { return q(st(s)) }
-		}
 		const p = "engine.gear.stephenson."
-		return append([]field{ask(p+"crossed", stepGear, "The eccentric rods", "With the crank on the dead centre away from the link, do the two eccentric rods run to the link without crossing (open) or cross each other (crossed)?",
-			crossed("Open rods", false), crossed("Crossed rods", true))},
-			travelField(p+"forward.throw", su, func(s *session.Session) *setting.Eccentric { return &st(s).Forward }, func(s *session.Session) *setting.Eccentric { return &st(s).Backward }),
-			length(p+"forward.rod", stepGear, "Eccentric rods", "The forward eccentric rod, sheave centre to its pin on the link. The backward rod is worked out for equal leads in full back, as a drawing sets it; you may give it on the next screen.", 20, 4000, 1,
-				of(func(g *setting.Stephenson) *float64 { return &g.Forward.Rod })),
-			length(p+"link.radius", stepGear, "Link radius", "The expansion link's radius, to the centre line of its slot: from the drawing, or from a template laid in the slot.", 20, 4000, 1,
-				of(func(g *setting.Stephenson) *float64 { return &g.Link.Radius })),
-			length(p+"link.pin_spacing", stepGear, "Link pin spacing", "Straight across from the forward eccentric rod's pin to the backward one's on the link.", 5, 1000, 1,
-				of(func(g *setting.Stephenson) *float64 { return &g.Link.PinSpacing })),
-			length(p+"reverse_arm", stepGear, "Reverse arm", "Weighshaft centre to the lifting link's pin on the reverse arm.", 5, 1500, 1,
-				of(func(g *setting.Stephenson) *float64 { return &g.ReverseArm })),
-			length(p+"lifting_link", stepGear, "Lifting link", "The lifting link, centre to centre of its pins.", 5, 1500, 1,
-				of(func(g *setting.Stephenson) *float64 { return &g.LiftingLink })),
-			notchField(su))
-	case setting.KindWalschaerts:
-		of := func(q func(g *setting.Walschaerts) *float64) func(*session.Session) *float64 {
-			return func(s *session.Session) *float64 { return q(s.Engine.Gear.Walschaerts) }
+		fs = append(fs, question(p+"crossed", stepGear, "The eccentric rods", "With the crank on the dead centre away from the link, do the two eccentric rods run to the link without crossing (open) or cross each other (crossed)?",
+			choiceOf("Open rods", false, setCrossed, crossed), choiceOf("Crossed rods", true, setCrossed, crossed)),
+			travelField(su, p+"forward.throw", p+"backward.throw"))
+		qs = []ask{
+			{keys: []string{p + "forward.rod"}, label: "Eccentric rods", say: "The forward eccentric rod, sheave centre to its pin on the link. The backward rod is worked out for equal leads in full back, as a drawing sets it; you may give it on the next screen.", lo: 20, hi: 4000},
+			{keys: []string{p + "link.radius"}, label: "Link radius", say: "The expansion link's radius, to the centre line of its slot: from the drawing, or from a template laid in the slot.", lo: 20, hi: 4000},
+			{keys: []string{p + "link.pin_spacing"}, label: "Link pin spacing", say: "Straight across from the forward eccentric rod's pin to the backward one's on the link.", lo: 5, hi: 1000},
+			{keys: []string{p + "reverse_arm"}, label: "Reverse arm", say: "Weighshaft centre to the lifting link's pin on the reverse arm.", lo: 5, hi: 1500},
+			{keys: []string{p + "lifting_link"}, label: "Lifting link", say: "The lifting link, centre to centre of its pins.", lo: 5, hi: 1500},
 		}
+	case setting.KindWalschaerts:
 		const p = "engine.gear.walschaerts."
-		return []field{
-			length(p+"return_crank", stepGear, "Return crank", "Main crank-pin centre to the return crank's pin.", 2, 500, 1,
-				of(func(g *setting.Walschaerts) *float64 { return &g.ReturnCrank })),
-			length(p+"link_radius", stepGear, "Link radius", "The expansion link's radius, to the centre line of its slot.", 20, 4000, 1,
-				of(func(g *setting.Walschaerts) *float64 { return &g.LinkRadius })),
-			length(p+"trunnion.u", stepGear, "Link trunnion ahead of the axle", "From the driving axle's centre forward to the link's trunnion (its pivot), along the cylinder line.", 10, 5000, 1,
-				of(func(g *setting.Walschaerts) *float64 { return &g.Trunnion.U })),
-			length(p+"trunnion.w", stepGear, "Link trunnion above the axle", "From the axle's centre up to the trunnion, square to the cylinder line.", -2000, 3000, 1,
-				of(func(g *setting.Walschaerts) *float64 { return &g.Trunnion.W })),
-			length(p+"link_foot.w", stepGear, "Link foot below the trunnion", "From the trunnion down to the link foot's pin, where the eccentric rod works the link, with the link upright.", 5, 3000, -1,
-				of(func(g *setting.Walschaerts) *float64 { return &g.LinkFoot.W })),
-			length(p+"full_gear_die", stepGear, "Die in full forward", "Along the slot from the trunnion to the die block in full forward gear: positive above the trunnion, negative below (as the drawing or the reverser's stop puts it).", -2000, 2000, 1,
-				of(func(g *setting.Walschaerts) *float64 { return &g.FullGearDie })),
-			length(p+"lever.union_pin", stepGear, "Combination lever", "Along the combination lever from the radius rod's pin down to the union link's pin.", 5, 3000, 1,
-				of(func(g *setting.Walschaerts) *float64 { return &g.Lever.UnionPin })),
-			length(p+"union_link", stepGear, "Union link", "The union link, crosshead-arm pin to the lever's pin, centre to centre.", 5, 1500, 1,
-				of(func(g *setting.Walschaerts) *float64 { return &g.UnionLink })),
-			length(p+"crosshead_arm.w", stepGear, "Crosshead arm drop", "From the crosshead pin down to the union link's pin on the crosshead arm.", 0, 1500, -1,
-				of(func(g *setting.Walschaerts) *float64 { return &g.CrossheadArm.W })),
-			length(p+"guide", stepGear, "Valve spindle above the axle", "From the axle's centre up to the valve spindle's line, square to the cylinder line.", -2000, 3000, 1,
-				of(func(g *setting.Walschaerts) *float64 { return &g.Guide })),
-			notchField(su),
+		qs = []ask{
+			{keys: []string{p + "return_crank"}, label: "Return crank", say: "Main crank-pin centre to the return crank's pin.", lo: 2, hi: 500},
+			{keys: []string{p + "link_radius"}, label: "Link radius", say: "The expansion link's radius, to the centre line of its slot.", lo: 20, hi: 4000},
+			{keys: []string{p + "trunnion.u"}, label: "Link trunnion ahead of the axle", say: "From the driving axle's centre forward to the link's trunnion (its pivot), along the cylinder line.", lo: 10, hi: 5000},
+			{keys: []string{p + "trunnion.w"}, label: "Link trunnion above the axle", say: "From the axle's centre up to the trunnion, square to the cylinder line.", lo: -2000, hi: 3000},
+			{keys: []string{p + "link_foot.w"}, label: "Link foot below the trunnion", say: "From the trunnion down to the link foot's pin, where the eccentric rod works the link, with the link upright.", lo: 5, hi: 3000, k: -1},
+			{keys: []string{p + "full_gear_die"}, label: "Die in full forward", say: "Along the slot from the trunnion to the die block in full forward gear: positive above the trunnion, negative below (as the drawing or the reverser's stop puts it).", lo: -2000, hi: 2000},
+			{keys: []string{p + "lever.union_pin"}, label: "Combination lever", say: "Along the combination lever from the radius rod's pin down to the union link's pin.", lo: 5, hi: 3000},
+			{keys: []string{p + "union_link"}, label: "Union link", say: "The union link, crosshead-arm pin to the lever's pin, centre to centre.", lo: 5, hi: 1500},
+			{keys: []string{p + "crosshead_arm.w"}, label: "Crosshead arm drop", say: "From the crosshead pin down to the union link's pin on the crosshead arm.", lo: 0, hi: 1500, k: -1},
+			{keys: []string{p + "guide"}, label: "Valve spindle above the axle", say: "From the axle's centre up to the valve spindle's line, square to the cylinder line.", lo: -2000, hi: 3000},
 		}
 	}
-	return nil
+	for _, q := range qs {
+		q.step = stepGear
+		fs = append(fs, q.field())
+	}
+	if s.Engine.Gear.Kind != setting.KindSingleEccentric {
+		fs = append(fs, notchField(su))
+	}
+	return fs
 }
+
+// slip and crossed read a gear's choice (ok is false without the gear);
+// setSlip and setCrossed set it.
+func slip(s *session.Session) (bool, bool) {
+	g := s.Engine.Gear.SingleEccentric
+	return g != nil && g.Slip, g != nil
+}
+func crossed(s *session.Session) (bool, bool) {
+	g := s.Engine.Gear.Stephenson
+	return g != nil && g.Crossed, g != nil
+}
+func setSlip(s *session.Session, on bool)    { s.Engine.Gear.SingleEccentric.Slip = on }
+func setCrossed(s *session.Session, on bool) { s.Engine.Gear.Stephenson.Crossed = on }
 
 // travelField is the valve travel in full gear (twice the eccentric's
 // throw, for a gear without a rocker), or the throw itself when the
-// setter chose to give that; also are eccentrics given the same throw.
-func travelField(key string, su *setUp, e func(*session.Session) *setting.Eccentric, also ...func(*session.Session) *setting.Eccentric) field {
-	p := func(e func(*session.Session) *setting.Eccentric) func(*session.Session) *float64 {
-		return func(s *session.Session) *float64 { return &e(s).Throw }
-	}
-	var more []func(*session.Session) *float64
-	for _, x := range also {
-		more = append(more, p(x))
-	}
+// setter chose to give that; keys are the throws it sets (a Stephenson
+// gear's two eccentrics alike).
+func travelField(su *setUp, keys ...string) field {
 	toggle := func(su *setUp, _ *session.Session) { su.throwForm = !su.throwForm }
 	if su.throwForm {
-		f := length(key, stepGear, "Eccentric throw", "Axle centre to the sheave's centre: half the travel it gives; measure the sheave's widest and narrowest sides from the axle and halve the difference.", 1, 300, 1, p(e), more...)
-		f.form, f.toggle = "Valve travel instead", toggle
-		return f
+		return ask{keys: keys, step: stepGear, label: "Eccentric throw", say: "Axle centre to the sheave's centre: half the travel it gives; measure the sheave's widest and narrowest sides from the axle and halve the difference.", lo: 1, hi: 300,
+			form: "Valve travel instead", toggleForm: toggle}.field()
 	}
-	f := length(key, stepGear, "Valve travel", "How far the valve moves end to end in full gear, from the drawing or with the gauge over a turn: twice the eccentric's throw.", 2, 600, 2, p(e), more...)
-	f.form, f.toggle = "Eccentric throw instead", toggle
-	return f
+	return ask{keys: keys, step: stepGear, label: "Valve travel", say: "How far the valve moves end to end in full gear, from the drawing or with the gauge over a turn: twice the eccentric's throw.", lo: 2, hi: 600, k: 2,
+		form: "Eccentric throw instead", toggleForm: toggle}.field()
 }
 
 // notchField is where the running notch sits, as a percentage of the
@@ -340,30 +353,35 @@ func adjusterFields(s *session.Session, su *setUp) []field {
 	return fs
 }
 
-// rodKinds are the rod adjusters of a gear of the kind given.
+// rodKinds are the rod adjusters of a gear of the kind given. (Appended,
+// not slice literals: a literal of n adjustments makes the compiler an
+// [n]Adjustment type and an equality function for it, code the browser
+// build carries.)
 func rodKinds(kind string) []session.Adjustment {
-	rod := func(k session.AdjustmentKind, e session.Eccentric) session.Adjustment {
-		return session.Adjustment{Kind: k, Eccentric: e}
-	}
+	var out []session.Adjustment
 	switch kind {
 	case setting.KindStephenson:
-		return []session.Adjustment{rod(session.EccentricRodLength, session.ForwardEccentric), rod(session.EccentricRodLength, session.BackwardEccentric)}
+		out = append(out, session.Adjustment{Kind: session.EccentricRodLength, Eccentric: session.ForwardEccentric})
+		return append(out, session.Adjustment{Kind: session.EccentricRodLength, Eccentric: session.BackwardEccentric})
 	case setting.KindWalschaerts:
-		return []session.Adjustment{rod(session.EccentricRodLength, ""), rod(session.RadiusRodLength, "")}
+		out = append(out, session.Adjustment{Kind: session.EccentricRodLength})
+		return append(out, session.Adjustment{Kind: session.RadiusRodLength})
 	}
-	return []session.Adjustment{rod(session.EccentricRodLength, "")}
+	return append(out, session.Adjustment{Kind: session.EccentricRodLength})
 }
 
 // turnKinds are the adjusters a gear of the kind given turns: its
 // eccentric sheaves, or a Walschaerts return crank.
 func turnKinds(kind string) []session.Adjustment {
+	var out []session.Adjustment
 	switch kind {
 	case setting.KindStephenson:
-		return []session.Adjustment{{Kind: session.EccentricAngle, Eccentric: session.ForwardEccentric}, {Kind: session.EccentricAngle, Eccentric: session.BackwardEccentric}}
+		out = append(out, session.Adjustment{Kind: session.EccentricAngle, Eccentric: session.ForwardEccentric})
+		return append(out, session.Adjustment{Kind: session.EccentricAngle, Eccentric: session.BackwardEccentric})
 	case setting.KindWalschaerts:
-		return []session.Adjustment{{Kind: session.ReturnCrankAngle}}
+		return append(out, session.Adjustment{Kind: session.ReturnCrankAngle})
 	}
-	return []session.Adjustment{{Kind: session.EccentricAngle}}
+	return append(out, session.Adjustment{Kind: session.EccentricAngle})
 }
 
 // adjustmentIndex returns the index of the session's adjustment of adj's
@@ -470,7 +488,7 @@ func threadFields(s *session.Session, adjs []session.Adjustment, name, what stri
 				}
 			}}
 	}
-	fl := ask(adjKey(adj, "thread.flats_per_turn"), stepAdjusters, name+": steps a turn", "How finely can it be turned: by flats of a hex nut (6), of a square one (4), or only by half turns (a fork end that must line up)?",
+	fl := question(adjKey(adj, "thread.flats_per_turn"), stepAdjusters, name+": steps a turn", "How finely can it be turned: by flats of a hex nut (6), of a square one (4), or only by half turns (a fork end that must line up)?",
 		flats(6, "6 (hex nut)"), flats(4, "4 (square nut)"), flats(2, "2 (half turns)"))
 	fl.path = adjPath(adj, "thread")
 	return []field{th, fl, limitField(adjs, name+": limit", "How far "+what+" can be moved either way before something fouls or the thread runs out.", false)}
@@ -526,7 +544,7 @@ func rodsQuestion(rods []session.Adjustment) field {
 				}
 			}}
 	}
-	f := ask(adjKey(rods[0], "thread"), stepAdjusters, "Rod lengths", "Can the length of "+words+" be changed (a screwed end with a lock nut), and on what thread?",
+	f := question(adjKey(rods[0], "thread"), stepAdjusters, "Rod lengths", "Can the length of "+words+" be changed (a screwed end with a lock nut), and on what thread?",
 		pick("Yes, on the spindle's thread", same), pick("Yes, on a thread of their own", own), pick("No", none))
 	f.path = func(s *session.Session) string { return "adjustments" }
 	return f
@@ -557,7 +575,7 @@ func turnQuestion(kind string, turn []session.Adjustment) field {
 				}
 			}}
 	}
-	f := ask(adjKey(turn[0], "turn"), stepAdjusters, words, say, pick("Can be turned", true), pick("Fixed", false))
+	f := question(adjKey(turn[0], "turn"), stepAdjusters, words, say, pick("Can be turned", true), pick("Fixed", false))
 	f.path = func(s *session.Session) string { return "adjustments" }
 	return f
 }

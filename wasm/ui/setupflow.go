@@ -306,7 +306,7 @@ func (a *App) saveDraft() bool {
 // draft writes what has been given of the new engine, one line each: the
 // gear, name, unit and gauge, then each answer as its key and value (the
 // value as shown, in mm for a length) in the order asked, and the forms
-// chosen.
+// they were asked in (which the values shown depend on).
 func (a *App) draft() []byte {
 	s := a.Session()
 	var b bytes.Buffer
@@ -325,14 +325,14 @@ func (a *App) draft() []byte {
 			fmt.Fprintf(&b, "skip %s\n", f.Key)
 		}
 	}
-	for k := range a.su.apart {
-		fmt.Fprintf(&b, "apart %s\n", k)
-	}
 	for k, v := range a.su.forms {
 		fmt.Fprintf(&b, "form %s %s\n", k, v)
 	}
 	if a.su.throwForm {
 		b.WriteString("throw\n")
+	}
+	for k := range a.su.apart {
+		fmt.Fprintf(&b, "apart %s\n", k)
 	}
 	return b.Bytes()
 }

@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"evenbeat/setting"
+	"evenbeat/setting/session"
 )
 
 // BalanceLayout is where the balance card puts each part in its box: a
@@ -37,7 +38,8 @@ type BalanceRow struct {
 }
 
 const (
-	laneH    = 26 // height of a lane
+	laneH    = 26 // height of a lane's bar
+	valuesH  = 18 // height of the line of values under each lane's bar
 	verdictW = 22 // room for a verdict mark
 )
 
@@ -77,7 +79,7 @@ func LayoutBalance(box Rect, m *Model) BalanceLayout {
 		y += lineStep(BodySize)
 		for k := 0; k < lanes; k++ {
 			r.Lanes = append(r.Lanes, y+laneH/2)
-			y += laneH
+			y += laneH + valuesH
 		}
 		y += gap
 		l.Rows = append(l.Rows, r)
@@ -122,8 +124,14 @@ func leadIn(m *Model, mm float64) float64 {
 // shows how far each end lies from that middle: the tolerance band is
 // plus or minus half the tolerance, and the half-width is the larger of
 // one and a half tolerances and the widest pair's half-difference, with a
-// tenth to spare, rounded out to a tick.
+// tenth to spare, rounded out to a tick. A model with a Scale takes that
+// model's ranges.
 func BalanceRanges(m *Model) (lead, cut float64, leadTicks, cutTicks []float64) {
+	if m.Scale != nil && m.Scale != m {
+		s := *m.Scale
+		s.Unit = m.Unit
+		return BalanceRanges(&s)
+	}
 	lead, cut = 1.5*leadIn(m, m.LeadTolMM), 1.5*m.CutOffTolPct
 	for _, p := range m.Positions {
 		for _, ev := range eventSets(p) {
@@ -227,13 +235,24 @@ func Balance(c Canvas, m *Model, box Rect, th Theme) {
 				if !ok {
 					barCol = th.Warn
 				}
+				// Beyond a kept scale an end is drawn at its edge; the
+				// values under the bar say where it is.
+				fx, bx := scales[k].At(clampAbs(f, halves[k])), scales[k].At(clampAbs(b, halves[k]))
 				var bar Path
-				bar.MoveTo(Point{scales[k].At(f), y})
-				bar.LineTo(Point{scales[k].At(b), y})
+				bar.MoveTo(Point{fx, y})
+				bar.LineTo(Point{bx, y})
 				c.Stroke(bar, LineStyle{Color: barCol, Width: 3})
-				th.FrontMark(c, Point{scales[k].At(f), y})
-				th.BackMark(c, Point{scales[k].At(b), y})
+				th.FrontMark(c, Point{fx, y})
+				th.BackMark(c, Point{bx, y})
 				verdict(c, Point{l.Verdict[k], y}, ok, th)
+				// The two values themselves, the front end's at the
+				// left of the column in its colour, the back's at the
+				// right in its.
+				vy := y + laneH/2 + valuesH/2
+				fs := TextStyle{Color: th.Front, Size: BodySize, VAlign: Middle}
+				c.Text(Point{l.Cols[k].Min.X - 6, vy}, balanceValue(m, k, vals[k][0]), fs)
+				fs.HAlign, fs.Color = Right, th.Back
+				c.Text(Point{l.Cols[k].Max.X + 6, vy}, balanceValue(m, k, vals[k][1]), fs)
 			}
 		}
 	}
@@ -247,6 +266,21 @@ func Balance(c Canvas, m *Model, box Rect, th Theme) {
 	}, th)
 	drawLines(c, Point{l.CaptionX, l.CaptionY}, l.Caption, TextStyle{Color: th.Ink, Size: BodySize})
 }
+
+// balanceValue writes a value of column k (0 lead in the display unit, 1
+// cut-off in %) as the balance card shows it.
+func balanceValue(m *Model, k int, v float64) string {
+	if k == 1 {
+		return fmt.Sprintf("%.1f", v)
+	}
+	if m.Unit == session.UnitInch {
+		return fmt.Sprintf("%.4f", v)
+	}
+	return fmt.Sprintf("%.2f", v)
+}
+
+// clampAbs limits v to [-h, h].
+func clampAbs(v, h float64) float64 { return math.Max(-h, math.Min(h, v)) }
 
 // verdict draws a tick (ok) in the accent colour or a cross in the warning
 // colour, centred on at: told apart by shape as well as colour.

@@ -177,11 +177,15 @@ func hatch(r Rect, step float64) Path {
 	return p
 }
 
-// yTickWidth returns the width of the widest tick label.
-func yTickWidth(ticks []float64) float64 {
+// yTickWidth returns the width of the widest tick label, written by
+// label (nil: FormatTick).
+func yTickWidth(ticks []float64, label func(float64) string) float64 {
+	if label == nil {
+		label = FormatTick
+	}
 	w := 0.0
 	for _, v := range ticks {
-		w = math.Max(w, TextWidth(FormatTick(v), BodySize, false))
+		w = math.Max(w, TextWidth(label(v), BodySize, false))
 	}
 	return w
 }

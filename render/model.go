@@ -71,6 +71,10 @@ type Model struct {
 	LeadTolMM, CutOffTolPct float64
 	// FitRMSMM is the fit's root-mean-square residual (0 without readings).
 	FitRMSMM float64
+	// Scale, when set, is the model whose balance scales this one keeps:
+	// a what-if keeps the plan's, so that today does not seem to move
+	// while an amount is dragged (see BalanceRanges).
+	Scale *Model
 
 	geo   MotionGeometry
 	geoOK bool       // geo is worked out on the first Geometry call

@@ -443,7 +443,8 @@ type InsetPorts struct {
 
 // Ports returns the enlarged port face and valve at displacement x, worked
 // out from the laps so the drawing opens each port at the valve's true
-// displacement (see setting.Admission for the edges).
+// displacement (see setting.Admission for the edges); travel is twice the
+// furthest the valve goes from central either way.
 func Ports(v setting.Valve, x float64, travel float64) InsetPorts {
 	wf, wb := v.Front.Width(), v.Back.Width()
 	w := math.Max(math.Max(wf, wb), 0.5)
@@ -471,11 +472,16 @@ func Ports(v setting.Valve, x float64, travel float64) InsetPorts {
 func valveInset(c Canvas, l MotionLayout, m *Model, x float64, fs, bs PortState, th Theme) {
 	r := l.Inset
 	c.Fill(RoundRect(r, 6), FillStyle{Color: th.Background})
-	travel := 0.0
+	// The valve's furthest excursion either way, today and after, in
+	// any position (a valve off centre on its spindle goes further one
+	// way than half its travel), so that it stays on its port face.
+	reach := math.Abs(x)
 	for _, p := range m.Positions {
-		travel = math.Max(travel, p.NowEvents.ValveTravel())
+		for _, ev := range eventSets(p) {
+			reach = math.Max(reach, math.Max(math.Abs(ev.ValveMin), math.Abs(ev.ValveMax)))
+		}
 	}
-	ip := Ports(m.Valve, x, travel)
+	ip := Ports(m.Valve, x, 2*reach)
 	k := (r.W() - 16) / (2 * ip.Half)
 	mid := (r.Min.X + r.Max.X) / 2
 	sx := func(u float64) float64 { return mid + u*k }
@@ -498,13 +504,14 @@ func valveInset(c Canvas, l MotionLayout, m *Model, x float64, fs, bs PortState,
 		c.Stroke(hatch(ex, 6), LineStyle{Color: th.Muted, Width: 1.5})
 	}
 	vh := face - r.Min.Y - 8
+	clip := func(u float64) float64 { return math.Max(-ip.Half, math.Min(ip.Half, u)) }
 	for _, s := range ip.Valve {
-		c.Fill(RoundRect(Rect{Point{sx(s[0]), face - vh}, Point{sx(s[1]), face - 1}}, 2), FillStyle{Color: th.Ink})
+		c.Fill(RoundRect(Rect{Point{sx(clip(s[0])), face - vh}, Point{sx(clip(s[1])), face - 1}}, 2), FillStyle{Color: th.Ink})
 	}
 	if len(ip.Valve) == 2 && m.Valve.Admission == setting.Internal {
 		var sp Path
-		sp.MoveTo(Point{sx(ip.Valve[1][1]), face - vh/2})
-		sp.LineTo(Point{sx(ip.Valve[0][0]), face - vh/2})
+		sp.MoveTo(Point{sx(clip(ip.Valve[1][1])), face - vh/2})
+		sp.LineTo(Point{sx(clip(ip.Valve[0][0])), face - vh/2})
 		c.Stroke(sp, LineStyle{Color: th.Ink, Width: 3})
 	}
 	st := TextStyle{Color: th.Ink, Size: BodySize, VAlign: Top}

@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"evenbeat/setting"
+	"evenbeat/setting/session"
 )
 
 // LayoutValvePiston lays out the valve-against-piston card of position i.
@@ -12,10 +13,10 @@ func LayoutValvePiston(box Rect, m *Model, i int) CardLayout {
 	_, _, ticks := ValveRange(m, i)
 	return LayoutCard(box, CardSpec{
 		Title: "Valve against piston, " + m.Positions[i].Notch.Name,
-		Sub:   "Valve from central, mm, against the piston's place in the cylinder, % of stroke from the front.",
+		Sub:   "Valve from central, " + unitName(m) + ", against the piston's place in the cylinder, % of stroke from the front.",
 		Caption: "Each stroke traces one side of the loop. Where the loop crosses an end's steam edge, that port opens or closes to steam; " +
 			"a loop even about the middle means an even beat.",
-		LegendRows: 4, YTickWidth: yTickWidth(ticks), MaxPlotH: 0.9 * box.W(),
+		LegendRows: 4, YTickWidth: yTickWidth(ticks, m.LengthLabel), MaxPlotH: 0.9 * box.W(),
 	})
 }
 
@@ -109,8 +110,8 @@ func LayoutPortOpening(box Rect, m *Model, i int) CardLayout {
 	}
 	return LayoutCard(box, CardSpec{
 		Title:   "Port opening, " + m.Positions[i].Notch.Name,
-		Sub:     "Top: opening in mm. Below: open area in mm², against crank angle.",
-		Caption: cap, LegendRows: 3, YTickWidth: yTickWidth(Ticks(0, math.Max(w, 1)*1.1, 3)) + 8,
+		Sub:     "Top: opening in " + unitName(m) + ". Below: open area in " + unitName(m) + "², against crank angle.",
+		Caption: cap, LegendRows: 3, YTickWidth: yTickWidth(m.lengthTicks(0, math.Max(w, 1)*1.1, 3), m.LengthLabel) + 8,
 		StripH: math.Min(160, math.Max(60, 0.22*box.H())), MaxPlotH: 200,
 	})
 }
@@ -138,9 +139,10 @@ func PortOpening(c Canvas, m *Model, i int, box Rect, th Theme) {
 	if !(wmax > 0) {
 		wmax = 1
 	}
-	ax := NewAxes(l.Plot, 0, 360, 0, wmax*1.1, AngleTicks(0, 360, 4), Ticks(0, wmax*1.1, 3))
+	ax := NewAxes(l.Plot, 0, 360, 0, wmax*1.1, AngleTicks(0, 360, 4), m.lengthTicks(0, wmax*1.1, 3))
+	ax.YLabel = m.LengthLabel
 	ax.Draw(c, l.XTicksY, th)
-	c.Text(Point{l.Inner.Min.X, l.YLabelY}, "opening, mm", TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
+	c.Text(Point{l.Inner.Min.X, l.YLabelY}, "opening, "+unitName(m), TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
 	c.Text(Point{(l.Plot.Min.X + l.Plot.Max.X) / 2, l.XLabelY}, "crank angle, degrees", TextStyle{Color: th.Muted, Size: BodySize, HAlign: Center, VAlign: Top})
 	curve := func(a Axes, f func(s PortSample) float64) Path {
 		pts := make([]Point, len(ss))
@@ -156,7 +158,15 @@ func PortOpening(c Canvas, m *Model, i int, box Rect, th Theme) {
 	if !(amax > 0) {
 		amax = 1
 	}
-	at := Ticks(0, amax*1.1, 2)
+	// Areas in the display unit's square (645.16 mm² to the square inch).
+	sq := 1.0
+	if m.Unit == session.UnitInch {
+		sq = 25.4 * 25.4
+	}
+	at := Ticks(0, amax*1.1/sq, 2)
+	for k := range at {
+		at[k] *= sq
+	}
 	area := NewAxes(l.Strip, 0, 360, 0, amax*1.1, ax.XTicks, at)
 	var grid Path
 	for _, v := range at {
@@ -175,8 +185,8 @@ func PortOpening(c Canvas, m *Model, i int, box Rect, th Theme) {
 	frame.LineTo(Point{l.Strip.Min.X, l.Strip.Max.Y})
 	frame.LineTo(l.Strip.Max)
 	c.Stroke(frame, th.AxisLine())
-	c.Text(Point{l.Strip.Min.X - tickLen - 3, area.Y.At(at[len(at)-1])}, FormatTick(at[len(at)-1]), TextStyle{Color: th.Ink, Size: BodySize, HAlign: Right, VAlign: Top})
-	c.Text(Point{l.Strip.Min.X + 4, l.Strip.Min.Y + 2}, "area, mm²", TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
+	c.Text(Point{l.Strip.Min.X - tickLen - 3, area.Y.At(at[len(at)-1])}, FormatTick(math.Round(at[len(at)-1]/sq*1e6)/1e6), TextStyle{Color: th.Ink, Size: BodySize, HAlign: Right, VAlign: Top})
+	c.Text(Point{l.Strip.Min.X + 4, l.Strip.Min.Y + 2}, "area, "+unitName(m)+"²", TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
 	if holes(m.Valve) {
 		cmp := th.CompareLine()
 		c.Stroke(curve(area, func(s PortSample) float64 { return s.FrontSlot }), cmp)

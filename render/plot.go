@@ -13,6 +13,9 @@ type Axes struct {
 	Plot           Rect  // plotting area; the axes run along its left and bottom
 	X, Y           Scale // data to logical units
 	XTicks, YTicks []float64
+	// YLabel writes a y tick's label; nil writes the value (FormatTick).
+	// A length plotted in mm and read in inches labels its ticks so.
+	YLabel func(v float64) string
 }
 
 // NewAxes maps the data ranges [x0, x1] and [y0, y1] onto plot, with y
@@ -50,7 +53,7 @@ func (a Axes) Draw(c Canvas, xLabelsTop float64, th Theme) {
 		grid.LineTo(Point{p.Max.X, y})
 		ticks.MoveTo(Point{p.Min.X - tickLen, y})
 		ticks.LineTo(Point{p.Min.X, y})
-		c.Text(Point{p.Min.X - tickLen - 3, y}, FormatTick(v), TextStyle{Color: th.Ink, Size: BodySize, HAlign: Right, VAlign: Middle})
+		c.Text(Point{p.Min.X - tickLen - 3, y}, a.yLabel(v), TextStyle{Color: th.Ink, Size: BodySize, HAlign: Right, VAlign: Middle})
 	}
 	c.Stroke(grid, th.GridLine())
 	var axes Path
@@ -59,6 +62,14 @@ func (a Axes) Draw(c Canvas, xLabelsTop float64, th Theme) {
 	axes.LineTo(p.Max)
 	c.Stroke(axes, th.AxisLine())
 	c.Stroke(ticks, th.AxisLine())
+}
+
+// yLabel is the label of y tick v.
+func (a Axes) yLabel(v float64) string {
+	if a.YLabel != nil {
+		return a.YLabel(v)
+	}
+	return FormatTick(v)
 }
 
 // Curve samples f at x0, x0+step, ... up to x1 (inclusive when it lands on

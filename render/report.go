@@ -7,15 +7,55 @@ import (
 	"strings"
 
 	"evenbeat/setting"
+	"evenbeat/setting/beat"
+	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
 )
 
-// ReportModel is what the printed report shows: the diagram model of one
-// cylinder (with its plan) and, when there is one, the session it came
-// from for the header.
+// ReportModel is what the printed report shows: the diagram model of the
+// cylinder the setter is on (with its plan), the engine's other cylinders
+// that have readings (each with its plan), the session it came from for
+// the header (may be nil), and the whole engine's beat in each position
+// every cylinder's plan covers (WholeEngine fills Others and Beat).
 type ReportModel struct {
 	Model   *Model
-	Session *session.Session // may be nil
+	Others  []*Model
+	Session *session.Session
+	Beat    []beat.Position
+}
+
+// WholeEngine returns the report of the whole engine: m (the cylinder
+// opt.Cylinder of s, its model made with opt), every other cylinder of s
+// with readings planned with the same choices, and, when every cylinder
+// has a plan, the beat. A cylinder whose plan cannot be made is left out
+// of Others (and then of the beat), as it would be on its own.
+func WholeEngine(s *session.Session, m *Model, opt plan.Options) ReportModel {
+	rm := ReportModel{Model: m, Session: s}
+	if s == nil || m == nil || len(s.Cylinders) < 2 {
+		return rm
+	}
+	plans := make([]*plan.Plan, len(s.Cylinders))
+	plans[opt.Cylinder] = m.Plan
+	for i := range s.Cylinders {
+		if i == opt.Cylinder || len(s.Cylinders[i].Rounds) == 0 {
+			continue
+		}
+		o := opt
+		o.Cylinder = i
+		om, err := NewSessionModel(s, o)
+		if err != nil {
+			continue
+		}
+		rm.Others = append(rm.Others, om)
+		plans[i] = om.Plan
+	}
+	for _, p := range plans {
+		if p == nil {
+			return rm
+		}
+	}
+	rm.Beat, _ = beat.FromPlans(s, plans, beat.DefaultSteam)
+	return rm
 }
 
 // Report sizes, logical units.
@@ -56,27 +96,57 @@ func (nopCanvas) Fill(Path, FillStyle)          {}
 func (nopCanvas) Stroke(Path, LineStyle)        {}
 func (nopCanvas) Text(Point, string, TextStyle) {}
 
+// page is where the report is drawn: the canvas, the column's edges and
+// how far down it has come.
+type page struct {
+	c       Canvas
+	th      Theme
+	x0, x1  float64
+	y       float64
+	ink     TextStyle
+	muted   TextStyle
+	heading TextStyle
+}
+
+// para draws a paragraph in style s and moves down past it.
+func (p *page) para(text string, s TextStyle) {
+	lines := Wrap(text, p.x1-p.x0, textSize(s), s.Bold)
+	drawLines(p.c, Point{p.x0, p.y}, lines, s)
+	p.y += float64(len(lines)) * lineStep(textSize(s))
+}
+
+// section starts a section under a heading.
+func (p *page) section(title string) {
+	p.y += gap
+	p.para(title, p.heading)
+	p.y += 2
+}
+
+// card draws a card of height h across the column.
+func (p *page) card(h float64, draw func(box Rect)) {
+	box := Rect{Point{p.x0, p.y}, Point{p.x1, p.y + h}}
+	draw(box)
+	p.y = box.Max.Y + gap
+}
+
 // report draws the report and returns the height used.
 func report(c Canvas, rm ReportModel, th Theme, w float64) float64 {
 	m := rm.Model
-	x0, x1 := float64(reportPad), w-reportPad
-	y := float64(reportPad)
-	ink := TextStyle{Color: th.Ink, Size: BodySize}
-	muted := TextStyle{Color: th.Muted, Size: BodySize}
-	para := func(text string, s TextStyle) {
-		lines := Wrap(text, x1-x0, textSize(s), s.Bold)
-		drawLines(c, Point{x0, y}, lines, s)
-		y += float64(len(lines)) * lineStep(textSize(s))
-	}
+	pg := &page{c: c, th: th, x0: reportPad, x1: w - reportPad, y: reportPad,
+		ink: TextStyle{Color: th.Ink, Size: BodySize}, muted: TextStyle{Color: th.Muted, Size: BodySize},
+		heading: TextStyle{Color: th.Ink, Size: TitleSize, Bold: true}}
+	x0, x1 := pg.x0, pg.x1
+	ink, muted := pg.ink, pg.muted
+	para := pg.para
 	// Header.
 	para("Valve setting report", TextStyle{Color: th.Ink, Size: TitleSize + 6, Bold: true})
 	if m == nil {
 		para("There is nothing to report: no engine was given.", muted)
-		return y + reportPad
+		return pg.y + reportPad
 	}
 	head := m.Title
 	if s := rm.Session; s != nil {
-		if s.Name != "" {
+		if s.Name != "" && !strings.HasPrefix(head, s.Name) {
 			head += ". " + s.Name
 		}
 		for _, cy := range s.Cylinders {
@@ -91,18 +161,59 @@ func report(c Canvas, rm ReportModel, th Theme, w float64) float64 {
 		head += ". Invented demonstration engine."
 	}
 	para(head, muted)
-	y += gap
+	pg.y += gap
 
-	section := func(title string) {
-		y += gap
-		para(title, TextStyle{Color: th.Ink, Size: TitleSize, Bold: true})
-		y += 2
-	}
-	section("Engine")
+	pg.section("Engine")
 	para(engineFigures(m), ink)
+	cylinderReport(pg, m, "")
+	for _, o := range rm.Others {
+		cylinderReport(pg, o, cylinderName(o))
+	}
+	if len(rm.Beat) > 0 {
+		wholeEngineReport(pg, rm)
+	}
 
+	pg.section("Before you turn the wheels")
+	for _, s := range setting.Cautions() {
+		lines := Wrap(s, x1-x0-bulletIndent, BodySize, false)
+		c.Fill(RectPath(Rect{Point{x0 + 3, pg.y + 6}, Point{x0 + 10, pg.y + 13}}), FillStyle{Color: th.Warn})
+		drawLines(c, Point{x0 + bulletIndent, pg.y}, lines, ink)
+		pg.y += float64(len(lines))*lineStep(BodySize) + paraGap
+	}
+	pg.y += gap
+	para("Drawn by Evenbeat from the readings above. Check every change against the engine before you make it; full-size engines are set under the railway's own procedures.", muted)
+	return pg.y + reportPad
+}
+
+// cylinderName is the cylinder a model's title names ("left cylinder"),
+// from "engine, left cylinder".
+func cylinderName(m *Model) string {
+	if i := strings.LastIndex(m.Title, ", "); i >= 0 {
+		return capital(m.Title[i+2:])
+	}
+	return m.Title
+}
+
+// cylinderReport draws one cylinder's part of the report under the
+// heading title ("" for the cylinder the report is about, whose sections
+// stand on their own): its readings, events, balance, valve curves and
+// plan.
+func cylinderReport(pg *page, m *Model, title string) {
+	c, th := pg.c, pg.th
+	x0, x1 := pg.x0, pg.x1
+	ink, muted := pg.ink, pg.muted
+	sub := func(s string) string {
+		if title == "" {
+			return s
+		}
+		return title + ": " + strings.ToLower(s[:1]) + s[1:]
+	}
+	if title != "" {
+		pg.y += gap
+		pg.para(title, TextStyle{Color: th.Ink, Size: TitleSize + 3, Bold: true})
+	}
 	if len(m.Readings) > 0 {
-		section("Readings of the latest round")
+		pg.section(sub("Readings of the latest round"))
 		rows := [][]string{{"reading", "crank", "valve", "off the fit"}}
 		shown := listedReadings(m.Readings)
 		for i, r := range m.Readings {
@@ -115,30 +226,25 @@ func report(c Canvas, rm ReportModel, th Theme, w float64) float64 {
 			}
 			rows = append(rows, []string{r.Label, fmt.Sprintf("%.1f°", r.CrankDeg), m.length(r.ValveMM), off})
 		}
-		y = table(c, Point{x0, y}, x1-x0, []float64{0.5, 0.14, 0.16, 0.2}, rows, th)
+		pg.y = table(c, Point{x0, pg.y}, x1-x0, []float64{0.5, 0.14, 0.16, 0.2}, rows, th)
 		if n := len(m.Readings); n > len(rows)-1 {
-			para(fmt.Sprintf("Of the %d readings, the %d farthest off the fit are listed.", n, len(rows)-1), muted)
+			pg.para(fmt.Sprintf("Of the %d readings, the %d farthest off the fit are listed.", n, len(rows)-1), muted)
 		}
-		para(fmt.Sprintf("Valve positions are the readings less the fitted gauge zero. The fit follows them to %s root-mean-square.", m.length(m.FitRMSMM)), muted)
+		pg.para(fmt.Sprintf("Valve positions are the readings less the fitted gauge zero. The fit follows them to %s root-mean-square.", m.length(m.FitRMSMM)), muted)
 		if m.Plan != nil {
 			for _, r := range m.Plan.Recheck {
-				para("Recheck: "+r.Label+", "+m.length(r.ResidualMM)+" off the fit.", TextStyle{Color: th.Warn, Size: BodySize})
+				pg.para("Recheck: "+r.Label+", "+m.length(r.ResidualMM)+" off the fit.", TextStyle{Color: th.Warn, Size: BodySize})
 			}
 		}
 	}
 
-	section("Events")
-	y = table(c, Point{x0, y}, x1-x0, nil, eventRows(m), th)
-	para("Leads in "+unitName(m)+" (negative: still closed at dead centre); cut-offs in % of the stroke from that end.", muted)
+	pg.section(sub("Events"))
+	pg.y = table(c, Point{x0, pg.y}, x1-x0, nil, eventRows(m), th)
+	pg.para("Leads in "+unitName(m)+" (negative: still closed at dead centre); cut-offs in % of the stroke from that end.", muted)
 
-	y += gap
-	card := func(h float64, draw func(box Rect)) {
-		box := Rect{Point{x0, y}, Point{x1, y + h}}
-		draw(box)
-		y = box.Max.Y + gap
-	}
+	pg.y += gap
 	bl := LayoutBalance(Rect{Max: Point{x1 - x0, 1e6}}, m)
-	card(bl.NeedH, func(b Rect) { Balance(c, m, b, th) })
+	pg.card(bl.NeedH, func(b Rect) { Balance(c, m, b, th) })
 	var undrawn []string
 	for i, p := range m.Positions {
 		// Full forward, the first notches and full back: a report stays
@@ -148,31 +254,89 @@ func report(c Canvas, rm ReportModel, th Theme, w float64) float64 {
 			continue
 		}
 		h := LayoutValveCurve(Rect{Max: Point{x1 - x0, 1e6}}, m, i).NeedH + reportPlotH - minPlotH
-		card(h, func(b Rect) { ValveCurve(c, m, i, b, th) })
+		pg.card(h, func(b Rect) { ValveCurve(c, m, i, b, th) })
 	}
 	if len(undrawn) > 0 {
-		para("Valve curves not drawn (the events table gives their events): "+strings.Join(undrawn, ", ")+".", muted)
-		y += gap
+		pg.para("Valve curves not drawn (the events table gives their events): "+strings.Join(undrawn, ", ")+".", muted)
+		pg.y += gap
 	}
 	if m.Plan != nil {
 		pl := LayoutPlan(Rect{Max: Point{x1 - x0, 1e6}}, m)
-		card(pl.NeedH, func(b Rect) { PlanCard(c, m, b, th) })
+		pg.card(pl.NeedH, func(b Rect) { PlanCard(c, m, b, th) })
 		for _, n := range m.Plan.Notes {
-			para(n, ink)
-			y += 4
+			pg.para(n, ink)
+			pg.y += 4
 		}
 	}
+}
 
-	section("Before you turn the wheels")
-	for _, s := range setting.Cautions() {
-		lines := Wrap(s, x1-x0-bulletIndent, BodySize, false)
-		c.Fill(RectPath(Rect{Point{x0 + 3, y + 6}, Point{x0 + 10, y + 13}}), FillStyle{Color: th.Warn})
-		drawLines(c, Point{x0 + bulletIndent, y}, lines, ink)
-		y += float64(len(lines))*lineStep(BodySize) + paraGap
+// wholeEngineReport draws the whole engine: the beat in the positions
+// where it matters (the running notches, else full forward; and full
+// back), the work of every end, and the quartering the marks show.
+func wholeEngineReport(pg *page, rm ReportModel) {
+	c, th := pg.c, pg.th
+	pg.y += gap
+	pg.para("The whole engine", TextStyle{Color: th.Ink, Size: TitleSize + 3, Bold: true})
+	pg.para("Every cylinder's exhausts round one turn of the wheel, and the work each end does, from each cylinder's events today and after its plan.", pg.muted)
+	pg.y += gap
+	for _, pos := range beatPositions(rm.Beat) {
+		h := LayoutBeat(Rect{Max: Point{pg.x1 - pg.x0, 1e6}}, pos, nil).NeedH
+		pg.card(h, func(b Rect) { BeatCard(c, b, pos, nil, th) })
+		if len(pos.WorkNow) > 0 && len(pos.WorkAfter) == len(pos.WorkNow) {
+			rows := [][]string{{"end", "mean pressure", "share", "after", "share"}}
+			for k, w := range pos.WorkNow {
+				a := pos.WorkAfter[k]
+				rows = append(rows, []string{w.Cylinder + " " + w.End.String(), fmt.Sprintf("%.2f bar", w.Bar), fmt.Sprintf("%.0f %%", w.Share), fmt.Sprintf("%.2f bar", a.Bar), fmt.Sprintf("%.0f %%", a.Share)})
+			}
+			pg.y = table(c, Point{pg.x0, pg.y}, pg.x1-pg.x0, []float64{0.3, 0.22, 0.13, 0.22, 0.13}, rows, th)
+		}
 	}
-	y += gap
-	para("Drawn by Evenbeat from the readings above. Check every change against the engine before you make it; full-size engines are set under the railway's own procedures.", muted)
-	return y + reportPad
+	st := beat.DefaultSteam
+	pg.para(fmt.Sprintf("Work from a simple indicator diagram: admission at %.1f bar less %.0f %%, expansion and compression with pV constant, %.0f %% clearance, exhaust at %.1f bar; each end's share is of the mean of all of them.",
+		st.BoilerBar, 100*st.DropShare, 100*st.ClearanceShare, st.BackBar), pg.muted)
+	if rm.Session != nil {
+		if qs, err := beat.Quarterings(rm.Session); err == nil {
+			for _, q := range qs {
+				s := fmt.Sprintf("Quartering: the marks put the %s crank %s° from the %s crank (drawing %s°), %s° +/- %s° off.",
+					q.Other, deg(q.Measured), q.First, deg(q.Design), deg(q.Error), deg(q.Uncertainty()))
+				style := pg.ink
+				if q.Told {
+					s += " That is more than the marks can tell: the cranks are not truly quartered. No valve adjustment cures it; it is work on the wheels for a fitter, with the wheels off the engine and the usual precautions."
+					style = TextStyle{Color: th.Warn, Size: BodySize}
+				} else {
+					s += " Within what the marks can tell (this needs both wheels' datums at the same angle)."
+				}
+				pg.para(s, style)
+			}
+		}
+	}
+}
+
+// beatPositions picks the beat cards a report draws: the running notches
+// (or full forward when there are none) and full back.
+func beatPositions(ps []beat.Position) []beat.Position {
+	var out []beat.Position
+	for _, p := range ps {
+		if p.Name != session.FullForward && p.Name != session.FullBack {
+			out = append(out, p)
+		}
+	}
+	if len(out) == 0 {
+		for _, p := range ps {
+			if p.Name == session.FullForward {
+				out = append(out, p)
+			}
+		}
+	}
+	for _, p := range ps {
+		if p.Name == session.FullBack {
+			out = append(out, p)
+		}
+	}
+	if len(out) > 3 {
+		out = append(out[:2], out[len(out)-1])
+	}
+	return out
 }
 
 // Bounds that keep the report a few pages long whatever the session.

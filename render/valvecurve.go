@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"evenbeat/setting"
+	"evenbeat/setting/session"
 )
 
 // Edges are the valve displacements (mm, + toward the front cover) at
@@ -52,13 +53,35 @@ func ValveRange(m *Model, i int) (lo, hi float64, ticks []float64) {
 		pad = 1
 	}
 	lo, hi = lo-pad, hi+pad
-	ticks = Ticks(lo, hi, 5)
+	ticks = m.lengthTicks(lo, hi, 5)
 	if len(ticks) > 1 {
 		step := ticks[1] - ticks[0]
-		lo, hi = math.Floor(lo/step)*step, math.Ceil(hi/step)*step
-		ticks = Ticks(lo, hi, 5)
+		lo, hi = math.Floor(lo/step+1e-9)*step, math.Ceil(hi/step-1e-9)*step
+		ticks = m.lengthTicks(lo, hi, 5)
 	}
 	return lo, hi, ticks
+}
+
+// lengthTicks returns ticks for lengths from lo to hi mm at round values
+// of the display unit (in mm).
+func (m *Model) lengthTicks(lo, hi float64, n int) []float64 {
+	if m.Unit != session.UnitInch {
+		return Ticks(lo, hi, n)
+	}
+	ts := Ticks(lo/25.4, hi/25.4, n)
+	for k := range ts {
+		ts[k] *= 25.4
+	}
+	return ts
+}
+
+// LengthLabel writes a length tick (mm) in the display unit, without the
+// unit: the axis label names it.
+func (m *Model) LengthLabel(mm float64) string {
+	if m.Unit == session.UnitInch {
+		return FormatTick(math.Round(mm/25.4*1e6) / 1e6)
+	}
+	return FormatTick(mm)
 }
 
 // residualStripH is the height of the residual strip under a valve curve.
@@ -74,7 +97,7 @@ func LayoutValveCurve(box Rect, m *Model, i int) CardLayout {
 	_, _, ticks := ValveRange(m, i)
 	return LayoutCard(box, CardSpec{
 		Title: ValveCurveTitle(m, i), Sub: valveCurveSub(m, i), Caption: valveCurveCaption(m, i),
-		LegendRows: len(valveCurveLegend(m, i, Light())), YTickWidth: yTickWidth(ticks),
+		LegendRows: len(valveCurveLegend(m, i, Light())), YTickWidth: yTickWidth(ticks, m.LengthLabel),
 		StripH: stripH(m, i),
 	})
 }
@@ -87,7 +110,7 @@ func stripH(m *Model, i int) float64 {
 }
 
 func valveCurveSub(m *Model, i int) string {
-	s := "Valve from central, mm (+ toward the front cover), against crank angle."
+	s := "Valve from central, " + unitName(m) + " (+ toward the front cover), against crank angle."
 	if m.Title != "" {
 		s = m.Title + ". " + s
 	}
@@ -290,7 +313,7 @@ func residualStrip(c Canvas, box Rect, ax Axes, rs []Reading, m *Model, th Theme
 		c.Stroke(s, LineStyle{Color: col, Width: 2})
 		diamond(c, Point{x, ys.At(math.Max(-rr, math.Min(rr, r.ResidualMM)))}, col, th.Surface)
 	}
-	c.Text(Point{box.Max.X - 3, box.Min.Y + 1}, "off the fit, ±"+FormatTick(math.Round(rr*1000)/1000)+" mm", TextStyle{Color: th.Muted, Size: BodySize, HAlign: Right, VAlign: Top})
+	c.Text(Point{box.Max.X - 3, box.Min.Y + 1}, "off the fit, ±"+m.LengthLabel(rr)+" "+unitName(m), TextStyle{Color: th.Muted, Size: BodySize, HAlign: Right, VAlign: Top})
 }
 
 // valvePlot sets up a plot of valve displacement (y) against x from 0 to
@@ -301,11 +324,12 @@ func residualStrip(c Canvas, box Rect, ax Axes, rs []Reading, m *Model, th Theme
 func valvePlot(c Canvas, m *Model, i int, l CardLayout, x1 float64, xticks []float64, xlabel string, curve []float64, th Theme) (Axes, Edges) {
 	lo, hi, ticks := ValveRange(m, i)
 	ax := NewAxes(l.Plot, 0, x1, lo, hi, xticks, ticks)
+	ax.YLabel = m.LengthLabel
 	e := ValveEdges(m.Valve)
 	lapBand(c, ax, e.FrontSteam, false, th)
 	lapBand(c, ax, e.BackSteam, true, th)
 	ax.Draw(c, l.XTicksY, th)
-	c.Text(Point{l.Inner.Min.X, l.YLabelY}, "valve, mm", TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
+	c.Text(Point{l.Inner.Min.X, l.YLabelY}, "valve, "+unitName(m), TextStyle{Color: th.Muted, Size: BodySize, VAlign: Top})
 	c.Text(Point{(l.Plot.Min.X + l.Plot.Max.X) / 2, l.XLabelY}, xlabel, TextStyle{Color: th.Muted, Size: BodySize, HAlign: Center, VAlign: Top})
 	if curve != nil {
 		c.Fill(openArea(ax, curve, e.FrontSteam, e.Sign), FillStyle{Color: tint(th.Front, 0.30)})

@@ -24,7 +24,8 @@
 // drawn frame), evenbeatFirstFrame and evenbeatFirstScreen (when the first
 // frame was drawn and what it showed), evenbeatGoStart (when the program
 // started), evenbeatTheme ("light" or "dark"), evenbeatStatus (the saving
-// state), evenbeatField (the keypad's field), evenbeatTargets (JSON: label
+// state), evenbeatField (the keypad's field), evenbeatNote (the sentence
+// under the keypad's entry: a value held, or asked again), evenbeatTargets (JSON: label
 // and rect of every touch target) and evenbeatPlanText (the plan's words).
 // The page may hand a session file's text to window.evenbeatImport.
 // The app also publishes evenbeatDraws (frames really drawn),
@@ -34,8 +35,8 @@
 // after the plan's first frame), evenbeatSettled, evenbeatName, evenbeatNaming,
 // evenbeatUpdateReady, evenbeatShare and evenbeatStoreError. The page
 // (site/index.html) offers a waiting new version through evenbeatOnUpdate
-// and evenbeatActivateUpdate, and makes and shares the report PNG with the
-// browser's own encoder in evenbeatSharePNG. The engine-name box is
+// and evenbeatActivateUpdate, and shares the report (a PDF the app makes)
+// in evenbeatShareFile. The engine-name box is
 // name_js.go, the report share share_js.go, the update offer update_js.go.
 //
 // Units: logical units are CSS pixels, origin top-left, y down, as in

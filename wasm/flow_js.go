@@ -25,6 +25,8 @@ func (s uiStore) Put(key string, value []byte, done func(error)) {
 	s.st.Put(key, string(value), done)
 }
 
+func (s uiStore) Delete(key string, done func(error)) { s.st.Delete(key, done) }
+
 // flowGame runs package ui's app on the game's plumbing (size, pointer
 // queue, taps, polled touches, keys) and canvas.
 type flowGame struct {
@@ -41,12 +43,12 @@ type flowGame struct {
 	// ebiten, not the GPU's work), published as evenbeatDrawMs.
 	drawTime time.Duration
 
-	name        *nameBox       // the engine-name box, when open (under mu)
-	names       []string       // names typed in the box, not yet taken (under mu)
-	shares      []shareRequest // reports to draw and share (game loop only)
-	updateWaits bool           // the page reported a new version waiting (under mu)
-	bannerShown bool           // the app shows the new-version banner
-	restart     bool           // the user chose Restart; waits for the writes
+	name        *nameBox // the engine-name box, when open (under mu)
+	names       []string // names typed in the box, not yet taken (under mu)
+	share       sharing  // reports to draw and share (game loop only)
+	updateWaits bool     // the page reported a new version waiting (under mu)
+	bannerShown bool     // the app shows the new-version banner
+	restart     bool     // the user chose Restart; waits for the writes
 
 	// The rename and import buttons and the engine's name as last
 	// published (under mu), so that a tap on a button opens the name box
@@ -163,6 +165,7 @@ func (g *flowGame) publish() {
 	g.window.Set("evenbeatState", g.ui.Screen().String())
 	g.window.Set("evenbeatStatus", g.ui.Status())
 	g.window.Set("evenbeatField", g.ui.Field())
+	g.window.Set("evenbeatNote", g.ui.Note())
 	targets := g.ui.Targets()
 	g.window.Set("evenbeatTargets", targetsJSON(targets))
 	// The plan's words, unless the plan waits for its other priority (made
@@ -216,12 +219,26 @@ func (g *flowGame) publish() {
 
 // Draw draws the app when it changed.
 func (g *flowGame) Draw(screen *ebiten.Image) {
-	if !g.ui.Dirty() || g.outW == 0 {
+	if g.outW == 0 {
 		return
+	}
+	if !g.ui.Dirty() {
+		// The screen keeps its pixels between frames: while a report is
+		// made only its progress sign is drawn again.
+		if g.share.busy() {
+			g.canvas.Begin(screen, g.scale)
+			g.drawShareProgress()
+			g.canvas.Flush()
+			return
+		}
+		if !g.share.shown {
+			return
+		}
 	}
 	start := time.Now()
 	g.canvas.Begin(screen, g.scale)
 	g.ui.Draw(g.canvas)
+	g.drawShareProgress()
 	g.canvas.Flush()
 	g.drawTime += time.Since(start)
 	g.window.Set("evenbeatDrawMs", float64(g.drawTime.Microseconds())/1000)

@@ -195,10 +195,22 @@ func (s *store) Get(key string) (value string, ok bool, err error) {
 // event loop) when the transaction has completed, with nil, or with the
 // reason it failed. Only then is the entry saved.
 func (s *store) Put(key, value string, done func(error)) {
-	what := "saving " + key + " in the browser database"
+	s.write("saving "+key+" in the browser database", done, func(st js.Value) { st.Call("put", value, key) })
+}
+
+// Delete removes key without blocking and calls done as Put does, once
+// the removal's transaction has completed.
+func (s *store) Delete(key string, done func(error)) {
+	s.write("deleting "+key+" from the browser database", done, func(st js.Value) { st.Call("delete", key) })
+}
+
+// write runs op on the object store in a strict-durability readwrite
+// transaction and calls done once: nil when the transaction completed,
+// else why not (what names the write).
+func (s *store) write(what string, done func(error), op func(st js.Value)) {
 	var tx js.Value
 	var complete, failure js.Func
-	var thrown error // put threw: the abort it causes reports this
+	var thrown error // op threw: the abort it causes reports this
 	finished := false
 	finish := func(err error) {
 		if finished { // error and abort both fire on failure
@@ -224,7 +236,7 @@ func (s *store) Put(key, value string, done func(error)) {
 			finish(err) // transaction() threw: a closed database, say
 			return
 		}
-		// put threw: end the transaction; its abort event reports err.
+		// op threw: end the transaction; its abort event reports err.
 		thrown = err
 		defer func() {
 			if recover() != nil {
@@ -246,7 +258,7 @@ func (s *store) Put(key, value string, done func(error)) {
 	tx.Set("oncomplete", complete)
 	tx.Set("onerror", failure)
 	tx.Set("onabort", failure)
-	tx.Call("objectStore", storeTable).Call("put", value, key)
+	op(tx.Call("objectStore", storeTable))
 }
 
 // thrownError words what a recovered JavaScript exception says.

@@ -137,7 +137,7 @@ const usage = `usage:
   evenbeat build -o DIR [-src DIR]                    write the app as static files for any HTTPS host
   evenbeat plan [-json] [flags] SESSION.json           fit the readings and print what to adjust
   evenbeat events [-json] ENGINE.json                  print the valve-event table of an engine
-  evenbeat report SESSION.json -o report.png           write the report as a tall PNG
+  evenbeat report SESSION.json -o report.pdf           write the report: .pdf A4 pages, .png one tall picture
 Flags may come before or after the file.
 `
 

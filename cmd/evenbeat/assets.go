@@ -16,6 +16,7 @@ import (
 
 	"evenbeat/render"
 	"evenbeat/render/raster"
+	"evenbeat/render/report"
 	"evenbeat/site"
 )
 
@@ -43,7 +44,7 @@ func drawIcon(size int) ([]byte, error) {
 	c := raster.New(size, size, 1)
 	render.Icon(c, float64(size))
 	var buf bytes.Buffer
-	if err := c.WritePNG(&buf); err != nil {
+	if err := report.EncodePNG(&buf, c); err != nil {
 		return nil, fmt.Errorf("drawing the %d px icon: %w", size, err)
 	}
 	return buf.Bytes(), nil

@@ -6,7 +6,7 @@
 //	evenbeat build -o DIR [-src DIR]
 //	evenbeat plan [-json] [-cylinder NAME] [-priority leads|cut-offs|balanced] [-weight W] [-target-lead MM] [-unit mm|inch] SESSION.json
 //	evenbeat events [-json] ENGINE.json
-//	evenbeat report [plan's flags] [-dark] SESSION.json -o report.png
+//	evenbeat report [plan's flags] [-dark] SESSION.json -o report.pdf|report.png
 //
 // "serve" builds the WebAssembly program with the Go toolchain this command
 // runs under (GOOS=js GOARCH=wasm, -trimpath, stripped, no inlining in

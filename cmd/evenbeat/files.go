@@ -8,6 +8,7 @@ import (
 	"io"
 	"io/fs"
 	"os"
+	"path/filepath"
 	"runtime/debug"
 	"slices"
 	"strconv"
@@ -15,6 +16,7 @@ import (
 
 	"evenbeat/render/report"
 	"evenbeat/setting"
+	"evenbeat/setting/beat"
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
 )
@@ -230,7 +232,13 @@ func runPlan(args []string, stdout, stderr io.Writer) error {
 		if *asJSON {
 			return plan.WriteJSON(w, p, displayUnit(opt, s))
 		}
-		return plan.WriteText(w, p, displayUnit(opt, s))
+		if err := plan.WriteText(w, p, displayUnit(opt, s)); err != nil {
+			return err
+		}
+		if len(s.Cylinders) < 2 {
+			return nil
+		}
+		return writeWholeEngine(w, s, p, opt)
 	})
 }
 
@@ -257,8 +265,51 @@ func runEvents(args []string, stdout, stderr io.Writer) error {
 		if *asJSON {
 			return plan.WriteEventsJSON(w, spec)
 		}
-		return plan.WriteEventsText(w, spec)
+		if err := plan.WriteEventsText(w, spec); err != nil {
+			return err
+		}
+		// An engine of several cylinders: its beat as drawn, every
+		// cylinder alike at its crank angle.
+		ps, err := beat.Designed(spec, beat.DefaultSteam)
+		if err != nil || len(ps) == 0 {
+			return err
+		}
+		fmt.Fprintln(w, "\nAs drawn, every cylinder alike at its crank angle:")
+		return beat.WriteText(w, ps, nil)
 	})
+}
+
+// writeWholeEngine writes the whole engine after a cylinder's plan: every
+// other cylinder planned with the same choices, then the beat, the work
+// and the quartering. A cylinder without readings is named instead.
+func writeWholeEngine(w io.Writer, s *session.Session, main *plan.Plan, opt plan.Options) error {
+	plans := make([]*plan.Plan, len(s.Cylinders))
+	plans[opt.Cylinder] = main
+	for i, c := range s.Cylinders {
+		if i == opt.Cylinder {
+			continue
+		}
+		if len(c.Rounds) == 0 {
+			_, err := fmt.Fprintf(w, "\nThe whole engine's beat needs readings of every cylinder: the %s cylinder has none yet.\n", c.Name)
+			return err
+		}
+		o := opt
+		o.Cylinder, o.Fit = i, plan.FitOptions{}
+		p, err := plan.Make(s, o)
+		if err != nil {
+			_, err = fmt.Fprintf(w, "\nThe whole engine's beat needs a plan of every cylinder: the %s cylinder's: %v\n", c.Name, err)
+			return err
+		}
+		plans[i] = p
+	}
+	ps, err := beat.FromPlans(s, plans, beat.DefaultSteam)
+	if err != nil {
+		_, err = fmt.Fprintf(w, "\nThe whole engine's beat cannot be drawn: %v\n", err)
+		return err
+	}
+	qs, _ := beat.Quarterings(s)
+	fmt.Fprintln(w)
+	return beat.WriteText(w, ps, qs)
 }
 
 // readEngine reads an engine file; a session file is accepted too, for its
@@ -369,12 +420,13 @@ func trimNumber(v float64, places int) string {
 	return s
 }
 
-// runReport is `evenbeat report [flags] SESSION.json -o report.png`.
+// runReport is `evenbeat report [flags] SESSION.json -o report.png` (or
+// report.pdf: A4 pages).
 func runReport(args []string, stdout, stderr io.Writer) error {
 	limitMemory()
 	fs := flag.NewFlagSet("report", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	out := fs.String("o", "", "PNG file to write (required)")
+	out := fs.String("o", "", "file to write (required): report.pdf for A4 pages, report.png for one tall picture")
 	dark := fs.Bool("dark", false, "dark theme")
 	var pf planFlags
 	pf.register(fs)
@@ -398,7 +450,11 @@ func runReport(args []string, stdout, stderr io.Writer) error {
 		return fmt.Errorf("flag -o: %w", err)
 	}
 	w := bufio.NewWriter(f)
-	err = report.WritePNG(w, s, report.Options{Plan: opt, Dark: *dark})
+	if strings.EqualFold(filepath.Ext(*out), ".pdf") {
+		err = report.WritePDF(w, s, report.Options{Plan: opt})
+	} else {
+		err = report.WritePNG(w, s, report.Options{Plan: opt, Dark: *dark})
+	}
 	if err == nil {
 		err = w.Flush()
 	}

@@ -5,8 +5,11 @@ import (
 	"context"
 	"encoding/json"
 	"image/png"
+	"math"
 	"os"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -327,5 +330,41 @@ func TestPlanRunsTheAppsChecks(t *testing.T) {
 	}
 	if strings.Contains(out.String(), "warning") {
 		t.Errorf("warnings went to stdout:\n%s", out.String())
+	}
+}
+
+// A session of two cylinders: plan prints the whole engine after the
+// cylinder's plan, four exhausts a turn in every position both cylinders
+// plan, their gaps adding to a turn; events prints an engine's beat as
+// drawn when it lists its cylinders.
+func TestWholeEngineText(t *testing.T) {
+	out, err := runCmd(t, "plan", demoSession)
+	if err != nil {
+		t.Fatal(err)
+	}
+	i := strings.Index(out, "The whole engine")
+	if i < 0 {
+		t.Fatalf("plan prints no whole engine:\n%s", out)
+	}
+	rows := regexp.MustCompile(`(?m)^    (right|left) (front|back) +then +([0-9.]+) -> +([0-9.]+)$`).FindAllStringSubmatch(out[i:], -1)
+	if len(rows) != 12 {
+		t.Fatalf("%d exhaust rows, want 4 in each of 3 positions:\n%s", len(rows), out[i:])
+	}
+	for k := 0; k < len(rows); k += 4 {
+		sum := 0.0
+		for _, r := range rows[k : k+4] {
+			v, _ := strconv.ParseFloat(r[3], 64)
+			sum += v
+		}
+		if math.Abs(sum-360) > 0.3 {
+			t.Errorf("the gaps of one position add to %.1f degrees, want a turn", sum)
+		}
+	}
+	out, err = runCmd(t, "events", "../../testdata/engines/brackenfold-stephenson.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(out, "As drawn, every cylinder alike") || strings.Count(out, " then ") != 12 {
+		t.Errorf("events prints no beat as drawn:\n%s", out)
 	}
 }

@@ -4,9 +4,6 @@ import (
 	"bytes"
 	"context"
 	"encoding/base64"
-	"image"
-	"image/png"
-	"math"
 	"os"
 	"strconv"
 	"strings"
@@ -19,6 +16,7 @@ import (
 	"github.com/chromedp/chromedp"
 
 	"evenbeat/render"
+	"evenbeat/render/report"
 	"evenbeat/wasm/ui"
 )
 
@@ -69,7 +67,10 @@ func TestNameAndShare(t *testing.T) {
 		t.Fatal(err)
 	}
 	wantName, wantReport := nativeShare(t, demo)
-	wantW, wantH := int(math.Ceil(render.ReportWidth*1.5)), int(math.Ceil(render.ReportHeight(render.ReportWidth, wantReport)*1.5))
+	var want bytes.Buffer
+	if err := report.PDF(&want, wantReport, report.Title(wantReport)); err != nil {
+		t.Fatal(err)
+	}
 
 	ctx := openDemoPlan(t, demo)
 	if ms := eval[float64](t, ctx, "window.evenbeatPlanMs"); !(ms > 0) {
@@ -78,7 +79,8 @@ func TestNameAndShare(t *testing.T) {
 
 	words := waitValue[string](t, ctx, 30*time.Second, "window.evenbeatPlanText")
 
-	// Share: the PNG reaches the share sheet.
+	// Share: the report, a PDF of A4 pages, reaches the share sheet: the
+	// very file the command line's report makes of the same plans.
 	eval[bool](t, ctx, stubShareJS)
 	slowTapLabel(t, ctx, "Menu")
 	waitFor(t, ctx, 30*time.Second, `window.evenbeatState === "menu"`)
@@ -87,36 +89,20 @@ func TestNameAndShare(t *testing.T) {
 	}
 	type sharedFile struct{ Name, Type, Data string }
 	f := eval[sharedFile](t, ctx, "window.evenbeatSharedFile")
-	if f.Name != wantName || f.Type != "image/png" {
-		t.Errorf("shared %q of type %q; want %q, image/png", f.Name, f.Type, wantName)
+	if f.Name != wantName || f.Type != "application/pdf" {
+		t.Errorf("shared %q of type %q; want %q, application/pdf", f.Name, f.Type, wantName)
 	}
 	b, err := base64.StdEncoding.DecodeString(f.Data)
 	if err != nil {
 		t.Fatal(err)
 	}
-	img, err := png.Decode(bytes.NewReader(b))
-	if err != nil {
-		t.Fatalf("the shared file is not a PNG: %v", err)
-	}
 	if dir := os.Getenv("EVENBEAT_SHOTS"); dir != "" {
-		os.WriteFile(dir+"/shared-report.png", b, 0o644)
+		os.WriteFile(dir+"/shared-report.pdf", b, 0o644)
 	}
-	t.Logf("shared report: %v, %d bytes; drawn and read back in %.0f ms, encoded in %.0f ms", img.Bounds(), len(b),
-		eval[float64](t, ctx, "window.evenbeatShareDrawMs"), eval[float64](t, ctx, "window.evenbeatShareEncodeMs"))
-	if got := img.Bounds(); got.Dx() != wantW || got.Dy() != wantH {
-		t.Errorf("the shared report is %dx%d pixels; want %dx%d (render.ReportWidth and the report's height at 1.5 px per unit)", got.Dx(), got.Dy(), wantW, wantH)
-	}
-	th := render.Light() // the report is for paper
-	all := img.Bounds()
-	if n := count(img, all, th.Background, 4) + count(img, all, th.Surface, 4); float64(n) < 0.6*float64(all.Dx()*all.Dy()) {
-		t.Errorf("the report's page and card colours cover %d of %d pixels; want at least 60 %% (blank or wrong theme?)", n, all.Dx()*all.Dy())
-	}
-	// Text and lines in ink all down the report, strip joins included:
-	// every 500-pixel band below the header holds some.
-	for y := 0; y+500 <= all.Dy()-200; y += 500 {
-		if n := count(img, image.Rect(0, y, all.Dx(), y+500), th.Ink, 40); n < 200 {
-			t.Errorf("rows %d to %d of the report hold %d ink pixels; want at least 200 (a strip not drawn?)", y, y+500, n)
-		}
+	t.Logf("shared report: %d bytes, %d pages; laid out and written in %.0f ms", len(b), bytes.Count(b, []byte("/Type /Page ")),
+		eval[float64](t, ctx, "window.evenbeatShareDrawMs"))
+	if !bytes.Equal(b, want.Bytes()) {
+		t.Errorf("the shared report (%d bytes) differs from the one made natively of the same plans (%d bytes)", len(b), want.Len())
 	}
 
 	// Copy: the plan's words reach the clipboard, written inside the tap's
@@ -392,6 +378,8 @@ func TestNoStorage(t *testing.T) {
 		t.Fatalf("the database did not open: %s", e)
 	}
 	slowTapLabel(t, ctx, "Brackenfold (Stephenson) (invented demo)")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatState === "units"`)
+	slowTapLabel(t, ctx, "inch") // a change: the demo engine is stored with its first
 	st := waitValue[string](t, ctx, 30*time.Second, `window.evenbeatStatus.startsWith("Not saved:") && window.evenbeatStatus`)
 	t.Logf("storage full: %s", st)
 	for _, want := range []string{"storage for this app is full", "QuotaExceededError", "export"} {
@@ -458,6 +446,8 @@ func TestStorageSlowToAnswer(t *testing.T) {
 		t.Errorf("after the late answer the app runs without storage: %s", e)
 	}
 	slowTapLabel(t, ctx, "Brackenfold (Stephenson) (invented demo)")
+	waitFor(t, ctx, 30*time.Second, `window.evenbeatState === "units"`)
+	slowTapLabel(t, ctx, "inch") // a change: the demo engine is stored with its first
 	waitFor(t, ctx, 60*time.Second, `window.evenbeatStatus === "Saved"`)
 }
 

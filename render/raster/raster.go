@@ -5,8 +5,6 @@ import (
 	"image"
 	"image/color"
 	"image/draw"
-	"image/png"
-	"io"
 	"math"
 
 	"golang.org/x/image/vector"
@@ -52,13 +50,19 @@ func (c *Canvas) Size() (w, h float64) {
 	return float64(b.Dx()) / c.scale, float64(b.Dy()) / c.scale
 }
 
-// Clear sets every pixel to col, replacing what was there.
+// Clear sets every pixel to col, replacing what was there. (A loop, not
+// draw.Draw: that would carry image/draw's general drawing into the
+// browser app, which clears a strip of the report with it.)
 func (c *Canvas) Clear(col color.RGBA) {
-	draw.Draw(c.img, c.img.Bounds(), image.NewUniform(col), image.Point{}, draw.Src)
+	px := c.img.Pix
+	if len(px) < 4 {
+		return
+	}
+	px[0], px[1], px[2], px[3] = col.R, col.G, col.B, col.A
+	for n := 4; n < len(px); n *= 2 {
+		copy(px[n:], px[:n])
+	}
 }
-
-// WritePNG encodes the image as PNG.
-func (c *Canvas) WritePNG(w io.Writer) error { return png.Encode(w, c.img) }
 
 // maxCoord is the largest distance from the origin, in device pixels, of a
 // point Fill will draw: x/image/vector's integer path overflows some way

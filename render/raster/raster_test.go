@@ -119,7 +119,7 @@ func TestWritePNG(t *testing.T) {
 	c := raster.New(8, 4, 1)
 	c.Clear(color.RGBA{1, 2, 3, 255})
 	var buf bytes.Buffer
-	if err := c.WritePNG(&buf); err != nil {
+	if err := report.EncodePNG(&buf, c); err != nil {
 		t.Fatal(err)
 	}
 	img, err := png.Decode(&buf)
@@ -258,9 +258,13 @@ func TestPNGGoldens(t *testing.T) {
 			return c
 		}},
 		{"balance_landscape", func() *raster.Canvas {
-			c := raster.New(1688, 780, 2)
+			// The card scrolls in the app: it gets the height it needs.
+			m := sessionModel(t)
+			box := render.Rect{Min: render.Point{X: 16, Y: 16}, Max: render.Point{X: 828, Y: 374}}
+			box.Max.Y = max(box.Max.Y, box.Min.Y+render.LayoutBalance(box, m).NeedH)
+			c := raster.New(1688, int(2*(box.Max.Y+16)), 2)
 			c.Clear(render.Light().Background)
-			render.Balance(c, sessionModel(t), render.Rect{Min: render.Point{X: 16, Y: 16}, Max: render.Point{X: 828, Y: 374}}, render.Light())
+			render.Balance(c, m, box, render.Light())
 			return c
 		}},
 		{"icon_192", func() *raster.Canvas {

@@ -1,7 +1,7 @@
-// Package report writes Evenbeat's printed report as a PNG: the whole
-// report of one cylinder of a session (engine, readings, event table,
-// balance, valve curves, plan and cautions) drawn by render.Report through
-// the raster backend.
+// Package report writes Evenbeat's printed report, as a PDF of A4 pages
+// (render/pdf) or a tall PNG (render/raster): the whole engine of a
+// session (each cylinder's readings, event table, balance, valve curves
+// and plan, the beat, and the cautions) as render.Report draws it.
 //
 // It imports render, render/raster, setting and its subpackages and the
 // standard library; never ebiten or syscall/js.
@@ -13,6 +13,7 @@ import (
 	"math"
 
 	"evenbeat/render"
+	"evenbeat/render/pdf"
 	"evenbeat/render/raster"
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
@@ -30,14 +31,17 @@ type Options struct {
 }
 
 // Build returns the report's model for a session: the fit and plan of the
-// chosen cylinder. Errors are the fit's and plan's *setting.Error
-// sentences.
+// chosen cylinder, then the engine's other cylinders and its beat
+// (render.WholeEngine). Errors are the chosen cylinder's fit's and plan's
+// *setting.Error sentences.
 func Build(s *session.Session, opt Options) (render.ReportModel, error) {
 	m, err := render.NewSessionModel(s, opt.Plan)
 	if err != nil {
 		return render.ReportModel{}, err
 	}
-	return render.ReportModel{Model: m, Session: s}, nil
+	o := opt.Plan
+	o.Fit = plan.FitOptions{} // the other cylinders' latest rounds
+	return render.WholeEngine(s, m, o), nil
 }
 
 // Draw draws the report of rm into a new raster canvas of the report's
@@ -61,6 +65,43 @@ func Draw(rm render.ReportModel, opt Options) *raster.Canvas {
 	return c
 }
 
+// EncodePNG encodes a drawn canvas as PNG (fast compression: the
+// pictures are mostly flat colour). It lives here, not in render/raster,
+// so that the browser app, which draws its reports with render/raster but
+// makes the PNG with the browser's own encoder, carries no PNG code.
+func EncodePNG(w io.Writer, c *raster.Canvas) error {
+	enc := png.Encoder{CompressionLevel: png.BestSpeed}
+	return enc.Encode(w, c.Image())
+}
+
+// WritePDF fits and plans a session and writes its report as a PDF of
+// A4 pages to w (render/pdf), in the light theme whatever opt says: it is
+// for paper.
+func WritePDF(w io.Writer, s *session.Session, opt Options) error {
+	rm, err := Build(s, opt)
+	if err != nil {
+		return err
+	}
+	return PDF(w, rm, Title(rm))
+}
+
+// PDF writes rm's report as a PDF of A4 pages with the title given.
+func PDF(w io.Writer, rm render.ReportModel, title string) error {
+	lw := float64(render.ReportWidth)
+	c := pdf.New(lw, render.ReportHeight(lw, rm))
+	render.Report(c, rm, render.Light())
+	return c.Write(w, title)
+}
+
+// Title is the report's title for a document's information: the engine
+// and the words "valve setting report".
+func Title(rm render.ReportModel) string {
+	if rm.Model == nil {
+		return "Valve setting report"
+	}
+	return rm.Model.Spec.Name + ": valve setting report"
+}
+
 // WritePNG fits and plans a session and writes its report as a PNG to w
 // (fast compression: the picture is mostly flat colour).
 func WritePNG(w io.Writer, s *session.Session, opt Options) error {
@@ -68,6 +109,5 @@ func WritePNG(w io.Writer, s *session.Session, opt Options) error {
 	if err != nil {
 		return err
 	}
-	enc := png.Encoder{CompressionLevel: png.BestSpeed}
-	return enc.Encode(w, Draw(rm, opt).Image())
+	return EncodePNG(w, Draw(rm, opt))
 }

@@ -93,9 +93,11 @@ func BenchmarkReportDraw(b *testing.B) {
 }
 
 // A report stays short whatever the engine: with 30 notches it draws six
-// valve curves (full forward, the first notches, full back) and names the
-// others; the event table (two rows a notch) and the balance card (a row
-// a notch) grow, by less than a valve curve's card a notch.
+// valve curves a cylinder (full forward, the first notches, full back) and
+// names the others; each cylinder's event table (two rows a notch) and
+// balance card (a row a notch) grow, by less than a valve curve's card a
+// notch and cylinder, and the whole engine's beat is drawn in three
+// positions at most.
 func TestReportOfManyNotchesStaysShort(t *testing.T) {
 	s := demoSession(t)
 	base, err := report.Build(s, report.Options{})
@@ -114,7 +116,11 @@ func TestReportOfManyNotchesStaysShort(t *testing.T) {
 	}
 	h0, h := render.ReportHeight(render.ReportWidth, base), render.ReportHeight(render.ReportWidth, many)
 	curve := render.LayoutValveCurve(render.Rect{Max: render.Point{X: render.ReportWidth, Y: 1e6}}, many.Model, 0).NeedH
-	if h-h0 > 30*curve {
-		t.Errorf("the report of 33 positions is %.0f units tall, the demo's (3 positions) %.0f: %.0f a notch, a valve curve's card is %.0f", h, h0, (h-h0)/30, curve)
+	cyls := float64(1 + len(many.Others))
+	if len(many.Others) != 1 || len(many.Beat) != 33 {
+		t.Fatalf("the demo's report covers %d other cylinders and %d positions of the beat, want 1 and 33", len(many.Others), len(many.Beat))
+	}
+	if h-h0 > 30*cyls*curve {
+		t.Errorf("the report of 33 positions is %.0f units tall, the demo's (3 positions) %.0f: %.0f a notch and cylinder, a valve curve's card is %.0f", h, h0, (h-h0)/30/cyls, curve)
 	}
 }

@@ -110,6 +110,9 @@ type knob struct {
 	p     param
 	step  float64 // the smallest change hands can make, in the knob's unit
 	scale float64 // a typical change, for regularisation
+	// doubt is how far the predicted effect of a change may be off, as a
+	// share of it (see effectDoubt).
+	doubt float64
 }
 
 // knobsOf maps a session's adjustments to deviations; adjustments the
@@ -153,6 +156,7 @@ func knobsOf(spec setting.EngineSpec, adjs []session.Adjustment) ([]knob, []stri
 		}
 		kb.step = handStep(a)
 		kb.scale = 1 * k
+		kb.doubt = knobDoubt(spec, a.Kind)
 		if a.Kind.Angular() {
 			kb.scale = 1
 		}
@@ -602,9 +606,32 @@ const changeWeight = 0.02
 // with large changes that cancel one another: their errors would not.
 const effectDoubt = 0.05
 
+// Doubts of a knob's effect besides effectDoubt: the valve on its spindle
+// moves the valve by exactly the change, so both leads by it (only the
+// ports' shapes, known from the port marks, stand between: 1 %); a rod
+// acting through a rocker moves it by the ratio of the rocker's arms,
+// which a build leaves a few per cent off the drawing (10 %). Common
+// practice, no source.
+const (
+	spindleDoubt = 0.01
+	rockerDoubt  = 0.10
+)
+
+// knobDoubt returns the doubt of the effect of an adjustment of kind on
+// the engine spec describes.
+func knobDoubt(spec setting.EngineSpec, kind session.AdjustmentKind) float64 {
+	switch {
+	case kind == session.ValveOnSpindle:
+		return spindleDoubt
+	case kind == session.EccentricRodLength && spec.Gear.SingleEccentric != nil && spec.Gear.SingleEccentric.Rocker != nil:
+		return rockerDoubt
+	}
+	return effectDoubt
+}
+
 // ridge returns, per knob, what the solver adds to the diagonal of its
 // normal equations: the small change weight, and the doubt of the knob's
-// effect on every term (effectDoubt times its gradient, squared).
+// effect on every term (its doubt times its gradient, squared).
 func ridge(ks []knob, ts []term, q []quantities) []float64 {
 	out := make([]float64, len(ks))
 	for i, k := range ks {
@@ -612,7 +639,7 @@ func ridge(ks []knob, ts []term, q []quantities) []float64 {
 		for _, t := range ts {
 			s += sq(t.grad(q, k.p))
 		}
-		out[i] = sq(changeWeight/k.scale) + sq(effectDoubt)*s + 1e-12
+		out[i] = sq(changeWeight/k.scale) + sq(k.doubt)*s + 1e-12
 	}
 	return out
 }

@@ -418,7 +418,7 @@ func runningNotches(names []string) []string {
 }
 
 func (d *decoder) measuring(n *node, path string) Measuring {
-	o := d.object(n, path, "the measuring set-up", "wheel_diameter_mm", "gauge_resolution_mm", "gauge_increases_toward", "mark_error_tyre_mm", "mark_error_deg")
+	o := d.object(n, path, "the measuring set-up", "wheel_diameter_mm", "gauge_resolution_mm", "gauge_increases_toward", "mark_error_tyre_mm", "mark_error_deg", "datums_matched")
 	var m Measuring
 	m.WheelDiameterMM = o.positive("wheel_diameter_mm", true, "the tyre diameter where the marks are measured, in mm")
 	if d.err == nil && (m.WheelDiameterMM > maxLength || m.WheelDiameterMM < 1) {
@@ -429,6 +429,7 @@ func (d *decoder) measuring(n *node, path string) Measuring {
 		d.fail(path+".gauge_resolution_mm", "The gauge resolution %s mm is not a dial-gauge division; give it in mm (0.01 for a metric gauge, 0.0254 for a thou gauge).", fmtNum(m.GaugeResolutionMM))
 	}
 	m.GaugeIncreases = End(o.choice("gauge_increases_toward", true, "which way the valve moves when the gauge reading grows", string(Front), string(Back)))
+	m.DatumsMatched = o.flag("datums_matched")
 	switch o.oneOf("the error of one mark round the wheel", "mark_error_tyre_mm", "mark_error_deg") {
 	case "mark_error_tyre_mm":
 		m.MarkError = Mark{TyreMM, o.positive("mark_error_tyre_mm", true, "the error of one tyre mark, in mm round the tyre")}

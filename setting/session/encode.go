@@ -167,6 +167,9 @@ func (e *encoder) measuring(m Measuring) *node {
 	o.enum("gauge_increases_toward", string(m.GaugeIncreases), string(Front), string(Back))
 	e.enum("measuring.mark_error", string(m.MarkError.Scale), string(TyreMM), string(Deg))
 	o.num("mark_error_"+string(m.MarkError.Scale), m.MarkError.Value)
+	if m.DatumsMatched {
+		o.put("datums_matched", &node{kind: nodeBool, b: true})
+	}
 	return o.n
 }
 

@@ -143,9 +143,10 @@ func within(prefix string, err error) error {
 }
 
 // rederive applies an engine's design to an edit of it: spec is the
-// engine as edited, was the engine before. A derived part whose value the
-// edit changed is taken out of the derived list (unless the edit changed
-// the list); then, when a dimension the derived parts depend on changed
+// engine as edited, was the engine before. When the gear's kind changed,
+// the old gear's parts leave the derived list. A derived part whose value
+// the edit changed is taken out of the derived list (unless the edit
+// changed the list); then, when a dimension the derived parts depend on changed
 // or a part was newly listed as derived, the derived parts are derived
 // again, each keeping its value when it moves by less than a millionth.
 func rederive(spec *setting.EngineSpec, was setting.EngineSpec) error {
@@ -156,6 +157,11 @@ func rederive(spec *setting.EngineSpec, was setting.EngineSpec) error {
 	var wasDerived []string
 	if was.Design != nil {
 		wasDerived = was.Design.Derived
+	}
+	if spec.Gear.Kind != was.Gear.Kind {
+		// Another gear: the old gear's parts are nothing to derive.
+		keys := setting.DerivableKeys(spec.Gear.Kind)
+		d.Derived = slices.DeleteFunc(d.Derived, func(key string) bool { return !slices.Contains(keys, key) })
 	}
 	if slices.Equal(d.Derived, wasDerived) {
 		d.Derived = slices.DeleteFunc(d.Derived, func(key string) bool {

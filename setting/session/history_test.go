@@ -296,3 +296,26 @@ func TestHistoryKeys(t *testing.T) {
 		}
 	}
 }
+
+// Another gear: the old gear's derived parts leave the design's list, the
+// new gear's listed are derived, and the readings stay.
+func TestEditChangesTheGear(t *testing.T) {
+	s := designed(t)
+	p := s.Profile()
+	w := setting.DemoWalschaerts()
+	p.Engine.Gear, p.Engine.Valve = w.Gear, w.Valve
+	p.Engine.Design.Derived = append(p.Engine.Design.Derived, "gear.walschaerts.valve_centre_u")
+	p.Adjustments = p.Adjustments[:1] // the valve on its spindle: the only one Walschaerts gear shares
+	s.Cylinders[0].Rounds[1].AdjustmentsBefore = nil
+	changes, err := s.Edit(p, "2026-12-01")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := s.Engine.Design.Derived; !reflect.DeepEqual(got, []string{"gear.walschaerts.valve_centre_u"}) {
+		t.Errorf("derived after the change of gear: %v", got)
+	}
+	if len(changes) == 0 || len(s.Cylinders[0].Rounds) != 2 {
+		t.Errorf("%d changes, %d rounds", len(changes), len(s.Cylinders[0].Rounds))
+	}
+	roundTrip(t, s)
+}

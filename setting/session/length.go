@@ -30,7 +30,6 @@ func ParseLength(text string, unit Unit) (float64, error) {
 		return bad("it is empty.")
 	}
 	s = strings.ReplaceAll(s, "\u2212", "-") // minus sign
-	s = strings.ReplaceAll(s, "\u2044", "/") // fraction slash
 	s = strings.ReplaceAll(s, "\u2033", "\"")
 	s = strings.ReplaceAll(s, "\u201d", "\"")
 	// Split off the unit: the trailing letters and quote marks.

@@ -55,7 +55,6 @@ func TestParseLength(t *testing.T) {
 		{"1 3/16\"", UnitMM, 30.1625},
 		{"-1/8", UnitInch, -3.175},
 		{"-1 3/16", UnitInch, -30.1625},
-		{"3\u204416", UnitInch, 4.7625},
 		{"0.012", UnitInch, 0.3048},
 		{"0.012", UnitMM, 0.012},
 		{"2", UnitInch, 50.8},

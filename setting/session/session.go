@@ -115,6 +115,11 @@ type Measuring struct {
 	// MarkError is the estimated error of one tyre or degree mark (one
 	// standard deviation), in the scale it names.
 	MarkError Mark
+	// DatumsMatched: every driving wheel's datum mark was made at the
+	// same angle (for instance where a square from the frame meets each
+	// tyre at the same height), so the dead-centre marks of the cylinders
+	// give the angle between their cranks (quartering).
+	DatumsMatched bool
 }
 
 // End names an end of the cylinder, a port or a dead centre.

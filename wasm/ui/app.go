@@ -133,12 +133,20 @@ type App struct {
 	// Saving.
 	mu      sync.Mutex
 	answers []saveResult
-	seq     int    // writes asked for so far
-	open    int    // writes not yet answered
-	errKey  string // the key whose write failed, until a later write of it succeeds
-	errSeq  int
-	saveErr string
+	seq     int                // writes asked for so far
+	open    int                // writes not yet answered
+	failed  map[string]failure // the keys whose last write failed, until a later write of each succeeds
+	okSeq   map[string]int     // each key's latest write that succeeded
+	noStore string             // the sentence when the browser gives no storage
+	saveErr string             // the failure shown: the current engine's, or the app's own keys'
 	status  string
+	retired map[string]bool // keys of engines deleted in this run: never given to another
+
+	// Entries and records (entry.go, records.go).
+	confirmed string            // the unusual entry a second Next takes: field key and text
+	drafts    map[draftKey]bool // cylinders whose latest round was made and has no value yet
+	undoing   *undoOffer        // the Undo bar's offer, after a delete
+	asking    *importAsk        // an import of an engine already here, waiting for the answer
 
 	// The plan.
 	planRound  int // the round planned, counting from 1; 0 the latest
@@ -217,6 +225,8 @@ func New(opt Options) *App {
 	}
 	if opt.Store == nil {
 		a.loadNote = "This browser gives the app no storage: nothing you enter will be kept. Export the session file before you close the page."
+		a.noStore = "Not saved: this browser gives the app no storage. Export the session file (Menu, Export) to keep it."
+		a.setStatus()
 		return a
 	}
 	stored, index, err := loadAll(opt.Store)
@@ -280,14 +290,10 @@ func (a *App) Update() bool {
 	a.mu.Unlock()
 	for _, r := range ans {
 		a.open--
-		if r.err != nil {
-			a.saveErr = "Not saved: " + r.err.Error() + ". Your entries are still here; export the session file (Menu, Export) to keep a copy."
-			a.errKey, a.errSeq = r.key, r.seq
-		} else if r.key == a.errKey && r.seq > a.errSeq {
-			a.saveErr, a.errKey = "", "" // a later write of the whole value holds everything
-		}
+		a.answered(r)
 		a.dirty = true
 	}
+	a.expireUndo()
 	if a.drawnPlan {
 		a.finishPlan()
 	}
@@ -295,84 +301,30 @@ func (a *App) Update() bool {
 	return a.dirty
 }
 
-// setStatus words the saving state.
-func (a *App) setStatus() {
-	switch {
-	case a.saveErr != "":
-		a.status = a.saveErr
-	case a.seq == 0:
-		a.status = "Not saved yet"
-	case a.open == 0:
-		a.status = "Saved"
-	default:
-		a.status = "Saving..."
-	}
-}
-
 // save writes the current session through the store as a whole session
-// file.
+// file, when it changed.
 func (a *App) save() {
-	a.gen++
-	if a.cur == nil || a.cur.Session == nil || a.saveDraft() {
+	if a.saveDraft() { // a new engine not yet whole: its answers are a draft
+		a.gen++
 		return
 	}
-	fresh := a.cur.Key == "" // a new engine just whole, or a demo first changed
-	if fresh {
-		a.keep(a.cur)
-	}
-	b, err := encodeSession(a.cur.Session)
-	if err != nil {
-		a.saveErr = "Not saved: " + sentence(err)
-		a.setStatus()
-		return
-	}
-	a.cur.Raw = b
-	a.put(a.cur.Key, b)
-	if fresh {
-		a.put(IndexKey, encodeIndex(a.index))
-	}
+	a.saveStored(a.cur, nil)
 }
 
-// put writes one value, counted for the saving state.
-func (a *App) put(key string, b []byte) {
-	if a.opt.Store == nil {
-		a.saveErr = "Not saved: this browser gives the app no storage. Export the session file (Menu, Export) to keep it."
-		a.setStatus()
-		return
-	}
-	a.seq++
-	a.open++
-	seq := a.seq
-	a.setStatus()
-	a.opt.Store.Put(key, b, func(err error) {
-		a.mu.Lock()
-		a.answers = append(a.answers, saveResult{key, seq, err})
-		a.mu.Unlock()
-	})
-}
-
-// addSession stores s under a new key and makes it current.
-func (a *App) addSession(s *session.Session) {
-	a.cur = &Stored{Session: s}
+// addSession makes s the current session: stored at once under a new key
+// (keep, an import), or held until its first change (a demo engine looked
+// at is never stored).
+func (a *App) addSession(s *session.Session, keep bool) {
+	e := &Stored{Session: s, pending: true}
+	e.Raw, _ = a.encode(s) // what "changed" is measured against
+	a.cur = e
 	a.clearPlan()
 	a.cyl = 0
-	a.save()
-}
-
-// keep gives e, a session not yet stored, a new key in the list of
-// stored sessions.
-func (a *App) keep(e *Stored) {
-	used := map[string]bool{}
-	for _, k := range a.index {
-		used[k] = true
+	a.gen++
+	if keep {
+		a.keep(e)
 	}
-	n := len(a.index) + 1
-	for used[sessionPrefix+strconv.Itoa(n)] {
-		n++
-	}
-	e.Key = sessionPrefix + strconv.Itoa(n)
-	a.stored = append(a.stored, e)
-	a.index = append(a.index, e.Key)
+	a.setStatus()
 }
 
 // navigate shows screen s, remembering where Back returns to.
@@ -384,6 +336,7 @@ func (a *App) navigate(s Screen) {
 	a.stack = append(a.stack, a.screen)
 	a.screen, a.scroll, a.dirty = s, 0, true
 	a.editing = false
+	a.setStatus() // the saved line is the engine's shown
 }
 
 // Back moves one step back: the previous field on the keypad, else the
@@ -434,6 +387,7 @@ func (a *App) unitLabel() string {
 func (a *App) openSession(e *Stored) {
 	a.cur = e
 	a.clearPlan()
+	a.setStatus()
 	s := e.Session
 	a.cyl = 0
 	if len(s.Cylinders[0].Rounds) == 0 {
@@ -463,10 +417,9 @@ func (a *App) openSession(e *Stored) {
 // startSetUp opens a demo engine's design to look at: it is kept as a
 // session of its own only once something is changed or measured.
 func (a *App) startSetUp(spec setting.EngineSpec) {
+	s := newSession(spec, session.UnitMM)
 	a.su = newSetUp(false)
-	a.cur = &Stored{Session: newSession(spec, session.UnitMM)}
-	a.clearPlan()
-	a.cyl = 0
+	a.addSession(s, false)
 	a.navigate(Units)
 }
 
@@ -483,30 +436,36 @@ func (a *App) startMeasuring() {
 	a.navigate(Measure)
 }
 
-// today is the date of a new round.
-func (a *App) today() string {
-	now := time.Now
+// now is the time: Options.Now, else the clock.
+func (a *App) now() time.Time {
 	if a.opt.Now != nil {
-		now = a.opt.Now
+		return a.opt.Now()
 	}
-	return now().Format("2006-01-02")
+	return time.Now()
 }
 
+// today is the date of a new round.
+func (a *App) today() string { return a.now().Format("2006-01-02") }
+
 // nextRound starts a new round after the plan's changes were made: the
-// changes are recorded as made before it.
+// changes are recorded as made before it. The round is a draft until its
+// first value (records.go): nothing is stored for it before, and a second
+// Next round takes the same draft.
 func (a *App) nextRound() {
 	s := a.Session()
-	r := session.Round{Date: a.today()}
-	if a.plan != nil {
-		for _, st := range a.plan.Steps {
-			if st.Amount != 0 {
-				r.AdjustmentsBefore = append(r.AdjustmentsBefore, session.Change{Kind: st.Kind, Eccentric: st.Eccentric, Amount: st.Amount, Note: "as planned"})
+	c := &s.Cylinders[a.cyl]
+	if !a.isDraft(s, a.cyl) {
+		r := session.Round{Date: a.today()}
+		if a.plan != nil {
+			for _, st := range a.plan.Steps {
+				if st.Amount != 0 {
+					r.AdjustmentsBefore = append(r.AdjustmentsBefore, session.Change{Kind: st.Kind, Eccentric: st.Eccentric, Amount: st.Amount, Note: "as planned"})
+				}
 			}
 		}
+		c.Rounds = append(c.Rounds, r)
+		a.markDraft(s, a.cyl)
 	}
-	c := &s.Cylinders[a.cyl]
-	c.Rounds = append(c.Rounds, r)
-	a.save()
 	a.round = len(c.Rounds) - 1
 	a.fields = a.roundFields(a.round)
 	a.setField(0)
@@ -521,7 +480,7 @@ func (a *App) setField(i int) {
 	if i < 0 {
 		i = 0
 	}
-	a.fi, a.text, a.typed, a.note = i, "", false, ""
+	a.fi, a.text, a.typed, a.note, a.confirmed = i, "", false, "", ""
 	a.dirty = true
 }
 
@@ -548,17 +507,14 @@ func (a *App) check() {
 		return
 	}
 	f := a.fields[a.fi]
-	v, err := a.parseEntry(f, a.text)
-	if err != nil {
-		return
-	}
-	if v < f.Lo || v > f.Hi {
-		a.note = fmt.Sprintf("%s: %s %s is unusual here (between %s and %s is usual); check it before Next.", f.Label, a.text, a.fieldUnit(f),
-			a.showValue(f, f.Lo), a.showValue(f, f.Hi))
+	if v, err := a.parseEntry(f, a.text); err == nil && a.unusual(f, v) {
+		a.note = a.unusualNote(f) + " Check it before Next."
 	}
 }
 
-// commit takes the typed text into the session, saves it and moves on.
+// commit takes the typed text into the session, saves it and moves on. A
+// value that cannot be is held at the field with a sentence saying why,
+// and the flow stays; an unusual one is taken on a second Next (entry.go).
 func (a *App) commit() {
 	if len(a.fields) == 0 {
 		return
@@ -575,7 +531,7 @@ func (a *App) commit() {
 		}
 		if a.screen == Sizes {
 			if why := a.assembles(); why != "" {
-				a.note = f.Label + ": " + why
+				a.note = f.Label + ": " + a.inWords(why)
 				return
 			}
 		}
@@ -584,43 +540,37 @@ func (a *App) commit() {
 	}
 	v, err := a.parseEntry(f, a.text)
 	if err != nil {
-		a.note = f.Label + ": " + sentence(err)
+		a.note = f.Label + ": " + a.inWords(sentence(err))
 		return
 	}
-	if a.screen == Lead && (v < session.MinTargetLeadMM || v > session.MaxTargetLeadMM) {
-		a.note = fmt.Sprintf("%s: %s %s cannot be a lead (a session file holds %s to %s mm); type it again.", f.Label, a.text, a.unitLabel(),
-			formatNumber(session.MinTargetLeadMM, false), formatNumber(session.MaxTargetLeadMM, false))
-		return
-	}
-	if err := a.setValue(f, v); err != nil {
-		a.note = f.Label + ": " + sentence(err) + " Nothing was changed; correct the value typed."
-		return
-	}
-	a.gen++
-	a.refreshFields() // the questions follow the answers
 	if a.screen == Lead {
+		if v < session.MinTargetLeadMM || v > session.MaxTargetLeadMM {
+			a.note = fmt.Sprintf("%s: %s %s cannot be a lead; the target lead must be between %s and %s %s. Type it again.", f.Label, a.text, a.unitLabel(),
+				formatNumber(session.MinTargetLeadMM, a.unit() == session.UnitInch), formatNumber(session.MaxTargetLeadMM, a.unit() == session.UnitInch), a.unitLabel())
+			return
+		}
+		if a.note = a.askOnce(f, v); a.note != "" {
+			return
+		}
+		f.set(s, v)
+		a.gen++
 		a.Back() // the plan, made again for the target
 		a.makePlan()
 		return
 	}
+	b, why := a.take(f, v)
+	if why != "" {
+		a.note = why
+		return
+	}
 	if a.screen == Sizes {
 		a.engine = nil // drawn again with the new size
-		if why := a.assembles(); why != "" {
-			// The value is kept; the engine is saved once it assembles.
-			a.text, a.typed = "", false
-			a.note = f.Label + ": " + why + " The value is kept but not saved until the gear fits together."
-			return
-		}
 	}
-	a.save()
-	a.warn = ""
-	path := f.Path(s)
-	for _, w := range s.Check() {
-		if (strings.HasPrefix(w.Field, path) || strings.HasPrefix(path, w.Field)) && !(f.open != nil && f.open(s)) {
-			a.warn = f.Label + ": " + w.Message
-			break
-		}
+	a.refreshFields() // the questions follow the answers
+	if !a.saveDraft() {
+		a.saveStored(a.cur, b)
 	}
+	a.warn = a.warningAt(f)
 	a.advance()
 }
 
@@ -669,34 +619,39 @@ func (a *App) makePlan() {
 	if s == nil {
 		return
 	}
-	for _, p := range s.Readiness(a.cyl) {
-		if p.Blocking {
-			a.planNote = append(a.planNote, p.Message)
+	round := a.planRound
+	if n := len(s.Cylinders[a.cyl].Rounds); round == 0 && n > 1 && a.isDraft(s, a.cyl) {
+		round = n - 1 // a next round not yet begun: the steps still to do are the last round's
+	}
+	if round == 0 {
+		for _, p := range s.Readiness(a.cyl) {
+			if p.Blocking {
+				a.planNote = append(a.planNote, a.inWords(p.Message))
+			}
+		}
+		if len(a.planNote) > 0 {
+			return
 		}
 	}
-	if len(a.planNote) > 0 && a.planRound == 0 {
-		return
-	}
-	a.planNote = nil
-	fit, err := plan.FitSession(s, a.cyl, plan.FitOptions{Round: a.planRound})
+	fit, err := plan.FitSession(s, a.cyl, plan.FitOptions{Round: round})
 	if err != nil {
-		a.planNote = []string{sentence(err)}
+		a.planNote = []string{a.inWords(sentence(err))}
 		return
 	}
 	opt := plan.AimsOptions(s.Aims) // the session's own aims
-	opt.Unit, opt.Cylinder, opt.Fit = a.unit(), a.cyl, plan.FitOptions{Round: a.planRound}
+	opt.Unit, opt.Cylinder, opt.Fit = a.unit(), a.cyl, plan.FitOptions{Round: round}
 	// The plan with the other priority (a note and the words' other
 	// choice) is made on the tick after the plan is first drawn.
 	opt.OtherLater = true
 	p, err := plan.FromFit(fit, s.Adjustments, opt)
 	if err != nil {
-		a.planNote = []string{sentence(err)}
+		a.planNote = []string{a.inWords(sentence(err))}
 		return
 	}
 	p.Cylinder = s.Cylinders[a.cyl].Name
 	m, err := render.NewModel(s, a.cyl, fit, p)
 	if err != nil {
-		a.planNote = []string{sentence(err)}
+		a.planNote = []string{a.inWords(sentence(err))}
 		return
 	}
 	a.fit, a.plan, a.model = fit, p, m
@@ -757,7 +712,7 @@ func (a *App) ExportJSON() ([]byte, error) {
 	if a.cur.Session == nil {
 		return a.cur.Raw, nil // kept as stored
 	}
-	return encodeSession(a.cur.Session)
+	return a.encode(a.cur.Session)
 }
 
 // exportName is the file name offered for an export.
@@ -788,19 +743,26 @@ func (a *App) export() {
 
 // Import reads a session file the user chose: decoded and validated, it
 // is stored as a new session and opened; otherwise the sentence naming
-// the field at fault is shown on the engines list and returned.
+// the field at fault (in words, never its key path) is shown on the
+// engines list and returned. A file of an engine already here is opened
+// as that engine when it holds the same, else the engines list asks
+// whether to replace it or keep both (records.go).
 func (a *App) Import(b []byte) error {
 	a.dirty = true
+	a.asking = nil
 	s, err := decodeSession(b)
 	if err != nil {
-		a.importErr = "The file cannot be imported: " + err.Error()
+		a.importErr = "The file cannot be imported: " + wordsIn(err.Error(), session.UnitMM, nil)
 		if a.screen != Engines {
 			a.navigate(Engines)
 		}
 		return fmt.Errorf("%s", a.importErr)
 	}
 	a.importErr = ""
-	a.addSession(s)
+	if a.alreadyHere(s) {
+		return nil
+	}
+	a.addSession(s, true)
 	a.openSession(a.cur)
 	return nil
 }
@@ -811,7 +773,7 @@ func (a *App) showWhere() {
 	if a.engine == nil || a.engineOf != s {
 		m, err := render.NewEngineModel(s.Engine)
 		if err != nil {
-			a.note = sentence(err)
+			a.note = a.inWords(sentence(err))
 			return
 		}
 		a.engine, a.engineOf = m, s

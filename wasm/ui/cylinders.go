@@ -20,13 +20,13 @@ func (a *App) setCylinders(n int) {
 	a.dirty = true
 	a.note = ""
 	if n < 1 || n > len(cylinderNames()) {
-		a.note = fmt.Sprintf("cylinders: an engine here has 1 to %d cylinders, not %d.", len(cylinderNames()), n)
+		a.note = fmt.Sprintf("Cylinders: an engine here has 1 to %d cylinders, not %d.", len(cylinderNames()), n)
 		return
 	}
 	for i := n; i < len(s.Cylinders); i++ {
 		c := s.Cylinders[i]
 		if len(c.Rounds) > 0 || len(c.DeadCentres) > 0 {
-			a.note = fmt.Sprintf("cylinders: the %s cylinder already has readings, so it is kept; export the session first if you mean to drop them.", c.Name)
+			a.note = fmt.Sprintf("Cylinders: the %s cylinder already has readings, so it is kept; export the session first if you mean to drop them.", c.Name)
 			return
 		}
 	}
@@ -101,13 +101,14 @@ func (a *App) switchCylinder(ci int) {
 }
 
 // latestRound opens the current cylinder's latest round (a new one dated
-// today when it has none) at its first reading not yet taken.
+// today when it has none, a draft stored with its first value) at its
+// first reading not yet taken.
 func (a *App) latestRound() {
 	s := a.Session()
 	c := &s.Cylinders[a.cyl]
 	if len(c.Rounds) == 0 {
 		c.Rounds = append(c.Rounds, session.Round{Date: a.today()})
-		a.save()
+		a.markDraft(s, a.cyl)
 	}
 	a.round = len(c.Rounds) - 1
 	a.fields = a.roundFields(a.round)

@@ -54,7 +54,7 @@ func TestTwoCylinders(t *testing.T) {
 		t.Fatalf("back on the right: cylinder %d, field %q", a.cyl, a.Field())
 	}
 	a.setCylinders(1)
-	if len(s.Cylinders) != 2 || !strings.HasPrefix(a.note, "cylinders: the left cylinder already has readings") {
+	if len(s.Cylinders) != 2 || !strings.HasPrefix(a.note, "Cylinders: the left cylinder already has readings") {
 		t.Fatalf("dropping a cylinder with readings: %d cylinders, note %q", len(s.Cylinders), a.note)
 	}
 	a.setCylinders(3)

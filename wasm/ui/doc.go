@@ -39,6 +39,20 @@
 // its plan aims (session.PlanAims, file version 2), and drags a what-if
 // amount of any adjustment the engine allows.
 //
+// Every entry is judged by the domain's own checks before it is taken
+// (entry.go): a value the session file cannot hold, an engine that does
+// not fit together, a steam lap beyond half the valve's travel, a record
+// whose readings contradict one another (session.Readiness) is held at its
+// field with a sentence in the setter's words and display unit, never a
+// key path; a value outside the field's usual range is taken on a second
+// Next. Nothing a stray tap makes is permanent (records.go): a round begun
+// is stored with its first value, a demo engine with its first change; an
+// engine, a round or a reading's record can be deleted, with an Undo bar
+// for a few seconds; a file of an engine already here is opened when it
+// is the same, else the engines list asks to replace it or keep both. The
+// saving state shown is the engine's own and the app's: "Saved" only once
+// the store holds what is shown.
+//
 // The glue's hooks: Options.OnExport and OnImport (with App.Import) for
 // the session file, OnName (a text box, then App.Rename), OnShare (the
 // report PNG), OnCopy (the plan's words, with App.CopyDone), OnUpdate with

@@ -46,10 +46,11 @@ func (a *App) Draw(c render.Canvas) {
 		a.drawSlider(c, v.slider)
 	}
 	for _, t := range v.targets {
-		if !t.bar && !(t.Label == render.AckLabel && a.screen == Cautions) { // the card draws its own
+		if !t.bar && !t.over && !(t.Label == render.AckLabel && a.screen == Cautions) { // the card draws its own
 			a.drawTarget(c, t)
 		}
 	}
+	a.drawUndo(c, v)
 	// The top bar last, over anything scrolled under it.
 	c.Fill(render.RectPath(rect(0, 0, a.w, barH+margin)), render.FillStyle{Color: th.Background})
 	c.Text(render.Point{X: a.w / 2, Y: margin/2 + barH/2}, a.shortStatus(), render.TextStyle{Color: a.statusColour(), Size: render.BodySize, HAlign: render.Center, VAlign: render.Middle})
@@ -84,6 +85,9 @@ func (a *App) drawPlain(c render.Canvas, t Target) {
 	c.Fill(a.roundRect(t.Rect.Inset(frame/2), radius-frame/2), render.FillStyle{Color: th.Surface})
 	size := float64(render.ButtonSize)
 	label := t.Label
+	if t.caption != "" {
+		label = t.caption
+	}
 	for size > render.BodySize && render.TextWidth(label, size, true) > t.Rect.W()-16 {
 		size--
 	}

@@ -96,12 +96,10 @@ func (a *App) plannedLeads() [2]*float64 {
 	return [2]*float64{}
 }
 
-// leadPair words a front and a back lead short, for a row: "front 0.25,
-// back 0.20 mm", each as session.FormatLength shows it.
+// leadPair words a front and a back lead: "front 0.25 mm, back 0.20
+// mm", each as session.FormatLength shows it.
 func (a *App) leadPair(front, back float64) string {
-	f := session.FormatLength(front, a.unit())
-	unit := f[strings.LastIndex(f, " "):]
-	return "front " + strings.TrimSuffix(f, unit) + ", back " + session.FormatLength(back, a.unit())
+	return "front " + session.FormatLength(front, a.unit()) + ", back " + session.FormatLength(back, a.unit())
 }
 
 // endIndex is 0 for the front end, 1 for the back.

@@ -7,6 +7,7 @@ import (
 	"unicode/utf8"
 
 	"evenbeat/render"
+	"evenbeat/setting/plan"
 )
 
 // maxNameRunes is the longest engine name taken.
@@ -75,8 +76,11 @@ func (a *App) OtherTime() time.Duration { return a.otherTime }
 
 // reportName is the file name of the shared report.
 func (a *App) reportName() string {
-	return strings.TrimSuffix(a.exportName(), ".json") + "-report.png"
+	return strings.TrimSuffix(a.exportName(), ".json") + "-report.pdf"
 }
+
+// Theme returns the app's palette, for what the glue draws over it.
+func (a *App) Theme() render.Theme { return a.theme }
 
 // share hands the plan's report to the glue's OnShare.
 func (a *App) share() {
@@ -84,7 +88,12 @@ func (a *App) share() {
 		return
 	}
 	a.finishPlan() // the report's notes compare the two priorities
-	a.opt.OnShare(a.reportName(), render.ReportModel{Model: a.model, Session: a.Session()})
+	// The whole engine: the other cylinders' latest rounds, planned with
+	// the session's aims, and the beat.
+	s := a.Session()
+	opt := plan.AimsOptions(s.Aims)
+	opt.Unit, opt.Cylinder = a.unit(), a.cyl
+	a.opt.OnShare(a.reportName(), render.WholeEngine(s, a.model, opt))
 }
 
 // copyWords hands the plan's words to the glue's OnCopy.

@@ -56,7 +56,7 @@ func TestShareReport(t *testing.T) {
 	}
 	tap(t, a, "Menu")
 	tap(t, a, "Share report")
-	if name != "Brackenfold-No-3-report.png" || got.Model != a.model || got.Session != a.Session() {
+	if name != "Brackenfold-No-3-report.pdf" || got.Model != a.model || got.Session != a.Session() {
 		t.Fatalf("OnShare(%q, %+v)", name, got)
 	}
 	b := newTestApp(t, newMemStore())

@@ -3,6 +3,7 @@ package ui
 import (
 	"bytes"
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -120,7 +121,7 @@ func blankSession(kind string) *session.Session {
 // newEngine starts setting up a new engine of the gear kind.
 func (a *App) newEngine(kind string) {
 	a.su = newSetUp(true)
-	a.cur = &Stored{Session: blankSession(kind)}
+	a.cur = &Stored{Session: blankSession(kind), pending: true}
 	a.clearPlan()
 	a.cyl = 0
 	a.saveDraft()
@@ -182,20 +183,48 @@ func (a *App) refreshFields() {
 	}
 }
 
-// setValue sets field f to v (mm for a length). A value of the engine
-// kept (not a new one being set up) is changed as an edit of its profile
-// (session.Edit): derived parts worked out again, the change recorded in
-// the engine's history, every reading kept; an edit that would not read
-// as a file is refused with the field named, and nothing changes.
-func (a *App) setValue(f field, v float64) error {
+// takeSetUp takes v as the value of set-up field f, and reports whether
+// f is one (ok; otherwise the entry is a reading's, taken by take). An
+// unusual value is taken on a second Next (askOnce). While a new engine is
+// set up the value is simply set: its answers are a draft, written by
+// saveDraft, and checked once all are in. A value of an engine kept is
+// changed as an edit of its profile (session.Edit: derived parts worked
+// out again, the change recorded in the engine's history, every reading
+// kept); an edit that would not read as a file is held at its field with
+// the reason in words, and nothing changes. b is the session file to
+// write (nil for a draft).
+func (a *App) takeSetUp(f field, v float64) (b []byte, why string, ok bool) {
+	if a.screen != Sizes || !isSetUp(f) {
+		return nil, "", false
+	}
 	if f.set == nil {
-		return fmt.Errorf("choose one of the answers with a tap.")
+		return nil, f.Label + ": choose one of the answers with a tap.", true
 	}
-	if a.screen != Sizes || a.su.active() || !isSetUp(f) {
-		f.set(a.Session(), v)
-		return nil
+	change := func(s *session.Session) { f.set(s, v) }
+	if !a.su.active() {
+		// What cannot be is said before what is only unusual: the edit
+		// tried on a copy first.
+		try := *a.Session()
+		try.Engine, try.Adjustments = try.Engine.Clone(), slices.Clone(try.Adjustments)
+		if err := a.editOf(&try, change); err != nil {
+			return nil, f.Label + ": " + a.inWords(sentence(err)) + " Nothing was changed; correct the value typed.", true
+		}
 	}
-	return a.edit(func(s *session.Session) { f.set(s, v) })
+	if ask := a.askOnce(f, v); ask != "" {
+		return nil, ask, true
+	}
+	if a.su.active() {
+		change(a.Session())
+		return nil, "", true
+	}
+	if err := a.edit(change); err != nil {
+		return nil, f.Label + ": " + a.inWords(sentence(err)) + " Nothing was changed; correct the value typed.", true
+	}
+	b, err := a.encode(a.Session())
+	if err != nil {
+		return nil, f.Label + ": " + a.inWords(sentence(err)), true
+	}
+	return b, "", true
 }
 
 // edit makes change on a copy of the profile of the engine open and
@@ -207,11 +236,7 @@ func (a *App) edit(change func(*session.Session)) error {
 		change(s)
 		return nil
 	}
-	p := s.Profile()
-	tmp := &session.Session{Engine: p.Engine, Adjustments: p.Adjustments, Measuring: p.Measuring, DisplayUnit: p.DisplayUnit}
-	change(tmp)
-	p = session.Profile{Engine: tmp.Engine, Adjustments: tmp.Adjustments, Measuring: tmp.Measuring, DisplayUnit: tmp.DisplayUnit}
-	if _, err := s.Edit(p, a.today()); err != nil {
+	if err := a.editOf(s, change); err != nil {
 		return err
 	}
 	a.engine = nil
@@ -220,11 +245,22 @@ func (a *App) edit(change func(*session.Session)) error {
 	return nil
 }
 
+// editOf makes change on a copy of s's profile and gives it to s.Edit,
+// dated today.
+func (a *App) editOf(s *session.Session, change func(*session.Session)) error {
+	p := s.Profile()
+	tmp := &session.Session{Engine: p.Engine, Adjustments: p.Adjustments, Measuring: p.Measuring, DisplayUnit: p.DisplayUnit}
+	change(tmp)
+	p = session.Profile{Engine: tmp.Engine, Adjustments: tmp.Adjustments, Measuring: tmp.Measuring, DisplayUnit: tmp.DisplayUnit}
+	_, err := s.Edit(p, a.today())
+	return err
+}
+
 // choose answers the question shown with its i-th choice and goes on.
 func (a *App) choose(i int) {
 	f := a.fields[a.fi]
 	if err := a.edit(f.Choices[i].set); err != nil {
-		a.note = f.Label + ": " + sentence(err) + " Nothing was changed."
+		a.note = f.Label + ": " + a.inWords(sentence(err)) + " Nothing was changed."
 		return
 	}
 	a.gen++
@@ -238,7 +274,7 @@ func (a *App) choose(i int) {
 func (a *App) toggleForm() {
 	f := a.fields[a.fi]
 	if err := a.edit(func(s *session.Session) { f.toggle(&a.su, s) }); err != nil {
-		a.note = f.Label + ": " + sentence(err) + " Nothing was changed."
+		a.note = f.Label + ": " + a.inWords(sentence(err)) + " Nothing was changed."
 		return
 	}
 	if f.skip {
@@ -288,8 +324,8 @@ func (a *App) workOut() {
 // and starts measuring.
 func (a *App) finishSetUp() {
 	a.su = newSetUp(false)
-	a.put(DraftKey, nil)
-	a.save()
+	a.remove(DraftKey)
+	a.save() // kept now: the session and the list of sessions
 	a.startMeasuring()
 }
 
@@ -431,7 +467,7 @@ func (a *App) loadDraft() {
 // carryOn opens the new engine a set-up left unfinished where it stopped.
 func (a *App) carryOn() {
 	a.su = a.draftSetUp
-	a.cur = &Stored{Session: a.draftSession}
+	a.cur = &Stored{Session: a.draftSession, pending: true}
 	a.draftSession = nil
 	a.clearPlan()
 	a.cyl = 0

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"evenbeat/render/raster"
+	"evenbeat/render/report"
 )
 
 // TestShots writes PNGs of some screens to $EVENBEAT_UI_SHOTS for a look
@@ -23,7 +24,7 @@ func TestShots(t *testing.T) {
 			t.Fatal(err)
 		}
 		defer f.Close()
-		if err := c.WritePNG(f); err != nil {
+		if err := report.EncodePNG(f, c); err != nil {
 			t.Fatal(err)
 		}
 	}

@@ -28,6 +28,10 @@ type Target struct {
 	On    bool // a chosen option of a group
 	act   func()
 	bar   bool // in the top bar, drawn over scrolled content
+	over  bool // in the Undo bar, drawn over the content (records.go)
+	// caption is drawn instead of Label when set (a row's Delete, whose
+	// Label names the record).
+	caption string
 }
 
 // view is what one screen shows, laid out.
@@ -116,8 +120,9 @@ func (a *App) layout() *view {
 		lay.muted(f.Label + ": the engine as drawn, about where it stands for this reading. Drag sideways to turn the wheel.")
 		v.body = render.Rect{Min: render.Point{X: margin, Y: lay.y}, Max: render.Point{X: a.w - margin, Y: a.h - margin}}
 	}
-	v.bottom = lay.y
+	v.bottom = lay.y + a.undoRoom()
 	a.scrolled(v)
+	a.undoBar(v)
 	return v
 }
 
@@ -250,26 +255,19 @@ func (a *App) enginesView(l *layouter) {
 	l.title("Engines")
 	l.text(a.loadNote, true)
 	l.text(a.importErr, true)
+	a.importQuestion(l)
 	for _, e := range a.stored {
 		e := e
 		if e.Session == nil {
 			l.text(e.Err, true)
-			l.button("Export the unreadable "+e.Key, false, func() {
+			a.rowWithDelete(l, "Export the unreadable "+e.Key, "the unreadable "+e.Key, func() {
 				if a.opt.OnExport != nil {
 					a.opt.OnExport(strings.ReplaceAll(e.Key, "/", "-")+".json", e.Raw)
 				}
-			})
+			}, func() { a.deleteEngine(e) })
 			continue
 		}
-		n := 0
-		for _, c := range e.Session.Cylinders {
-			n = max(n, len(c.Rounds))
-		}
-		label := fmt.Sprintf("%s, %d round", e.Session.Name, n)
-		if n != 1 {
-			label += "s"
-		}
-		l.button(label, false, func() { a.openSession(e) })
+		a.rowWithDelete(l, a.engineLabel(e), e.Session.Name, func() { a.openSession(e) }, func() { a.deleteEngine(e) })
 	}
 	if a.draftSession != nil {
 		l.button("Carry on setting up "+a.draftSession.Name, false, a.carryOn)
@@ -455,6 +453,10 @@ func (a *App) keypadWords(l *layouter, level int) {
 		labels = append(labels, "Skip")
 		acts = append(acts, a.skipStep)
 	}
+	if del := a.deleteHere(); del != nil {
+		labels = append(labels, RemoveLabel)
+		acts = append(acts, del)
+	}
 	if a.ready() {
 		labels = append(labels, "Plan")
 		acts = append(acts, func() { a.planRound = 0; a.navigate(Plan); a.makePlan() })
@@ -529,10 +531,10 @@ func (a *App) historyView(l *layouter) {
 			lead = a.plannedLeads() // the very figures the plan, curve and balance show
 		}
 		label := fmt.Sprintf("Round %d, %s", ri+1, r.Date)
+		a.rowWithDelete(l, a.roundLabel(ri, label), fmt.Sprintf("round %d", ri+1), func() { a.showRound(ri) }, func() { a.deleteRound(ri) })
 		if lead[0] != nil && lead[1] != nil {
-			label += ": " + a.leadPair(*lead[0], *lead[1])
+			l.muted("Leads in full forward: " + a.leadPair(*lead[0], *lead[1]))
 		}
-		l.button(label, false, func() { a.showRound(ri) })
 	}
 }
 

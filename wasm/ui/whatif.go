@@ -110,6 +110,7 @@ func (a *App) SetWhatIfAdjustment(j int, amount float64) error {
 	if err != nil {
 		return err
 	}
+	m.Scale = a.model // the balance keeps the plan's scales while dragging
 	a.what.plan, a.what.model = p, m
 	a.dirty = true
 	return nil

@@ -4,6 +4,7 @@ import (
 	"strings"
 	"testing"
 
+	"evenbeat/render"
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
 )
@@ -90,4 +91,30 @@ func whatStep(t *testing.T, a *App, adj session.Adjustment) plan.Step {
 	}
 	t.Fatalf("the what-if plan has no step for %s", adjustmentName(adj))
 	return plan.Step{}
+}
+
+// Dragging a what-if keeps the balance card's scales: today's bars do
+// not seem to move while an amount changes, however far it goes.
+func TestWhatIfKeepsTheBalanceScale(t *testing.T) {
+	a := planApp(t)
+	a.makePlan()
+	if a.plan == nil || len(a.plan.Steps) == 0 {
+		t.Fatalf("the example's plan has no steps (%q)", a.planNote)
+	}
+	lead, cut, _, _ := render.BalanceRanges(a.model)
+	if err := a.SetWhatIf(0, 20*a.plan.Steps[0].Amount); err != nil {
+		t.Fatal(err)
+	}
+	m := a.shownModel()
+	if m == a.model {
+		t.Fatal("the what-if made no model of its own")
+	}
+	l2, c2, _, _ := render.BalanceRanges(m)
+	if l2 != lead || c2 != cut {
+		t.Errorf("the balance scales moved with the what-if: lead +/-%g -> %g, cut-off +/-%g -> %g", lead, l2, cut, c2)
+	}
+	m.Scale = nil
+	if l3, c3, _, _ := render.BalanceRanges(m); l3 == lead && c3 == cut {
+		t.Error("the what-if's own scales equal the plan's: pick a larger amount, or the check above proves nothing")
+	}
 }

@@ -1,0 +1,116 @@
+package beat
+
+import (
+	"fmt"
+
+	"evenbeat/setting"
+	"evenbeat/setting/plan"
+	"evenbeat/setting/session"
+)
+
+// CrankAngles returns each of the session's cylinders' crank angle ahead
+// of the first one's (degrees), from the engine's list of cylinders, by
+// name. With one cylinder it is 0; a cylinder the engine does not list
+// cannot be placed on the crank circle and is an error naming it.
+func CrankAngles(s *session.Session) ([]float64, error) {
+	out := make([]float64, len(s.Cylinders))
+	if len(s.Cylinders) < 2 {
+		return out, nil
+	}
+	design := map[string]float64{}
+	for _, c := range s.Engine.Cylinders {
+		design[c.Name] = c.CrankAngle
+	}
+	for i, c := range s.Cylinders {
+		a, ok := design[c.Name]
+		if !ok {
+			return nil, &setting.Error{Field: fmt.Sprintf("cylinders[%d].name", i), Message: fmt.Sprintf("The engine does not list a %s cylinder, so its crank's angle to the others is not known: add it to the engine's cylinders with its crank angle.", c.Name)}
+		}
+		out[i] = a
+	}
+	first := out[0]
+	for i := range out {
+		out[i] -= first
+	}
+	return out, nil
+}
+
+// Position is the whole engine in one planned position: its beat and the
+// work of every end, today and after every cylinder's plan.
+type Position struct {
+	Name      string // the position in words, "full forward"
+	Direction setting.Direction
+	Now       Circle
+	After     Circle
+	// WorkNow and WorkAfter are every end's work, in the plans' order
+	// (front then back of each); nil when the diagram cannot be drawn.
+	WorkNow, WorkAfter []Work
+}
+
+// FromPlans puts the plans of every cylinder of a session (plans[i] for
+// s.Cylinders[i], each made by plan.Make or FromFit, so that they carry
+// their event sets) together: the beat and the work in each position
+// they all plan. A position some plan does not cover is left out.
+func FromPlans(s *session.Session, plans []*plan.Plan, st Steam) ([]Position, error) {
+	if len(plans) != len(s.Cylinders) || len(plans) == 0 {
+		return nil, fmt.Errorf("There are %d plans for %d cylinders.", len(plans), len(s.Cylinders))
+	}
+	angles, err := CrankAngles(s)
+	if err != nil {
+		return nil, err
+	}
+	type sets struct{ now, after []setting.EventSet }
+	all := make([]sets, len(plans))
+	for i, p := range plans {
+		if p == nil {
+			return nil, fmt.Errorf("The %s cylinder has no plan.", s.Cylinders[i].Name)
+		}
+		all[i].now, all[i].after = p.EventSets()
+		if len(all[i].now) != len(p.Now) {
+			return nil, fmt.Errorf("The %s cylinder's plan carries no events to put on the beat circle.", s.Cylinders[i].Name)
+		}
+	}
+	var out []Position
+	for _, ps := range plans[0].Now {
+		pos := Position{Name: ps.Notch, Direction: ps.Direction}
+		var now, after []Side
+		for i, p := range plans {
+			j := findPosition(p.Now, ps)
+			if j < 0 {
+				now = nil
+				break
+			}
+			name := s.Cylinders[i].Name
+			now = append(now, Side{Name: name, CrankDeg: angles[i], Set: all[i].now[j]})
+			a := all[i].now[j] // no steps: after is as now
+			if all[i].after != nil {
+				a = all[i].after[j]
+			}
+			after = append(after, Side{Name: name, CrankDeg: angles[i], Set: a})
+		}
+		if now == nil {
+			continue
+		}
+		if pos.Now, err = NewCircle(now); err != nil {
+			return nil, err
+		}
+		if pos.After, err = NewCircle(after); err != nil {
+			return nil, err
+		}
+		pos.WorkNow, _ = st.Works(now)
+		pos.WorkAfter, _ = st.Works(after)
+		out = append(out, pos)
+	}
+	return out, nil
+}
+
+// findPosition returns the index in list of the position like ps (same
+// notch and direction), or -1.
+func findPosition(list []plan.PositionState, ps plan.PositionState) int {
+	for i, q := range list {
+		if q.Notch == ps.Notch && q.Direction == ps.Direction {
+			return i
+		}
+	}
+	return -1
+}

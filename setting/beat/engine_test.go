@@ -1,0 +1,64 @@
+package beat
+
+import (
+	"math"
+	"os"
+	"testing"
+
+	"evenbeat/setting/plan"
+	"evenbeat/setting/session"
+)
+
+// The demo session's two cylinders, each planned, give four beats a turn
+// in every position both plan, their gaps adding to a turn, and the work
+// of all four ends sharing the mean.
+func TestFromPlansDemo(t *testing.T) {
+	f, err := os.Open("../../testdata/sessions/brackenfold-stephenson.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	s, err := session.Decode(f)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var plans []*plan.Plan
+	for i := range s.Cylinders {
+		p, err := plan.Make(s, plan.Options{Cylinder: i, Priority: plan.EqualLeads})
+		if err != nil {
+			t.Fatal(err)
+		}
+		plans = append(plans, p)
+	}
+	ps, err := FromPlans(s, plans, DefaultSteam)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(ps) == 0 {
+		t.Fatal("no position is planned on both cylinders")
+	}
+	for _, p := range ps {
+		for _, c := range []Circle{p.Now, p.After} {
+			sum := 0.0
+			for _, g := range c.Gaps {
+				sum += g
+			}
+			if len(c.Gaps) != 4 || math.Abs(sum-360) > 1e-9 || !(c.Evenness() >= 1 && c.Evenness() < 1.5) {
+				t.Errorf("%s: gaps %v (sum %g), evenness %g", p.Name, c.Gaps, sum, c.Evenness())
+			}
+		}
+		share := 0.0
+		for _, w := range p.WorkAfter {
+			share += w.Share
+		}
+		if len(p.WorkAfter) != 4 || math.Abs(share-400) > 1e-9 {
+			t.Errorf("%s: work after %+v", p.Name, p.WorkAfter)
+		}
+		t.Logf("%s %s: gaps now %.1f, after %.1f; evenness %.3f -> %.3f", p.Name, p.Direction, p.Now.Gaps, p.After.Gaps, p.Now.Evenness(), p.After.Evenness())
+	}
+	// A cylinder the engine does not list cannot be placed.
+	s.Cylinders[1].Name = "middle"
+	if _, err := FromPlans(s, plans, DefaultSteam); err == nil {
+		t.Error("a cylinder the engine does not list was placed on the circle")
+	}
+}

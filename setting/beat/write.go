@@ -1,0 +1,101 @@
+package beat
+
+import (
+	"fmt"
+	"io"
+	"strings"
+
+	"evenbeat/setting"
+)
+
+// WriteText writes the whole engine as the command line prints it: for
+// each position, every exhaust in the order it comes with the gap to the
+// next (today, and after the plans where they differ), the evenness, and
+// each end's work as a share of the mean; then the quartering the marks
+// show, when they show it.
+func WriteText(w io.Writer, ps []Position, qs []Quartering) error {
+	var b strings.Builder
+	b.WriteString("The whole engine: exhausts round one turn of the wheel (gaps in degrees of crank; an even beat has them all alike)\n")
+	for _, p := range ps {
+		fmt.Fprintf(&b, "\n  %s, running %s: largest gap over smallest %.2f today", p.Name, p.Direction, p.Now.Evenness())
+		if len(p.After.Gaps) == len(p.Now.Gaps) {
+			fmt.Fprintf(&b, ", %.2f after the plans", p.After.Evenness())
+		}
+		b.WriteString("\n")
+		for i, e := range p.Now.Exhausts {
+			fmt.Fprintf(&b, "    %-16s then %5.1f", e.Label(), p.Now.Gaps[i])
+			if i < len(p.After.Gaps) {
+				fmt.Fprintf(&b, " -> %5.1f", p.After.Gaps[i])
+			}
+			b.WriteString("\n")
+		}
+		if late, by, ok := p.Now.Odd(1); ok {
+			word := "late"
+			if by < 0 {
+				word, by = "early", -by
+			}
+			fmt.Fprintf(&b, "    The %s exhaust comes %.1f degrees %s against an even beat today.\n", p.Now.Exhausts[late].Label(), by, word)
+		}
+		if len(p.WorkNow) > 0 {
+			b.WriteString("    work, % of the mean:")
+			for k, wk := range p.WorkNow {
+				fmt.Fprintf(&b, " %s %.0f", wk.Cylinder+" "+wk.End.String(), wk.Share)
+				if k < len(p.WorkAfter) {
+					fmt.Fprintf(&b, " -> %.0f", p.WorkAfter[k].Share)
+				}
+				if k < len(p.WorkNow)-1 {
+					b.WriteString(";")
+				}
+			}
+			b.WriteString("\n")
+		}
+		for _, s := range p.Now.Silent {
+			fmt.Fprintf(&b, "    The %s exhaust never opens: no beat.\n", s)
+		}
+	}
+	for _, q := range qs {
+		fmt.Fprintf(&b, "\n  Quartering: the marks put the %s crank %.1f degrees from the %s crank (drawing %.0f), %.1f +/- %.1f off.", q.Other, q.Measured, q.First, q.Design, q.Error, q.Uncertainty())
+		if q.Told {
+			b.WriteString(" More than the marks can tell: the cranks are not truly quartered. No valve adjustment cures that; it is work on the wheels for a fitter, with the usual precautions.\n")
+		} else {
+			b.WriteString(" Within what the marks can tell (both wheels' datums must be at the same angle).\n")
+		}
+	}
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// Designed returns the beat of an engine as designed: every cylinder the
+// spec lists, each the same design at its crank angle, in full forward,
+// each running notch and full back (the way its gear runs there), with
+// the work of every end. An engine of one cylinder gives nothing.
+func Designed(spec setting.EngineSpec, st Steam) ([]Position, error) {
+	if len(spec.Cylinders) < 2 {
+		return nil, nil
+	}
+	g, err := spec.Gear.Gear()
+	if err != nil {
+		return nil, err
+	}
+	notches := append([]setting.Notch{{Name: "full forward", Reverser: 1}}, spec.Notches...)
+	notches = append(notches, setting.Notch{Name: "full back", Reverser: -1})
+	var out []Position
+	for _, n := range notches {
+		dir := setting.RunningDirections(n.Reverser)[0]
+		set, err := setting.Events(spec.Engine, spec.Valve, func(th float64) (float64, error) { return g.Valve(spec.Engine, th, n.Reverser) }, dir)
+		if err != nil {
+			return nil, fmt.Errorf("%s: %w", n.Name, err)
+		}
+		var sides []Side
+		for _, c := range spec.Cylinders {
+			sides = append(sides, Side{Name: c.Name, CrankDeg: c.CrankAngle - spec.Cylinders[0].CrankAngle, Set: set})
+		}
+		circ, err := NewCircle(sides)
+		if err != nil {
+			return nil, err
+		}
+		works, _ := st.Works(sides)
+		out = append(out, Position{Name: n.Name, Direction: dir, Now: circ, WorkNow: works})
+	}
+	return out, nil
+}

@@ -138,6 +138,7 @@ const usage = `usage:
   evenbeat plan [-json] [flags] SESSION.json           fit the readings and print what to adjust
   evenbeat events [-json] ENGINE.json                  print the valve-event table of an engine
   evenbeat report SESSION.json -o report.pdf           write the report: .pdf A4 pages, .png one tall picture
+  evenbeat listen [-beats 4] [-session S.json] REC.wav print the beat heard in a recording of the exhaust
 Flags may come before or after the file.
 `
 
@@ -146,7 +147,7 @@ Flags may come before or after the file.
 func run(ctx context.Context, args []string, stdout, stderr io.Writer) error {
 	if len(args) == 0 {
 		fmt.Fprint(stderr, usage)
-		return errors.New("no command given; use serve, build, plan, events or report")
+		return errors.New("no command given; use serve, build, plan, events, report or listen")
 	}
 	switch args[0] {
 	case "serve":
@@ -195,12 +196,14 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) error {
 		return runEvents(args[1:], stdout, stderr)
 	case "report":
 		return runReport(args[1:], stdout, stderr)
+	case "listen":
+		return runListen(args[1:], stdout, stderr)
 	case "help", "-h", "-help", "--help":
 		fmt.Fprint(stdout, usage)
 		return nil
 	}
 	fmt.Fprint(stderr, usage)
-	return fmt.Errorf("unknown command %q; use serve, build, plan, events or report", args[0])
+	return fmt.Errorf("unknown command %q; use serve, build, plan, events, report or listen", args[0])
 }
 
 // parseFlags parses and rejects stray arguments.

@@ -7,6 +7,7 @@
 //	evenbeat plan [-json] [-cylinder NAME] [-priority leads|cut-offs|balanced] [-weight W] [-target-lead MM] [-unit mm|inch] SESSION.json
 //	evenbeat events [-json] ENGINE.json
 //	evenbeat report [plan's flags] [-dark] SESSION.json -o report.pdf|report.png
+//	evenbeat listen [-beats 4] [-session SESSION.json [-position "full forward"]] RECORDING.wav
 //
 // "serve" builds the WebAssembly program with the Go toolchain this command
 // runs under (GOOS=js GOARCH=wasm, -trimpath, stripped, no inlining in
@@ -26,6 +27,13 @@
 // exit status 1, nothing planned or written. The file commands run with a
 // soft memory limit (unless GOMEMLIMIT is set), so the largest session
 // file (16 MB) is read in a few hundred MB.
+//
+// "listen" (listen.go) hears the beat in a WAV recording of the exhaust
+// (setting/listen) and prints the onsets, the speed, the gaps, the
+// evenness and the odd beat; with a session it plans every cylinder with
+// the session's aims, takes today's beat in the position named from
+// setting/beat and lays the heard beats on it, naming the odd beat's
+// cylinder end or saying why it cannot. Its notes go to stderr.
 //
 // Main (Run/Close) is the whole command as a value; the end-to-end browser
 // test reuses it. This package may import setting and its subpackages,

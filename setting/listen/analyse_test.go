@@ -302,3 +302,12 @@ func TestAnalyseHardRecordings(t *testing.T) {
 		checkFinite(t, "six beats asked of four", r)
 	}
 }
+
+// TestWarmHearsItsRecording: Warm's made-up recording is heard as made
+// (every turn, the speed), so warming runs the whole analysis, folding
+// and all, and not only the onsets before a refusal.
+func TestWarmHearsItsRecording(t *testing.T) {
+	if !listen.Warm() {
+		t.Fatal("Warm's own recording was not heard as made")
+	}
+}

@@ -70,7 +70,8 @@ func prepare(samples []float32, rate int) *prepared {
 	scale := 1 / float64(d)
 	k := math.Exp(-2 * math.Pi * highPassHz * float64(d) / float64(rate))
 	var px, py float64
-	for i := range p.x {
+	x, loud := p.x, false // locals while it runs: p's fields are not reloaded each sample
+	for i := range x {
 		sum := 0.0
 		for _, s := range samples[i*d : (i+1)*d] {
 			if !(s > -0.999 && s < 0.999) { // also NaN
@@ -83,12 +84,13 @@ func prepare(samples []float32, rate int) *prepared {
 			}
 			sum += float64(s)
 		}
-		p.loud = p.loud || sum != 0
+		loud = loud || sum != 0
 		v := sum * scale
 		py = v - px + k*py
 		px = v
-		p.x[i] = py
+		x[i] = py
 	}
+	p.loud = loud
 	return p
 }
 
@@ -128,6 +130,21 @@ func (f *biquad) filter(dst, src []float64) {
 		x2, x1 = x1, x
 		y2, y1 = y1, y
 		dst[i] = y
+	}
+	f.x1, f.x2, f.y1, f.y2 = x1, x2, y1, y2
+}
+
+// filterBack runs v through f backward, from its last sample to its
+// first, in place: with filter, a zero-phase filter.
+func (f *biquad) filterBack(v []float64) {
+	b0, b1, b2, a1, a2 := f.b0, f.b1, f.b2, f.a1, f.a2
+	x1, x2, y1, y2 := f.x1, f.x2, f.y1, f.y2
+	for i := len(v) - 1; i >= 0; i-- {
+		x := v[i]
+		y := b0*x + b1*x1 + b2*x2 - a1*y1 - a2*y2
+		x2, x1 = x1, x
+		y2, y1 = y1, y
+		v[i] = y
 	}
 	f.x1, f.x2, f.y1, f.y2 = x1, x2, y1, y2
 }
@@ -207,8 +224,10 @@ func rises(bands [][]float64) []float64 {
 			after += e[b]
 		}
 		for b := beforeBlocks; b+afterBlocks <= nb; b++ {
-			if r := 10 * math.Log10((after/afterBlocks+floor)/(before/beforeBlocks+floor)); r > 0 {
-				o[b] += r
+			// Only a rise counts: a block where the sound does not rise
+			// needs no logarithm (most of them).
+			if q := (after/afterBlocks + floor) / (before/beforeBlocks + floor); q > 1 {
+				o[b] += 10 * math.Log10(q)
 			}
 			before += e[b] - e[b-beforeBlocks]
 			after -= e[b]
@@ -376,10 +395,8 @@ func (r *refiner) split(start, end int) {
 		r.low = append(r.low[:0], w...)
 		f := r.filters[k]
 		f.filter(r.low, r.low)
-		reverse(r.low)
 		f = r.filters[k]
-		f.filter(r.low, r.low)
-		reverse(r.low)
+		f.filterBack(r.low)
 		r.heads[k] = prefixEnergy(r.heads[k][:0], r.low[start-from:end-from], r.below[start-from:end-from])
 		r.low, r.below = r.below, r.low
 	}
@@ -407,12 +424,6 @@ func prefixEnergy(dst, a, b []float64) []float64 {
 		dst = append(dst, sum)
 	}
 	return dst
-}
-
-func reverse(v []float64) {
-	for i, j := 0, len(v)-1; i < j; i, j = i+1, j-1 {
-		v[i], v[j] = v[j], v[i]
-	}
 }
 
 // detector finds the onsets of a prepared recording, and places them

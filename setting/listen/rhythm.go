@@ -230,11 +230,16 @@ func beatPlaces(ph []float64, n int) []float64 {
 		hist[int(f*bins)%bins]++
 	}
 	const sigmaBins = 6 // 3 degrees
+	// The smoothing's weights, the same for every bin: worked out once.
+	var kernel [6*sigmaBins + 1]float64
+	for d := range kernel {
+		z := float64(d-3*sigmaBins) / sigmaBins
+		kernel[d] = math.Exp(-z * z / 2)
+	}
 	smooth := make([]float64, bins)
 	for i := range bins {
-		for d := -3 * sigmaBins; d <= 3*sigmaBins; d++ {
-			z := float64(d) / sigmaBins
-			smooth[i] += hist[(i+d+bins)%bins] * math.Exp(-z*z/2)
+		for d, k := range kernel {
+			smooth[i] += hist[(i+d-3*sigmaBins+bins)%bins] * k
 		}
 	}
 	apart := bins / (2 * n)

@@ -217,3 +217,23 @@ func TestNoQuarteringWithoutMatchedDatums(t *testing.T) {
 		t.Errorf("got %v, %v; want one quartering with matched datums", qs, err)
 	}
 }
+
+// The crank that leads is named from the engine's crank angles, whichever
+// cylinder the list gives first and however the angle is written.
+func TestLeadingCranks(t *testing.T) {
+	for _, c := range []struct {
+		cyls []setting.Cylinder
+		want string
+	}{
+		{[]setting.Cylinder{{Name: "right"}, {Name: "left", CrankAngle: -90}}, "Running forward, the right crank leads the left by 90 degrees."},
+		{[]setting.Cylinder{{Name: "right"}, {Name: "left", CrankAngle: 270}}, "Running forward, the right crank leads the left by 90 degrees."},
+		{[]setting.Cylinder{{Name: "left", CrankAngle: 90}, {Name: "right"}}, "Running forward, the left crank leads the right by 90 degrees."},
+		{[]setting.Cylinder{{Name: "right"}, {Name: "middle", CrankAngle: 120}, {Name: "left", CrankAngle: 240}}, "Running forward, the middle crank leads the right by 120 degrees, the right the left by 120 degrees."},
+		{[]setting.Cylinder{{Name: "right"}, {Name: "left", CrankAngle: 180}}, "The right and left cranks are 180 degrees apart: neither leads."},
+		{[]setting.Cylinder{{Name: "only"}}, ""},
+	} {
+		if got := LeadingCranks(c.cyls); got != c.want {
+			t.Errorf("%+v: %q, want %q", c.cyls, got, c.want)
+		}
+	}
+}

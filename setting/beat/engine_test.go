@@ -79,7 +79,7 @@ func TestSidesCompared(t *testing.T) {
 		{Cylinder: "left", LeadNow: 0.3, LeadAfter: 0.3, CutOffNow: 42, CutOffAfter: 42},
 	}}
 	var b strings.Builder
-	if err := WriteText(&b, []Position{p}, nil, session.UnitMM); err != nil {
+	if err := WriteText(&b, nil, []Position{p}, nil, session.UnitMM); err != nil {
 		t.Fatal(err)
 	}
 	for _, want := range []string{"leads stay 0.10 mm apart", "same target lead, e.g. 0.25 mm", "cut off 2.0 % of stroke apart", "reversing linkage"} {
@@ -89,7 +89,7 @@ func TestSidesCompared(t *testing.T) {
 	}
 	p.Sides[1].LeadAfter, p.Sides[1].CutOffAfter = 0.205, 40.2
 	b.Reset()
-	WriteText(&b, []Position{p}, nil, session.UnitMM)
+	WriteText(&b, nil, []Position{p}, nil, session.UnitMM)
 	if strings.Contains(b.String(), "apart") {
 		t.Errorf("sides within what the readings tell are called apart:\n%s", b.String())
 	}

@@ -10,14 +10,18 @@ import (
 )
 
 // WriteText writes the whole engine as the command line prints it, with
-// lengths in unit: for each position, every exhaust in the order it comes
+// lengths in unit: which crank leads (from the engine's cylinders, cyls);
+// for each position, every exhaust in the order it comes
 // with the gap to the next (today, and after the plans), the evenness,
 // each end's work as a share of the mean, and the cylinders against one
 // another (mean lead and cut-off of each, and what would match them);
 // then the quartering the marks show, when they show it.
-func WriteText(w io.Writer, ps []Position, qs []Quartering, unit session.Unit) error {
+func WriteText(w io.Writer, cyls []setting.Cylinder, ps []Position, qs []Quartering, unit session.Unit) error {
 	var b strings.Builder
 	b.WriteString("The whole engine: exhausts round one turn of the wheel (gaps in degrees of crank; an even beat has them all alike)\n")
+	if c := LeadingCranks(cyls); c != "" {
+		b.WriteString(c + "\n")
+	}
 	for _, p := range ps {
 		fmt.Fprintf(&b, "\n  %s, running %s: largest gap over smallest %.2f today", p.Name, p.Direction, p.Now.Evenness())
 		if len(p.After.Gaps) == len(p.Now.Gaps) {

@@ -64,6 +64,7 @@ type listening struct {
 	rate    int
 	events  []micEvent    // from the glue and the analysis, under App.mu
 	heard   *heardBeat    // the latest beat heard in this run
+	warmed  bool          // listen.Warm has been started in this run
 	took    time.Duration // how long the latest analysis took
 	seconds float64       // and the length of its recording
 }
@@ -177,6 +178,10 @@ func (a *App) listenTick() {
 			a.tookHeard(e.heard)
 		case e.opened && l.step == listenAsking:
 			l.step, l.started, l.secs = listenRecording, a.now(), 0
+			if !l.warmed { // while the phone only records: the browser optimises the analysis' code
+				l.warmed = true
+				go listen.Warm()
+			}
 		case e.opened:
 			a.opt.Microphone.Stop() // opened after the screen was left
 		case e.why != "" && l.step >= listenAsking && l.step <= listenStopping:
@@ -257,15 +262,15 @@ func (a *App) tookHeard(h *heardBeat) {
 		l.why = a.inWords(sentence(h.err))
 		return
 	}
+	for i, g := range h.gaps { // as the session keeps them: shown now as when opened again
+		h.gaps[i] = math.Round(g*100) / 100
+	}
 	l.heard = h
 	s := h.s
 	if s != a.Session() || len(h.gaps) == 0 || !(h.r.RevPerMin > 0 && h.r.RevPerMin <= session.MaxRevPerMin) {
 		return
 	}
-	gaps := make([]float64, len(h.gaps))
-	for i, g := range h.gaps {
-		gaps[i] = math.Round(g*100) / 100
-	}
+	gaps := append([]float64(nil), h.gaps...)
 	s.Heard = append(s.Heard, session.Heard{Date: a.today(), Position: h.pos, GapsDeg: gaps, RevPerMin: math.Round(h.r.RevPerMin*10) / 10})
 	if n := len(s.Heard); n > session.MaxHeard {
 		s.Heard = s.Heard[n-session.MaxHeard:] // the oldest let go
@@ -283,12 +288,12 @@ func (a *App) heardWords(pos beat.Position) []string {
 	h := a.lis.heard
 	if h == nil || h.s != a.Session() || h.pos != pos.Name {
 		if st := latestHeard(a.Session(), pos); st != nil {
-			return []string{"Heard on " + st.Date + " at " + fixed(st.RevPerMin, 0) + " rev/min (the squares): largest gap over smallest " + fixed(evenness(st.GapsDeg), 2) + "."}
+			return []string{"Heard on " + st.Date + " at " + fixed(st.RevPerMin, 0) + " rev/min (the squares): largest gap over smallest " + fixed(evenness(st.GapsDeg), 2) + ".", gapsWords(pos, st.GapsDeg)}
 		}
 		return nil
 	}
 	r, m := h.r, h.m
-	out := []string{"Heard over " + strconv.Itoa(r.Turns) + " turns at " + fixed(r.RevPerMin, 0) + " rev/min (the squares): largest gap over smallest " + fixed(r.Evenness, 2) + ", where today's readings foresee " + fixed(pos.Now.Evenness(), 2) + "."}
+	out := []string{"Heard over " + strconv.Itoa(r.Turns) + " turns at " + fixed(r.RevPerMin, 0) + " rev/min (the squares): largest gap over smallest " + fixed(r.Evenness, 2) + ", where today's readings foresee " + fixed(pos.Now.Evenness(), 2) + ".", gapsWords(pos, h.gaps)}
 	word := "late"
 	if !r.Odd.Late() {
 		word = "early"
@@ -308,6 +313,25 @@ func (a *App) heardWords(pos beat.Position) []string {
 		out = append(out, "The "+word+" beat is "+ends[0]+" exhaust, "+fixed(math.Abs(r.Odd.Deg), 1)+"° "+word+" against an even beat.")
 	}
 	return append(append(out, whatToDo(pos, m)), r.Notes...)
+}
+
+// gapsWords lists the gaps heard in pos beside those today's readings
+// foresee, both in the order of pos's beat circle.
+func gapsWords(pos beat.Position, heard []float64) string {
+	list := func(gaps []float64) string {
+		var b strings.Builder
+		for i, g := range gaps {
+			switch {
+			case i == len(gaps)-1 && i > 0:
+				b.WriteString(" and ")
+			case i > 0:
+				b.WriteString(", ")
+			}
+			b.WriteString(fixed(g, 1))
+		}
+		return b.String() + "°"
+	}
+	return "The gaps heard from the " + pos.Now.Exhausts[0].Label() + " exhaust on: " + list(heard) + " (today's readings foresee " + list(pos.Now.Gaps) + ")."
 }
 
 // whatToDo says what to do about the beat heard in pos.

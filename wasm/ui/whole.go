@@ -139,6 +139,7 @@ func (a *App) wholeView(l *layouter) {
 		a.datumsRow(l)
 		return
 	}
+	l.muted(beat.LeadingCranks(s.Engine.Cylinders))
 	if len(w.ps) > 1 {
 		labels := make([]string, len(w.ps))
 		on := make([]bool, len(w.ps))

@@ -103,7 +103,7 @@ func TestWholeEngineScreen(t *testing.T) {
 		t.Fatalf("the running notch is not chosen first (%v)", ok)
 	}
 	text, _ := flatText(a)
-	want := []string{"The whole engine", "The beat, running notch", render.BeatFigures(pos, nil), "Work of each end"}
+	want := []string{"The whole engine", "Running forward, the right crank leads the left by 90 degrees.", "The beat, running notch", render.BeatFigures(pos, nil), "Work of each end"}
 	for _, g := range pos.Now.Gaps {
 		want = append(want, fmt.Sprintf("%.1f", g))
 	}
@@ -309,7 +309,9 @@ func TestListenOnTheWholeEngine(t *testing.T) {
 		}
 	}
 	words := a.HeardText()
-	for _, w := range []string{"Heard over", "rev/min (the squares)", "The late beat is the left back exhaust", "What to do:"} {
+	foreseen := fmt.Sprintf("(today's readings foresee %.1f, %.1f, %.1f and %.1f°)", pos.Now.Gaps[0], pos.Now.Gaps[1], pos.Now.Gaps[2], pos.Now.Gaps[3])
+	heardGaps := fmt.Sprintf("The gaps heard from the %s exhaust on: %.1f, %.1f, %.1f and %.1f°", pos.Now.Exhausts[0].Label(), h.GapsDeg[0], h.GapsDeg[1], h.GapsDeg[2], h.GapsDeg[3])
+	for _, w := range []string{"Heard over", "rev/min (the squares)", "The late beat is the left back exhaust", "What to do:", heardGaps, foreseen} {
 		if !strings.Contains(words, w) {
 			t.Errorf("the words lack %q:\n%s", w, words)
 		}
@@ -326,7 +328,7 @@ func TestListenOnTheWholeEngine(t *testing.T) {
 	}
 	// Opened again later, the session's gaps are drawn.
 	a.lis.heard = nil
-	if text, _ = flatText(a); !strings.Contains(text, "Heard on 2026-12-03 at 89 rev/min") {
+	if text, _ = flatText(a); !strings.Contains(text, "Heard on 2026-12-03 at 89 rev/min") || !strings.Contains(text, heardGaps) {
 		t.Errorf("the kept gaps are not said:\n%s", text)
 	}
 }

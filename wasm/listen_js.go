@@ -134,7 +134,7 @@ func (m *microphone) record() {
 	m.mu.Lock()
 	stop := m.stop
 	m.rate = m.ctx.Get("sampleRate").Int()
-	m.samples = make([]float32, 0, (ui.ListenSeconds+2)*m.rate)
+	m.samples = make([]float32, 0, ui.ListenSeconds*m.rate) // never longer, however late the app's tick stops it
 	m.mu.Unlock()
 	if stop {
 		m.finish()
@@ -157,13 +157,14 @@ func (m *microphone) record() {
 	m.app.MicOpened()
 }
 
-// chunk copies one chunk of samples (a Float32Array) into Go; beyond a
-// little more than ui.ListenSeconds nothing more is kept.
+// chunk copies one chunk of samples (a Float32Array) into Go; beyond
+// ui.ListenSeconds nothing more is kept (the part of a chunk that fits
+// is).
 func (m *microphone) chunk(data js.Value) {
 	m.mu.Lock()
 	defer m.mu.Unlock()
-	n := data.Get("length").Int()
-	if m.state != micRunning || len(m.samples)+n > cap(m.samples) {
+	n := min(data.Get("length").Int(), cap(m.samples)-len(m.samples))
+	if m.state != micRunning || n <= 0 {
 		return
 	}
 	if len(m.buf) < 4*n {

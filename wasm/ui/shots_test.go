@@ -9,6 +9,21 @@ import (
 	"evenbeat/render/report"
 )
 
+// writeShot draws the screen shown as a PNG at path.
+func writeShot(t *testing.T, a *App, path string) {
+	t.Helper()
+	c := raster.New(int(a.w), int(a.h), 1)
+	a.Draw(c)
+	f, err := os.Create(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	if err := report.EncodePNG(f, c); err != nil {
+		t.Fatal(err)
+	}
+}
+
 // TestShots writes PNGs of some screens to $EVENBEAT_UI_SHOTS for a look
 // by eye; it does nothing without it.
 func TestShots(t *testing.T) {
@@ -16,18 +31,7 @@ func TestShots(t *testing.T) {
 	if dir == "" {
 		t.Skip("set EVENBEAT_UI_SHOTS to a directory to write the screens")
 	}
-	shot := func(a *App, name string) {
-		c := raster.New(int(a.w), int(a.h), 1)
-		a.Draw(c)
-		f, err := os.Create(filepath.Join(dir, name+".png"))
-		if err != nil {
-			t.Fatal(err)
-		}
-		defer f.Close()
-		if err := report.EncodePNG(f, c); err != nil {
-			t.Fatal(err)
-		}
-	}
+	shot := func(a *App, name string) { writeShot(t, a, filepath.Join(dir, name+".png")) }
 	st := newMemStore()
 	a := newTestApp(t, st)
 	shot(a, "engines")

@@ -3,6 +3,7 @@ package beat
 import (
 	"fmt"
 	"io"
+	"strconv"
 	"strings"
 
 	"evenbeat/setting"
@@ -88,24 +89,40 @@ func writeSides(b *strings.Builder, p Position, unit session.Unit) {
 		return
 	}
 	b.WriteString("    cylinder against cylinder (mean of both ends):")
-	loL, hiL, loC, hiC := p.Sides[0].LeadAfter, p.Sides[0].LeadAfter, p.Sides[0].CutOffAfter, p.Sides[0].CutOffAfter
-	mean := 0.0
 	for k, sd := range p.Sides {
 		fmt.Fprintf(b, " %s lead %s -> %s, cut-off %.1f -> %.1f %%", sd.Cylinder, session.FormatLength(sd.LeadNow, unit), session.FormatLength(sd.LeadAfter, unit), sd.CutOffNow, sd.CutOffAfter)
 		if k < len(p.Sides)-1 {
 			b.WriteString(";")
 		}
+	}
+	b.WriteString("\n")
+	for _, w := range SideWords(p, unit) {
+		b.WriteString("    " + w + "\n")
+	}
+}
+
+// SideWords says how the cylinders compare in p after the plans where
+// they differ by more than the readings tell (their mean leads, their
+// cut-offs), each with what would match them; nil when they are alike.
+func SideWords(p Position, unit session.Unit) []string {
+	if len(p.Sides) < 2 {
+		return nil
+	}
+	loL, hiL, loC, hiC := p.Sides[0].LeadAfter, p.Sides[0].LeadAfter, p.Sides[0].CutOffAfter, p.Sides[0].CutOffAfter
+	mean := 0.0
+	for _, sd := range p.Sides {
 		loL, hiL = min(loL, sd.LeadAfter), max(hiL, sd.LeadAfter)
 		loC, hiC = min(loC, sd.CutOffAfter), max(hiC, sd.CutOffAfter)
 		mean += sd.LeadAfter / float64(len(p.Sides))
 	}
-	b.WriteString("\n")
+	var out []string
 	if hiL-loL > sideLeadTolMM {
-		fmt.Fprintf(b, "    The cylinders' leads stay %s apart after the plans: only the eccentric sheaves (or return cranks) move a cylinder's mean lead; to match them, plan every cylinder with the same target lead, e.g. %s.\n", session.FormatLength(hiL-loL, unit), session.FormatLength(mean, unit))
+		out = append(out, "The cylinders' leads stay "+session.FormatLength(hiL-loL, unit)+" apart after the plans: only the eccentric sheaves (or return cranks) move a cylinder's mean lead; to match them, plan every cylinder with the same target lead, e.g. "+session.FormatLength(mean, unit)+".")
 	}
 	if hiC-loC > sideCutTolPct {
-		fmt.Fprintf(b, "    The cylinders cut off %.1f %% of stroke apart after the plans: in a notch that is set by each side's reversing linkage (its lifting link or reach rod), which the plans do not change yet; check the die's place in each link with the reverser in that notch.\n", hiC-loC)
+		out = append(out, "The cylinders cut off "+strconv.FormatFloat(hiC-loC, 'f', 1, 64)+" % of stroke apart after the plans: in a notch that is set by each side's reversing linkage (its lifting link or reach rod), which the plans do not change yet; check the die's place in each link with the reverser in that notch.")
 	}
+	return out
 }
 
 // Designed returns the beat of an engine as designed: every cylinder the

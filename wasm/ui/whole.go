@@ -167,8 +167,26 @@ func (a *App) wholeView(l *layouter) {
 			l.text(title(wk.Cylinder)+" "+wk.End.String()+": "+fixed(wk.Share, 0)+" % today, "+fixed(pos.WorkAfter[k].Share, 0)+" % after the plans", false)
 		}
 	}
+	a.sidesWords(l, pos)
 	a.quarteringWords(l, w)
 	a.datumsRow(l)
+}
+
+// sidesWords compares the cylinders in pos, each one's mean of its two
+// ends today and after the plans, and says what would match them when
+// they stay apart.
+func (a *App) sidesWords(l *layouter, pos beat.Position) {
+	if len(pos.Sides) < 2 {
+		return
+	}
+	l.para("Cylinder against cylinder, the mean of both ends:", render.BodySize+2, true, false, false)
+	u := a.unit()
+	for _, sd := range pos.Sides {
+		l.text(title(sd.Cylinder)+": lead "+session.FormatLength(sd.LeadNow, u)+" today, "+session.FormatLength(sd.LeadAfter, u)+" after; cut-off "+fixed(sd.CutOffNow, 1)+" % today, "+fixed(sd.CutOffAfter, 1)+" % after", false)
+	}
+	for _, t := range beat.SideWords(pos, u) {
+		l.text(t, true)
+	}
 }
 
 // drawWhole draws the beat card of the position shown.

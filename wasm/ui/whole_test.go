@@ -110,6 +110,10 @@ func TestWholeEngineScreen(t *testing.T) {
 	for k, w := range pos.WorkNow {
 		want = append(want, fmt.Sprintf("%s %s: %.0f %% today, %.0f %% after the plans", title(w.Cylinder), w.End, w.Share, pos.WorkAfter[k].Share))
 	}
+	want = append(want, "Cylinder against cylinder")
+	for _, sd := range pos.Sides {
+		want = append(want, fmt.Sprintf("%s: lead %s today, %s after; cut-off %.1f %% today, %.1f %% after", title(sd.Cylinder), session.FormatLength(sd.LeadNow, session.UnitInch), session.FormatLength(sd.LeadAfter, session.UnitInch), sd.CutOffNow, sd.CutOffAfter))
+	}
 	for _, w := range want {
 		if !strings.Contains(text, w) {
 			t.Errorf("the whole engine does not show %q:\n%s", w, text)

@@ -426,7 +426,7 @@ func (a *App) keypadWords(l *layouter, level int) {
 	if a.screen == Sizes && f.form != "" {
 		l.button(f.form, false, a.toggleForm)
 	}
-	if a.fractions() && level == 0 {
+	if a.fractions() && level == 0 && !strings.HasSuffix(f.Key, "gauge_mm") { // a dial gauge reads in decimals
 		l.muted("A fraction goes in as soon as its bottom (2 to 64) is typed.")
 	}
 	if a.screen != Measure {

@@ -38,17 +38,13 @@ const HitMin = 48
 const iconSide = 64
 
 // StepAmount returns a step's rounded amount as the setter reads it,
-// unsigned (the arrow shows the way): a length in the display unit, or
-// degrees.
+// unsigned (the arrow shows the way): a length in the display unit only
+// (a setter with inch tools is not given mm), or degrees.
 func StepAmount(s plan.Step, unit session.Unit) string {
 	if s.Unit == "deg" {
 		return fmt.Sprintf("%.2f°", math.Abs(s.Amount))
 	}
-	out := session.FormatLength(math.Abs(s.Amount), unit)
-	if unit == session.UnitInch {
-		out += " (" + session.FormatLength(math.Abs(s.Amount), session.UnitMM) + ")"
-	}
-	return out
+	return session.FormatLength(math.Abs(s.Amount), unit)
 }
 
 // PlanTitle is the plan card's title.

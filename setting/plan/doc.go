@@ -156,6 +156,16 @@
 // far apart each position stays, and the step of the adjuster that acts
 // most there.
 //
+// A step's words say what to change and by how much, then how: what to
+// slacken (the nut on the valve's other side, a fork end's lock nut and
+// pin, a sheave's grub screws, the return crank's pinch bolt), which way
+// to turn as seen from a stated place (the front of the engine for the
+// valve's nuts, the fork end for a rod, the engine's right-hand side for
+// a sheave or crank: front to the right, running forward clockwise, as
+// the app draws the engine), the amount in turns and flats or in mm round
+// the rim, and what to lock again. Threads are taken as right-hand, and
+// the words say so. StepFor words a what-if's change the same way.
+//
 // Angularity makes equal leads and equal cut-offs impossible at once:
 // every plan is also made with the other priority (Plan.Other), and a note
 // says what the other quantity becomes.

@@ -46,7 +46,7 @@ func (a *App) Draw(c render.Canvas) {
 		a.drawSlider(c, v.slider)
 	}
 	for _, t := range v.targets {
-		if !t.bar && !t.over && !(t.Label == render.AckLabel && a.screen == Cautions) { // the card draws its own
+		if !t.bar && !t.over && !t.track && !(t.Label == render.AckLabel && a.screen == Cautions) { // the card draws its own
 			a.drawTarget(c, t)
 		}
 	}

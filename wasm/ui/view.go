@@ -29,6 +29,7 @@ type Target struct {
 	act   func()
 	bar   bool // in the top bar, drawn over scrolled content
 	over  bool // in the Undo bar, drawn over the content (records.go)
+	track bool // the what-if's track, drawn as a slider (whatif.go)
 	// caption is drawn instead of Label when set (a row's Delete, whose
 	// Label names the record).
 	caption string

@@ -114,7 +114,10 @@
 // notch of a cut-off plan always fully). A mean-lead term holds the lead
 // at Options.TargetLeadMM in full gear, or at the drawing's, only where
 // an eccentric sheave may be turned, since nothing else changes the lead
-// itself.
+// itself. Where the lead after the plan misses the target by more than
+// 0.02 mm in full gear, a note says why (no sheave the profile lets the
+// plan turn for that gear, Walschaerts gear's combination lever, a limit,
+// whole steps) and what lead the plan gives instead (target.go).
 //
 // Eccentric sheaves are turned only for a target lead, when the mean lead
 // of the gear an eccentric drives is far from the drawing's (a slipped

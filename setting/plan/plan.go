@@ -290,11 +290,9 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	if plan.Recheck == nil {
 		plan.Recheck = []Residual{}
 	}
-	if opt.TargetLeadMM != nil && !canLead {
-		notes = append(notes, "The lead cannot be brought to the target: only an eccentric's angle changes the lead, and the profile allows none; the plan shares the lead between the ends.")
-	}
 	plan.Notes = append(plan.Notes, fit.RecheckMessages(opt.Unit)...)
 	plan.Notes = append(plan.Notes, fit.Findings(opt.Unit)...)
+	targetAt := len(plan.Notes) // where a target lead not met is said
 	plan.Notes = append(plan.Notes, notes...)
 
 	if err := ev.setKnobs(p, ks, fit); err != nil {
@@ -320,6 +318,10 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 		plan.sets.after = append(plan.sets.after, main.qAft[i].ev)
 	}
 	plan.Notes = append(plan.Notes, main.notes...)
+	if opt.TargetLeadMM != nil {
+		missed := targetNotes(*opt.TargetLeadMM, spec.Gear.Kind, ks, ps, main.after, main.steps, opt.Unit)
+		plan.Notes = append(plan.Notes[:targetAt:targetAt], append(missed, plan.Notes[targetAt:]...)...)
+	}
 	other := EqualCutOffs
 	if opt.Priority == EqualCutOffs {
 		other = EqualLeads

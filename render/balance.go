@@ -306,9 +306,4 @@ func verdict(c Canvas, at Point, ok bool, th Theme) {
 }
 
 // unitName names the model's display unit for axis heads.
-func unitName(m *Model) string {
-	if m.Unit == "inch" {
-		return "in"
-	}
-	return "mm"
-}
+func unitName(m *Model) string { return unitShort(m.Unit) }

@@ -3,7 +3,6 @@ package render
 import (
 	"fmt"
 	"math"
-	"strings"
 
 	"evenbeat/setting"
 	"evenbeat/setting/plan"
@@ -451,12 +450,9 @@ func cutOffText(e setting.EndEvents) string {
 	return fmt.Sprintf("%.*f", cutOffDigits, e.CutOff.StrokePercent+0)
 }
 
-// bareLength writes a length in the display unit without the unit, as the
-// plan's words round it.
-func (m *Model) bareLength(mm float64) string {
-	s := m.length(mm)
-	return s[:strings.LastIndexByte(s, ' ')]
-}
+// bareLength writes a length in the model's display unit without the
+// unit.
+func (m *Model) bareLength(mm float64) string { return bareLength(mm, m.Unit) }
 
 // PlanCard draws the plan: each step in working order with a sketch of
 // the part and which way it goes (see StepSketch), the part and the
@@ -506,10 +502,5 @@ func DrawTexts(c Canvas, ts []PlacedText, th Theme) {
 	}
 }
 
-// unitWords names the display unit in a sentence: "inches" or "mm".
-func unitWords(m *Model) string {
-	if m.Unit == session.UnitInch {
-		return "inches"
-	}
-	return "mm"
-}
+// unitWords names the model's display unit in a sentence.
+func unitWords(m *Model) string { return unitWordsOf(m.Unit) }

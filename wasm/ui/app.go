@@ -179,6 +179,7 @@ type App struct {
 	needK      needKey   // the plan card's height, worked out for needK
 	needV      float64
 	paths      map[pathKey]render.Path // the buttons' outlines, kept between frames
+	hist       historyCache            // the rounds' history (history.go)
 
 	// gen counts changes to the session; readiness is worked out again
 	// only when it, the session or the cylinder changes.

@@ -164,14 +164,24 @@ func (a *App) whatIfStep(adj session.Adjustment, amount float64) plan.Step {
 	return st
 }
 
-// changeWords says a change of adj by amount in words, the way it goes
-// named: "valve 0.16 mm toward the front cover", "forward eccentric rod
-// lengthened 0.30 mm", "return crank turned 0.25 deg against the forward
-// running direction"; a change of nought leaves the part as it is.
+// changeWords says a change of adj by amount in words, the part named
+// and the way it goes: "valve 0.16 mm toward the front cover", "forward
+// eccentric rod lengthened 0.30 mm", "return crank turned 0.25 deg against
+// the forward running direction"; a change of nought leaves the part as
+// it is.
 func changeWords(adj session.Adjustment, amount float64, unit session.Unit) string {
 	part := plan.StepFor(adj, 0, unit).Part
+	if adj.Kind == session.ValveOnSpindle && amount != 0 {
+		part = "valve"
+	}
+	return part + " " + changeWay(adj, amount, unit)
+}
+
+// changeWay says the way and amount of a change of adj, without the part:
+// "0.16 mm toward the front cover", "advanced 1.20 deg", "left as it is".
+func changeWay(adj session.Adjustment, amount float64, unit session.Unit) string {
 	if amount == 0 {
-		return part + " left as it is"
+		return "left as it is"
 	}
 	by := session.FormatLength(math.Abs(amount), unit)
 	if adj.Kind.Angular() {
@@ -181,24 +191,24 @@ func changeWords(adj session.Adjustment, amount float64, unit session.Unit) stri
 	switch adj.Kind {
 	case session.ValveOnSpindle:
 		if more {
-			return "valve " + by + " toward the front cover"
+			return by + " toward the front cover"
 		}
-		return "valve " + by + " toward the back (crank) end"
+		return by + " toward the back (crank) end"
 	case session.EccentricAngle:
 		if more {
-			return part + " advanced " + by
+			return "advanced " + by
 		}
-		return part + " retarded " + by
+		return "retarded " + by
 	case session.ReturnCrankAngle:
 		if more {
-			return part + " turned " + by + " in the forward running direction"
+			return "turned " + by + " in the forward running direction"
 		}
-		return part + " turned " + by + " against the forward running direction"
+		return "turned " + by + " against the forward running direction"
 	}
 	if more {
-		return part + " lengthened " + by
+		return "lengthened " + by
 	}
-	return part + " shortened " + by
+	return "shortened " + by
 }
 
 // capitalise gives s a capital first letter.
@@ -224,7 +234,7 @@ func (a *App) whatIfWords() string {
 			}
 		}
 		if amt := a.what.amounts[j]; amt != planned {
-			ws = append(ws, changeWords(adj, amt, a.unit())+" (the plan: "+changeWords(adj, planned, a.unit())+")")
+			ws = append(ws, changeWords(adj, amt, a.unit())+" (the plan: "+changeWay(adj, planned, a.unit())+")")
 		}
 	}
 	return strings.Join(ws, "; ")
@@ -298,7 +308,7 @@ func (a *App) whatIfRows(l *layouter) {
 	if a.what.amounts[a.what.adj] == a.planAmount() {
 		l.text(what+", as the plan has it.", false)
 	} else {
-		l.text(what+"; the plan: "+changeWords(adj, a.planAmount(), a.unit())+".", false)
+		l.text(what+"; the plan: "+changeWay(adj, a.planAmount(), a.unit())+".", false)
 	}
 	l.muted("Drag to try another amount. After, on the card below, is the plan with the what-if amounts.")
 	// The track is a target of its own, named by the change, so that a

@@ -120,7 +120,7 @@ func Cautions(c Canvas, box Rect, th Theme) (ack Rect) {
 // px tall (ButtonHeight is 56).
 func Button(c Canvas, r Rect, label string, th Theme) {
 	c.Fill(RoundRect(r, 10), FillStyle{Color: th.Accent})
-	lines, size := ButtonLines(label, r.W()-2*cardPad, r.H())
+	lines, size := ButtonLines(label, r.W()-16, r.H()-4)
 	DrawButtonLines(c, r, lines, size, TextStyle{Color: th.OnAccent, Bold: true})
 }
 

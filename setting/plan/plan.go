@@ -822,12 +822,9 @@ func howWords(s Step, unit session.Unit) string {
 
 // length shows a length in the display unit: mm to the hundredth, or
 // inches to the thou.
-func length(mm float64, unit session.Unit) string {
-	if unit == session.UnitInch {
-		return fmt.Sprintf("%.3f in", mm/session.MMPerInch)
-	}
-	return fmt.Sprintf("%.2f mm", mm)
-}
+// It is session.FormatLength, so the app's tables (render) and the
+// plan's words round alike.
+func length(mm float64, unit session.Unit) string { return session.FormatLength(mm, unit) }
 
 // fineLength shows a small length one place finer than length.
 func fineLength(mm float64, unit session.Unit) string {

@@ -55,7 +55,7 @@ func (a *App) Draw(c render.Canvas) {
 	a.drawUndo(c, v)
 	// The top bar last, over anything scrolled under it.
 	c.Fill(render.RectPath(rect(0, 0, a.w, barH+margin)), render.FillStyle{Color: th.Background})
-	c.Text(render.Point{X: a.w / 2, Y: margin/2 + barH/2}, a.shortStatus(), render.TextStyle{Color: a.statusColour(), Size: render.BodySize, HAlign: render.Center, VAlign: render.Middle})
+	c.Text(render.Point{X: a.w / 2, Y: margin/2 + barH/2}, a.shortStatus(), render.TextStyle{Color: a.statusColour(), Size: legibleSize, HAlign: render.Center, VAlign: render.Middle})
 	for _, t := range v.targets {
 		if t.bar {
 			a.drawTarget(c, t)

@@ -381,3 +381,23 @@ func TestTourShots(t *testing.T) {
 		}
 	}
 }
+
+// TestPlanStepsLegible: on the tour's phones, upright and sideways, the
+// plan screen's Steps view (as planned, with another priority, with a
+// target lead, with a what-if) draws no text under 15 px, and the plan
+// card's table gives each position's leads and cut-offs now and after as
+// the plan's words do.
+func TestPlanStepsLegible(t *testing.T) {
+	for _, sz := range tourSizes() {
+		walkTour(t, sz[0], sz[1], render.Light(), func(name string, a *App) {
+			if a.Screen() != Plan || a.diagram != render.PlanDiagram {
+				return
+			}
+			c := recorder.New(a.w, 1e5)
+			a.Draw(c)
+			if err := c.CheckTextSize(legibleSize); err != nil {
+				t.Errorf("%gx%g %s: %v", sz[0], sz[1], name, err)
+			}
+		})
+	}
+}

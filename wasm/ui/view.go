@@ -211,8 +211,16 @@ func (l *layouter) text(t string, warn bool) {
 }
 
 func (l *layouter) muted(t string) {
-	l.para(t, render.BodySize, false, false, true)
+	size := float64(render.BodySize)
+	if l.a.screen == Plan {
+		size = legibleSize // read at arm's length by the engine
+	}
+	l.para(t, size, false, false, true)
 }
+
+// legibleSize is the least text size of the plan screen and the top bar,
+// read at arm's length outdoors (15 CSS px; common practice, no source).
+const legibleSize = 15
 
 func (l *layouter) para(t string, size float64, bold, warn, muted bool) {
 	if t == "" {
@@ -233,7 +241,7 @@ func (l *layouter) button(label string, on bool, act func()) {
 // (on one line or two).
 func (l *layouter) row(labels []string, on []bool, acts []func()) {
 	per := max(1, int((l.w+gap)/(render.HitMin+gap)))
-	for per > 1 && !labelsFit(labels[:min(per, len(labels))], l.w) {
+	for per > 1 && !labelsFit(labels[:min(per, len(labels))], on, l.w) {
 		per--
 	}
 	if len(labels) > per {
@@ -249,12 +257,16 @@ func (l *layouter) row(labels []string, on []bool, acts []func()) {
 	l.y += rowH + gap
 }
 
-// labelsFit reports whether every label fits its button when they share
-// the width w in one row (see drawPlain).
-func labelsFit(labels []string, w float64) bool {
+// labelsFit reports whether every label fits its button, on one line or
+// two at 15 px or more, when they share the width w in one row (see
+// drawPlain; a chosen option's label, on[i], is marked "* ").
+func labelsFit(labels []string, on []bool, w float64) bool {
 	bw := (w-float64(len(labels)-1)*gap)/float64(len(labels)) - 16
-	for _, lab := range labels {
-		if lines, size := render.ButtonLines(lab, bw, rowH-4); len(lines) == 1 && render.TextWidth(lab, size, true) > bw {
+	for i, lab := range labels {
+		if on[i] {
+			lab = "* " + lab
+		}
+		if _, size := render.ButtonLines(lab, bw, rowH-4); size < legibleSize {
 			return false
 		}
 	}

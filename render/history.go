@@ -91,7 +91,7 @@ func roundTexts(l *planLayouter, r HistoryRound, unit session.Unit, x0, w float6
 		name = math.Max(name, TextWidth(p.Notch, planSmall, true))
 		for k, e := range []plan.EndState{p.Front, p.Back} {
 			cells[i][k] = bareLength(e.LeadMM, unit)
-			cells[i][2+k] = cutOffState(e)
+			cells[i][2+k] = CutOffState(e)
 		}
 		for _, c := range cells[i] {
 			num = math.Max(num, width(c))
@@ -128,9 +128,9 @@ func roundTexts(l *planLayouter, r HistoryRound, unit session.Unit, x0, w float6
 	}
 }
 
-// cutOffState is an end's cut-off in % of the stroke as a bare number, or
-// why it has none (as cutOffText).
-func cutOffState(e plan.EndState) string {
+// CutOffState is an end's cut-off in % of the stroke as a bare number, or
+// why it has none ("never opens", "never closes").
+func CutOffState(e plan.EndState) string {
 	switch {
 	case e.NeverOpens:
 		return "never opens"

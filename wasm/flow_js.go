@@ -37,7 +37,8 @@ type flowGame struct {
 	mu      sync.Mutex
 	backs   int      // popstate events not yet handled
 	imports [][]byte // files chosen, not yet imported
-	live    js.Value // the hidden live region mirroring the plan's words
+	live    js.Value // the hidden live region mirroring the screen (ui.App.Mirror)
+	dark    *bool    // the page's colour scheme changed to dark (true) or light, for the next tick (under mu)
 	draws   int      // frames really drawn, published as evenbeatDraws
 	// drawTime is the Go side of all those frames (the app drawing through
 	// ebiten, not the GPU's work), published as evenbeatDrawMs.
@@ -66,8 +67,9 @@ type flowGame struct {
 	copies          []error // how clipboard writes went, for the next tick (under mu)
 }
 
-// runFlow starts the app.
-func runFlow(st *store, th render.Theme) error {
+// runFlow starts the app in theme th; dark is the page's media query for
+// a dark colour scheme, whose changes the app follows while it runs.
+func runFlow(st *store, th render.Theme, dark js.Value) error {
 	g := &flowGame{game: newGame(), window: js.Global(), gestureAt: map[string]render.Rect{}}
 	g.queue.onUp = g.tapInGesture
 	opt := ui.Options{Theme: th, OnExport: download, OnImport: g.chooseFile,
@@ -80,6 +82,15 @@ func runFlow(st *store, th render.Theme) error {
 	g.window.Set("evenbeatDraws", 0)
 	g.window.Set("evenbeatPlanMs", -1)
 	g.listenForUpdate()
+	// The OS's colour scheme may change while the app runs (dusk, a
+	// setting): the app takes the new theme on the next tick.
+	dark.Call("addEventListener", "change", js.FuncOf(func(_ js.Value, args []js.Value) any {
+		d := len(args) > 0 && args[0].Get("matches").Bool()
+		g.mu.Lock()
+		g.dark = &d
+		g.mu.Unlock()
+		return nil
+	}))
 	// The page (a dropped file, a test) may hand over a session file's
 	// text: it is imported on the next tick like a chosen file.
 	g.window.Set("evenbeatImport", js.FuncOf(func(_ js.Value, args []js.Value) any {
@@ -116,9 +127,14 @@ func (g *flowGame) Update() error {
 		g.ui.Resize(float64(g.outW), float64(g.outH))
 	}
 	g.mu.Lock()
-	backs, files := g.backs, g.imports
-	g.backs, g.imports = 0, nil
+	backs, files, dark := g.backs, g.imports, g.dark
+	g.backs, g.imports, g.dark = 0, nil, nil
 	g.mu.Unlock()
+	if dark != nil {
+		th, name := themeOf(*dark)
+		g.ui.SetTheme(th)
+		g.window.Set("evenbeatTheme", name)
+	}
 	hist := g.window.Get("history")
 	for range backs {
 		if g.ui.Back() {
@@ -159,8 +175,7 @@ func uiIntent(in intent) ui.Intent {
 
 // publish tells the page (and tests) the screen, the saving state, the
 // touch targets in CSS px (and whether each is a chosen option) and the
-// plan's words, and mirrors the words into
-// the live region.
+// plan's words, and mirrors what the screen says into the live region.
 func (g *flowGame) publish() {
 	g.window.Set("evenbeatState", g.ui.Screen().String())
 	g.window.Set("evenbeatStatus", g.ui.Status())
@@ -212,8 +227,12 @@ func (g *flowGame) publish() {
 	g.mu.Lock()
 	g.nameNow = name
 	g.mu.Unlock()
-	if g.live.Truthy() && g.live.Get("textContent").String() != words {
-		g.live.Set("textContent", words)
+	// The live region mirrors every screen; while the plan waits for its
+	// other priority, the mirror it had is left as it was.
+	if !pending || g.ui.Screen() != ui.Plan {
+		if mirror := g.ui.Mirror(); g.live.Truthy() && g.live.Get("textContent").String() != mirror {
+			g.live.Set("textContent", mirror)
+		}
 	}
 }
 

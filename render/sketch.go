@@ -120,6 +120,7 @@ func sketchTable() []sketchEntry {
 		{"engine.engine.rod_length", "centre to centre", sketch.rodLength},
 		{"engine.engine.offset", "to cylinder line", sketch.cylinderOffset},
 		{"measuring.wheel_diameter_mm", "on the tread", sketch.wheelDiameter},
+		{"measuring.gauge_increases", "valve forward: plunger in, reading up", sketch.gaugePlunger},
 		{st + "link.radius", "to slot centre line", func(s sketch) { s.linkRadius(false) }},
 		{st + "link.pin_spacing", "pin to pin, straight", sketch.linkPinSpacing},
 		{st + "lifting_link", "centre to centre", func(s sketch) { s.reverser(false) }},
@@ -702,4 +703,34 @@ func (s sketch) unionLink() {
 	s.line(s.part(), Point{180, 8}, u)
 	s.rod(c, u)
 	s.dim(c, u, -12)
+}
+
+// gaugePlunger: a dial gauge mounted ahead of the valve spindle's end,
+// its plunger on the end (the front cover to the right, as in every
+// drawing here): the valve moving forward pushes the plunger in, and a
+// dial gauge's reading grows as its plunger goes in.
+func (s sketch) gaugePlunger() {
+	const y = 56.0
+	gauge := Point{178, y}
+	s.line(s.heavy(), Point{12, y}, Point{118, y})         // the valve spindle
+	s.line(s.part(), Point{118, y - 9}, Point{118, y + 9}) // its end
+	s.line(s.other(), Point{121, y}, Point{gauge.X - 26, y})
+	s.rect(Rect{Point{gauge.X - 27, y - 5}, Point{gauge.X - 21, y + 5}}, true) // the stem
+	s.circle(gauge, 21, s.part())
+	s.circle(gauge, 16, s.thin())
+	s.line(s.part(), gauge, polar(gauge, 14, -60)) // the needle
+	s.fixed(gauge)
+	// The valve's way and the plunger's, in the accent colour.
+	push := func(from, to Point) {
+		a, b := s.at(from), s.at(to)
+		var p Path
+		p.MoveTo(a)
+		p.LineTo(b)
+		s.c.Stroke(p, s.dimStyle())
+		n := math.Hypot(b.X-a.X, b.Y-a.Y)
+		arrowHead(s.c, b, (b.X-a.X)/n, (b.Y-a.Y)/n, s.head(), s.th.Accent)
+	}
+	push(Point{40, y - 22}, Point{100, y - 22})
+	push(Point{150, y + 22}, Point{126, y + 22})
+	s.line(s.centreLine(), polar(gauge, 26, -90), polar(gauge, 12, -90))
 }

@@ -275,7 +275,7 @@ func runEvents(args []string, stdout, stderr io.Writer) error {
 			return err
 		}
 		fmt.Fprintln(w, "\nAs drawn, every cylinder alike at its crank angle:")
-		return beat.WriteText(w, ps, nil)
+		return beat.WriteText(w, ps, nil, session.UnitMM)
 	})
 }
 
@@ -309,7 +309,7 @@ func writeWholeEngine(w io.Writer, s *session.Session, main *plan.Plan, opt plan
 	}
 	qs, _ := beat.Quarterings(s)
 	fmt.Fprintln(w)
-	return beat.WriteText(w, ps, qs)
+	return beat.WriteText(w, ps, qs, displayUnit(opt, s))
 }
 
 // readEngine reads an engine file; a session file is accepted too, for its

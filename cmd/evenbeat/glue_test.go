@@ -50,10 +50,9 @@ const storedNamesJS = `new Promise((ok, no) => {
 })`
 
 // TestNameAndShare runs the app in Chromium as a 3x phone with touch, on
-// the demo session's plan: Share report hands the share sheet a PNG the
-// browser encoded, as wide as the report at 1.5 pixels per unit and as
-// tall as the report the app lays out natively, showing the report (its
-// ground and ink); Rename engine shows a labelled text box over the canvas
+// the demo session's plan: Share report hands the share sheet a PDF
+// byte-identical to the one the command line makes of the same plans;
+// Rename engine shows a labelled text box over the canvas
 // (no zoom on focus, targets of at least 48 CSS px), which the back
 // gesture and Escape close, which refuses an empty name with a sentence,
 // and whose OK renames the engine: shown by the app, saved in IndexedDB.
@@ -527,8 +526,8 @@ func TestShareAsksForATap(t *testing.T) {
 	waitFor(t, ctx, 90*time.Second, `window.evenbeatShare === "asking"`)
 	tapElement(t, ctx, "evenbeat-share-ok")
 	waitFor(t, ctx, 30*time.Second, `window.evenbeatShare === "shared"`)
-	if f := eval[bool](t, ctx, `!!window.evenbeatSharedFile && window.evenbeatSharedFile.Type === "image/png"`); !f {
-		t.Error("after the refusal and the tap, no PNG reached the share sheet")
+	if f := eval[bool](t, ctx, `!!window.evenbeatSharedFile && window.evenbeatSharedFile.Type === "application/pdf"`); !f {
+		t.Error("after the refusal and the tap, no PDF reached the share sheet")
 	}
 }
 

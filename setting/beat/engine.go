@@ -35,8 +35,9 @@ func CrankAngles(s *session.Session) ([]float64, error) {
 	return out, nil
 }
 
-// Position is the whole engine in one planned position: its beat and the
-// work of every end, today and after every cylinder's plan.
+// Position is the whole engine in one planned position: its beat, the
+// work of every end, and each cylinder's mean lead and cut-off, today and
+// after every cylinder's plan.
 type Position struct {
 	Name      string // the position in words, "full forward"
 	Direction setting.Direction
@@ -45,6 +46,22 @@ type Position struct {
 	// WorkNow and WorkAfter are every end's work, in the plans' order
 	// (front then back of each); nil when the diagram cannot be drawn.
 	WorkNow, WorkAfter []Work
+	// Sides are each cylinder's mean of its two ends, in the plans'
+	// order: how the cylinders compare with one another.
+	Sides []SideMeans
+}
+
+// SideMeans is one cylinder's mean lead (mm) and mean cut-off (% of
+// stroke) over its two ends, today and after its plan.
+type SideMeans struct {
+	Cylinder               string
+	LeadNow, LeadAfter     float64
+	CutOffNow, CutOffAfter float64
+}
+
+// meansOf returns the means of a cylinder's two ends in set.
+func meansOf(set setting.EventSet) (lead, cut float64) {
+	return (set.Front.Lead + set.Back.Lead) / 2, (set.Front.CutOff.StrokePercent + set.Back.CutOff.StrokePercent) / 2
 }
 
 // FromPlans puts the plans of every cylinder of a session (plans[i] for
@@ -87,8 +104,14 @@ func FromPlans(s *session.Session, plans []*plan.Plan, st Steam) ([]Position, er
 				a = all[i].after[j]
 			}
 			after = append(after, Side{Name: name, CrankDeg: angles[i], Set: a})
+			var sm SideMeans
+			sm.Cylinder = name
+			sm.LeadNow, sm.CutOffNow = meansOf(all[i].now[j])
+			sm.LeadAfter, sm.CutOffAfter = meansOf(a)
+			pos.Sides = append(pos.Sides, sm)
 		}
 		if now == nil {
+			pos.Sides = nil
 			continue
 		}
 		if pos.Now, err = NewCircle(now); err != nil {

@@ -3,6 +3,7 @@ package beat
 import (
 	"math"
 	"os"
+	"strings"
 	"testing"
 
 	"evenbeat/setting/plan"
@@ -60,5 +61,29 @@ func TestFromPlansDemo(t *testing.T) {
 	s.Cylinders[1].Name = "middle"
 	if _, err := FromPlans(s, plans, DefaultSteam); err == nil {
 		t.Error("a cylinder the engine does not list was placed on the circle")
+	}
+}
+
+// Cylinders whose means differ by more than the readings tell are named,
+// with what sets each between the sides; alike ones are not.
+func TestSidesCompared(t *testing.T) {
+	p := Position{Name: "running notch", Sides: []SideMeans{
+		{Cylinder: "right", LeadNow: 0.2, LeadAfter: 0.2, CutOffNow: 40, CutOffAfter: 40},
+		{Cylinder: "left", LeadNow: 0.3, LeadAfter: 0.3, CutOffNow: 42, CutOffAfter: 42},
+	}}
+	var b strings.Builder
+	if err := WriteText(&b, []Position{p}, nil, session.UnitMM); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"leads stay 0.10 mm apart", "same target lead, e.g. 0.25 mm", "cut off 2.0 % of stroke apart", "reversing linkage"} {
+		if !strings.Contains(b.String(), want) {
+			t.Errorf("the comparison lacks %q:\n%s", want, b.String())
+		}
+	}
+	p.Sides[1].LeadAfter, p.Sides[1].CutOffAfter = 0.205, 40.2
+	b.Reset()
+	WriteText(&b, []Position{p}, nil, session.UnitMM)
+	if strings.Contains(b.String(), "apart") {
+		t.Errorf("sides within what the readings tell are called apart:\n%s", b.String())
 	}
 }

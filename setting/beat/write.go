@@ -6,14 +6,16 @@ import (
 	"strings"
 
 	"evenbeat/setting"
+	"evenbeat/setting/session"
 )
 
-// WriteText writes the whole engine as the command line prints it: for
-// each position, every exhaust in the order it comes with the gap to the
-// next (today, and after the plans where they differ), the evenness, and
-// each end's work as a share of the mean; then the quartering the marks
-// show, when they show it.
-func WriteText(w io.Writer, ps []Position, qs []Quartering) error {
+// WriteText writes the whole engine as the command line prints it, with
+// lengths in unit: for each position, every exhaust in the order it comes
+// with the gap to the next (today, and after the plans), the evenness,
+// each end's work as a share of the mean, and the cylinders against one
+// another (mean lead and cut-off of each, and what would match them);
+// then the quartering the marks show, when they show it.
+func WriteText(w io.Writer, ps []Position, qs []Quartering, unit session.Unit) error {
 	var b strings.Builder
 	b.WriteString("The whole engine: exhausts round one turn of the wheel (gaps in degrees of crank; an even beat has them all alike)\n")
 	for _, p := range ps {
@@ -52,6 +54,7 @@ func WriteText(w io.Writer, ps []Position, qs []Quartering) error {
 		for _, s := range p.Now.Silent {
 			fmt.Fprintf(&b, "    The %s exhaust never opens: no beat.\n", s)
 		}
+		writeSides(&b, p, unit)
 	}
 	for _, q := range qs {
 		fmt.Fprintf(&b, "\n  Quartering: the marks put the %s crank %.1f degrees from the %s crank (drawing %.0f), %.1f +/- %.1f off.", q.Other, q.Measured, q.First, q.Design, q.Error, q.Uncertainty())
@@ -63,6 +66,42 @@ func WriteText(w io.Writer, ps []Position, qs []Quartering) error {
 	}
 	_, err := io.WriteString(w, b.String())
 	return err
+}
+
+// Sides apart by more than these are named: a lead difference the gauge
+// tells (0.02 mm on a small engine) and a cut-off difference of half a per
+// cent of stroke (common practice, no source; the bench's tolerances).
+const (
+	sideLeadTolMM = 0.02
+	sideCutTolPct = 0.5
+)
+
+// writeSides writes how the cylinders compare in position p: each one's
+// mean lead and cut-off, and, where they differ by more than the
+// readings tell, what sets each between the sides.
+func writeSides(b *strings.Builder, p Position, unit session.Unit) {
+	if len(p.Sides) < 2 {
+		return
+	}
+	b.WriteString("    cylinder against cylinder (mean of both ends):")
+	loL, hiL, loC, hiC := p.Sides[0].LeadAfter, p.Sides[0].LeadAfter, p.Sides[0].CutOffAfter, p.Sides[0].CutOffAfter
+	mean := 0.0
+	for k, sd := range p.Sides {
+		fmt.Fprintf(b, " %s lead %s -> %s, cut-off %.1f -> %.1f %%", sd.Cylinder, session.FormatLength(sd.LeadNow, unit), session.FormatLength(sd.LeadAfter, unit), sd.CutOffNow, sd.CutOffAfter)
+		if k < len(p.Sides)-1 {
+			b.WriteString(";")
+		}
+		loL, hiL = min(loL, sd.LeadAfter), max(hiL, sd.LeadAfter)
+		loC, hiC = min(loC, sd.CutOffAfter), max(hiC, sd.CutOffAfter)
+		mean += sd.LeadAfter / float64(len(p.Sides))
+	}
+	b.WriteString("\n")
+	if hiL-loL > sideLeadTolMM {
+		fmt.Fprintf(b, "    The cylinders' leads stay %s apart after the plans: only the eccentric sheaves (or return cranks) move a cylinder's mean lead; to match them, plan every cylinder with the same target lead, e.g. %s.\n", session.FormatLength(hiL-loL, unit), session.FormatLength(mean, unit))
+	}
+	if hiC-loC > sideCutTolPct {
+		fmt.Fprintf(b, "    The cylinders cut off %.1f %% of stroke apart after the plans: in a notch that is set by each side's reversing linkage (its lifting link or reach rod), which the plans do not change yet; check the die's place in each link with the reverser in that notch.\n", hiC-loC)
+	}
 }
 
 // Designed returns the beat of an engine as designed: every cylinder the

@@ -19,24 +19,25 @@ type Screen uint8
 
 // The screens, in the order of the flow.
 const (
-	Engines  Screen = iota // saved engines, the invented demo engines, a new engine
-	Gear                   // set-up: the gear type first
-	Units                  // set-up: mm or inch, the gauge's division
-	Sizes                  // set-up: the dimensions, on the keypad
-	Adjust                 // set-up: which adjustments this engine has
-	Cautions               // the safety card: first run, and from the menu
-	Measure                // one reading at a time, on the keypad
-	Readings               // every reading of the round, to choose one to edit
-	Plan                   // the plan's steps, balance, valve curve, motion; what-if
-	History                // the rounds so far
-	Menu                   // everywhere else from anywhere
-	Where                  // the engine drawn where it stands for the reading asked
-	Lead                   // the plan's target lead, on the keypad
+	Engines     Screen = iota // saved engines, the invented demo engines, a new engine
+	Gear                      // set-up: the gear type first
+	Units                     // set-up: mm or inch, the gauge's division
+	Sizes                     // set-up: the dimensions, on the keypad
+	Adjust                    // set-up: which adjustments this engine has
+	Cautions                  // the safety card: first run, and from the menu
+	Measure                   // one reading at a time, on the keypad
+	Readings                  // every reading of the round, to choose one to edit
+	Plan                      // the plan's steps, balance, valve curve, motion; what-if
+	History                   // the rounds so far
+	Menu                      // everywhere else from anywhere
+	Where                     // the engine drawn where it stands for the reading asked
+	Lead                      // the plan's target lead, on the keypad
+	EngineSheet               // what was worked out and given of the engine: the end of set-up, and its editing
 )
 
 // String names the screen for the page's state (tests, the History API).
 func (s Screen) String() string {
-	names := [...]string{"engines", "gear", "units", "sizes", "adjust", "cautions", "measure", "readings", "plan", "history", "menu", "where", "lead"}
+	names := [...]string{"engines", "gear", "units", "sizes", "adjust", "cautions", "measure", "readings", "plan", "history", "menu", "where", "lead", "engine"}
 	if int(s) < len(names) {
 		return names[s]
 	}
@@ -181,6 +182,15 @@ type App struct {
 	paths      map[pathKey]render.Path // the buttons' outlines, kept between frames
 	hist       historyCache            // the rounds' history (history.go)
 
+	// su is the set-up's state (setupflow.go); draftSession and
+	// draftSetUp a new engine's set-up left unfinished, to carry on;
+	// sheetGen the change the engine's sheet last worked out.
+	su setUp
+	findingsCache
+	draftSession *session.Session
+	draftSetUp   setUp
+	sheetGen     int
+
 	// gen counts changes to the session; readiness is worked out again
 	// only when it, the session or the cylinder changes.
 	gen    int
@@ -210,7 +220,7 @@ func (a *App) ready() bool {
 // New starts the app: it loads the stored sessions (keeping any that
 // cannot be read, with the reason) and opens on the engines list.
 func New(opt Options) *App {
-	a := &App{opt: opt, theme: opt.Theme, dirty: true, status: "Not saved yet"}
+	a := &App{opt: opt, theme: opt.Theme, dirty: true, status: "Not saved yet", su: newSetUp(false)}
 	if a.theme == (render.Theme{}) {
 		a.theme = render.Light()
 	}
@@ -228,6 +238,7 @@ func New(opt Options) *App {
 	if _, ok, err := opt.Store.Get(AckKey); err == nil && ok {
 		a.acked = true
 	}
+	a.loadDraft()
 	return a
 }
 
@@ -293,7 +304,13 @@ func (a *App) Update() bool {
 
 // save writes the current session through the store as a whole session
 // file, when it changed.
-func (a *App) save() { a.saveStored(a.cur, nil) }
+func (a *App) save() {
+	if a.saveDraft() { // a new engine not yet whole: its answers are a draft
+		a.gen++
+		return
+	}
+	a.saveStored(a.cur, nil)
+}
 
 // addSession makes s the current session: stored at once under a new key
 // (keep, an import), or held until its first change (a demo engine looked
@@ -398,9 +415,11 @@ func (a *App) openSession(e *Stored) {
 	a.makePlan()
 }
 
-// startSetUp begins a new session from a demo engine's design.
+// startSetUp opens a demo engine's design to look at: it is kept as a
+// session of its own only once something is changed or measured.
 func (a *App) startSetUp(spec setting.EngineSpec) {
 	s := newSession(spec, session.UnitMM)
+	a.su = newSetUp(false)
 	a.addSession(s, false)
 	a.navigate(Units)
 }
@@ -476,6 +495,9 @@ func (a *App) key(k Key) {
 	a.text = press(a.text, k)
 	a.typed = true
 	a.check()
+	if a.note == "" && a.fractions() && wholeFraction(a.text) {
+		a.commit() // a fraction is whole once its bottom is typed
+	}
 }
 
 // check judges the typed text as it stands: a sentence when the number
@@ -503,9 +525,12 @@ func (a *App) commit() {
 	if !a.typed || a.text == "" {
 		if _, ok := f.get(s); !ok {
 			a.note = f.Label + ": type the value with the keypad, then Next."
+			if len(f.Choices) > 0 {
+				a.note = f.Label + ": choose one."
+			}
 			return
 		}
-		if a.screen == Sizes && a.fi == len(a.fields)-1 {
+		if a.screen == Sizes {
 			if why := a.assembles(); why != "" {
 				a.note = f.Label + ": " + a.inWords(why)
 				return
@@ -542,7 +567,10 @@ func (a *App) commit() {
 	if a.screen == Sizes {
 		a.engine = nil // drawn again with the new size
 	}
-	a.saveStored(a.cur, b)
+	a.refreshFields() // the questions follow the answers
+	if !a.saveDraft() {
+		a.saveStored(a.cur, b)
+	}
 	a.warn = a.warningAt(f)
 	a.advance()
 }
@@ -554,7 +582,7 @@ func (a *App) advance() {
 		a.Back()
 		return
 	}
-	if a.fi+1 < len(a.fields) {
+	if a.fi+1 < len(a.fields) && !a.enoughForPlan() {
 		a.setField(a.fi + 1)
 		return
 	}
@@ -563,7 +591,7 @@ func (a *App) advance() {
 		a.Back()
 		a.makePlan()
 	case Sizes:
-		a.navigate(Adjust)
+		a.sizesDone()
 	case Measure:
 		a.planRound = 0
 		a.navigate(Plan)

@@ -181,7 +181,8 @@ func fileOnly() []string {
 		"newer version", "an engine file given to plan", "byte-order mark", "UTF-16", "invalid UTF-8 in a name", "no such file",
 		"100,000 sweep readings", "2000 notches", "13 cylinders", "2001 dead-centre readings in a round", "larger than 16 MB",
 		"everything typed in inches", "no rounds yet",
-		// The engine's history is written by the app itself, never typed.
+		// The engine's history is written by the app's edits
+		// (TestEditEngineKeepsReadings), never typed.
 		"history of a reading",
 		// A valve centre that shuts a port: set-up derives the centre, and
 		// holds an engine that does not work (the set-up's tests).

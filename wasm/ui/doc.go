@@ -4,18 +4,36 @@
 // on-canvas keypad, the plan with its what-if, the next round and the
 // history of rounds.
 //
-// Set-up takes the gear kind, the units and gauge, how many cylinders (1
-// to 3: right, left, middle), then the engine's dimensions and the gear's
-// own (each beside render.DimensionSketch's drawing of what to measure;
-// a gear that does not fit together is named on the field changed), then
-// the adjustments. Each cylinder is measured, listed and planned on its
+// Set-up of a new engine takes the gear kind, the units and gauge, how
+// many cylinders (1 to 3: right, left, middle), then asks what a setter
+// measures or reads off the drawing, in the trade's terms (setup.go): the
+// stroke, rod, wheel, laps and port (once for both ends unless they
+// differ), the lead as drawn, the valve travel or the eccentric's throw,
+// the gear's rods and links, the running notch, each adjuster's thread,
+// steps a turn and limit; a question with a few answers (the valve's
+// admission, open or crossed rods, which way the gauge grows) is one tap.
+// Inch lengths are typed as fractions ("1 3/16"). Nothing is taken from
+// a demo: what the model needs besides is derived (setting.Derive) and
+// shown on the engine's sheet (sheet.go), each value tappable to give
+// instead, with the checks that the engine works (EngineSpec.Works). A new
+// engine is a session the store keeps once whole; until then its answers
+// are a draft (setupflow.go). The sheet, the units and every value can be
+// changed at any time from the menu: an edit of the profile
+// (session.Edit) that keeps every reading and is recorded in the engine's
+// history. A demo engine opened to look at is kept only once changed.
+//
+// Each cylinder is measured, listed and planned on its
 // own, switched by a row of buttons. A round asks the port marks (or the
 // laps; a later round may keep an earlier round's marks while the valve
 // has not moved on its spindle), the dead centres in the first round, the
-// dead-centre readings, and per reverser position the sweep, the cut-offs
-// (as crosshead travel or tyre marks) and feeler openings, each a step
-// that may be skipped. Every reading of any round can be typed again from
-// the history; its round's plan is made again. The plan screen chooses
+// dead-centre readings, then the plan; per reverser position the sweep,
+// the cut-offs (as crosshead travel or tyre marks) and feeler openings
+// are a tap away (More readings), each a step that may be skipped. The
+// steps' words follow the engine (which way the valve moves to crack a
+// port) and the display unit. Every reading of any round can be typed
+// again from the history; its round's plan is made again. The plan
+// screen says when the readings do not fit the engine described
+// (plan.Fit.Findings), chooses
 // what the plan makes equal (leads, cut-offs in a running notch, or a
 // balance with its share), and a target lead, saved in the session file as
 // its plan aims (session.PlanAims, file version 2), and drags a what-if

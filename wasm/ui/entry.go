@@ -26,6 +26,9 @@ import (
 // reports). Otherwise it leaves the session as it was and returns the
 // sentence that holds the field.
 func (a *App) take(f field, v float64) ([]byte, string) {
+	if b, why, ok := a.takeSetUp(f, v); ok {
+		return b, why // a set-up value: a draft's, or an edit of the engine (setupflow.go)
+	}
 	s := a.Session()
 	if why := a.cannotBe(f, v); why != "" {
 		return nil, f.Label + ": " + why
@@ -131,7 +134,7 @@ func (a *App) warningAt(f field) string {
 	s := a.Session()
 	path := f.Path(s)
 	for _, w := range s.Check() {
-		if strings.HasPrefix(w.Field, path) || strings.HasPrefix(path, w.Field) {
+		if (strings.HasPrefix(w.Field, path) || strings.HasPrefix(path, w.Field)) && !(f.open != nil && f.open(s)) {
 			return f.Label + ": " + a.inWords(w.Message)
 		}
 	}
@@ -436,7 +439,7 @@ func (a *App) pathWords(p string) string {
 			}
 		}
 		if strings.HasPrefix(p, "engine.") || strings.HasPrefix(p, "measuring.") {
-			for _, f := range dimensionFields(s) {
+			for _, f := range a.sizeFields() {
 				if f.Key == p {
 					return "the " + lowerFirst(f.Label)
 				}

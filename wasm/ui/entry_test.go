@@ -25,8 +25,8 @@ func demoInchApp(t *testing.T) *App {
 // TestHeldInTheDisplayUnit: in an inch session, a port mark of 999 in is
 // held at its field with a sentence in inches (the file's bound given in
 // inches, no mm, no key path), and the session is left as it was; a
-// value the keypad's reader refuses (a crank of more than 100 m) is held
-// too.
+// value the keypad's reader refuses (a stroke of 300 m, a crank of more
+// than 100 m) is held too.
 func TestHeldInTheDisplayUnit(t *testing.T) {
 	a := demoInchApp(t)
 	old := *a.Session().Cylinders[0].Rounds[0].PortMarks
@@ -46,9 +46,12 @@ func TestHeldInTheDisplayUnit(t *testing.T) {
 	tap(t, b, "Brackenfold (Stephenson) (invented demo)")
 	tap(t, b, "mm")
 	tap(t, b, "Next")
-	typeKeys(t, b, "200000")
+	for b.Field() != "Stroke" {
+		tap(t, b, "Next")
+	}
+	typeKeys(t, b, "300000")
 	tap(t, b, "Next")
-	if b.Field() != "Crank radius" || b.Session().Engine.Engine.CrankRadius != 22 || !strings.HasPrefix(b.Note(), "Crank radius: ") {
+	if b.Field() != "Stroke" || b.Session().Engine.Engine.CrankRadius != 22 || !strings.HasPrefix(b.Note(), "Stroke: ") {
 		t.Fatalf("a crank of 200 m: field %q, crank %v, note %q", b.Field(), b.Session().Engine.Engine.CrankRadius, b.Note())
 	}
 }

@@ -25,6 +25,19 @@ type field struct {
 	// Angle marks a value in degrees (typed and shown as such, whatever the
 	// display unit); Lo and Hi are then degrees too.
 	Angle bool
+	// Plain names the unit of a number that is not a length ("deg", "%",
+	// "TPI"): typed and shown as it is, whatever the display unit.
+	Plain string
+	// Choices, when set, make the field a question answered by a tap on
+	// one of them (no keypad); get gives the index of the one chosen.
+	Choices []choice
+	// form, when set, labels a button that asks the value another way
+	// (the throw instead of the travel, each end on its own); toggle
+	// switches to it, and with skip the field is then passed over (the
+	// engine has no running notch).
+	form   string
+	toggle func(su *setUp, s *session.Session)
+	skip   bool
 	// Notch and CrankDeg say where the engine stands for this reading, for
 	// the drawing of where: the reverser position ("" for full forward) and
 	// about where the crank is (degrees from front dead centre).
@@ -35,6 +48,9 @@ type field struct {
 	// path gives the value's field in the file as it stands, with list
 	// indices, to match session.Check's warnings; nil when Key is it.
 	path func(s *session.Session) string
+	// open, when set, reports that the value is one of a pair still half
+	// taken (a dead centre's first mark): it is judged once both are in.
+	open func(s *session.Session) bool
 }
 
 // Path returns the field's place in the session file as it stands.
@@ -140,10 +156,13 @@ type position struct {
 
 // positions returns the reverser positions read for a session's engine:
 // full forward, the forward running notches and full back (a single
-// eccentric is read in full forward only).
+// eccentric is read in full forward only, and full back when it slips).
 func positions(s *session.Session) []position {
 	ps := []position{{session.FullForward, session.Forward}}
-	if s.Engine.Gear.Kind == setting.KindSingleEccentric {
+	if g := s.Engine.Gear.SingleEccentric; s.Engine.Gear.Kind == setting.KindSingleEccentric {
+		if g != nil && g.Slip {
+			ps = append(ps, position{session.FullBack, session.Backward}) // the slip eccentric reverses
+		}
 		return ps
 	}
 	for _, n := range s.Engine.Notches {
@@ -232,32 +251,41 @@ func measureFields(s *session.Session, ci, ri int, tyreCutOffs, lapsForm bool) [
 	if r := s.Cylinders[ci].Rounds[ri]; r.Laps != nil || r.PortMarks == nil && lapsForm {
 		fs = append(fs, lapsFields(rp, round, keep)...)
 	} else {
+		front, back := portMarkWords(s)
 		fs = append(fs,
-			pm(session.Front, "Front port mark", "Back port mark", "Move the valve forward until its front steam edge is just line-on-line with the front port edge, and type the dial gauge reading."),
-			pm(session.Back, "Back port mark", "Front port mark", "Now move the valve back until the back steam edge just cracks the back port, and type the gauge reading."))
+			pm(session.Front, "Front port mark", "Back port mark", front),
+			pm(session.Back, "Back port mark", "Front port mark", back))
 	}
-	// Dead centres from tyre marks, first round only.
-	if ri == 0 {
+	// Dead centres from tyre marks, first round only: turning forward,
+	// then (after the readings a plan needs) turning backward, which may
+	// be skipped: a dead centre's place on the tyre is the same either
+	// way, and the forward marks serve.
+	brackets := func(dir session.Direction) {
+		if ri > 0 {
+			return
+		}
 		circ := s.Measuring.WheelDiameterMM * math.Pi
-		for _, dir := range []session.Direction{session.Forward, session.Backward} {
-			for _, end := range []session.End{session.Front, session.Back} {
-				for k := 0; k < 2; k++ {
-					fs = append(fs, deadCentreField(ci, end, dir, k, circ))
-				}
+		for _, end := range []session.End{session.Front, session.Back} {
+			for k := 0; k < 2; k++ {
+				fs = append(fs, deadCentreField(ci, end, dir, k, circ, s.DisplayUnit))
 			}
 		}
 	}
+	brackets(session.Forward)
 	// Dead-centre readings: full forward, the forward notches and full
 	// back are needed; mid gear and the backward notches may be skipped.
 	ends := []session.End{session.Front, session.Back}
 	for _, p := range positions(s) {
 		for _, end := range ends {
-			fs = append(fs, dcReadingField(rp, round, p, end, "Readings at dead centre", false))
+			fs = append(fs, dcReadingField(rp, round, p, end, "Readings at dead centre", false, deadCentreAt(s, ci, end, p.Dir)))
 		}
+	}
+	if len(positions(s)) > 1 || s.Engine.Gear.Kind != setting.KindSingleEccentric {
+		brackets(session.Backward)
 	}
 	for _, p := range morePositions(s) {
 		for _, end := range ends {
-			fs = append(fs, dcReadingField(rp, round, p, end, "Dead centres, "+p.Notch, true))
+			fs = append(fs, dcReadingField(rp, round, p, end, "Dead centres, "+p.Notch, true, deadCentreAt(s, ci, end, p.Dir)))
 		}
 	}
 	// Per position, each a step that may be skipped: the sweep, the
@@ -293,12 +321,24 @@ func cutOffByTyre(r *session.Round, p position, end session.End, tyre bool) bool
 }
 
 // deadCentreField is mark k (0 first, 1 second) of the dead centre at end
-// found turning dir.
-func deadCentreField(ci int, end session.End, dir session.Direction, k int, circ float64) field {
+// found turning dir; the marks are typed in the display unit, round the
+// tyre from its datum. Turning backward the pair is optional.
+func deadCentreField(ci int, end session.End, dir session.Direction, k int, circ float64, unit session.Unit) field {
 	which := [2]string{"first", "second"}[k]
-	say := fmt.Sprintf("Turn the wheel %s until the crosshead is a little short of the %s end of its travel; scribe the crosshead on the slide bar and type the tyre mark (mm round the tyre) at the pointer.", dir, end)
+	round := "mm round the tyre"
+	if unit == session.UnitInch {
+		round = "inches round the tyre"
+	}
+	say := fmt.Sprintf("Turn the wheel %s until the crosshead is a little short of the %s end of its travel; scribe the crosshead on the slide bar and type the tyre mark (%s) at the pointer.", dir, end, round)
 	if k == 1 {
-		say = fmt.Sprintf("Keep turning %s past dead centre until the crosshead comes back to the scribed line, and type the tyre mark again.", dir)
+		say = fmt.Sprintf("Keep turning %s past dead centre until the crosshead comes back to the scribed line, and type the tyre mark again (%s).", dir, round)
+	}
+	step := "Dead centres"
+	if dir == session.Backward {
+		step = "Dead centres turning backward"
+		if k == 0 {
+			say = "Only if you want them checked turning backward too: the forward marks serve for both ways, so you may skip this. " + say
+		}
 	}
 	find := func(s *session.Session) int {
 		for i, d := range s.Cylinders[ci].DeadCentres {
@@ -316,8 +356,12 @@ func deadCentreField(ci int, end session.End, dir session.Direction, k int, circ
 		crank += 180
 	}
 	return field{CrankDeg: crank, Key: fmt.Sprintf("cylinders[%d].dead_centres[%s %s].marks_tyre_mm[%d]", ci, end, dir, k),
-		Step: "Dead centres", Label: fmt.Sprintf("%s dead centre turning %s, %s mark", title(string(end)), dir, which), Say: say,
-		Lo: 0, Hi: circ,
+		Step: step, Label: fmt.Sprintf("%s dead centre turning %s, %s mark", title(string(end)), dir, which), Say: say,
+		Lo: 0, Hi: circ, Optional: dir == session.Backward,
+		open: func(s *session.Session) bool {
+			i := find(s)
+			return i >= 0 && strings.HasSuffix(s.Cylinders[ci].DeadCentres[i].Note, "mark not yet taken")
+		},
 		path: func(s *session.Session) string {
 			return fmt.Sprintf("cylinders[%d].dead_centres[%d]", ci, find(s))
 		},
@@ -351,8 +395,13 @@ func deadCentreField(ci int, end session.End, dir session.Direction, k int, circ
 }
 
 // dcReadingField is the gauge reading at end's dead centre in position p,
-// in the step named step.
-func dcReadingField(rp string, round func(*session.Session) *session.Round, p position, end session.End, step string, optional bool) field {
+// in the step named step; at says where that dead centre is on the tyre
+// ("" while its marks are not both in).
+func dcReadingField(rp string, round func(*session.Session) *session.Round, p position, end session.End, step string, optional bool, at string) field {
+	mark := "mark"
+	if at != "" {
+		mark = "mark (the pointer at " + at + " on the tyre)"
+	}
 	find := func(r *session.Round) int {
 		return indexWhere(r.DeadCentreReadings, func(d session.DeadCentreReading) bool {
 			return d.End == end && d.Reverser.Notch == p.Notch && d.Direction == p.Dir
@@ -360,7 +409,7 @@ func dcReadingField(rp string, round func(*session.Session) *session.Round, p po
 	}
 	return field{Notch: p.Notch, CrankDeg: deadCentreCrank(end), Key: fmt.Sprintf("%s.dead_centre_readings[%s %s].gauge_mm", rp, p.Notch, end),
 		Step: step, Optional: optional, Label: fmt.Sprintf("%s dead centre, %s", title(string(end)), p.Notch),
-		Say: fmt.Sprintf("Put the reverser in %s. Turn the wheel %s to the %s dead centre mark, taking up backlash as you go, and type the gauge reading.", p.Notch, p.Dir, end),
+		Say: fmt.Sprintf("Put the reverser in %s. Turn the wheel %s to the %s dead centre %s, taking up backlash as you go, and type the gauge reading.", p.Notch, p.Dir, end, mark),
 		Lo:  -50, Hi: 50,
 		path: func(s *session.Session) string {
 			return fmt.Sprintf("%s.dead_centre_readings[%d]", rp, find(round(s)))
@@ -403,11 +452,11 @@ func sweepField(rp string, round func(*session.Session) *session.Round, p positi
 	f := field{Step: "Sweep, " + p.Notch, Optional: true, Lo: -50, Hi: 50, Notch: p.Notch, CrankDeg: float64(k) * 360 / sweepSteps}
 	if gauge {
 		f.Key = fmt.Sprintf("%s.sweeps[%s].readings[%d].gauge_mm", rp, p.Notch, k)
-		f.Label = fmt.Sprintf("Reading %d of %d, gauge", k+1, sweepSteps)
+		f.Label = fmt.Sprintf("%s sweep, reading %d of %d, gauge", title(p.Notch), k+1, sweepSteps)
 		f.Say = "Type the gauge reading at that mark."
 	} else {
 		f.Key = fmt.Sprintf("%s.sweeps[%s].readings[%d].tyre_mm", rp, p.Notch, k)
-		f.Label = fmt.Sprintf("Reading %d of %d, tyre mark", k+1, sweepSteps)
+		f.Label = fmt.Sprintf("%s sweep, reading %d of %d, tyre mark", title(p.Notch), k+1, sweepSteps)
 		f.Say = fmt.Sprintf("Readings round a whole turn are better than dead centres alone. Turn the wheel %s about a twelfth of a turn and type the tyre mark at the pointer.", p.Dir)
 		f.Lo, f.Hi = 0, 8000
 	}

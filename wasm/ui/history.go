@@ -59,8 +59,8 @@ func (a *App) history() render.History {
 // roundEvents returns round ri's events per position, from a plan made
 // from its readings with the session's aims, or why there are none.
 func (a *App) roundEvents(ri int) ([]plan.PositionState, string) {
-	if a.plan != nil && a.plannedRoundIndex() == ri {
-		return a.plan.Now, ""
+	if a.plannedRound() == ri {
+		return a.plan.Now, "" // the very figures the plan, curve and balance show
 	}
 	s := a.Session()
 	fo := plan.FitOptions{Round: ri + 1}
@@ -75,19 +75,6 @@ func (a *App) roundEvents(ri int) ([]plan.PositionState, string) {
 		return nil, a.inWords(sentence(err))
 	}
 	return p.Now, ""
-}
-
-// plannedRoundIndex is the index of the round the plan shown was made
-// from (as makePlan chooses it).
-func (a *App) plannedRoundIndex() int {
-	n := len(a.Session().Cylinders[a.cyl].Rounds)
-	switch {
-	case a.planRound > 0:
-		return a.planRound - 1
-	case n > 1 && a.isDraft(a.Session(), a.cyl):
-		return n - 2
-	}
-	return n - 1
 }
 
 // historyView lays out the rounds: the chart of the lead differences
@@ -106,7 +93,7 @@ func (a *App) historyView(l *layouter) {
 	for ri, r := range s.Cylinders[a.cyl].Rounds {
 		ri := ri
 		l.y = hl.Rows[ri].Min.Y
-		a.rowWithDelete(l, fmt.Sprintf("Round %d, %s", ri+1, r.Date), fmt.Sprintf("round %d", ri+1), func() { a.showRound(ri) }, func() { a.deleteRound(ri) })
+		a.rowWithDelete(l, a.roundLabel(ri, fmt.Sprintf("Round %d, %s", ri+1, r.Date)), fmt.Sprintf("round %d", ri+1), func() { a.showRound(ri) }, func() { a.deleteRound(ri) })
 	}
 	l.y = l.v.body.Max.Y + gap
 }

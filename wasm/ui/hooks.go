@@ -29,9 +29,10 @@ const (
 // only the bar's buttons, even where a scrolled button lies under it.
 func (a *App) BarBottom() float64 { return barH + margin }
 
-// Rename sets the session's name (trimmed) and saves it. An empty name or
-// one longer than 60 characters is refused with a sentence naming the
-// field "name", and nothing changes.
+// Rename sets the session's name (trimmed), and the engine's, and saves
+// it; a demo renamed becomes the user's own engine (not invented, without
+// the demo's notes). An empty name or one longer than 60 characters is
+// refused with a sentence naming the field "name", and nothing changes.
 func (a *App) Rename(name string) error {
 	a.dirty = true
 	s := a.Session()
@@ -46,6 +47,13 @@ func (a *App) Rename(name string) error {
 		return fmt.Errorf("name: the engine's name has %d characters; at most %d are kept.", n, maxNameRunes)
 	}
 	s.Name = name
+	s.Engine.Name = name // titles, the report and the file say the user's name
+	if s.Invented {
+		// A demo renamed is the user's engine: no longer marked invented,
+		// nor carrying the demo's notes.
+		s.Invented, s.Note = false, ""
+		s.Engine.Invented, s.Engine.Notes = false, ""
+	}
 	a.save()
 	return nil
 }

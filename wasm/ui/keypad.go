@@ -27,6 +27,8 @@ const (
 	KeySign   // change the sign
 	KeyDelete // delete the last character
 	KeyNext   // commit the entry and go to the next field
+	KeySlash  // the fraction bar of an inch fraction ("3/16")
+	KeySpace  // between the whole inches and the fraction ("1 3/16")
 )
 
 // Label is the key's caption.
@@ -40,19 +42,29 @@ func (k Key) Label() string {
 		return "+/-"
 	case k == KeyDelete:
 		return "Del"
+	case k == KeySlash:
+		return "/"
+	case k == KeySpace:
+		return "Space"
 	}
 	return "Next"
 }
 
 // keyRows is the keypad's arrangement, as on a calculator; Next spans the
-// last three columns of the bottom row.
-func keyRows() [4][4]Key {
-	return [4][4]Key{
+// last three columns of the bottom row. With fractions (an inch length)
+// the bottom row also holds the space and the fraction bar, so that
+// "1 3/16" is typed as it is written.
+func keyRows(fractions bool) [4][4]Key {
+	rows := [4][4]Key{
 		{Key7, Key8, Key9, KeyDelete},
 		{Key4, Key5, Key6, KeySign},
 		{Key1, Key2, Key3, KeyPoint},
 		{Key0, KeyNext, KeyNext, KeyNext},
 	}
+	if fractions {
+		rows[3] = [4]Key{Key0, KeySpace, KeySlash, KeyNext}
+	}
+	return rows
 }
 
 // Keypad sizes, logical units (CSS px).
@@ -76,15 +88,16 @@ type KeyRect struct {
 }
 
 // LayoutKeypad lays the keypad out across the bottom of box: four columns
-// of keys (Next two columns wide), KeyHeight tall when box has the room
+// of keys (Next three columns wide, or one beside the space and the
+// fraction bar with fractions), KeyHeight tall when box has the room
 // (KeypadHeight in all), shorter in a lower box, but never under
 // render.HitMin (KeypadMinHeight in all).
-func LayoutKeypad(box render.Rect) []KeyRect {
+func LayoutKeypad(box render.Rect, fractions bool) []KeyRect {
 	w := (box.W() - 3*KeyGap) / 4
 	kh := max(render.HitMin, min(KeyHeight, (box.H()-3*KeyGap)/4))
 	top := box.Max.Y - (4*kh + 3*KeyGap)
 	var out []KeyRect
-	for r, row := range keyRows() {
+	for r, row := range keyRows(fractions) {
 		y := top + float64(r)*(kh+KeyGap)
 		for col := 0; col < 4; col++ {
 			k := row[col]
@@ -128,7 +141,7 @@ func press(text string, k Key) string {
 		}
 		return text + k.Label()
 	case k == KeyPoint:
-		if strings.Contains(text, ".") {
+		if strings.ContainsAny(text, "./ ") {
 			return text
 		}
 		if strings.TrimPrefix(text, "-") == "" {
@@ -145,8 +158,25 @@ func press(text string, k Key) string {
 			return text
 		}
 		return text[:len(text)-1]
+	case k == KeySpace:
+		// Once, after the whole inches and before any point or bar.
+		if !endsInDigit(text) || strings.ContainsAny(text, " ./") {
+			return text
+		}
+		return text + " "
+	case k == KeySlash:
+		// Once, after the numerator, in a number without a point.
+		if !endsInDigit(text) || strings.ContainsAny(text, "./") {
+			return text
+		}
+		return text + "/"
 	}
 	return text
+}
+
+// endsInDigit reports whether text ends in a digit.
+func endsInDigit(text string) bool {
+	return text != "" && text[len(text)-1] >= '0' && text[len(text)-1] <= '9'
 }
 
 // formatNumber shows a length in the display unit as plain digits the
@@ -167,4 +197,20 @@ func formatNumber(mm float64, inch bool) string {
 		return "0"
 	}
 	return s
+}
+
+// wholeFraction reports whether text ends in a whole inch fraction: a bar
+// and below it 2, 4, 8, 16, 32 or 64. No other of these begins one of
+// them, so the fraction cannot go on: the keypad takes it as typed, with
+// no Next.
+func wholeFraction(text string) bool {
+	_, den, ok := strings.Cut(text, "/")
+	if !ok {
+		return false
+	}
+	switch den {
+	case "2", "4", "8", "16", "32", "64":
+		return true
+	}
+	return false
 }

@@ -24,11 +24,22 @@ func TestScreensFit(t *testing.T) {
 		tap(t, a, "Stephenson")
 		check("units")
 		tap(t, a, "Next")
-		check("sizes")
-		for a.Screen() == Sizes {
+		check("sizes, a question with buttons and its sketch")
+		answers := kestrel()
+		for n := 0; a.Screen() == Sizes; n++ {
+			f := a.fields[a.fi]
+			if n > 100 {
+				t.Fatalf("stuck at %q: %s", f.Label, a.Note())
+			}
+			if len(f.Choices) > 0 {
+				tap(t, a, answers[f.Label])
+				continue
+			}
+			typeKeys(t, a, answers[f.Label])
+			check("sizes, a length on the keypad")
 			tap(t, a, "Next")
 		}
-		check("adjust")
+		check("the engine's sheet")
 		tap(t, a, "Next: start measuring")
 		check("cautions")
 		tap(t, a, render.AckLabel)

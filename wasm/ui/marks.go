@@ -3,6 +3,9 @@ package ui
 import (
 	"fmt"
 	"strings"
+
+	"evenbeat/setting"
+	"evenbeat/setting/session"
 )
 
 // portMarksStep is the heading of the port marks' fields.
@@ -87,4 +90,78 @@ func (a *App) formChoice() (label string, act func()) {
 		}
 	}
 	return "", nil
+}
+
+// portMarkWords are the port marks' instructions for s's valve: which way
+// the valve moves to crack each port to steam (back for the front port of
+// a valve with steam outside, whose steam edges are its outer edges;
+// forward with steam inside), how to move it, and how to see the edge.
+func portMarkWords(s *session.Session) (front, back string) {
+	v := s.Engine.Valve
+	toFront, toBack := "back", "forward"
+	edge := "its %s edge just uncovers the %s port's outer edge (line and line)"
+	if v.Admission == setting.Internal {
+		toFront, toBack = "forward", "back"
+		edge = "its %s head's inner (steam) edge is just line and line with the %s port's edge"
+	}
+	see := "with the steam-chest cover off"
+	if v.LinerDiameter > 0 {
+		see = "seen with a light or a thin wire through the port passage"
+	}
+	move := "turn the wheels, or push the valve with its rod disconnected"
+	front = fmt.Sprintf("Move the valve %s (%s) until "+edge+", %s, and type the dial gauge reading.", toFront, move, "front", "front", see)
+	back = fmt.Sprintf("Now move the valve %s until "+edge+", and type the gauge reading.", toBack, "back", "back")
+	return front, back
+}
+
+// deadCentreAt is where cylinder ci's dead centre at end is on the tyre,
+// midway between its two marks (turning dir, or else the other way), in
+// the display unit; "" while no pair is whole.
+func deadCentreAt(s *session.Session, ci int, end session.End, dir session.Direction) string {
+	var found *session.DeadCentre
+	for i := range s.Cylinders[ci].DeadCentres {
+		d := &s.Cylinders[ci].DeadCentres[i]
+		if d.End != end || d.Note != "" || d.Scale != session.TyreMM {
+			continue
+		}
+		if found == nil || d.Direction == dir {
+			found = d
+		}
+	}
+	if found == nil || s.Measuring.WheelDiameterMM <= 0 {
+		return ""
+	}
+	mm := found.Mark(s.Measuring.WheelDiameterMM).Value
+	if s.DisplayUnit == session.UnitInch {
+		return session.FormatInches(mm) + " in"
+	}
+	return formatNumber(mm, false) + " mm"
+}
+
+// deadCentreFound says where the dead centre whose second mark was just
+// typed (the field before the one shown) is on the tyre, to set the
+// pointer to; "" otherwise.
+func (a *App) deadCentreFound() string {
+	if a.fi == 0 || a.fi > len(a.fields) {
+		return ""
+	}
+	prev := a.fields[a.fi-1]
+	if prev.open == nil || !strings.HasSuffix(prev.Key, "[1]") || prev.open(a.Session()) {
+		return ""
+	}
+	if _, ok := prev.get(a.Session()); !ok {
+		return ""
+	}
+	end, dir := session.Front, session.Forward
+	if strings.Contains(prev.Key, "[back ") {
+		end = session.Back
+	}
+	if strings.Contains(prev.Key, " backward]") {
+		dir = session.Backward
+	}
+	at := deadCentreAt(a.Session(), a.cyl, end, dir)
+	if at == "" {
+		return ""
+	}
+	return fmt.Sprintf("%s dead centre found: %s round the tyre, midway between the two marks. Set the pointer there for its readings.", title(string(end)), at)
 }

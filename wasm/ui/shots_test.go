@@ -36,13 +36,30 @@ func TestShots(t *testing.T) {
 	shot(a, "units")
 	tap(t, a, "Next")
 	shot(a, "sizes")
-	for a.Field() != "Forward eccentric: advance" {
+	for a.Field() != "Eccentric rods" {
 		tap(t, a, "Next")
 	}
 	shot(a, "sizes-gear")
 	a.Resize(844, 390)
 	shot(a, "sizes-landscape")
 	a.Resize(phoneW, phoneH)
+	// A new engine of the setter's own, in inches.
+	own := newTestApp(t, newMemStore())
+	tap(t, own, "New engine")
+	shot(own, "new-gear")
+	tap(t, own, "Stephenson")
+	tap(t, own, "inch")
+	tap(t, own, "Next")
+	shot(own, "new-gauge-grows")
+	tap(t, own, "As the valve moves back")
+	tap(t, own, "Slide valve")
+	typeKeys(t, own, "1 3")
+	shot(own, "new-stroke-fraction")
+	own = newTestApp(t, newMemStore())
+	setUpOwnTo(t, own, "Stephenson", false, kestrel(), EngineSheet)
+	shot(own, "new-sheet")
+	own.scroll = 600
+	shot(own, "new-sheet-given")
 	a = newTestApp(t, st)
 	setUpDemo(t, a, st)
 	typeKeys(t, a, "129.1")

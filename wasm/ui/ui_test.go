@@ -91,13 +91,16 @@ func tap(t testing.TB, a *App, label string) {
 	t.Fatalf("on %s: no target %q among %q", a.Screen(), label, ls)
 }
 
-// typeKeys taps the keypad keys spelling text ('-' taps the sign key).
+// typeKeys taps the keypad keys spelling text ('-' taps the sign key, ' '
+// the space).
 func typeKeys(t testing.TB, a *App, text string) {
 	t.Helper()
 	for _, r := range text {
 		switch r {
 		case '-':
 			tap(t, a, KeySign.Label())
+		case ' ':
+			tap(t, a, KeySpace.Label())
 		default:
 			tap(t, a, string(r))
 		}
@@ -168,7 +171,7 @@ func TestFullDemoSessionByTaps(t *testing.T) {
 	ref.Cylinders[0].Rounds = ref.Cylinders[0].Rounds[:1]
 	setUpDemo(t, a, st)
 	entries, writes := 0, len(st.puts)
-	for a.Screen() == Measure {
+	for more := true; a.Screen() == Measure; {
 		f := a.fields[a.fi]
 		v, ok := f.get(ref)
 		if !ok && f.Optional {
@@ -188,6 +191,12 @@ func TestFullDemoSessionByTaps(t *testing.T) {
 		}
 		if a.Note() != "" && a.fields[a.fi].Key == f.Key {
 			t.Fatalf("%s: entry refused: %s", f.Key, a.Note())
+		}
+		if a.Screen() == Plan && more {
+			// The plan comes once the readings it needs are in; the
+			// round's sweep and cut-offs are typed from More readings.
+			more = false
+			tap(t, a, moreReadings)
 		}
 	}
 	if a.Screen() != Plan {
@@ -355,21 +364,31 @@ func TestKeypadEntryAndEditing(t *testing.T) {
 func TestKeypadTargets(t *testing.T) {
 	for _, sz := range [][2]float64{{320, 568}, {360, 640}, {390, 844}, {430, 932}} {
 		box := render.Rect{Min: render.Point{X: margin, Y: margin}, Max: render.Point{X: sz[0] - margin, Y: sz[1] - margin}}
-		keys := LayoutKeypad(box)
-		if len(keys) != 14 {
-			t.Fatalf("%v: %d keys, want 14", sz, len(keys))
+		for _, fractions := range []bool{false, true} {
+			checkKeypad(t, sz, box, fractions)
 		}
-		for i, k := range keys {
-			if k.Rect.W() < render.HitMin || k.Rect.H() < render.HitMin {
-				t.Errorf("%v: key %s is %.1f x %.1f, under 48", sz, k.Key.Label(), k.Rect.W(), k.Rect.H())
-			}
-			if !box.ContainsRect(k.Rect) {
-				t.Errorf("%v: key %s outside the screen", sz, k.Key.Label())
-			}
-			for _, o := range keys[i+1:] {
-				if k.Rect.Overlaps(o.Rect) {
-					t.Errorf("%v: keys %s and %s overlap", sz, k.Key.Label(), o.Key.Label())
-				}
+	}
+}
+
+// checkKeypad checks the keypad laid out in box: every key (16 with the
+// space and the fraction bar, else 14) a fingertip wide and tall, on the
+// screen, none over another.
+func checkKeypad(t *testing.T, sz [2]float64, box render.Rect, fractions bool) {
+	t.Helper()
+	keys := LayoutKeypad(box, fractions)
+	if want := map[bool]int{false: 14, true: 16}[fractions]; len(keys) != want {
+		t.Fatalf("%v: %d keys, want %d", sz, len(keys), want)
+	}
+	for i, k := range keys {
+		if k.Rect.W() < render.HitMin || k.Rect.H() < render.HitMin {
+			t.Errorf("%v: key %s is %.1f x %.1f, under 48", sz, k.Key.Label(), k.Rect.W(), k.Rect.H())
+		}
+		if !box.ContainsRect(k.Rect) {
+			t.Errorf("%v: key %s outside the screen", sz, k.Key.Label())
+		}
+		for _, o := range keys[i+1:] {
+			if k.Rect.Overlaps(o.Rect) {
+				t.Errorf("%v: keys %s and %s overlap", sz, k.Key.Label(), o.Key.Label())
 			}
 		}
 	}

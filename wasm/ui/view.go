@@ -79,8 +79,8 @@ func (a *App) layout() *view {
 	case Measure, Readings, Where:
 		a.syncFields()
 	case Sizes:
-		if s := a.Session(); s != nil && (len(a.fields) == 0 || a.fields[0].Step != "The engine") {
-			a.fields = dimensionFields(s) // back from measuring: the last size
+		if s := a.Session(); s != nil && (len(a.fields) == 0 || a.fields[0].Step != stepEngine && a.fields[0].Step != workedOut) {
+			a.fields = a.sizeFields() // back from measuring: the last size
 			a.setField(len(a.fields) - 1)
 		}
 	}
@@ -89,9 +89,9 @@ func (a *App) layout() *view {
 		a.enginesView(lay)
 	case Gear:
 		lay.title("New engine: which valve gear?")
-		lay.text("Choose the gear first: the dimensions asked next depend on it. Each starts from an invented demo engine's dimensions, which you then change to your own.", false)
-		for _, spec := range setting.DemoEngines() {
-			lay.button(gearName(spec.Gear.Kind), false, func() { a.startSetUp(spec) })
+		lay.text("Choose the gear first: the dimensions asked next depend on it. You give what you can measure or read off the drawing; the rest is worked out and shown.", false)
+		for _, kind := range []string{setting.KindSingleEccentric, setting.KindStephenson, setting.KindWalschaerts} {
+			lay.button(gearName(kind), false, func() { a.newEngine(kind) })
 		}
 	case Units:
 		a.unitsView(lay)
@@ -99,6 +99,8 @@ func (a *App) layout() *view {
 		a.keypadView(lay)
 	case Adjust:
 		a.adjustView(lay)
+	case EngineSheet:
+		a.sheetView(lay)
 	case Cautions:
 		v.body = render.Rect{Min: render.Point{X: margin, Y: lay.y}, Max: render.Point{X: a.w - margin, Y: a.h - margin}}
 		if !render.LayoutCautions(v.body, setting.Cautions()).Fits {
@@ -304,6 +306,9 @@ func (a *App) enginesView(l *layouter) {
 		}
 		a.rowWithDelete(l, a.engineLabel(e), e.Session.Name, func() { a.openSession(e) }, func() { a.deleteEngine(e) })
 	}
+	if a.draftSession != nil {
+		l.button("Carry on setting up "+a.draftSession.Name, false, a.carryOn)
+	}
 	l.muted("Start from an invented demo engine (made up, not a real locomotive), or set up your own:")
 	for _, spec := range setting.DemoEngines() {
 		spec := spec
@@ -320,7 +325,7 @@ func (a *App) unitsView(l *layouter) {
 	l.title("Units and dial gauge")
 	l.text("How do you read lengths? Numbers you type are in this unit; the file keeps mm.", false)
 	set := func(u session.Unit) func() {
-		return func() { s.DisplayUnit = u; a.save(); a.dirty = true }
+		return func() { a.setUnit(u) }
 	}
 	l.row([]string{"mm", "inch"}, []bool{s.DisplayUnit != session.UnitInch, s.DisplayUnit == session.UnitInch}, []func(){set(session.UnitMM), set(session.UnitInch)})
 	l.text("The smallest division of your dial gauge:", false)
@@ -330,16 +335,17 @@ func (a *App) unitsView(l *layouter) {
 	acts := make([]func(), len(res))
 	for i, r := range res {
 		on[i] = s.Measuring.GaugeResolutionMM == r
-		acts[i] = func() { s.Measuring.GaugeResolutionMM = r; a.save(); a.dirty = true }
+		acts[i] = func() { a.setDivision(r) }
 	}
 	l.row(labels[:2], on[:2], acts[:2])
 	l.row(labels[2:], on[2:], acts[2:])
 	a.cylinderCountRow(l)
-	l.button("Next", false, func() {
-		a.fields = dimensionFields(s)
-		a.setField(0)
-		a.navigate(Sizes)
-	})
+	a.nameRow(l)
+	if a.su.active() || len(a.stack) == 0 || a.stack[len(a.stack)-1] != Menu {
+		l.button("Next", false, a.startSizes)
+		return
+	}
+	l.button("Done", false, a.done)
 }
 
 func (a *App) adjustView(l *layouter) {
@@ -387,6 +393,10 @@ func (a *App) keypadView(l *layouter) {
 	if len(a.fields) == 0 {
 		return
 	}
+	if a.screen == Sizes && len(a.fields[a.fi].Choices) > 0 {
+		a.choiceView(l)
+		return
+	}
 	side := a.w > a.h // landscape: the keypad in the right half
 	if side {
 		l.w = (a.w - 3*margin) / 2
@@ -416,7 +426,7 @@ func (a *App) keypadView(l *layouter) {
 		l.y, l.v.tall = box.Max.Y, true
 	}
 	l.v.tall = l.v.tall || side && l.y > a.h-margin
-	l.v.keypad = LayoutKeypad(box)
+	l.v.keypad = LayoutKeypad(box, a.fractions())
 	for _, k := range l.v.keypad {
 		k := k
 		l.v.targets = append(l.v.targets, Target{Label: k.Key.Label(), Rect: k.Rect, act: func() { a.key(k.Key) }})
@@ -457,9 +467,16 @@ func (a *App) keypadWords(l *layouter, level int) {
 	if a.screen == Lead {
 		l.button("No target lead", false, a.clearTargetLead)
 	}
+	if a.screen == Sizes && f.form != "" {
+		l.button(f.form, false, a.toggleForm)
+	}
+	if a.fractions() && level == 0 {
+		l.muted("A fraction goes in as soon as its bottom (2 to 64) is typed.")
+	}
 	if a.screen != Measure {
 		return
 	}
+	l.muted(a.deadCentreFound())
 	var extra []string
 	var extraActs []func()
 	if f.Step == portMarksStep {
@@ -555,6 +572,8 @@ func (a *App) menuView(l *layouter) {
 		})
 		l.button("Plan", false, func() { a.planRound = 0; a.navigate(Plan); a.makePlan() })
 		l.button("History of rounds", false, func() { a.navigate(History) })
+		l.button("Edit the engine", false, a.openSheet)
+		l.button("Units and dial gauge", false, func() { a.navigate(Units) })
 		l.button("Export the session file", false, a.export)
 		if a.opt.OnName != nil {
 			l.button(RenameLabel, false, a.rename)
@@ -622,9 +641,9 @@ func (a *App) planView(l *layouter) {
 		acts[i] = func() { a.diagram = d; a.dirty = true }
 	}
 	if side {
-		labels = append(labels, "Next round", "Rounds")
-		on = append(on, false, false)
-		acts = append(acts, a.nextRound, func() { a.navigate(History) })
+		labels = append(labels, "Next round", "Rounds", moreReadings)
+		on = append(on, false, false, false)
+		acts = append(acts, a.nextRound, func() { a.navigate(History) }, a.moreReadings)
 		if cs := a.Session().Cylinders; len(cs) > 1 {
 			var cl []string
 			var con []bool
@@ -636,6 +655,7 @@ func (a *App) planView(l *layouter) {
 		}
 	}
 	l.row(labels, on, acts)
+	a.findingRows(l)
 	bottom := a.h - margin - rowH
 	if side {
 		bottom = a.h
@@ -653,7 +673,7 @@ func (a *App) planView(l *layouter) {
 		l.v.scrolls = true
 		l.y = l.v.body.Max.Y + gap
 		if !side {
-			l.row([]string{"Next round", "Rounds"}, []bool{false, false}, []func(){a.nextRound, func() { a.navigate(History) }})
+			l.row([]string{"Next round", "Rounds", moreReadings}, []bool{false, false, false}, []func(){a.nextRound, func() { a.navigate(History) }, a.moreReadings})
 		}
 		return
 	}
@@ -662,7 +682,7 @@ func (a *App) planView(l *layouter) {
 	}
 	y := l.y
 	l.y = bottom
-	l.row([]string{"Next round", "Rounds"}, []bool{false, false}, []func(){a.nextRound, func() { a.navigate(History) }})
+	l.row([]string{"Next round", "Rounds", moreReadings}, []bool{false, false, false}, []func(){a.nextRound, func() { a.navigate(History) }, a.moreReadings})
 	l.y = math.Max(l.y, y)
 }
 

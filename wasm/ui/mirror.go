@@ -2,6 +2,7 @@ package ui
 
 import (
 	"fmt"
+	"sort"
 	"strings"
 
 	"evenbeat/render"
@@ -11,26 +12,114 @@ import (
 
 // Mirror returns what the screen shown says, as plain lines for the
 // page's hidden live region, which screen readers announce: the title and
-// every paragraph (errors and warnings among them), the value the keypad
-// is entering and what was typed, the cautions, the plan (its steps, the
-// leads and cut-offs now and after per position, the notes and the next
-// reading), the rounds' history, and the buttons that can be pressed.
+// every paragraph (errors and warnings marked), the value the keypad is
+// entering and what was typed, the drawing's words (the cautions; the
+// plan's steps, leads and cut-offs now and after per position, notes and
+// next reading; the rounds' history; where the engine stands), and the
+// buttons and keys, in the order the screen shows them from the top.
 // The saving state is left out: it changes too often to be read out.
 func (a *App) Mirror() string {
 	v := a.layout()
-	var b strings.Builder
-	line := func(s string) {
+	var items []mirrorItem
+	add := func(y float64, kind mirrorKind, s string) {
 		if s = strings.TrimSpace(s); s != "" {
-			b.WriteString(s)
-			b.WriteByte('\n')
+			items = append(items, mirrorItem{y, kind, s})
 		}
 	}
+	if v.title == "" {
+		add(-1, mirrorLine, a.untitled())
+	}
 	for _, p := range v.paras {
-		line(strings.Join(p.lines, " "))
+		t := strings.Join(p.lines, " ")
+		if p.warn {
+			t = "Warning: " + t
+		}
+		add(p.at.Y, mirrorLine, t)
 	}
 	if v.entry.W() > 0 && len(a.fields) > 0 {
-		line(a.entryWords())
+		add(v.entry.Min.Y, mirrorLine, a.entryWords())
 	}
+	a.mirrorBody(func(s string) { add(v.body.Min.Y, mirrorLine, s) })
+	keys := map[render.Rect]bool{}
+	for _, k := range v.keypad {
+		keys[k.Rect] = true
+	}
+	for _, t := range v.targets {
+		switch {
+		case t.act == nil || t.bar:
+		case keys[t.Rect]:
+			add(t.Rect.Min.Y, mirrorKey, t.Label)
+		case t.On:
+			add(t.Rect.Min.Y, mirrorButton, t.Label+" (chosen)")
+		default:
+			add(t.Rect.Min.Y, mirrorButton, t.Label)
+		}
+	}
+	sort.SliceStable(items, func(i, j int) bool { return items[i].y < items[j].y })
+	return mirrorText(items)
+}
+
+// untitled is the title the mirror gives a screen drawn without one.
+func (a *App) untitled() string {
+	switch s := a.Session(); {
+	case s == nil:
+		return ""
+	case a.screen == Plan && len(s.Cylinders) > 1:
+		return fmt.Sprintf("%s, %s cylinder: the plan", s.Name, s.Cylinders[a.cyl].Name)
+	case a.screen == Plan:
+		return s.Name + ": the plan"
+	case a.screen == Where:
+		return s.Name + ": where the engine stands"
+	}
+	return ""
+}
+
+// mirrorKind is what a line of the mirror is: words, a button, a key.
+type mirrorKind uint8
+
+const (
+	mirrorLine mirrorKind = iota
+	mirrorButton
+	mirrorKey
+)
+
+// mirrorItem is one thing the screen shows, at its height y.
+type mirrorItem struct {
+	y    float64
+	kind mirrorKind
+	text string
+}
+
+// mirrorText writes the items a line each, buttons and keys next to each
+// other in one line ("Buttons: mm (chosen); inch.", "Keys: 7 8 9 Del").
+func mirrorText(items []mirrorItem) string {
+	var b strings.Builder
+	for i := 0; i < len(items); {
+		it := items[i]
+		j := i + 1
+		for j < len(items) && it.kind != mirrorLine && items[j].kind == it.kind {
+			j++
+		}
+		var group []string
+		for _, g := range items[i:j] {
+			group = append(group, g.text)
+		}
+		switch it.kind {
+		case mirrorButton:
+			b.WriteString("Buttons: " + strings.Join(group, "; ") + ".")
+		case mirrorKey:
+			b.WriteString("Keys: " + strings.Join(group, " ") + ".")
+		default:
+			b.WriteString(it.text)
+		}
+		b.WriteByte('\n')
+		i = j
+	}
+	return b.String()
+}
+
+// mirrorBody says the screen's drawing in words, a line at a time.
+func (a *App) mirrorBody(line func(string)) {
 	switch a.screen {
 	case Cautions:
 		line(render.CautionsTitle + ":")
@@ -41,22 +130,11 @@ func (a *App) Mirror() string {
 		a.mirrorPlan(line)
 	case History:
 		a.mirrorHistory(line)
-	}
-	var buttons []string
-	for _, t := range v.targets {
-		if t.act == nil || t.bar {
-			continue
-		}
-		if t.On {
-			buttons = append(buttons, t.Label+" (chosen)")
-		} else {
-			buttons = append(buttons, t.Label)
+	case Where:
+		if a.engine != nil {
+			line(fmt.Sprintf("The drawing: crank at %.0f deg, %s.", a.crankDeg, a.engine.PositionNames()[a.wherePosition()]))
 		}
 	}
-	if len(buttons) > 0 {
-		line("Buttons: " + strings.Join(buttons, "; ") + ".")
-	}
-	return b.String()
 }
 
 // entryWords says the keypad's value and what is typed or kept: "Front

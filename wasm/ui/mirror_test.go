@@ -50,7 +50,7 @@ func TestMirrorReadsEveryScreen(t *testing.T) {
 			}
 		}
 	})
-	for _, s := range []Screen{Engines, Units, Sizes, Cautions, Measure, Readings, Plan, History, Menu, Where, Lead} {
+	for _, s := range []Screen{Engines, Gear, Units, Sizes, Adjust, EngineSheet, Cautions, Measure, Readings, Plan, History, Menu, Where, Lead} {
 		if !seen[s] {
 			t.Errorf("the tour never reached %s", s)
 		}

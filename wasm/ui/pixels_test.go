@@ -65,6 +65,13 @@ func walkTour(t *testing.T, w, h float64, th render.Theme, visit func(name strin
 	tap(t, a, "Menu")
 	tap(t, a, "History")
 	at("history, nothing read")
+	tap(t, a, "Menu")
+	tap(t, a, "Edit the engine")
+	at("engine sheet")
+	tap(t, a, "Menu")
+	tap(t, a, "Engines")
+	tap(t, a, "New engine")
+	at("gear")
 
 	p := planApp(t)
 	p.Resize(w, h)

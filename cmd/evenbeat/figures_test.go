@@ -347,3 +347,64 @@ func BenchmarkPlanLatency(b *testing.B) {
 	b.ReportMetric(reload[len(reload)/2], "plan-ms-reload-median")
 	b.ReportMetric(other[len(other)/2], "other-ms-median")
 }
+
+// BenchmarkShareReport prints how soon Share report answers a tap on the
+// demo session (the whole engine: both cylinders and the beat), in
+// headless Chromium as a 3x phone with touch: from the finger's lift
+// (touchend) to the first frame that shows the report's progress sign
+// (window.evenbeatShareSignAt; goal: within 100 ms) and to the PDF ready
+// for the share sheet (window.evenbeatShareFileAt; goal: under 3 s),
+// median and worst, and the report's own making (evenbeatShareDrawMs).
+// The share sheet is a stub that keeps the file. Run it alone with
+//
+//	go test -run '^$' -bench ShareReport -benchtime 3x ./cmd/evenbeat
+func BenchmarkShareReport(b *testing.B) {
+	needChromium(b)
+	m := startServer(b)
+	src, err := os.ReadFile(demoSessionFile)
+	if err != nil {
+		b.Fatal(err)
+	}
+	ctx, closeBrowser := newBrowser(b, b.TempDir())
+	defer closeBrowser()
+	within(b, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
+	waitFor(b, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
+	eval[bool](b, ctx, "(window.evenbeatImport("+strconv.Quote(string(src))+"), true)")
+	waitFor(b, ctx, 90*time.Second, `window.evenbeatDrawn === "plan" && window.evenbeatSettled`)
+	eval[bool](b, ctx, stubShareJS)
+	eval[bool](b, ctx, `(addEventListener("touchend", () => { window.evenbeatLiftAt = performance.now(); }, {capture: true}), true)`)
+	const done = `window.evenbeatShare === "shared" || window.evenbeatShare === "downloaded" || (window.evenbeatShare || "").startsWith("failed")`
+	var sign, file, making []float64
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		tapLabel(b, ctx, "Menu")
+		waitFor(b, ctx, appAnswer, `window.evenbeatDrawn === "menu"`)
+		time.Sleep(time.Second) // a user's pause, the menu's frame on the screen
+		eval[bool](b, ctx, `(window.evenbeatShare = "", window.evenbeatShareSignAt = undefined, window.evenbeatShareFileAt = undefined, true)`)
+		tapLabel(b, ctx, "Share report")
+		waitFor(b, ctx, appAnswer, done+` || window.evenbeatShare === "asking"`)
+		if eval[string](b, ctx, "window.evenbeatShare") == "asking" {
+			tapElement(b, ctx, "evenbeat-share-ok")
+			waitFor(b, ctx, 30*time.Second, done)
+		}
+		if how := eval[string](b, ctx, "window.evenbeatShare"); how != "shared" {
+			b.Fatalf("sharing the report: %s", how)
+		}
+		lift := eval[float64](b, ctx, "window.evenbeatLiftAt")
+		sign = append(sign, eval[float64](b, ctx, "window.evenbeatShareSignAt")-lift)
+		file = append(file, eval[float64](b, ctx, "window.evenbeatShareFileAt")-lift)
+		making = append(making, eval[float64](b, ctx, "window.evenbeatShareDrawMs"))
+		tapLabel(b, ctx, "Plan")
+		waitFor(b, ctx, appAnswer, `window.evenbeatDrawn === "plan"`)
+	}
+	b.StopTimer()
+	b.Logf("share report, ms from the lift: to the progress sign's frame %v, to the file %v; the report's making %v", sign, file, making)
+	for _, x := range [][]float64{sign, file, making} {
+		sort.Float64s(x)
+	}
+	b.ReportMetric(sign[len(sign)/2], "sign-ms-median")
+	b.ReportMetric(sign[len(sign)-1], "sign-ms-worst")
+	b.ReportMetric(file[len(file)/2], "file-ms-median")
+	b.ReportMetric(file[len(file)-1], "file-ms-worst")
+	b.ReportMetric(making[len(making)/2], "making-ms-median")
+}

@@ -3,6 +3,7 @@
 package main
 
 import (
+	"strings"
 	"sync"
 	"syscall/js"
 	"time"
@@ -38,6 +39,7 @@ type flowGame struct {
 	backs   int      // popstate events not yet handled
 	imports [][]byte // files chosen, not yet imported
 	live    js.Value // the hidden live region mirroring the screen (ui.App.Mirror)
+	mirror  []string // its lines, as shown
 	dark    *bool    // the page's colour scheme changed to dark (true) or light, for the next tick (under mu)
 	draws   int      // frames really drawn, published as evenbeatDraws
 	// drawTime is the Go side of all those frames (the app drawing through
@@ -230,10 +232,38 @@ func (g *flowGame) publish() {
 	// The live region mirrors every screen; while the plan waits for its
 	// other priority, the mirror it had is left as it was.
 	if !pending || g.ui.Screen() != ui.Plan {
-		if mirror := g.ui.Mirror(); g.live.Truthy() && g.live.Get("textContent").String() != mirror {
-			g.live.Set("textContent", mirror)
+		g.showMirror(g.ui.Mirror())
+	}
+}
+
+// showMirror puts the screen's words into the live region, a line per
+// element, changing only the lines that differ from those shown: a
+// screen reader then announces what changed (a typed digit, a warning,
+// a new screen's lines), not the whole screen at each change, and the
+// region's text is the whole mirror.
+func (g *flowGame) showMirror(text string) {
+	if !g.live.Truthy() {
+		return
+	}
+	lines := strings.SplitAfter(text, "\n")
+	if len(lines) > 0 && lines[len(lines)-1] == "" {
+		lines = lines[:len(lines)-1]
+	}
+	kids := g.live.Get("children")
+	for i, l := range lines {
+		switch {
+		case i >= len(g.mirror):
+			el := g.window.Get("document").Call("createElement", "div")
+			el.Set("textContent", l)
+			g.live.Call("appendChild", el)
+		case g.mirror[i] != l:
+			kids.Index(i).Set("textContent", l)
 		}
 	}
+	for n := len(g.mirror); n > len(lines); n-- {
+		g.live.Call("removeChild", kids.Index(n-1))
+	}
+	g.mirror = lines
 }
 
 // Draw draws the app when it changed.
@@ -275,12 +305,13 @@ func (g *flowGame) Draw(screen *ebiten.Image) {
 }
 
 // liveRegion adds a visually hidden element that screen readers announce
-// when its text changes.
+// when its lines change.
 func liveRegion() js.Value {
 	doc := js.Global().Get("document")
 	el := doc.Call("createElement", "div")
 	el.Set("id", "evenbeat-words")
 	el.Call("setAttribute", "aria-live", "polite")
+	el.Call("setAttribute", "aria-atomic", "false") // the lines changed, not all
 	el.Call("setAttribute", "style", "position:absolute;left:-10000px;width:1px;height:1px;overflow:hidden")
 	doc.Get("body").Call("appendChild", el)
 	return el

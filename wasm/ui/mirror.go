@@ -205,9 +205,9 @@ func (a *App) mirrorHistory(line func(string)) {
 		}
 		line(r.Note)
 		for _, p := range r.Now {
-			line(fmt.Sprintf("%s: lead front %s, back %s; cut-off front %s %%, back %s %%.", p.Notch,
+			line(fmt.Sprintf("%s: lead front %s, back %s; cut-off front %s, back %s.", p.Notch,
 				session.FormatLength(p.Front.LeadMM, a.unit()), session.FormatLength(p.Back.LeadMM, a.unit()),
-				render.CutOffState(p.Front), render.CutOffState(p.Back)))
+				percentWords(render.CutOffState(p.Front)), percentWords(render.CutOffState(p.Back))))
 		}
 	}
 }

@@ -16,7 +16,8 @@ import (
 // per position and end with the plan's own leads and cut-offs now and
 // after (plan.Plan.Now and After, as the plan's words round them; the
 // what-if's after while one is dragged) and every note; on the rounds,
-// each round's date and leads.
+// each round's date, and for the round planned the plan's own leads and
+// cut-offs per position.
 func TestMirrorReadsEveryScreen(t *testing.T) {
 	seen := map[Screen]bool{}
 	walkTour(t, phoneW, phoneH, render.Light(), func(name string, a *App) {
@@ -47,6 +48,15 @@ func TestMirrorReadsEveryScreen(t *testing.T) {
 		case History:
 			for ri, r := range a.Session().Cylinders[a.cyl].Rounds {
 				missing("a round", fmt.Sprintf("Round %d, %s.", ri+1, r.Date))
+			}
+			if a.plannedRound() < 0 {
+				break
+			}
+			// The round planned: the plan's own leads and cut-offs.
+			u := a.unit()
+			for _, p := range a.plan.Now {
+				missing("the round planned's position", fmt.Sprintf("%s: lead front %s, back %s; cut-off front %.1f %%, back %.1f %%.", p.Notch,
+					session.FormatLength(p.Front.LeadMM, u), session.FormatLength(p.Back.LeadMM, u), p.Front.CutOffPercent, p.Back.CutOffPercent))
 			}
 		}
 	})

@@ -40,8 +40,12 @@ type flowGame struct {
 	imports [][]byte // files chosen, not yet imported
 	live    js.Value // the hidden live region mirroring the screen (ui.App.Mirror)
 	mirror  []string // its lines, as shown
-	dark    *bool    // the page's colour scheme changed to dark (true) or light, for the next tick (under mu)
-	draws   int      // frames really drawn, published as evenbeatDraws
+	// mirrorDue: the screen changed since the live region was brought up
+	// to date, at mirrorAt.
+	mirrorDue bool
+	mirrorAt  time.Time
+	dark      *bool // the page's colour scheme changed to dark (true) or light, for the next tick (under mu)
+	draws     int   // frames really drawn, published as evenbeatDraws
 	// drawTime is the Go side of all those frames (the app drawing through
 	// ebiten, not the GPU's work), published as evenbeatDrawMs.
 	drawTime time.Duration
@@ -158,6 +162,7 @@ func (g *flowGame) Update() error {
 	if g.ui.Update() {
 		g.publish()
 	}
+	g.mirrorTick()
 	g.mu.Lock()
 	g.chooserOpened, g.copiedInGesture = false, false // the tap has been handled
 	g.mu.Unlock()
@@ -177,7 +182,8 @@ func uiIntent(in intent) ui.Intent {
 
 // publish tells the page (and tests) the screen, the saving state, the
 // touch targets in CSS px (and whether each is a chosen option) and the
-// plan's words, and mirrors what the screen says into the live region.
+// plan's words, and marks the live region due to mirror the screen
+// (mirrorTick).
 func (g *flowGame) publish() {
 	g.window.Set("evenbeatState", g.ui.Screen().String())
 	g.window.Set("evenbeatStatus", g.ui.Status())
@@ -229,11 +235,24 @@ func (g *flowGame) publish() {
 	g.mu.Lock()
 	g.nameNow = name
 	g.mu.Unlock()
-	// The live region mirrors every screen; while the plan waits for its
-	// other priority, the mirror it had is left as it was.
-	if !pending || g.ui.Screen() != ui.Plan {
-		g.showMirror(g.ui.Mirror())
+	g.mirrorDue = true
+}
+
+// mirrorEvery is the least time between two changes of the live region:
+// a finger dragging the what-if changes the screen at every frame, and a
+// screen reader is not to be flooded with the figures of each.
+const mirrorEvery = 500 * time.Millisecond
+
+// mirrorTick brings the live region up to date with the screen when it
+// changed, at once after a quiet spell and then at most every
+// mirrorEvery; while the plan waits for its other priority, the mirror
+// it had is left as it was.
+func (g *flowGame) mirrorTick() {
+	if !g.mirrorDue || time.Since(g.mirrorAt) < mirrorEvery || g.ui.Screen() == ui.Plan && g.ui.PlanPending() {
+		return
 	}
+	g.mirrorDue, g.mirrorAt = false, time.Now()
+	g.showMirror(g.ui.Mirror())
 }
 
 // showMirror puts the screen's words into the live region, a line per

@@ -82,20 +82,17 @@ const narrowSteps = 420
 
 // StepAmount returns a step's rounded amount as the setter reads it,
 // unsigned (the words and the sketch give the way): a length in the
-// display unit, or degrees.
+// display unit only (a setter with inch tools is not given mm), or
+// degrees.
 func StepAmount(s plan.Step, unit session.Unit) string {
 	if s.Unit == "deg" {
 		return fmt.Sprintf("%.2f°", math.Abs(s.Amount))
 	}
-	out := session.FormatLength(math.Abs(s.Amount), unit)
-	if unit == session.UnitInch {
-		out += " (" + session.FormatLength(math.Abs(s.Amount), session.UnitMM) + ")"
-	}
-	return out
+	return session.FormatLength(math.Abs(s.Amount), unit)
 }
 
 // StepHeadline is a step's bold line: its number, the part to work on
-// and the amount ("2. Backward eccentric rod: 0.013 in (0.32 mm)").
+// and the amount ("2. Backward eccentric rod: 0.013 in").
 func StepHeadline(k int, s plan.Step, unit session.Unit) string {
 	return fmt.Sprintf("%d. %s: %s", k+1, capital(s.Part), StepAmount(s, unit))
 }

@@ -539,7 +539,7 @@ func (a *App) choiceView(l *layouter) {
 		l.v.sketch = rect(l.x, l.y, l.w, 150)
 		l.y += 150 + gap
 	}
-	l.para(fmt.Sprintf("%s (%d of %d)", f.Label, a.fi+1, len(a.fields)), render.BodySize+2, true, false, false)
+	l.para(f.Label+" ("+a.fieldCount()+")", render.BodySize+2, true, false, false)
 	chosen, ok := f.get(s)
 	for i, c := range f.Choices {
 		l.button(c.Label, ok && int(chosen) == i, func() { a.choose(i) })

@@ -3,6 +3,7 @@ package ui
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"evenbeat/render"
@@ -456,7 +457,7 @@ func (a *App) keypadWords(l *layouter, level int) {
 		l.v.sketch = rect(l.x, l.y, l.w, h)
 		l.y += h + gap
 	}
-	l.para(fmt.Sprintf("%s (%d of %d)", f.Label, a.fi+1, len(a.fields)), render.BodySize+2, true, false, false)
+	l.para(f.Label+" ("+a.fieldCount()+")", render.BodySize+2, true, false, false)
 	l.v.entry = rect(l.x, l.y, l.w, entryH)
 	l.y += entryH + gap
 	note := a.note
@@ -470,7 +471,7 @@ func (a *App) keypadWords(l *layouter, level int) {
 	if a.screen == Sizes && f.form != "" {
 		l.button(f.form, false, a.toggleForm)
 	}
-	if a.fractions() && level == 0 {
+	if a.fractions() && level == 0 && !strings.HasSuffix(f.Key, "gauge_mm") { // a dial gauge reads in decimals
 		l.muted("A fraction goes in as soon as its bottom (2 to 64) is typed.")
 	}
 	if a.screen != Measure {
@@ -753,4 +754,25 @@ func (a *App) Handle(in Intent) {
 			}
 		}
 	}
+}
+
+// fieldCount says where the current field stands among its kind: the
+// readings a plan needs ("4 of 12"), or the optional ones, a tap away
+// under More readings ("2 of 96 more"), so a round never looks longer
+// than the setter's part of it.
+func (a *App) fieldCount() string {
+	f := a.fields[a.fi]
+	k, n := 0, 0
+	for i, g := range a.fields {
+		if g.Optional == f.Optional {
+			n++
+			if i <= a.fi {
+				k++
+			}
+		}
+	}
+	if f.Optional {
+		return strconv.Itoa(k) + " of " + strconv.Itoa(n) + " more"
+	}
+	return strconv.Itoa(k) + " of " + strconv.Itoa(n)
 }

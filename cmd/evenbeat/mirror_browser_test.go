@@ -27,7 +27,8 @@ const liveRegionJS = `document.getElementById("evenbeat-words").textContent`
 
 // TestPlanInTheLiveRegion opens the demo session file on a phone held
 // upright (390x844) and on its side (844x390) and reads the plan from the
-// page's live region, as a screen reader would: every step, every
+// page's live region (which mirrors every screen, the list of engines
+// before it too), as a screen reader would: every step, every
 // position's and end's lead and cut-off now and after (with the lead's
 // +/-), and every note must be those `evenbeat plan` gives for the same
 // file, and the region must hold no note the command does not give.
@@ -53,6 +54,8 @@ func TestPlanInTheLiveRegion(t *testing.T) {
 			if got := eval[float64](t, ctx, "innerWidth"); got != float64(size[0]) {
 				t.Fatalf("the page is %v CSS px wide; want %d", got, size[0])
 			}
+			// Every screen is mirrored, the first too.
+			waitFor(t, ctx, appAnswer, liveRegionJS+`.startsWith("Engines\n") && `+liveRegionJS+`.includes("Buttons: Brackenfold (slip eccentric) (invented demo); ")`)
 			eval[bool](t, ctx, "(window.evenbeatImport("+strconv.Quote(string(b))+"), true)")
 			waitFor(t, ctx, 90*time.Second, `window.evenbeatState === "plan" && window.evenbeatPlanText.includes("Plan for Brackenfold")`)
 			waitFor(t, ctx, appAnswer, liveRegionJS+`.includes("Next reading: ")`)

@@ -173,7 +173,7 @@ func (p End) validate(end CylinderEnd, liner float64) error {
 	case p.PortLength != 0:
 		return &Error{"port_length", fmt.Sprintf("The %s port is a ring of holes, which has no slot length; leave the port length at zero (got %g mm).", name, p.PortLength)}
 	case liner > 0 && float64(p.Holes)*p.HoleDiameter > math.Pi*liner:
-		return &Error{"holes", fmt.Sprintf("%d holes of %g mm do not fit round a liner of %g mm bore (circumference %.1f mm).", p.Holes, p.HoleDiameter, liner, math.Pi*liner)}
+		return &Error{"holes", fmt.Sprintf("The %d holes of %g mm do not fit round a liner of %g mm bore (circumference %.1f mm).", p.Holes, p.HoleDiameter, liner, math.Pi*liner)}
 	}
 	return nil
 }

@@ -45,7 +45,11 @@ const (
 
 // BalanceCaption is the balance card's caption for m.
 func BalanceCaption(m *Model) string {
-	return fmt.Sprintf("A tick: front and back within %s of lead and %s %% of cut-off; a cross: not yet.",
+	what := ""
+	if m.WhatIf != "" {
+		what = "After includes the what-if: " + m.WhatIf + ". "
+	}
+	return what + fmt.Sprintf("A tick: front and back within %s of lead and %s %% of cut-off; a cross: not yet.",
 		m.length(m.LeadTolMM), FormatTick(m.CutOffTolPct))
 }
 
@@ -302,9 +306,4 @@ func verdict(c Canvas, at Point, ok bool, th Theme) {
 }
 
 // unitName names the model's display unit for axis heads.
-func unitName(m *Model) string {
-	if m.Unit == "inch" {
-		return "in"
-	}
-	return "mm"
-}
+func unitName(m *Model) string { return unitShort(m.Unit) }

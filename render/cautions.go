@@ -120,12 +120,54 @@ func Cautions(c Canvas, box Rect, th Theme) (ack Rect) {
 // px tall (ButtonHeight is 56).
 func Button(c Canvas, r Rect, label string, th Theme) {
 	c.Fill(RoundRect(r, 10), FillStyle{Color: th.Accent})
-	size := float64(ButtonSize)
-	for size > BodySize && TextWidth(label, size, true) > r.W()-2*cardPad {
-		size--
+	lines, size := ButtonLines(label, r.W()-16, r.H()-4)
+	DrawButtonLines(c, r, lines, size, TextStyle{Color: th.OnAccent, Bold: true})
+}
+
+// buttonMin is the least size of a button's label before it takes two
+// lines: legible at arm's length (15 CSS px).
+const buttonMin = 15
+
+// ButtonLines fits a button's label into a width w and height h: on one
+// line at the largest size from ButtonSize down to 15 that fits, else on
+// two lines at the largest size that fits both, else on one line at
+// BodySize (which may not fit: the caller shortens it).
+func ButtonLines(label string, w, h float64) ([]string, float64) {
+	for size := float64(ButtonSize); size >= buttonMin; size-- {
+		if TextWidth(label, size, true) <= w {
+			return []string{label}, size
+		}
 	}
-	c.Text(Point{(r.Min.X + r.Max.X) / 2, (r.Min.Y + r.Max.Y) / 2}, label,
-		TextStyle{Color: th.OnAccent, Size: size, Bold: true, HAlign: Center, VAlign: Middle})
+	for size := float64(ButtonSize); size >= buttonMin; size-- {
+		if lines := Wrap(label, w, size, true); len(lines) == 2 && 2*lineStep(size) <= h && joinsTo(lines, label) {
+			return lines, size
+		}
+	}
+	return []string{label}, BodySize
+}
+
+// joinsTo reports whether lines joined by spaces are label: the lines
+// were broken between words.
+func joinsTo(lines []string, label string) bool {
+	n := 0
+	for i, l := range lines {
+		if i > 0 {
+			n++
+		}
+		n += len(l)
+	}
+	return n == len(label)
+}
+
+// DrawButtonLines draws a button's label lines centred in r at size in
+// style s (colour and weight).
+func DrawButtonLines(c Canvas, r Rect, lines []string, size float64, s TextStyle) {
+	s.Size, s.HAlign, s.VAlign = size, Center, Middle
+	mid := (r.Min.Y + r.Max.Y) / 2
+	for i, l := range lines {
+		y := mid + (float64(i)-float64(len(lines)-1)/2)*lineStep(size)
+		c.Text(Point{(r.Min.X + r.Max.X) / 2, y}, l, s)
+	}
 }
 
 // warningSign draws a filled triangle of side size with an exclamation

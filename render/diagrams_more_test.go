@@ -23,7 +23,8 @@ func TestDiagramGoldens(t *testing.T) {
 	}{
 		{"valve_curve", func(c render.Canvas, b render.Rect, th render.Theme) { render.ValveCurve(c, m, 0, b, th) }},
 		{"valve_curve_notch", func(c render.Canvas, b render.Rect, th render.Theme) { render.ValveCurve(c, m, 1, b, th) }},
-		// The balance card scrolls in the app: it gets the height it needs.
+		// The balance and plan cards scroll in the app: they get the
+		// height they need.
 		{"balance", func(c render.Canvas, b render.Rect, th render.Theme) { render.Balance(c, m, b, th) }},
 		{"valve_piston", func(c render.Canvas, b render.Rect, th render.Theme) { render.ValvePiston(c, m, 1, b, th) }},
 		{"port_opening_holes", func(c render.Canvas, b render.Rect, th render.Theme) { render.PortOpening(c, walsch, 0, b, th) }},
@@ -44,8 +45,12 @@ func TestDiagramGoldens(t *testing.T) {
 		}{{"portrait_light", portrait, render.Light()}, {"landscape_dark", landscape, render.Dark()}} {
 			t.Run(tc.name+"_"+v.suffix, func(t *testing.T) {
 				c := recorder.New(844, 844)
-				if tc.name == "balance" {
+				switch tc.name {
+				case "balance":
 					v.box.Max.Y = math.Max(v.box.Max.Y, v.box.Min.Y+render.LayoutBalance(v.box, m).NeedH)
+				case "plan":
+					v.box.Max.Y = math.Max(v.box.Max.Y, v.box.Min.Y+render.LayoutPlan(v.box, m).NeedH)
+					c = recorder.New(844, v.box.Max.Y+16)
 				}
 				tc.draw(c, v.box, v.th)
 				if len(c.Ops()) < 10 {

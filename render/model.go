@@ -75,6 +75,10 @@ type Model struct {
 	// a what-if keeps the plan's, so that today does not seem to move
 	// while an amount is dragged (see BalanceRanges).
 	Scale *Model
+	// WhatIf, when set, says in words what a what-if changes on top of the
+	// plan ("valve 0.16 mm toward the front cover"): the cards then say
+	// that "after" includes it.
+	WhatIf string
 
 	geo   MotionGeometry
 	geoOK bool       // geo is worked out on the first Geometry call

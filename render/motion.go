@@ -110,6 +110,9 @@ type MotionLayout struct {
 
 const insetH = 64
 
+// motionMinH is the least height of the motion drawing.
+const motionMinH = 120
+
 // legendColW is the width of the motion legend beside the inset: the
 // swatch and its longest label.
 const legendColW = legendLineW + 10 + 270
@@ -156,11 +159,11 @@ func LayoutMotion(box Rect, m *Model, i int) MotionLayout {
 	if side {
 		below = gap + math.Max(insetH+lineStep(BodySize)+2, legendH)
 	}
-	availH := l.Inner.Max.Y - y - below
-	k := w / spanU
-	if availH > 0 {
-		k = math.Min(k, availH/spanW)
-	}
+	// The drawing fills the height left, but never less than
+	// motionMinH: a box too short for that makes the card taller
+	// (NeedH), for the screen to scroll.
+	availH := math.Max(l.Inner.Max.Y-y-below, motionMinH)
+	k := math.Min(w/spanU, availH/spanW)
 	if !(k > 0) || math.IsInf(k, 0) {
 		k = 1
 	}
@@ -354,7 +357,7 @@ func Motion(c Canvas, m *Model, i int, crankDeg float64, box Rect, th Theme) {
 	DrawLegend(c, l.Legend, []LegendEntry{
 		{Mark: func(c Canvas, at Point) { steamFill(c, swatch(at), OpenToSteam, th) }, Label: "open to steam"},
 		{Mark: func(c Canvas, at Point) { steamFill(c, swatch(at), OpenToExhaust, th) }, Label: "open to exhaust"},
-		{Mark: func(c Canvas, at Point) { steamFill(c, swatch(at), Closed, th) }, Label: "closed: steam expanding or compressed"},
+		{Mark: func(c Canvas, at Point) { steamFill(c, swatch(at), Closed, th) }, Label: "closed (expansion, compression)"},
 	}, th)
 }
 

@@ -2,34 +2,73 @@ package render
 
 import (
 	"fmt"
-	"image/color"
 	"math"
 
+	"evenbeat/setting"
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
 )
 
-// PlanLayout is where the plan card puts each step in its box.
+// Text sizes of the plan card, larger than the diagrams' labels: the
+// card is read at arm's length by the engine, outdoors (15 CSS px at
+// least, common practice, no source).
+const (
+	planHead  = 17 // a step's headline and the section heads, bold
+	planWords = 16 // a step's words
+	planSmall = 15 // the table, the notes
+)
+
+// PlanLayout is where the plan card puts each part in its box: the title,
+// a row per step (its hit rectangle and its sketch's square) and every
+// line of text (the steps' words, the table of leads and cut-offs now and
+// after, the notes and the next reading), so that the card is drawn,
+// measured and tested from one layout.
 type PlanLayout struct {
-	Inner  Rect
-	Title  []string
-	TitleY float64
-	Steps  []PlanStepLayout
-	Notes  []string // wrapped notes under the steps
-	NotesY float64
-	NeedH  float64 // the box height the card needs
+	Inner Rect
+	Steps []PlanStepLayout
+	Texts []PlacedText
+	Rules []Rect  // thin lines between steps and sections (Min to Max, no height)
+	NeedH float64 // the box height the card needs
 }
 
 // PlanStepLayout is one step's row: its hit rectangle (the whole row, at
-// least HitMin tall), the arrow drawing's square and the text.
+// least HitMin tall) and the sketch's square.
 type PlanStepLayout struct {
-	Row     Rect
-	Icon    Rect
-	Amount  Point // top-left of the amount line (bold)
-	Words   []string
-	WordsY  float64
-	WordsX  float64
-	AmountS string
+	Row  Rect
+	Icon Rect
+}
+
+// PlacedText is one line of text a card laid out: its anchor (the top
+// left, or the top right when Right), the words, size and weight, and
+// its role in the theme's colours.
+type PlacedText struct {
+	At    Point
+	Text  string
+	Size  float64
+	Bold  bool
+	Right bool
+	Role  TextRole
+}
+
+// TextRole is what a line of text is, for its colour.
+type TextRole uint8
+
+// The roles of a card's text.
+const (
+	InkText   TextRole = iota // the main text
+	MutedText                 // secondary: headings of columns, units
+	WarnText                  // a warning: the what-if, a target not met
+)
+
+// Box returns the rectangle the text's glyphs may reach: its advance
+// width and its line's height.
+func (p PlacedText) Box() Rect {
+	w := TextWidth(p.Text, p.Size, p.Bold)
+	x := p.At.X
+	if p.Right {
+		x -= w
+	}
+	return Rect{Point{x, p.At.Y}, Point{x + w, p.At.Y + lineStep(p.Size)}}
 }
 
 // HitMin is the least height of a touch target in CSS px: a fingertip.
@@ -37,14 +76,25 @@ const HitMin = 48
 
 const iconSide = 64
 
+// narrowSteps is the column width under which a step's words go under its
+// sketch rather than beside it.
+const narrowSteps = 420
+
 // StepAmount returns a step's rounded amount as the setter reads it,
-// unsigned (the arrow shows the way): a length in the display unit only
-// (a setter with inch tools is not given mm), or degrees.
+// unsigned (the words and the sketch give the way): a length in the
+// display unit only (a setter with inch tools is not given mm), or
+// degrees.
 func StepAmount(s plan.Step, unit session.Unit) string {
 	if s.Unit == "deg" {
 		return fmt.Sprintf("%.2f°", math.Abs(s.Amount))
 	}
 	return session.FormatLength(math.Abs(s.Amount), unit)
+}
+
+// StepHeadline is a step's bold line: its number, the part to work on
+// and the amount ("2. Backward eccentric rod: 0.013 in").
+func StepHeadline(k int, s plan.Step, unit session.Unit) string {
+	return fmt.Sprintf("%d. %s: %s", k+1, Capital(s.Part), StepAmount(s, unit))
 }
 
 // PlanTitle is the plan card's title.
@@ -58,183 +108,396 @@ func PlanTitle(p *plan.Plan) string {
 	return fmt.Sprintf("The plan: %d steps, in this order", len(p.Steps))
 }
 
-// LayoutPlan lays out the plan card of m in box.
-func LayoutPlan(box Rect, m *Model) PlanLayout {
-	var l PlanLayout
-	l.Inner = box.Inset(cardPad)
-	w := l.Inner.W()
+// LayoutPlan lays out the plan card of m in box: the steps, then the
+// table of leads and cut-offs now and after, the notes and the next
+// reading to take.
+func LayoutPlan(box Rect, m *Model) PlanLayout { return layoutPlan(box, m, true) }
+
+// layoutPlan lays out the plan card; all adds the table, the notes and
+// the next reading under the steps (the report gives them elsewhere).
+func layoutPlan(box Rect, m *Model, all bool) PlanLayout {
+	l := planLayouter{PlanLayout: PlanLayout{Inner: box.Inset(cardPad)}}
+	l.y = l.Inner.Min.Y
 	var p *plan.Plan
 	if m != nil {
 		p = m.Plan
 	}
-	l.Title = Wrap(PlanTitle(p), w, TitleSize, true)
-	l.TitleY = l.Inner.Min.Y
-	y := l.TitleY + float64(len(l.Title))*lineStep(TitleSize) + gap
+	l.para(PlanTitle(p), l.Inner.Min.X, l.Inner.W(), TitleSize, true, InkText)
+	l.y += gap
 	if p != nil {
-		// Wide boxes (a phone on its side, a tablet) take the steps in
-		// two columns, row by row.
-		cols := 1
-		if w >= sideColumnFrom && len(p.Steps) > 1 {
-			cols = 2
-		}
-		colW := (w - float64(cols-1)*2*gap) / float64(cols)
-		rowTop, rowH := y, 0.0
-		for k, s := range p.Steps {
-			col := k % cols
-			if col == 0 && k > 0 {
-				rowTop += rowH + gap
-				rowH = 0
-			}
-			y = rowTop
-			left := l.Inner.Min.X + float64(col)*(colW+2*gap)
-			tx := left + iconSide + gap + 4
-			var sl PlanStepLayout
-			sl.AmountS = StepAmount(s, m.Unit)
-			sl.Amount = Point{tx, y + 4}
-			sl.WordsX = tx
-			sl.WordsY = y + 4 + lineStep(BodySize+2)
-			sl.Words = Wrap(s.Words, left+colW-tx, BodySize, false)
-			h := math.Max(iconSide+8, sl.WordsY-y+float64(len(sl.Words))*lineStep(BodySize)+6)
-			h = math.Max(h, HitMin)
-			sl.Row = Rect{Point{left, y}, Point{left + colW, y + h}}
-			sl.Icon = Rect{Point{left, y + 4}, Point{left + iconSide, y + 4 + iconSide}}
-			l.Steps = append(l.Steps, sl)
-			rowH = math.Max(rowH, h)
-		}
-		y = rowTop + rowH + gap
-		var notes string
-		if p.NextReading != "" {
-			notes = p.NextReading
-		}
-		if notes != "" {
-			l.Notes = Wrap(notes, w, BodySize, false)
+		l.steps(m)
+		if all {
+			l.table(m)
+			l.notes(p)
 		}
 	}
-	l.NotesY = y
-	y += float64(len(l.Notes)) * lineStep(BodySize)
-	l.NeedH = y + cardPad - box.Min.Y
-	return l
+	l.NeedH = l.y + cardPad - box.Min.Y
+	return l.PlanLayout
 }
 
-// PlanCard draws the plan: each step in working order with a drawing of
-// which way to move or turn the part (a straight arrow toward the front or
-// the back for the valve, arrows apart or together for a rod lengthened or
-// shortened, a curved arrow for a sheave or crank turned with or against
-// the running direction), the rounded amount in bold and the step in
-// workshop words. It returns each step's row as its hit rectangle (at
-// least HitMin tall), for ticking steps off.
+// planLayouter stacks the plan card's parts down the card.
+type planLayouter struct {
+	PlanLayout
+	y float64
+}
+
+// put places one line of text.
+func (l *planLayouter) put(x, y float64, text string, size float64, bold, right bool, role TextRole) {
+	l.Texts = append(l.Texts, PlacedText{At: Point{x, y}, Text: text, Size: size, Bold: bold, Right: right, Role: role})
+}
+
+// para wraps text into width at x from the current y and moves y below it.
+func (l *planLayouter) para(text string, x, w, size float64, bold bool, role TextRole) {
+	for _, line := range Wrap(text, w, size, bold) {
+		l.put(x, l.y, line, size, bold, false, role)
+		l.y += lineStep(size)
+	}
+}
+
+// steps lays out a row per step: the sketch, the headline and the words.
+// Wide boxes (a phone on its side, a tablet) take the steps in two
+// columns, row by row.
+func (l *planLayouter) steps(m *Model) {
+	w := l.Inner.W()
+	n := len(m.Plan.Steps)
+	cols := 1
+	if w >= sideColumnFrom && n > 1 {
+		cols = 2
+	}
+	colW := (w - float64(cols-1)*2*gap) / float64(cols)
+	rowTop, rowH := l.y, 0.0
+	for k, s := range m.Plan.Steps {
+		col := k % cols
+		if col == 0 && k > 0 {
+			rowTop += rowH + gap
+			l.Rules = append(l.Rules, Rect{Point{l.Inner.Min.X, rowTop - gap/2}, Point{l.Inner.Max.X, rowTop - gap/2}})
+			rowH = 0
+		}
+		left := l.Inner.Min.X + float64(col)*(colW+2*gap)
+		tx := left + iconSide + gap + 4
+		l.y = rowTop + 4
+		l.para(StepHeadline(k, s, m.Unit), tx, left+colW-tx, planHead, true, InkText)
+		l.y += 2
+		if colW < narrowSteps {
+			// A phone held upright: the words take the whole width under
+			// the sketch, where they need fewer lines.
+			l.y = math.Max(l.y, rowTop+4+iconSide+4)
+			tx = left
+		}
+		l.para(s.Words, tx, left+colW-tx, planWords, false, InkText)
+		h := math.Max(math.Max(iconSide+8, l.y-rowTop+6), HitMin)
+		l.Steps = append(l.Steps, PlanStepLayout{
+			Row:  Rect{Point{left, rowTop}, Point{left + colW, rowTop + h}},
+			Icon: Rect{Point{left, rowTop + 4}, Point{left + iconSide, rowTop + 4 + iconSide}},
+		})
+		rowH = math.Max(rowH, h)
+	}
+	l.y = rowTop + rowH + gap
+}
+
+// head starts a section: a rule across the card and a bold heading.
+func (l *planLayouter) head(text string) {
+	l.y += gap
+	l.Rules = append(l.Rules, Rect{Point{l.Inner.Min.X, l.y}, Point{l.Inner.Max.X, l.y}})
+	l.y += gap
+	l.para(text, l.Inner.Min.X, l.Inner.W(), planHead, true, InkText)
+	l.y += 2
+}
+
+// table lays out the leads and cut-offs now and after per position, front
+// and back, each number right-aligned in its column, with a +/- where the
+// readings leave doubt (see PlanValue). A card too narrow for the
+// quantity and the end side by side puts the quantity on a line of its
+// own; a wide one puts the positions side by side.
+func (l *planLayouter) table(m *Model) {
+	ps := PlanTable(m)
+	if len(ps) == 0 {
+		return
+	}
+	x0, w := l.Inner.Min.X, l.Inner.W()
+	l.head("Leads and cut-offs, now → after")
+	l.para(fmt.Sprintf("Leads in %s (negative: still closed at dead centre), cut-offs in %% of the stroke; ± where the readings leave doubt.", unitWords(m)),
+		x0, w, planSmall, false, MutedText)
+	if m.WhatIf != "" {
+		l.para("After includes the what-if: "+m.WhatIf+".", x0, w, planSmall, false, WarnText)
+	}
+	tw := math.Min(w, tableWidth(ps)+3*gap)
+	per := max(1, min(len(ps), int((w+3*gap)/(tw+3*gap))))
+	top, bottom := l.y, l.y
+	for i, p := range ps {
+		col := i % per
+		if col == 0 && i > 0 {
+			top = bottom
+			l.Rules = append(l.Rules, Rect{Point{x0, top + gap/4}, Point{x0 + w, top + gap/4}})
+		}
+		l.y = top
+		l.position(p, x0+float64(col)*(tw+3*gap), tw)
+		bottom = math.Max(bottom, l.y)
+	}
+	l.y = bottom + gap
+}
+
+// position lays out one position's part of the table in the width w from
+// x0: its name with the heads of the columns, then lead and cut-off, each
+// front and back.
+func (l *planLayouter) position(p PlanPosition, x0, w float64) {
+	c := layoutColumns([]PlanPosition{p}, x0, w)
+	step := lineStep(planSmall)
+	l.y += gap / 2
+	l.put(x0, l.y, p.Name, planSmall, true, false, InkText)
+	if x0+TextWidth(p.Name, planSmall, true)+c.sp > c.nowR-TextWidth("now", planSmall, false) {
+		l.y += step
+	}
+	l.put(c.nowR, l.y, "now", planSmall, false, true, MutedText)
+	l.put(c.afterR, l.y, "after", planSmall, false, true, MutedText)
+	l.y += step
+	for q := 0; q < 2; q++ {
+		l.put(x0, l.y, qtyName(q), planSmall, false, false, MutedText)
+		if !c.apart {
+			l.y += step
+		}
+		for k, end := range p.Ends {
+			v := end.Lead
+			if q == 1 {
+				v = end.CutOff
+			}
+			l.put(c.endX, l.y, endName(k), planSmall, false, false, InkText)
+			l.put(c.nowR, l.y, v.Now, planSmall, false, true, InkText)
+			if v.Doubt {
+				l.put(c.sigmaX, l.y, "±"+v.Sigma, planSmall, false, false, MutedText)
+			}
+			l.put(c.arrowX, l.y, "→", planSmall, false, false, MutedText)
+			l.put(c.afterR, l.y, v.After, planSmall, false, true, InkText)
+			l.y += step
+		}
+	}
+}
+
+// planColumns are the x places of the plan table's columns: the end's
+// name (left), now (right edge), the +/- (left), the arrow (left) and
+// after (right edge); apart says the quantity and the end share a line.
+type planColumns struct {
+	endX, nowR, sigmaX, arrowX, afterR, sp float64
+	apart                                  bool
+}
+
+// columnWidths are the widest texts of the plan table's columns.
+type columnWidths struct {
+	qty, end, now, sigma, arrow, after, sp float64
+}
+
+// measureColumns measures the plan table's columns over ps.
+func measureColumns(ps []PlanPosition) columnWidths {
+	width := func(s string) float64 { return TextWidth(s, planSmall, false) }
+	cw := columnWidths{qty: math.Max(width(qtyName(0)), width(qtyName(1))), now: width("now"), after: width("after"),
+		arrow: width("→"), sp: width("  ")}
+	for _, p := range ps {
+		for k, e := range p.Ends {
+			cw.end = math.Max(cw.end, width(endName(k)))
+			for _, v := range []PlanValue{e.Lead, e.CutOff} {
+				cw.now = math.Max(cw.now, width(v.Now))
+				cw.after = math.Max(cw.after, width(v.After))
+				if v.Doubt {
+					cw.sigma = math.Max(cw.sigma, width("±"+v.Sigma)+width(" "))
+				}
+			}
+		}
+	}
+	return cw
+}
+
+// tableWidth is the width the plan table's columns need side by side.
+func tableWidth(ps []PlanPosition) float64 {
+	c := measureColumns(ps)
+	return c.qty + c.sp + c.end + c.sp + c.now + c.sigma + c.sp + c.arrow + c.sp + c.after
+}
+
+// layoutColumns places the plan table's columns in the width w from x0,
+// from the right: after, the arrow, the +/-, now; the labels at the left.
+func layoutColumns(ps []PlanPosition, x0, w float64) planColumns {
+	cw := measureColumns(ps)
+	c := planColumns{sp: cw.sp, afterR: x0 + w}
+	c.arrowX = c.afterR - cw.after - cw.sp - cw.arrow
+	c.sigmaX = c.arrowX - cw.sp - cw.sigma + TextWidth(" ", planSmall, false)
+	c.nowR = c.arrowX - cw.sp - cw.sigma
+	c.endX = x0 + cw.qty + cw.sp
+	c.apart = c.endX+cw.end+cw.sp <= c.nowR-cw.now
+	if !c.apart {
+		c.endX = x0 + cw.sp
+	}
+	return c
+}
+
+// qtyName names the table's quantities: 0 lead, 1 cut-off.
+func qtyName(q int) string {
+	if q == 0 {
+		return "lead"
+	}
+	return "cut-off"
+}
+
+// endName names a cylinder end by its index: 0 front, 1 back.
+func endName(k int) string {
+	if k == 0 {
+		return "front"
+	}
+	return "back"
+}
+
+// notes lays out the plan's notes as bullets, then the next reading to
+// take under its own heading.
+func (l *planLayouter) notes(p *plan.Plan) {
+	var ns []string
+	for _, n := range p.Notes {
+		if n != p.NextReading {
+			ns = append(ns, n)
+		}
+	}
+	x0 := l.Inner.Min.X
+	indent := TextWidth("•  ", planSmall, false)
+	if len(ns) > 0 {
+		l.head("Notes")
+		for _, n := range ns {
+			l.put(x0, l.y, "•", planSmall, false, false, InkText)
+			l.para(n, x0+indent, l.Inner.W()-indent, planSmall, false, InkText)
+			l.y += 4
+		}
+	}
+	if p.NextReading != "" {
+		l.head("Next reading")
+		l.para(p.NextReading, x0, l.Inner.W(), planSmall, false, InkText)
+	}
+}
+
+// PlanPosition is one reverser position's row of the plan card's table.
+type PlanPosition struct {
+	Name string
+	Ends [2]PlanEnd // front, back
+}
+
+// PlanEnd is one end's lead and cut-off in the plan card's table.
+type PlanEnd struct {
+	Lead, CutOff PlanValue
+}
+
+// PlanValue is one event now and after, as the plan's words write it:
+// a lead as a bare number in the display unit, a cut-off in % of the
+// stroke ("never opens", "never closes" where it has none), and its one
+// standard deviation from the readings. Doubt says the +/- is worth
+// showing: a lead known to worse than 0.02 mm, a cut-off to worse than
+// 0.5 % (under a thou and half a per cent are what a setter can act on;
+// common practice, no source).
+type PlanValue struct {
+	Now, After, Sigma string
+	Doubt             bool
+}
+
+// Doubt thresholds of the plan card's +/-: see PlanValue.
+const (
+	leadDoubtMM = 0.02
+	cutDoubtPct = 0.5
+)
+
+// cutOffDigits are the decimals of a cut-off in % of the stroke, as the
+// plan's words give it.
+const cutOffDigits = 1
+
+// PlanTable returns the plan card's table for m: per position, each end's
+// lead and cut-off today and after (the what-if's after, when m is a
+// what-if), with the errors the plan gives today's. Empty without a plan.
+func PlanTable(m *Model) []PlanPosition {
+	if m == nil || m.Plan == nil {
+		return nil
+	}
+	var out []PlanPosition
+	for i, p := range m.Positions {
+		if !p.HasAfter {
+			continue
+		}
+		row := PlanPosition{Name: p.Notch.Name}
+		for k, end := range []setting.CylinderEnd{setting.Front, setting.Back} {
+			var sd plan.EndState
+			if i < len(m.Plan.Now) {
+				sd = m.Plan.Now[i].Front
+				if k == 1 {
+					sd = m.Plan.Now[i].Back
+				}
+			}
+			n, a := p.NowEvents.End(end), p.AfterEvents.End(end)
+			row.Ends[k] = PlanEnd{
+				Lead: PlanValue{Now: m.bareLength(n.Lead), After: m.bareLength(a.Lead), Sigma: m.bareLength(sd.LeadSigmaMM), Doubt: sd.LeadSigmaMM >= leadDoubtMM},
+				CutOff: PlanValue{Now: cutOffText(n), After: cutOffText(a), Sigma: fmt.Sprintf("%.*f", cutOffDigits, sd.CutOffSigmaPct),
+					Doubt: sd.CutOffSigmaPct >= cutDoubtPct},
+			}
+		}
+		out = append(out, row)
+	}
+	return out
+}
+
+// cutOffText is an end's cut-off in % of the stroke as a bare number, or
+// why it has none.
+func cutOffText(e setting.EndEvents) string {
+	switch {
+	case e.NeverOpens:
+		return "never opens"
+	case e.NeverCloses:
+		return "never closes"
+	}
+	return fmt.Sprintf("%.*f", cutOffDigits, e.CutOff.StrokePercent+0)
+}
+
+// bareLength writes a length in the model's display unit without the
+// unit.
+func (m *Model) bareLength(mm float64) string { return bareLength(mm, m.Unit) }
+
+// PlanCard draws the plan: each step in working order with a sketch of
+// the part and which way it goes (see StepSketch), the part and the
+// rounded amount in bold and the step in workshop words; then the leads
+// and cut-offs now and after, the notes and the next reading to take. It
+// returns each step's row as its hit rectangle (at least HitMin tall),
+// for choosing the step the what-if changes.
 func PlanCard(c Canvas, m *Model, box Rect, th Theme) []Rect {
+	return drawPlan(c, m, box, th, true)
+}
+
+// drawPlan draws the plan card; all as in layoutPlan.
+func drawPlan(c Canvas, m *Model, box Rect, th Theme, all bool) []Rect {
 	if !usable(box) {
 		return nil
 	}
-	l := LayoutPlan(box, m)
+	l := layoutPlan(box, m, all)
 	c.Fill(RoundRect(box, cardRadius), FillStyle{Color: th.Surface})
-	drawLines(c, Point{l.Inner.Min.X, l.TitleY}, l.Title, TextStyle{Color: th.Ink, Size: TitleSize, Bold: true})
+	for _, r := range l.Rules {
+		c.Stroke(segment(r.Min, r.Max), th.GridLine())
+	}
 	var hits []Rect
 	for k, sl := range l.Steps {
-		s := m.Plan.Steps[k]
 		c.Fill(RoundRect(sl.Icon, 8), FillStyle{Color: th.Background})
-		StepArrow(c, sl.Icon, s, th)
-		c.Text(sl.Amount, fmt.Sprintf("%d. %s", k+1, sl.AmountS), TextStyle{Color: th.Ink, Size: BodySize + 2, Bold: true, VAlign: Top})
-		drawLines(c, Point{sl.WordsX, sl.WordsY}, sl.Words, TextStyle{Color: th.Ink, Size: BodySize})
-		if sl.Row.Min.Y > l.Steps[0].Row.Min.Y && sl.Row.Min.X == l.Steps[0].Row.Min.X {
-			var sep Path
-			sep.MoveTo(Point{sl.Row.Min.X, sl.Row.Min.Y - gap/2})
-			sep.LineTo(Point{l.Inner.Max.X, sl.Row.Min.Y - gap/2})
-			c.Stroke(sep, th.GridLine())
-		}
+		StepSketch(c, sl.Icon, m.Plan.Steps[k], th)
 		hits = append(hits, sl.Row)
 	}
-	drawLines(c, Point{l.Inner.Min.X, l.NotesY}, l.Notes, TextStyle{Color: th.Muted, Size: BodySize})
+	DrawTexts(c, l.Texts, th)
 	return hits
 }
 
-// StepArrow draws the way a step goes in the square r: see PlanCard.
-// Screen right is toward the front cover, as in the motion drawing, so
-// forward running turns the wheel clockwise.
-func StepArrow(c Canvas, r Rect, s plan.Step, th Theme) {
-	ctr := Point{(r.Min.X + r.Max.X) / 2, (r.Min.Y + r.Max.Y) / 2}
-	half := r.W() / 2 * 0.72
-	line := LineStyle{Color: th.Accent, Width: 4}
-	part := LineStyle{Color: th.Ink, Width: 3}
-	switch s.Kind {
-	case session.ValveOnSpindle:
-		// The valve on its spindle, arrow toward the front (right) or back.
-		var sp Path
-		sp.MoveTo(Point{ctr.X - half, ctr.Y + 10})
-		sp.LineTo(Point{ctr.X + half, ctr.Y + 10})
-		c.Stroke(sp, part)
-		c.Fill(RoundRect(Rect{Point{ctr.X - 10, ctr.Y + 2}, Point{ctr.X + 10, ctr.Y + 18}}, 2), FillStyle{Color: th.Ink})
-		dir := math.Copysign(1, s.Amount)
-		arrow(c, Point{ctr.X - dir*half, ctr.Y - 10}, Point{ctr.X + dir*half, ctr.Y - 10}, line)
-	case session.EccentricAngle, session.ReturnCrankAngle:
-		// Clockwise on screen is forward running.
-		cw := s.Amount > 0
-		if s.Kind == session.EccentricAngle && s.Eccentric == session.BackwardEccentric {
-			cw = !cw
+// DrawTexts draws laid-out lines of text in the theme's colours.
+func DrawTexts(c Canvas, ts []PlacedText, th Theme) {
+	for _, t := range ts {
+		col := th.Ink
+		switch t.Role {
+		case MutedText:
+			col = th.Muted
+		case WarnText:
+			col = th.Warn
 		}
-		c.Stroke(Circle(ctr, half*0.45), part)
-		c.Fill(Circle(ctr, 3), FillStyle{Color: th.Ink})
-		turnArrow(c, ctr, half*0.85, cw, line)
-	default:
-		// A rod: arrows apart to lengthen, together to shorten.
-		var rod Path
-		rod.MoveTo(Point{ctr.X - half*0.45, ctr.Y + 10})
-		rod.LineTo(Point{ctr.X + half*0.45, ctr.Y + 10})
-		c.Stroke(rod, part)
-		c.Stroke(Circle(Point{ctr.X - half*0.45, ctr.Y + 10}, 4), part)
-		c.Stroke(Circle(Point{ctr.X + half*0.45, ctr.Y + 10}, 4), part)
-		if s.Amount > 0 {
-			arrow(c, Point{ctr.X - 4, ctr.Y - 10}, Point{ctr.X - half, ctr.Y - 10}, line)
-			arrow(c, Point{ctr.X + 4, ctr.Y - 10}, Point{ctr.X + half, ctr.Y - 10}, line)
-		} else {
-			arrow(c, Point{ctr.X - half, ctr.Y - 10}, Point{ctr.X - 5, ctr.Y - 10}, line)
-			arrow(c, Point{ctr.X + half, ctr.Y - 10}, Point{ctr.X + 5, ctr.Y - 10}, line)
+		s := TextStyle{Color: col, Size: t.Size, Bold: t.Bold, VAlign: Top}
+		if t.Right {
+			s.HAlign = Right
 		}
+		c.Text(t.At, t.Text, s)
 	}
 }
 
-// arrow strokes a straight arrow from a to b with a filled head at b.
-func arrow(c Canvas, a, b Point, s LineStyle) {
-	dx, dy := b.X-a.X, b.Y-a.Y
-	n := math.Hypot(dx, dy)
-	if !(n > 0) {
-		return
-	}
-	ux, uy := dx/n, dy/n
-	head := 3 * s.Width
-	var p Path
-	p.MoveTo(a)
-	p.LineTo(Point{b.X - ux*head*0.8, b.Y - uy*head*0.8})
-	c.Stroke(p, s)
-	arrowHead(c, b, ux, uy, head, s.Color)
-}
-
-// arrowHead fills a head of length h pointing along (ux, uy) with its tip
-// at tip.
-func arrowHead(c Canvas, tip Point, ux, uy, h float64, col color.RGBA) {
-	var p Path
-	p.MoveTo(tip)
-	p.LineTo(Point{tip.X - ux*h - uy*h*0.6, tip.Y - uy*h + ux*h*0.6})
-	p.LineTo(Point{tip.X - ux*h + uy*h*0.6, tip.Y - uy*h - ux*h*0.6})
-	p.Close()
-	c.Fill(p, FillStyle{Color: col})
-}
-
-// turnArrow strokes three quarters of a circle about ctr with a head at
-// its end, turning clockwise on screen when cw.
-func turnArrow(c Canvas, ctr Point, r float64, cw bool, s LineStyle) {
-	start, sweep := -200.0, 250.0
-	if !cw {
-		start, sweep = 20, -250
-	}
-	var p Path
-	Arc(&p, ctr, r, start, sweep*0.92)
-	c.Stroke(p, s)
-	end := (start + sweep) * math.Pi / 180
-	tip := Point{ctr.X + r*math.Cos(end), ctr.Y + r*math.Sin(end)}
-	// Tangent along the sweep.
-	sg := math.Copysign(1, sweep)
-	ux, uy := -math.Sin(end)*sg, math.Cos(end)*sg
-	arrowHead(c, tip, ux, uy, 3*s.Width, s.Color)
-}
+// unitWords names the model's display unit in a sentence.
+func unitWords(m *Model) string { return unitWordsOf(m.Unit) }

@@ -29,17 +29,32 @@ func TestAxesMapping(t *testing.T) {
 	}
 }
 
-func TestButtonLabelShrinksToFit(t *testing.T) {
+// A button's label keeps its size when it fits, takes two lines at 15 px
+// or more when one is too short (each line within the button), and only
+// a label too long for two lines shrinks to 14 on one.
+func TestButtonLabelFits(t *testing.T) {
 	th := Light()
 	var got []TextStyle
 	c := textSpy{texts: &got}
 	Button(c, Rect{Point{0, 0}, Point{300, 56}}, "I understand", th)
-	Button(c, Rect{Point{0, 0}, Point{120, 56}}, "Acknowledge all cautions", th)
-	if got[0].Size != ButtonSize {
-		t.Errorf("a short label keeps size %d, got %g", ButtonSize, got[0].Size)
+	if len(got) != 1 || got[0].Size != ButtonSize {
+		t.Errorf("a short label keeps size %d on one line, got %+v", ButtonSize, got)
 	}
-	if got[1].Size != BodySize {
-		t.Errorf("a label too long for the button shrinks to %d at most, got %g", BodySize, got[1].Size)
+	got = got[:0]
+	Button(c, Rect{Point{0, 0}, Point{120, 56}}, "Acknowledge all cautions", th)
+	if len(got) != 2 || got[0].Size < 15 || got[0].Size != got[1].Size {
+		t.Errorf("a label too long for one line takes two at 15 or more, got %+v", got)
+	}
+	lines, size := ButtonLines("Acknowledge all cautions", 104, 52)
+	for _, l := range lines {
+		if TextWidth(l, size, true) > 104 {
+			t.Errorf("line %q is wider than the button", l)
+		}
+	}
+	got = got[:0]
+	Button(c, Rect{Point{0, 0}, Point{120, 56}}, "Acknowledge every one of the cautions written above", th)
+	if len(got) != 1 || got[0].Size != BodySize {
+		t.Errorf("a label too long for two lines shrinks to %d on one, got %+v", BodySize, got)
 	}
 }
 

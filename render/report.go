@@ -261,8 +261,9 @@ func cylinderReport(pg *page, m *Model, title string) {
 		pg.y += gap
 	}
 	if m.Plan != nil {
-		pl := LayoutPlan(Rect{Max: Point{x1 - x0, 1e6}}, m)
-		pg.card(pl.NeedH, func(b Rect) { PlanCard(c, m, b, th) })
+		// The steps alone: the events table and the notes follow.
+		pl := layoutPlan(Rect{Max: Point{x1 - x0, 1e6}}, m, false)
+		pg.card(pl.NeedH, func(b Rect) { drawPlan(c, m, b, th, false) })
 		for _, n := range m.Plan.Notes {
 			pg.para(n, ink)
 			pg.y += 4

@@ -172,6 +172,53 @@ func DrawScreen(c Canvas, m *Model, s Screen, box Rect, th Theme) ScreenHits {
 	return hits
 }
 
+// ScreenNeedH returns the height DrawScreen needs for s in box: the
+// position tabs and the diagram at its least (a card of its own height,
+// a plot or drawing at its least size). A box at least this tall holds
+// everything drawn; the app makes a shorter screen scroll. A box made
+// taller may turn from wide to tall, which moves the tabs from the side
+// to the top: the height is the one for the box it makes.
+func ScreenNeedH(m *Model, s Screen, box Rect) float64 {
+	if !usable(box) || m == nil {
+		return 0
+	}
+	side := box.W() > box.H()
+	need := screenNeed(m, s, box, side)
+	if grown := box.H() < need && side && box.W() <= need; grown {
+		need = screenNeed(m, s, box, false)
+	}
+	return need
+}
+
+// screenNeed is ScreenNeedH with the position tabs at the side or on top.
+func screenNeed(m *Model, s Screen, box Rect, side bool) float64 {
+	rest := box
+	if s.Diagram.perPosition() && len(m.Positions) > 1 {
+		if side {
+			rest.Min.X += sideTabsW + gap
+		} else {
+			_, h := LayoutTabs(box, m.PositionNames())
+			rest.Min.Y += h
+		}
+	}
+	i := s.Position
+	if i < 0 || i >= len(m.Positions) {
+		i = 0
+	}
+	need := 0.0
+	switch s.Diagram {
+	case ValveCurveDiagram:
+		need = LayoutValveCurve(rest, m, i).NeedH
+	case BalanceDiagram:
+		need = LayoutBalance(rest, m).NeedH
+	case MotionDiagram:
+		need = LayoutMotion(rest, m, i).NeedH
+	case PlanDiagram:
+		need = LayoutPlan(rest, m).NeedH
+	}
+	return rest.Min.Y - box.Min.Y + need
+}
+
 // LayoutScreen returns the touch targets DrawScreen would draw for s in
 // box, without drawing: the app learns where a tap lands from the same
 // layout the picture uses.

@@ -26,14 +26,20 @@
 // started), evenbeatTheme ("light" or "dark"), evenbeatStatus (the saving
 // state), evenbeatField (the keypad's field), evenbeatNote (the sentence
 // under the keypad's entry: a value held, or asked again), evenbeatTargets (JSON: label
-// and rect of every touch target) and evenbeatPlanText (the plan's words).
+// and rect of every touch target) and evenbeatPlanText (the plan's words);
+// the hidden live region #evenbeat-words mirrors every screen in words
+// (ui.App.Mirror), and the theme follows the page's colour scheme while
+// the app runs.
 // The page may hand a session file's text to window.evenbeatImport.
 // The app also publishes evenbeatDraws (frames really drawn),
 // evenbeatDrawMs (the Go side of those frames, in all), evenbeatPlanMs
 // (the last fit, plan and diagrams' model: the time until the plan can be
 // drawn), evenbeatOtherMs (its other priority's plan, made on the tick
 // after the plan's first frame), evenbeatSettled, evenbeatName, evenbeatNaming,
-// evenbeatUpdateReady, evenbeatShare and evenbeatStoreError. The page
+// evenbeatUpdateReady, evenbeatShare, evenbeatShareDrawMs (the report's
+// making, in ms), evenbeatShareSignAt and evenbeatShareFileAt
+// (performance.now() at the first frame showing the report's progress
+// sign and when its file was ready) and evenbeatStoreError. The page
 // (site/index.html) offers a waiting new version through evenbeatOnUpdate
 // and evenbeatActivateUpdate, and shares the report (a PDF the app makes)
 // in evenbeatShareFile. The engine-name box is

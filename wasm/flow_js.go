@@ -3,6 +3,7 @@
 package main
 
 import (
+	"strings"
 	"sync"
 	"syscall/js"
 	"time"
@@ -37,8 +38,14 @@ type flowGame struct {
 	mu      sync.Mutex
 	backs   int      // popstate events not yet handled
 	imports [][]byte // files chosen, not yet imported
-	live    js.Value // the hidden live region mirroring the plan's words
-	draws   int      // frames really drawn, published as evenbeatDraws
+	live    js.Value // the hidden live region mirroring the screen (ui.App.Mirror)
+	mirror  []string // its lines, as shown
+	// mirrorDue: the screen changed since the live region was brought up
+	// to date, at mirrorAt.
+	mirrorDue bool
+	mirrorAt  time.Time
+	dark      *bool // the page's colour scheme changed to dark (true) or light, for the next tick (under mu)
+	draws     int   // frames really drawn, published as evenbeatDraws
 	// drawTime is the Go side of all those frames (the app drawing through
 	// ebiten, not the GPU's work), published as evenbeatDrawMs.
 	drawTime time.Duration
@@ -67,8 +74,9 @@ type flowGame struct {
 	mic             *microphone
 }
 
-// runFlow starts the app.
-func runFlow(st *store, th render.Theme) error {
+// runFlow starts the app in theme th; dark is the page's media query for
+// a dark colour scheme, whose changes the app follows while it runs.
+func runFlow(st *store, th render.Theme, dark js.Value) error {
 	g := &flowGame{game: newGame(), window: js.Global(), gestureAt: map[string]render.Rect{}, mic: &microphone{}}
 	g.queue.onUp = g.tapInGesture
 	opt := ui.Options{Theme: th, OnExport: download, OnImport: g.chooseFile,
@@ -82,6 +90,15 @@ func runFlow(st *store, th render.Theme) error {
 	g.window.Set("evenbeatDraws", 0)
 	g.window.Set("evenbeatPlanMs", -1)
 	g.listenForUpdate()
+	// The OS's colour scheme may change while the app runs (dusk, a
+	// setting): the app takes the new theme on the next tick.
+	dark.Call("addEventListener", "change", js.FuncOf(func(_ js.Value, args []js.Value) any {
+		d := len(args) > 0 && args[0].Get("matches").Bool()
+		g.mu.Lock()
+		g.dark = &d
+		g.mu.Unlock()
+		return nil
+	}))
 	// The page (a dropped file, a test) may hand over a session file's
 	// text: it is imported on the next tick like a chosen file.
 	g.window.Set("evenbeatImport", js.FuncOf(func(_ js.Value, args []js.Value) any {
@@ -118,9 +135,14 @@ func (g *flowGame) Update() error {
 		g.ui.Resize(float64(g.outW), float64(g.outH))
 	}
 	g.mu.Lock()
-	backs, files := g.backs, g.imports
-	g.backs, g.imports = 0, nil
+	backs, files, dark := g.backs, g.imports, g.dark
+	g.backs, g.imports, g.dark = 0, nil, nil
 	g.mu.Unlock()
+	if dark != nil {
+		th, name := themeOf(*dark)
+		g.ui.SetTheme(th)
+		g.window.Set("evenbeatTheme", name)
+	}
 	hist := g.window.Get("history")
 	for range backs {
 		if g.ui.Back() {
@@ -142,6 +164,7 @@ func (g *flowGame) Update() error {
 	if g.ui.Update() {
 		g.publish()
 	}
+	g.mirrorTick()
 	g.mu.Lock()
 	g.chooserOpened, g.copiedInGesture = false, false // the tap has been handled
 	g.mu.Unlock()
@@ -161,8 +184,8 @@ func uiIntent(in intent) ui.Intent {
 
 // publish tells the page (and tests) the screen, the saving state, the
 // touch targets in CSS px (and whether each is a chosen option) and the
-// plan's words, and mirrors the words into
-// the live region.
+// plan's words, and marks the live region due to mirror the screen
+// (mirrorTick).
 func (g *flowGame) publish() {
 	g.window.Set("evenbeatState", g.ui.Screen().String())
 	g.window.Set("evenbeatStatus", g.ui.Status())
@@ -215,9 +238,54 @@ func (g *flowGame) publish() {
 	g.mu.Lock()
 	g.nameNow = name
 	g.mu.Unlock()
-	if g.live.Truthy() && g.live.Get("textContent").String() != words {
-		g.live.Set("textContent", words)
+	g.mirrorDue = true
+}
+
+// mirrorEvery is the least time between two changes of the live region:
+// a finger dragging the what-if changes the screen at every frame, and a
+// screen reader is not to be flooded with the figures of each.
+const mirrorEvery = 500 * time.Millisecond
+
+// mirrorTick brings the live region up to date with the screen when it
+// changed, at once after a quiet spell and then at most every
+// mirrorEvery; while the plan waits for its other priority, the mirror
+// it had is left as it was.
+func (g *flowGame) mirrorTick() {
+	if !g.mirrorDue || time.Since(g.mirrorAt) < mirrorEvery || g.ui.Screen() == ui.Plan && g.ui.PlanPending() {
+		return
 	}
+	g.mirrorDue, g.mirrorAt = false, time.Now()
+	g.showMirror(g.ui.Mirror())
+}
+
+// showMirror puts the screen's words into the live region, a line per
+// element, changing only the lines that differ from those shown: a
+// screen reader then announces what changed (a typed digit, a warning,
+// a new screen's lines), not the whole screen at each change, and the
+// region's text is the whole mirror.
+func (g *flowGame) showMirror(text string) {
+	if !g.live.Truthy() {
+		return
+	}
+	lines := strings.SplitAfter(text, "\n")
+	if len(lines) > 0 && lines[len(lines)-1] == "" {
+		lines = lines[:len(lines)-1]
+	}
+	kids := g.live.Get("children")
+	for i, l := range lines {
+		switch {
+		case i >= len(g.mirror):
+			el := g.window.Get("document").Call("createElement", "div")
+			el.Set("textContent", l)
+			g.live.Call("appendChild", el)
+		case g.mirror[i] != l:
+			kids.Index(i).Set("textContent", l)
+		}
+	}
+	for n := len(g.mirror); n > len(lines); n-- {
+		g.live.Call("removeChild", kids.Index(n-1))
+	}
+	g.mirror = lines
 }
 
 // Draw draws the app when it changed.
@@ -259,12 +327,13 @@ func (g *flowGame) Draw(screen *ebiten.Image) {
 }
 
 // liveRegion adds a visually hidden element that screen readers announce
-// when its text changes.
+// when its lines change.
 func liveRegion() js.Value {
 	doc := js.Global().Get("document")
 	el := doc.Call("createElement", "div")
 	el.Set("id", "evenbeat-words")
 	el.Call("setAttribute", "aria-live", "polite")
+	el.Call("setAttribute", "aria-atomic", "false") // the lines changed, not all
 	el.Call("setAttribute", "style", "position:absolute;left:-10000px;width:1px;height:1px;overflow:hidden")
 	doc.Get("body").Call("appendChild", el)
 	return el

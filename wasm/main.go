@@ -10,6 +10,14 @@ import (
 	"evenbeat/render"
 )
 
+// themeOf is the palette for the page's colour scheme, and its name.
+func themeOf(dark bool) (render.Theme, string) {
+	if dark {
+		return render.Dark(), "dark"
+	}
+	return render.Light(), "light"
+}
+
 func main() {
 	// For the figures: when the WebAssembly program started running.
 	js.Global().Set("evenbeatGoStart", js.Global().Get("performance").Call("now"))
@@ -19,14 +27,12 @@ func main() {
 		println(err.Error())
 		js.Global().Set("evenbeatStoreError", err.Error())
 	}
-	th, name := render.Light(), "light"
-	if js.Global().Call("matchMedia", "(prefers-color-scheme: dark)").Get("matches").Bool() {
-		th, name = render.Dark(), "dark"
-	}
+	dark := js.Global().Call("matchMedia", "(prefers-color-scheme: dark)")
+	th, name := themeOf(dark.Get("matches").Bool())
 	js.Global().Set("evenbeatTheme", name)
 	ebiten.SetScreenClearedEveryFrame(false)
 	ebiten.SetWindowTitle("Evenbeat")
-	if err := runFlow(st, th); err != nil {
+	if err := runFlow(st, th, dark); err != nil {
 		println(err.Error())
 	}
 }

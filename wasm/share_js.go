@@ -78,8 +78,10 @@ func (g *flowGame) shareTick() {
 		return
 	}
 	sh.job = nil
-	// For the figures: laying out and writing the file, in ms.
+	// For the figures: laying out and writing the file, in ms, and when
+	// it was ready.
 	g.window.Set("evenbeatShareDrawMs", float64(time.Since(j.started).Microseconds())/1000)
+	g.window.Set("evenbeatShareFileAt", g.window.Get("performance").Call("now"))
 	if j.err != nil {
 		println("sharing the report:", j.err.Error())
 		g.window.Set("evenbeatShare", "failed: "+j.err.Error())
@@ -116,9 +118,13 @@ func (j *shareJob) run() {
 // the screen: what is happening and how far it has come.
 func (g *flowGame) drawShareProgress() {
 	sh := &g.share
+	was := sh.shown
 	sh.shown = sh.busy()
 	if !sh.shown {
 		return
+	}
+	if !was { // for the figures: the first frame that shows the sign
+		g.window.Set("evenbeatShareSignAt", g.window.Get("performance").Call("now"))
 	}
 	done := 0.0
 	if j := sh.job; j != nil {

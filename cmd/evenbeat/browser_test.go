@@ -71,7 +71,7 @@ type flowTarget struct {
 }
 
 // targets returns the touch targets the app publishes.
-func targets(t *testing.T, ctx context.Context) []flowTarget {
+func targets(t testing.TB, ctx context.Context) []flowTarget {
 	t.Helper()
 	var ts []flowTarget
 	if err := json.Unmarshal([]byte(eval[string](t, ctx, "window.evenbeatTargets")), &ts); err != nil {
@@ -82,7 +82,7 @@ func targets(t *testing.T, ctx context.Context) []flowTarget {
 
 // tapLabel taps the published target whose label starts with label: a
 // finger held longer than a frame.
-func tapLabel(t *testing.T, ctx context.Context, label string) {
+func tapLabel(t testing.TB, ctx context.Context, label string) {
 	t.Helper()
 	ts := targets(t, ctx)
 	for _, tg := range ts {
@@ -253,7 +253,8 @@ func TestPhone(t *testing.T) {
 	}
 	eval[bool](t, ctx, "(window.evenbeatImport("+strconv.Quote(string(b))+"), true)")
 	waitFor(t, ctx, 90*time.Second, `window.evenbeatState === "plan" && window.evenbeatPlanText.includes("Plan for Brackenfold")`)
-	if words := eval[string](t, ctx, `document.getElementById("evenbeat-words").textContent`); !strings.Contains(words, "Plan for Brackenfold") {
+	waitFor(t, ctx, appAnswer, liveRegionJS+`.includes(": the plan\n")`)
+	if words := eval[string](t, ctx, liveRegionJS); !strings.Contains(words, "Next reading: ") {
 		t.Errorf("the live region does not hold the plan: %q", words)
 	}
 	layout := curveLayout(t, th)

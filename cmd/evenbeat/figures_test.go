@@ -2,7 +2,6 @@ package main
 
 import (
 	"context"
-	"math"
 	"net/http"
 	"net/http/httptest"
 	"os"
@@ -152,9 +151,9 @@ func dragRate(b *testing.B, ctx context.Context, x0, x1, y float64, d time.Durat
 }
 
 // whatIfSlider finds, natively, where the plan's Balance card puts its
-// what-if slider for the demo session on the phone: the band under the
-// "What if" button where a drag changes the amount. It returns the band's
-// ends and middle height (CSS px).
+// what-if slider for the demo session on the phone: the track, a target
+// named "What if: ..." by the change it sets, where a drag changes the
+// amount. It returns the track's ends and middle height (CSS px).
 func whatIfSlider(b *testing.B) (x0, x1, y float64) {
 	b.Helper()
 	src, err := os.ReadFile(demoSessionFile)
@@ -167,37 +166,20 @@ func whatIfSlider(b *testing.B) (x0, x1, y float64) {
 		b.Fatal(err)
 	}
 	a.Update()
-	label := func(prefix string) (render.Rect, string) {
+	label := func(prefix string) render.Rect {
 		for _, tg := range a.Targets() {
 			if strings.HasPrefix(tg.Label, prefix) {
-				return tg.Rect, tg.Label
+				return tg.Rect
 			}
 		}
 		b.Fatalf("no target %q on the plan", prefix)
-		return render.Rect{}, ""
+		return render.Rect{}
 	}
-	r, _ := label("Balance")
+	r := label("Balance")
 	a.Handle(ui.Intent{Kind: ui.Tap, At: render.Point{X: (r.Min.X + r.Max.X) / 2, Y: (r.Min.Y + r.Max.Y) / 2}})
 	a.Update()
-	btn, before := label("What if")
-	lo, hi := math.Inf(1), math.Inf(-1)
-	for yy := btn.Max.Y; yy < btn.Max.Y+120; yy += 2 {
-		// A drag at the slider's left end sets the least amount; the
-		// label says the amount.
-		a.Handle(ui.Intent{Kind: ui.Drag, At: render.Point{X: btn.Min.X + 1, Y: yy}, Delta: render.Point{X: 1}})
-		a.Update()
-		if _, now := label("What if"); now != before {
-			lo, hi = math.Min(lo, yy), math.Max(hi, yy)
-			if err := a.SetWhatIf(0, 0); err != nil { // back to where it was, for the next probe
-				b.Fatal(err)
-			}
-			_, before = label("What if")
-		}
-	}
-	if math.IsInf(lo, 1) {
-		b.Fatal("no drag under the What if button moves the what-if amount")
-	}
-	return btn.Min.X + 8, btn.Max.X - 8, (lo + hi) / 2
+	track := label("What if")
+	return track.Min.X + 8, track.Max.X - 8, (track.Min.Y + track.Max.Y) / 2
 }
 
 // BenchmarkFrameRate prints the frames really drawn per second on the
@@ -364,4 +346,65 @@ func BenchmarkPlanLatency(b *testing.B) {
 	b.ReportMetric(burst[len(burst)/2], "plan-ms-burst-median")
 	b.ReportMetric(reload[len(reload)/2], "plan-ms-reload-median")
 	b.ReportMetric(other[len(other)/2], "other-ms-median")
+}
+
+// BenchmarkShareReport prints how soon Share report answers a tap on the
+// demo session (the whole engine: both cylinders and the beat), in
+// headless Chromium as a 3x phone with touch: from the finger's lift
+// (touchend) to the first frame that shows the report's progress sign
+// (window.evenbeatShareSignAt; goal: within 100 ms) and to the PDF ready
+// for the share sheet (window.evenbeatShareFileAt; goal: under 3 s),
+// median and worst, and the report's own making (evenbeatShareDrawMs).
+// The share sheet is a stub that keeps the file. Run it alone with
+//
+//	go test -run '^$' -bench ShareReport -benchtime 3x ./cmd/evenbeat
+func BenchmarkShareReport(b *testing.B) {
+	needChromium(b)
+	m := startServer(b)
+	src, err := os.ReadFile(demoSessionFile)
+	if err != nil {
+		b.Fatal(err)
+	}
+	ctx, closeBrowser := newBrowser(b, b.TempDir())
+	defer closeBrowser()
+	within(b, ctx, 90*time.Second, "opening "+m.URL, chromedpNavigate(m.URL))
+	waitFor(b, ctx, 90*time.Second, `window.evenbeatDrawn === "engines"`)
+	eval[bool](b, ctx, "(window.evenbeatImport("+strconv.Quote(string(src))+"), true)")
+	waitFor(b, ctx, 90*time.Second, `window.evenbeatDrawn === "plan" && window.evenbeatSettled`)
+	eval[bool](b, ctx, stubShareJS)
+	eval[bool](b, ctx, `(addEventListener("touchend", () => { window.evenbeatLiftAt = performance.now(); }, {capture: true}), true)`)
+	const done = `window.evenbeatShare === "shared" || window.evenbeatShare === "downloaded" || (window.evenbeatShare || "").startsWith("failed")`
+	var sign, file, making []float64
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		tapLabel(b, ctx, "Menu")
+		waitFor(b, ctx, appAnswer, `window.evenbeatDrawn === "menu"`)
+		time.Sleep(time.Second) // a user's pause, the menu's frame on the screen
+		eval[bool](b, ctx, `(window.evenbeatShare = "", window.evenbeatShareSignAt = undefined, window.evenbeatShareFileAt = undefined, true)`)
+		tapLabel(b, ctx, "Share report")
+		lift := eval[float64](b, ctx, "window.evenbeatLiftAt") // before a tap on the page's own Share
+		waitFor(b, ctx, appAnswer, done+` || window.evenbeatShare === "asking"`)
+		if eval[string](b, ctx, "window.evenbeatShare") == "asking" {
+			tapElement(b, ctx, "evenbeat-share-ok")
+			waitFor(b, ctx, 30*time.Second, done)
+		}
+		if how := eval[string](b, ctx, "window.evenbeatShare"); how != "shared" {
+			b.Fatalf("sharing the report: %s", how)
+		}
+		sign = append(sign, eval[float64](b, ctx, "window.evenbeatShareSignAt")-lift)
+		file = append(file, eval[float64](b, ctx, "window.evenbeatShareFileAt")-lift)
+		making = append(making, eval[float64](b, ctx, "window.evenbeatShareDrawMs"))
+		tapLabel(b, ctx, "Plan")
+		waitFor(b, ctx, appAnswer, `window.evenbeatDrawn === "plan"`)
+	}
+	b.StopTimer()
+	b.Logf("share report, ms from the lift: to the progress sign's frame %v, to the file %v; the report's making %v", sign, file, making)
+	for _, x := range [][]float64{sign, file, making} {
+		sort.Float64s(x)
+	}
+	b.ReportMetric(sign[len(sign)/2], "sign-ms-median")
+	b.ReportMetric(sign[len(sign)-1], "sign-ms-worst")
+	b.ReportMetric(file[len(file)/2], "file-ms-median")
+	b.ReportMetric(file[len(file)-1], "file-ms-worst")
+	b.ReportMetric(making[len(making)/2], "making-ms-median")
 }

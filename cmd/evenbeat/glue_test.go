@@ -304,7 +304,7 @@ func slowTapLabel(t *testing.T, ctx context.Context, label string) {
 }
 
 // touch presses one finger at (x, y) CSS px for 150 ms, allowing a minute.
-func touch(t *testing.T, ctx context.Context, x, y float64) {
+func touch(t testing.TB, ctx context.Context, x, y float64) {
 	t.Helper()
 	start := time.Now()
 	ev := func(typ input.DispatchTouchEventType, pts []*input.TouchPoint) chromedp.Action[chromedp.Void] {
@@ -319,7 +319,7 @@ func touch(t *testing.T, ctx context.Context, x, y float64) {
 }
 
 // tapElement taps the middle of the element with the given id.
-func tapElement(t *testing.T, ctx context.Context, id string) {
+func tapElement(t testing.TB, ctx context.Context, id string) {
 	t.Helper()
 	r := eval[[]float64](t, ctx, `(r => [r.x + r.width / 2, r.y + r.height / 2])(document.getElementById(`+strconv.Quote(id)+`).getBoundingClientRect())`)
 	touch(t, ctx, r[0], r[1])

@@ -114,7 +114,10 @@
 // notch of a cut-off plan always fully). A mean-lead term holds the lead
 // at Options.TargetLeadMM in full gear, or at the drawing's, only where
 // an eccentric sheave may be turned, since nothing else changes the lead
-// itself.
+// itself. Where the lead after the plan misses the target by more than
+// 0.02 mm in full gear, a note says why (no sheave the profile lets the
+// plan turn for that gear, Walschaerts gear's combination lever, a limit,
+// whole steps) and what lead the plan gives instead (target.go).
 //
 // Eccentric sheaves are turned only for a target lead, when the mean lead
 // of the gear an eccentric drives is far from the drawing's (a slipped
@@ -155,6 +158,16 @@
 // the linkage solved afresh, and the notes say what rounding leaves: how
 // far apart each position stays, and the step of the adjuster that acts
 // most there.
+//
+// A step's words say what to change and by how much, then how: what to
+// slacken (the nut on the valve's other side, a fork end's lock nut and
+// pin, a sheave's grub screws, the return crank's pinch bolt), which way
+// to turn as seen from a stated place (the front of the engine for the
+// valve's nuts, the fork end for a rod, the engine's right-hand side for
+// a sheave or crank: front to the right, running forward clockwise, as
+// the app draws the engine), the amount in turns and flats or in mm round
+// the rim, and what to lock again. Threads are taken as right-hand, and
+// the words say so. StepFor words a what-if's change the same way.
 //
 // Angularity makes equal leads and equal cut-offs impossible at once:
 // every plan is also made with the other priority (Plan.Other), and a note

@@ -290,11 +290,9 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	if plan.Recheck == nil {
 		plan.Recheck = []Residual{}
 	}
-	if opt.TargetLeadMM != nil && !canLead {
-		notes = append(notes, "The lead cannot be brought to the target: only an eccentric's angle changes the lead, and the profile allows none; the plan shares the lead between the ends.")
-	}
 	plan.Notes = append(plan.Notes, fit.RecheckMessages(opt.Unit)...)
 	plan.Notes = append(plan.Notes, fit.Findings(opt.Unit)...)
+	targetAt := len(plan.Notes) // where a target lead not met is said
 	plan.Notes = append(plan.Notes, notes...)
 
 	if err := ev.setKnobs(p, ks, fit); err != nil {
@@ -320,6 +318,10 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 		plan.sets.after = append(plan.sets.after, main.qAft[i].ev)
 	}
 	plan.Notes = append(plan.Notes, main.notes...)
+	if opt.TargetLeadMM != nil {
+		missed := targetNotes(*opt.TargetLeadMM, spec.Gear.Kind, ks, ps, main.after, main.steps, opt.Unit)
+		plan.Notes = append(plan.Notes[:targetAt:targetAt], append(missed, plan.Notes[targetAt:]...)...)
+	}
 	other := EqualCutOffs
 	if opt.Priority == EqualCutOffs {
 		other = EqualLeads
@@ -715,7 +717,15 @@ func signWords(k session.AdjustmentKind, kind string) string {
 	return "+ = lengthened"
 }
 
-// stepWords writes a step the way a setter does it.
+// stepWords writes a step the way a setter does it: what to change and
+// by how much (with the plan's +/- and any limit), then how: the part to
+// slacken, which way to turn it as seen from a stated place, the amount
+// in turns and flats of the thread or in mm round the sheave's rim, and
+// what to lock again. Threads are taken as right-hand (common practice,
+// no source) and the words say so; a sheave's or crank's way is given
+// as seen from the engine's right-hand side, front to the right, where
+// running forward turns the wheels clockwise (as the app's drawings
+// show the engine).
 func stepWords(s Step, unit session.Unit) string {
 	amt := math.Abs(s.Amount)
 	var b strings.Builder
@@ -731,22 +741,7 @@ func stepWords(s Step, unit session.Unit) string {
 		if s.Amount < 0 {
 			way = "Retard"
 		}
-		dir := "the running direction it drives"
-		if s.Eccentric == session.BackwardEccentric {
-			dir = "the backward running direction"
-		} else if s.Eccentric == session.ForwardEccentric {
-			dir = "the forward running direction"
-		}
-		turn := "ahead in"
-		if s.Amount < 0 {
-			turn = "back against"
-		}
 		fmt.Fprintf(&b, "%s the %s %.2f deg", way, s.Part, amt)
-		if s.RimMM != 0 {
-			fmt.Fprintf(&b, ": turn it %s round the rim, %s %s", length(math.Abs(s.RimMM), unit), turn, dir)
-		} else {
-			fmt.Fprintf(&b, ": turn it %s %s", turn, dir)
-		}
 	case session.ReturnCrankAngle:
 		turn := "in the forward running direction"
 		if s.Amount < 0 {
@@ -760,10 +755,6 @@ func stepWords(s Step, unit session.Unit) string {
 		}
 		fmt.Fprintf(&b, "%s the %s %s", way, s.Part, length(amt, unit))
 	}
-	if s.Turns != 0 || s.Flats != 0 {
-		b.WriteString(": ")
-		b.WriteString(turnsWords(s.Turns, s.Flats, s.perTurn))
-	}
 	if s.SigmaAmount > 0 {
 		if s.Unit == "deg" {
 			fmt.Fprintf(&b, " (+/- %.2f deg)", math.Max(s.SigmaAmount, 0.01))
@@ -774,18 +765,66 @@ func stepWords(s Step, unit session.Unit) string {
 	if s.AtLimit {
 		b.WriteString(", as far as the profile allows")
 	}
+	b.WriteString(": ")
+	b.WriteString(howWords(s, unit))
 	b.WriteString(".")
 	return b.String()
 }
 
+// howWords says how hands make a step: what to slacken, which way to
+// turn what as seen from where, by how much, and what to lock again (see
+// stepWords).
+func howWords(s Step, unit session.Unit) string {
+	thread := s.Turns != 0 || s.Flats != 0
+	amount := strings.TrimSuffix(turnsWords(s.Turns, s.Flats, s.perTurn), " of the thread")
+	switch s.Kind {
+	case session.ValveOnSpindle:
+		slack, push, turn, way := "in front of", "behind", "anticlockwise", "forward"
+		if s.Amount < 0 {
+			slack, push, turn, way = "behind", "in front of", "clockwise", "back"
+		}
+		if !thread {
+			return fmt.Sprintf("slacken the valve's fixing on the spindle, slide the valve %s %s against a mark, and lock it again", way, length(math.Abs(s.Amount), unit))
+		}
+		return fmt.Sprintf("back the nut %s the valve off a turn, turn the nut %s it %s %s seen from the front of the engine (right-hand thread) to push the valve %s, then run the first nut back up to the valve and lock it",
+			slack, push, amount, turn, way)
+	case session.EccentricAngle:
+		forward := s.Amount > 0 // turned ahead in forward running
+		if s.Eccentric == session.BackwardEccentric {
+			forward = !forward
+		}
+		way, clock := "the way the wheels turn running forward", "clockwise"
+		if !forward {
+			way, clock = "the way the wheels turn running backward", "anticlockwise"
+		}
+		by := fmt.Sprintf("%.2f deg", math.Abs(s.Amount))
+		if s.RimMM != 0 {
+			by = length(math.Abs(s.RimMM), unit) + " round the rim"
+		}
+		return fmt.Sprintf("scribe a mark across sheave and axle, slacken the sheave's grub screws, turn it %s %s (%s seen from the engine's right-hand side), and tighten the screws again",
+			by, way, clock)
+	case session.ReturnCrankAngle:
+		clock := "clockwise"
+		if s.Amount < 0 {
+			clock = "anticlockwise"
+		}
+		return fmt.Sprintf("scribe a mark across crank and crankpin, slacken the return crank's pinch bolt, turn it %s seen from the engine's right-hand side, and tighten the bolt again", clock)
+	}
+	in, turn, longer := "out", "anticlockwise", "longer"
+	if s.Amount < 0 {
+		in, turn, longer = "in", "clockwise", "shorter"
+	}
+	if !thread {
+		return fmt.Sprintf("set its length between pin centres %s %s and lock it again", length(math.Abs(s.Amount), unit), longer)
+	}
+	return fmt.Sprintf("take out the pin of its fork end, slacken the fork's lock nut, screw the fork %s %s, %s seen from the fork end (right-hand thread), then pin it and lock the nut again", in, amount, turn)
+}
+
 // length shows a length in the display unit: mm to the hundredth, or
 // inches to the thou.
-func length(mm float64, unit session.Unit) string {
-	if unit == session.UnitInch {
-		return fmt.Sprintf("%.3f in", mm/session.MMPerInch)
-	}
-	return fmt.Sprintf("%.2f mm", mm)
-}
+// It is session.FormatLength, so the app's tables (render) and the
+// plan's words round alike.
+func length(mm float64, unit session.Unit) string { return session.FormatLength(mm, unit) }
 
 // fineLength shows a small length one place finer than length.
 func fineLength(mm float64, unit session.Unit) string {

@@ -271,7 +271,8 @@ func TestPublishedAhronsRod(t *testing.T) {
 	if d := s.Amount/in + 1.0/16; math.Abs(d) > 0.001 {
 		t.Errorf("rounded change %.4f in, want -0.0625 +/- 0.001 (shorten 1/16 in)", s.Amount/in)
 	}
-	if !strings.HasPrefix(stepWords(s, session.UnitInch), "Shorten the forward eccentric rod 0.062 in") {
+	// 1/16 in is 0.0625 in: to the thou, half rounds up (session.FormatLength).
+	if !strings.HasPrefix(stepWords(s, session.UnitInch), "Shorten the forward eccentric rod 0.063 in") {
 		t.Errorf("words: %s", stepWords(s, session.UnitInch))
 	}
 	a := p.After[0]

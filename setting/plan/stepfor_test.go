@@ -58,8 +58,8 @@ func TestStepForWordsAsPlan(t *testing.T) {
 							t.Errorf("cylinder %d round %d, %s:\n got %+v\nwant %+v", cyl, round, unit, got, want)
 						}
 						// WriteText's line is StepFor's words with the
-						// plan's +/- before the full stop.
-						if line := strings.TrimSuffix(got.Words, "."); !strings.Contains(text.String(), ". "+line) {
+						// plan's +/- after the amount.
+						if line := withSigma(got.Words, stepWords(st, unit)); !strings.Contains(text.String(), ". "+line+"\n") {
 							t.Errorf("WriteText has no step worded %q:\n%s", line, text.String())
 						}
 						kinds[st.Kind] = true
@@ -78,6 +78,18 @@ func TestStepForWordsAsPlan(t *testing.T) {
 			t.Errorf("no plan step of kind %s was compared (kinds %v)", k, kinds)
 		}
 	}
+}
+
+// withSigma puts the +/- of the plan's words planned into words (a
+// step's words without one) before the colon that begins the how, or
+// returns words as they are when planned has no +/-.
+func withSigma(words, planned string) string {
+	i := strings.Index(planned, " (+/- ")
+	if i < 0 {
+		return words
+	}
+	sigma := planned[i : i+strings.Index(planned[i:], ")")+1]
+	return strings.Replace(words, ": ", sigma+": ", 1)
 }
 
 // TestStepForThread: a change on a thread rounds to whole flats. A fork
@@ -100,17 +112,17 @@ func TestStepForThread(t *testing.T) {
 		words        string
 	}{
 		{"one flat of the fork end", fork, 0.3, session.UnitMM, perFlat, 0, 1,
-			"Lengthen the forward eccentric rod 0.32 mm: half a turn of the thread."},
+			"Lengthen the forward eccentric rod 0.32 mm: take out the pin of its fork end, slacken the fork's lock nut, screw the fork out half a turn, anticlockwise seen from the fork end (right-hand thread), then pin it and lock the nut again."},
 		{"three flats, shorter", fork, -0.9, session.UnitMM, -3 * perFlat, 1, 1,
-			"Shorten the forward eccentric rod 0.95 mm: 1 and a half turns of the thread."},
+			"Shorten the forward eccentric rod 0.95 mm: take out the pin of its fork end, slacken the fork's lock nut, screw the fork in 1 and a half turns, clockwise seen from the fork end (right-hand thread), then pin it and lock the nut again."},
 		{"two whole turns in inches", fork, 1.3, session.UnitInch, 4 * perFlat, 2, 0,
-			"Lengthen the forward eccentric rod 0.050 in: 2 turns of the thread."},
+			"Lengthen the forward eccentric rod 0.050 in: take out the pin of its fork end, slacken the fork's lock nut, screw the fork out 2 turns, anticlockwise seen from the fork end (right-hand thread), then pin it and lock the nut again."},
 		{"two flats of the nut", nut, 0.25, session.UnitMM, 2 * 0.7 / 6, 0, 2,
-			"Move the valve 0.23 mm toward the front cover on its spindle: 2 flats of the thread."},
+			"Move the valve 0.23 mm toward the front cover on its spindle: back the nut in front of the valve off a turn, turn the nut behind it 2 flats anticlockwise seen from the front of the engine (right-hand thread) to push the valve forward, then run the first nut back up to the valve and lock it."},
 		{"a turn and a flat back", nut, -0.8, session.UnitMM, -7 * 0.7 / 6, 1, 1,
-			"Move the valve 0.82 mm toward the back (crank) end on its spindle: 1 turn and 1 flat of the thread."},
+			"Move the valve 0.82 mm toward the back (crank) end on its spindle: back the nut behind the valve off a turn, turn the nut in front of it 1 turn and 1 flat clockwise seen from the front of the engine (right-hand thread) to push the valve back, then run the first nut back up to the valve and lock it."},
 		{"held at the limit by whole flats", nut, 5, session.UnitMM, 12 * 0.7 / 6, 2, 0,
-			"Move the valve 1.40 mm toward the front cover on its spindle: 2 turns of the thread, as far as the profile allows."},
+			"Move the valve 1.40 mm toward the front cover on its spindle, as far as the profile allows: back the nut in front of the valve off a turn, turn the nut behind it 2 turns anticlockwise seen from the front of the engine (right-hand thread) to push the valve forward, then run the first nut back up to the valve and lock it."},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -142,12 +154,12 @@ func TestStepForRim(t *testing.T) {
 	if math.Abs(sheave.RimMM(st.Amount)-st.RimMM) > 1e-12 {
 		t.Errorf("session's RimMM %v, the step's %v", sheave.RimMM(st.Amount), st.RimMM)
 	}
-	want := "Retard the backward eccentric sheave 1.91 deg: turn it 0.50 mm round the rim, back against the backward running direction."
+	want := "Retard the backward eccentric sheave 1.91 deg: scribe a mark across sheave and axle, slacken the sheave's grub screws, turn it 0.50 mm round the rim the way the wheels turn running forward (clockwise seen from the engine's right-hand side), and tighten the screws again."
 	if st.Words != want || st.Unit != "deg" {
 		t.Errorf("words\n got %q (%s)\nwant %q", st.Words, st.Unit, want)
 	}
 	// Three marks: 1.5 mm round the rim, in inches 0.059 in.
-	if st := StepFor(sheave, 3*markDeg+0.2, session.UnitInch); math.Abs(st.RimMM-1.5) > 1e-9 || !strings.Contains(st.Words, "turn it 0.059 in round the rim, ahead in the backward running direction") {
+	if st := StepFor(sheave, 3*markDeg+0.2, session.UnitInch); math.Abs(st.RimMM-1.5) > 1e-9 || !strings.Contains(st.Words, "turn it 0.059 in round the rim the way the wheels turn running backward (anticlockwise seen from the engine's right-hand side)") {
 		t.Errorf("three marks: rim %v mm, %q", st.RimMM, st.Words)
 	}
 }
@@ -172,7 +184,7 @@ func TestStepForTooSmall(t *testing.T) {
 			t.Errorf("StepFor(%s, %v) = %+v", c.adj.Kind, c.amount, st)
 		}
 	}
-	if st := StepFor(crank, -0.3, session.UnitMM); st.Words != "Turn the return crank 0.25 deg against the forward running direction." {
+	if st := StepFor(crank, -0.3, session.UnitMM); st.Words != "Turn the return crank 0.25 deg against the forward running direction: scribe a mark across crank and crankpin, slacken the return crank's pinch bolt, turn it anticlockwise seen from the engine's right-hand side, and tighten the bolt again." {
 		t.Errorf("return crank: %q", st.Words)
 	}
 }

@@ -184,6 +184,7 @@ type App struct {
 	needK      needKey   // the plan card's height, worked out for needK
 	needV      float64
 	paths      map[pathKey]render.Path // the buttons' outlines, kept between frames
+	hist       historyCache            // the rounds' history (history.go)
 
 	// su is the set-up's state (setupflow.go); draftSession and
 	// draftSetUp a new engine's set-up left unfinished, to carry on;

@@ -18,6 +18,8 @@ func (a *App) Draw(c render.Canvas) {
 		render.Cautions(c, v.body, th)
 	case Where:
 		render.Motion(c, a.engine, a.wherePosition(), a.crankDeg, v.body, th)
+	case History:
+		render.HistoryCard(c, v.body, a.history(), rowH, th)
 	case Plan:
 		if m := a.shownModel(); m != nil {
 			render.DrawScreen(c, m, a.renderScreen(), v.body, th)
@@ -50,14 +52,14 @@ func (a *App) Draw(c render.Canvas) {
 		a.drawSlider(c, v.slider)
 	}
 	for _, t := range v.targets {
-		if !t.bar && !t.over && !(t.Label == render.AckLabel && a.screen == Cautions) { // the card draws its own
+		if !t.bar && !t.over && !t.track && !(t.Label == render.AckLabel && a.screen == Cautions) { // the card draws its own
 			a.drawTarget(c, t)
 		}
 	}
 	a.drawUndo(c, v)
 	// The top bar last, over anything scrolled under it.
 	c.Fill(render.RectPath(rect(0, 0, a.w, barH+margin)), render.FillStyle{Color: th.Background})
-	c.Text(render.Point{X: a.w / 2, Y: margin/2 + barH/2}, a.shortStatus(), render.TextStyle{Color: a.statusColour(), Size: render.BodySize, HAlign: render.Center, VAlign: render.Middle})
+	c.Text(render.Point{X: a.w / 2, Y: margin/2 + barH/2}, a.shortStatus(), render.TextStyle{Color: a.statusColour(), Size: legibleSize, HAlign: render.Center, VAlign: render.Middle})
 	for _, t := range v.targets {
 		if t.bar {
 			a.drawTarget(c, t)
@@ -87,17 +89,15 @@ func (a *App) drawPlain(c render.Canvas, t Target) {
 	const frame, radius = 1.5, 10
 	c.Fill(a.roundRect(t.Rect.Inset(-frame/2), radius+frame/2), render.FillStyle{Color: th.Grid})
 	c.Fill(a.roundRect(t.Rect.Inset(frame/2), radius-frame/2), render.FillStyle{Color: th.Surface})
-	size := float64(render.ButtonSize)
 	label := t.Label
 	if t.caption != "" {
 		label = t.caption
 	}
-	for size > render.BodySize && render.TextWidth(label, size, true) > t.Rect.W()-16 {
-		size--
+	lines, size := render.ButtonLines(label, t.Rect.W()-16, t.Rect.H()-4)
+	if len(lines) == 1 {
+		lines[0] = fitLabel(label, size, t.Rect.W()-16) // too long for two lines: shortened, its value kept
 	}
-	label = fitLabel(label, size, t.Rect.W()-16)
-	c.Text(render.Point{X: (t.Rect.Min.X + t.Rect.Max.X) / 2, Y: (t.Rect.Min.Y + t.Rect.Max.Y) / 2}, label,
-		render.TextStyle{Color: th.Ink, Size: size, Bold: true, HAlign: render.Center, VAlign: render.Middle})
+	render.DrawButtonLines(c, t.Rect, lines, size, render.TextStyle{Color: th.Ink, Bold: true})
 }
 
 // shortStatus is the saving state in the top bar; a failure's sentence

@@ -571,7 +571,7 @@ func TestNextRoundAndHistory(t *testing.T) {
 	tap(t, a, "Menu")
 	tap(t, a, "History of rounds")
 	text, _ := drawText(a)
-	if !strings.Contains(text, "Round 1, 2026-11-21") || !strings.Contains(text, "Leads in full forward: front ") || !strings.Contains(text, "Round 2") {
+	if !strings.Contains(text, "Round 1, 2026-11-21") || !strings.Contains(text, "Round 2") || !strings.Contains(text, "Before it: valve") {
 		t.Fatalf("rounds list:\n%s", text)
 	}
 	tap(t, a, "Round 1")

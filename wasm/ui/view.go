@@ -30,6 +30,7 @@ type Target struct {
 	act   func()
 	bar   bool // in the top bar, drawn over scrolled content
 	over  bool // in the Undo bar, drawn over the content (records.go)
+	track bool // the what-if's track, drawn as a slider (whatif.go)
 	// caption is drawn instead of Label when set (a row's Delete, whose
 	// Label names the record).
 	caption string
@@ -46,6 +47,7 @@ type view struct {
 	slider  render.Rect // the what-if track (plan, balance)
 	sketch  render.Rect // the set-up value's sketch (sizes)
 	scrolls bool        // the plan's card is taller than the room left: the screen scrolls
+	tall    bool        // a keypad screen's words and keys are taller than the screen: it scrolls
 	bottom  float64     // the lowest y of the content, for scrolling
 }
 
@@ -124,6 +126,10 @@ func (a *App) layout() *view {
 		f := a.fields[a.fi]
 		lay.muted(f.Label + ": the engine as drawn, about where it stands for this reading. Drag sideways to turn the wheel.")
 		v.body = render.Rect{Min: render.Point{X: margin, Y: lay.y}, Max: render.Point{X: a.w - margin, Y: a.h - margin}}
+		if need := render.LayoutMotion(v.body, a.engine, a.wherePosition()).NeedH; need > v.body.H() {
+			v.body.Max.Y, v.tall = v.body.Min.Y+need, true // a short phone on its side: the screen scrolls
+		}
+		lay.y = v.body.Max.Y
 	}
 	v.bottom = lay.y + a.undoRoom()
 	a.scrolled(v)
@@ -131,11 +137,17 @@ func (a *App) layout() *view {
 	return v
 }
 
+// fitted reports whether the screen laid out in v is fitted to the
+// screen's height rather than scrolled.
+func (a *App) fitted(v *view) bool {
+	return v.keypad != nil && !v.tall || a.screen == Plan && !v.scrolls || a.screen == Where && !v.tall
+}
+
 // scrolled moves the content (not the top bar) up by the scroll.
 func (a *App) scrolled(v *view) {
 	maxS := math.Max(0, v.bottom+margin-a.h)
-	if v.keypad != nil || a.screen == Plan && !v.scrolls || a.screen == Where {
-		maxS = 0 // fitted to the screen
+	if a.fitted(v) {
+		maxS = 0
 	}
 	a.scroll = math.Max(0, math.Min(a.scroll, maxS))
 	if a.scroll == 0 {
@@ -152,24 +164,19 @@ func (a *App) scrolled(v *view) {
 	}
 	v.body = shift(v.body, dy)
 	v.slider = shift(v.slider, dy)
+	v.entry = shift(v.entry, dy)
+	v.sketch = shift(v.sketch, dy)
 }
 
-// cardNeed is the height the plan screen's card needs in box: the balance
-// card and the plan's steps have a height of their own; the curves and
-// the motion fill any box.
-// It is worked out once per model, tab and box.
+// cardNeed is the height the plan screen's card needs in box: the tabs
+// and the diagram at its least (render.ScreenNeedH). It is worked out
+// once per model, tab, position and box.
 func (a *App) cardNeed(box render.Rect) float64 {
-	k := needKey{a.shownModel(), a.diagram, box}
+	k := needKey{a.shownModel(), a.diagram, a.position, box}
 	if k == a.needK {
 		return a.needV
 	}
-	a.needK, a.needV = k, 0
-	switch a.diagram {
-	case render.BalanceDiagram:
-		a.needV = render.LayoutBalance(box, k.m).NeedH
-	case render.PlanDiagram:
-		a.needV = render.LayoutPlan(box, k.m).NeedH
-	}
+	a.needK, a.needV = k, render.ScreenNeedH(k.m, a.renderScreen(), box)
 	return a.needV
 }
 
@@ -177,6 +184,7 @@ func (a *App) cardNeed(box render.Rect) float64 {
 type needKey struct {
 	m   *render.Model
 	d   render.Diagram
+	pos int
 	box render.Rect
 }
 
@@ -210,8 +218,16 @@ func (l *layouter) text(t string, warn bool) {
 }
 
 func (l *layouter) muted(t string) {
-	l.para(t, render.BodySize, false, false, true)
+	size := float64(render.BodySize)
+	if l.a.screen == Plan {
+		size = legibleSize // read at arm's length by the engine
+	}
+	l.para(t, size, false, false, true)
 }
+
+// legibleSize is the least text size of the plan screen and the top bar,
+// read at arm's length outdoors (15 CSS px; common practice, no source).
+const legibleSize = 15
 
 func (l *layouter) para(t string, size float64, bold, warn, muted bool) {
 	if t == "" {
@@ -228,9 +244,14 @@ func (l *layouter) button(label string, on bool, act func()) {
 }
 
 // row adds buttons side by side sharing the width, in as many rows as it
-// takes to keep each a fingertip (render.HitMin) wide.
+// takes to keep each a fingertip (render.HitMin) wide and its label whole
+// (on one line or two).
 func (l *layouter) row(labels []string, on []bool, acts []func()) {
-	if per := max(1, int((l.w+gap)/(render.HitMin+gap))); len(labels) > per {
+	per := max(1, int((l.w+gap)/(render.HitMin+gap)))
+	for per > 1 && !labelsFit(labels[:min(per, len(labels))], on, l.w) {
+		per--
+	}
+	if len(labels) > per {
 		l.row(labels[:per], on[:per], acts[:per])
 		l.row(labels[per:], on[per:], acts[per:])
 		return
@@ -241,6 +262,22 @@ func (l *layouter) row(labels []string, on []bool, acts []func()) {
 		l.v.targets = append(l.v.targets, Target{Label: lab, Rect: rect(l.x+float64(i)*(w+gap), l.y, w, rowH), On: on[i], act: acts[i]})
 	}
 	l.y += rowH + gap
+}
+
+// labelsFit reports whether every label fits its button, on one line or
+// two at 15 px or more, when they share the width w in one row (see
+// drawPlain; a chosen option's label, on[i], is marked "* ").
+func labelsFit(labels []string, on []bool, w float64) bool {
+	bw := (w-float64(len(labels)-1)*gap)/float64(len(labels)) - 16
+	for i, lab := range labels {
+		if on[i] {
+			lab = "* " + lab
+		}
+		if _, size := render.ButtonLines(lab, bw, rowH-4); size < legibleSize {
+			return false
+		}
+	}
+	return true
 }
 
 // gearName names a gear kind for the user.
@@ -386,6 +423,14 @@ func (a *App) keypadView(l *layouter) {
 			}
 		}
 	}
+	// A short phone (320 x 568) has too little height for the words and
+	// the keys even at the tightest level: the keys go under the words
+	// at their least height, and the screen scrolls.
+	if !side && box.H() < KeypadMinHeight {
+		box.Max.Y = box.Min.Y + KeypadMinHeight
+		l.y, l.v.tall = box.Max.Y, true
+	}
+	l.v.tall = l.v.tall || side && l.y > a.h-margin
 	l.v.keypad = LayoutKeypad(box, a.fractions())
 	for _, k := range l.v.keypad {
 		k := k
@@ -512,34 +557,6 @@ func (a *App) readingsView(l *layouter) {
 			a.navigate(Measure)
 			a.editing = true
 		})
-	}
-}
-
-func (a *App) historyView(l *layouter) {
-	s := a.Session()
-	l.title("Rounds")
-	if s == nil {
-		return
-	}
-	a.cylinderRow(l)
-	leads, _ := s.Leads(a.cyl)
-	planned := a.plannedRound()
-	for ri, r := range s.Cylinders[a.cyl].Rounds {
-		ri := ri
-		var lead [2]*float64 // front, back: full forward, as read
-		for _, ld := range leads {
-			if ld.Round == ri && ld.Notch == session.FullForward {
-				lead[endIndex(ld.End)] = &ld.LeadMM
-			}
-		}
-		if ri == planned {
-			lead = a.plannedLeads() // the very figures the plan, curve and balance show
-		}
-		label := fmt.Sprintf("Round %d, %s", ri+1, r.Date)
-		a.rowWithDelete(l, a.roundLabel(ri, label), fmt.Sprintf("round %d", ri+1), func() { a.showRound(ri) }, func() { a.deleteRound(ri) })
-		if lead[0] != nil && lead[1] != nil {
-			l.muted("Leads in full forward: " + a.leadPair(*lead[0], *lead[1]))
-		}
 	}
 }
 
@@ -711,7 +728,9 @@ func (a *App) Handle(in Intent) {
 			_ = a.SetWhatIfAdjustment(a.what.adj, a.what.lo+math.Max(0, math.Min(1, t))*(a.what.hi-a.what.lo))
 			return
 		}
-		if a.screen == Plan && a.diagram == render.MotionDiagram || a.screen == Where {
+		// Sideways on the motion drawing turns the wheel; up and down
+		// scrolls a screen too short for it.
+		if (a.screen == Plan && a.diagram == render.MotionDiagram || a.screen == Where) && math.Abs(in.Delta.X) >= math.Abs(in.Delta.Y) {
 			a.crankDeg = math.Mod(a.crankDeg+in.Delta.X+360, 360)
 			return
 		}

@@ -111,6 +111,7 @@ func (a *App) SetWhatIfAdjustment(j int, amount float64) error {
 		return err
 	}
 	m.Scale = a.model // the balance keeps the plan's scales while dragging
+	m.WhatIf = a.whatIfWords()
 	a.what.plan, a.what.model = p, m
 	a.dirty = true
 	return nil
@@ -151,33 +152,92 @@ func (a *App) whatIfPlan() *plan.Plan {
 // and flats of the thread, mm round a sheave's rim) for the nearest change
 // hands can make. The drag moves in continuous amounts and the model
 // follows them: the step's Amount and IdealAmount are the amount dragged,
-// which the words give first when it is not a whole number of steps.
+// which the words give first, in words, when it is not a whole number of
+// steps.
 func (a *App) whatIfStep(adj session.Adjustment, amount float64) plan.Step {
 	st := plan.StepFor(adj, amount, a.unit())
 	if math.Abs(st.Amount-amount) > 1e-9 {
-		st.Words = amountText(adj, amount, a.unit()) + ". Nearest by hand: " + st.Words
+		st.Words = capitalise(changeWords(adj, amount, a.unit())) + ". Nearest by hand: " + st.Words
 	}
 	st.Words = "What if: " + st.Words
 	st.Amount, st.IdealAmount = amount, amount
 	return st
 }
 
-// whatAmountText is the chosen adjustment's what-if amount in its unit.
-func (a *App) whatAmountText() string {
-	return amountText(a.Session().Adjustments[a.what.adj], a.what.amounts[a.what.adj], a.unit())
+// changeWords says a change of adj by amount in words, the part named
+// and the way it goes: "valve 0.16 mm toward the front cover", "forward
+// eccentric rod lengthened 0.30 mm", "return crank turned 0.25 deg against
+// the forward running direction"; a change of nought leaves the part as
+// it is.
+func changeWords(adj session.Adjustment, amount float64, unit session.Unit) string {
+	part := plan.StepFor(adj, 0, unit).Part
+	if adj.Kind == session.ValveOnSpindle && amount != 0 {
+		part = "valve"
+	}
+	return part + " " + changeWay(adj, amount, unit)
 }
 
-// amountText is a signed change of adj in its unit: "+0.37 mm",
-// "-1.20 deg".
-func amountText(adj session.Adjustment, v float64, unit session.Unit) string {
+// changeWay says the way and amount of a change of adj, without the part:
+// "0.16 mm toward the front cover", "advanced 1.20 deg", "left as it is".
+func changeWay(adj session.Adjustment, amount float64, unit session.Unit) string {
+	if amount == 0 {
+		return "left as it is"
+	}
+	by := session.FormatLength(math.Abs(amount), unit)
 	if adj.Kind.Angular() {
-		return fmt.Sprintf("%+.2f deg", v)
+		by = fmt.Sprintf("%.2f deg", math.Abs(amount))
 	}
-	sign := "+"
-	if v < 0 {
-		sign = "-"
+	more := amount > 0
+	switch adj.Kind {
+	case session.ValveOnSpindle:
+		if more {
+			return by + " toward the front cover"
+		}
+		return by + " toward the back (crank) end"
+	case session.EccentricAngle:
+		if more {
+			return "advanced " + by
+		}
+		return "retarded " + by
+	case session.ReturnCrankAngle:
+		if more {
+			return "turned " + by + " in the forward running direction"
+		}
+		return "turned " + by + " against the forward running direction"
 	}
-	return sign + session.FormatLength(math.Abs(v), unit)
+	if more {
+		return "lengthened " + by
+	}
+	return "shortened " + by
+}
+
+// capitalise gives s a capital first letter.
+func capitalise(s string) string {
+	if s == "" || s[0] < 'a' || s[0] > 'z' {
+		return s
+	}
+	return string(s[0]-'a'+'A') + s[1:]
+}
+
+// whatIfWords says in words what the what-if changes beyond the plan:
+// each part whose amount differs from the plan's, with the plan's own,
+// for the cards' "after includes the what-if". Empty when the amounts
+// are the plan's.
+func (a *App) whatIfWords() string {
+	s := a.Session()
+	var ws []string
+	for j, adj := range s.Adjustments {
+		planned := 0.0
+		for _, st := range a.plan.Steps {
+			if adjustmentOf(s.Adjustments, st) == j {
+				planned = st.Amount
+			}
+		}
+		if amt := a.what.amounts[j]; amt != planned {
+			ws = append(ws, changeWords(adj, amt, a.unit())+" (the plan: "+changeWay(adj, planned, a.unit())+")")
+		}
+	}
+	return strings.Join(ws, "; ")
 }
 
 // planAmount is the plan's amount for the chosen adjustment (nought when
@@ -243,9 +303,17 @@ func (a *App) whatIfRows(l *layouter) {
 		k := min(i+per, len(labels))
 		l.row(labels[i:k], on[i:k], acts[i:k])
 	}
-	l.button(fmt.Sprintf("What if: %s %s", strings.ToLower(adjustmentName(adjs[a.what.adj])), a.whatAmountText()), false, func() {
-		a.chooseAdjustment(a.what.adj + 1)
-	})
+	adj := adjs[a.what.adj]
+	what := "What if: " + changeWords(adj, a.what.amounts[a.what.adj], a.unit())
+	if a.what.amounts[a.what.adj] == a.planAmount() {
+		l.text(what+", as the plan has it.", false)
+	} else {
+		l.text(what+"; the plan: "+changeWay(adj, a.planAmount(), a.unit())+".", false)
+	}
+	l.muted("Drag to try another amount. After, on the card below, is the plan with the what-if amounts.")
+	// The track is a target of its own, named by the change, so that a
+	// screen reader and the tests find it; it has nothing to tap.
 	l.v.slider = rect(l.x, l.y, l.w, sliderH)
+	l.v.targets = append(l.v.targets, Target{Label: what, Rect: l.v.slider, track: true})
 	l.y += sliderH + gap
 }

@@ -13,8 +13,8 @@ import (
 // plan's steps do, in the session's unit: a whole number of steps is
 // worded exactly as plan.StepFor words it (turns and flats, mm round the
 // rim), which is the plan's own wording of its steps without the plan's
-// +/-; an amount between steps gives the amount dragged, then the nearest
-// change hands can make. The model follows the amount dragged.
+// +/-; an amount between steps gives the amount dragged in words (which
+// way the part goes), then the nearest change hands can make. The model follows the amount dragged.
 func TestWhatIfWordsAsPlan(t *testing.T) {
 	for _, unit := range []session.Unit{session.UnitMM, session.UnitInch} {
 		a := planApp(t)
@@ -32,7 +32,7 @@ func TestWhatIfWordsAsPlan(t *testing.T) {
 			}
 			adj := s.Adjustments[j]
 			// The plan's own words, as StepFor gives them.
-			if w := plan.StepFor(adj, st.Amount, unit).Words; !strings.HasPrefix(st.Words, strings.TrimSuffix(w, ".")) {
+			if w := plan.StepFor(adj, st.Amount, unit).Words; withoutSigma(st.Words) != w {
 				t.Errorf("%s: plan step %q, StepFor %q", unit, st.Words, w)
 			}
 			// Twice the plan's change, or half of it at a limit: whole
@@ -69,7 +69,7 @@ func TestWhatIfWordsAsPlan(t *testing.T) {
 		between := a.what.amounts[adjustmentOf(s.Adjustments, st)]
 		near := plan.StepFor(adj, between, unit)
 		got := whatStep(t, a, adj)
-		want := "What if: " + amountText(adj, between, unit) + ". Nearest by hand: " + near.Words
+		want := "What if: " + capitalise(changeWords(adj, between, unit)) + ". Nearest by hand: " + near.Words
 		t.Logf("%s: %d steps changed by whole steps; between: %q", unit, whole, got.Words)
 		if got.Words != want || got.Amount != between {
 			t.Errorf("%s: between steps (plan %v, dragged %v):\n got %q (amount %v)\nwant %q", unit, step.Amount, between, got.Words, got.Amount, want)
@@ -79,6 +79,16 @@ func TestWhatIfWordsAsPlan(t *testing.T) {
 		}
 		noNaN(t, a, "what-if words "+string(unit))
 	}
+}
+
+// withoutSigma returns a plan step's words without the plan's "(+/- ...)"
+// after the amount.
+func withoutSigma(words string) string {
+	i := strings.Index(words, " (+/- ")
+	if i < 0 {
+		return words
+	}
+	return words[:i] + words[i+strings.Index(words[i:], ")")+1:]
 }
 
 // whatStep returns the what-if plan's step for adj.

@@ -85,7 +85,7 @@ func (a *App) cylinderRow(l *layouter) {
 	if a.screen == Plan || a.screen == Whole {
 		labels, on, acts = append(labels, WholeLabel), append(on, a.screen == Whole), append(acts, a.showWhole)
 	}
-	fitRow(l, labels, on, acts)
+	l.row(labels, on, acts)
 }
 
 // switchCylinder shows cylinder ci on the screen shown: its latest round

@@ -14,6 +14,7 @@ import (
 	"evenbeat/render/raster"
 	"evenbeat/render/recorder"
 	"evenbeat/render/report"
+	"evenbeat/setting/session"
 )
 
 // tourSizes are the screens the pixel test walks the tour on: phones
@@ -109,6 +110,41 @@ func walkTour(t *testing.T, w, h float64, th render.Theme, visit func(name strin
 	tap(t, a, "Menu")
 	tap(t, a, "History of rounds")
 	at("history")
+	walkWhole(t, w, h, th, visit)
+}
+
+// walkWhole walks the whole engine (issue 15) on a w by h phone in theme
+// th: the demo with a beat heard, in each position, listening's cautions
+// and its recording; a three-cylinder engine and the bench-built
+// Pellowmire with a beat heard.
+func walkWhole(t *testing.T, w, h float64, th render.Theme, visit func(name string, a *App)) {
+	t.Helper()
+	heard := func(s *session.Session) *session.Session {
+		pos := positionOf(t, s, s.Aims.RunningNotch)
+		s.Heard = append(s.Heard, session.Heard{Date: "2026-12-01", Position: pos.Name, GapsDeg: pos.Now.Gaps, RevPerMin: 90})
+		return s
+	}
+	for _, e := range []struct {
+		name string
+		s    *session.Session
+	}{{"demo", limpingDemo(t)}, {"three cylinders", threeCylinders(t)}, {"Pellowmire", pellowmire(t)}} {
+		a, _, _, _ := wholeApp(t, heard(e.s))
+		a.Resize(w, h)
+		a.SetTheme(th)
+		visit("whole engine, "+e.name+", a beat heard", a)
+		if e.name != "demo" {
+			continue
+		}
+		tap(t, a, "Full back")
+		visit("whole engine, full back", a)
+		tap(t, a, "Running notch")
+		tap(t, a, ListenLabel)
+		visit("listen", a)
+		tap(t, a, StartLabel)
+		a.MicOpened()
+		a.Update()
+		visit("listen, recording", a)
+	}
 }
 
 // TestTextStaysInItsBox is the pixel test of the tour (walkTour) on

@@ -148,7 +148,7 @@ func (a *App) wholeView(l *layouter) {
 			labels[i], on[i] = title(p.Name), p.Name == pos.Name
 			acts[i] = func() { w.pos = p.Name; a.dirty = true }
 		}
-		fitRow(l, labels, on, acts)
+		l.row(labels, on, acts)
 	}
 	for _, t := range a.heardWords(pos) { // the news first, then the card
 		l.text(t, false)
@@ -298,32 +298,4 @@ func evenness(gaps []float64) float64 {
 		return 0
 	}
 	return hi / lo
-}
-
-// fitRow lays out buttons side by side as l.row does, but never more to a
-// row than keeps every label whole at the smallest size a button draws
-// (a chosen one with its mark): on a narrow phone the row breaks in two
-// rather than cut "Running notch" short.
-func fitRow(l *layouter, labels []string, on []bool, acts []func()) {
-	for len(labels) > 0 {
-		n := 1
-		for n < len(labels) && rowFits(l.w, labels[:n+1]) {
-			n++
-		}
-		l.row(labels[:n], on[:n], acts[:n])
-		labels, on, acts = labels[n:], on[n:], acts[n:]
-	}
-}
-
-// rowFits reports whether labels fit side by side in width w, each at
-// the body size, bold, with its chosen mark and 6 clear either side.
-func rowFits(w float64, labels []string) bool {
-	n := float64(len(labels))
-	each := (w-(n-1)*gap)/n - 12
-	for _, lab := range labels {
-		if render.TextWidth("* "+lab, render.BodySize, true) > each {
-			return false
-		}
-	}
-	return true
 }

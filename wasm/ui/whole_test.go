@@ -5,6 +5,7 @@ import (
 	"image/color"
 	"math"
 	"math/rand/v2"
+	"os"
 	"strings"
 	"testing"
 	"time"
@@ -17,6 +18,7 @@ import (
 	"evenbeat/setting/listen/listentest"
 	"evenbeat/setting/plan"
 	"evenbeat/setting/session"
+	"evenbeat/setting/trial"
 )
 
 // flatText is every text the screen draws, its lines run together.
@@ -420,4 +422,57 @@ func TestWithinRate(t *testing.T) {
 	if x, r = withinRate([]float32{1, 2}, 44100); r != 44100 || len(x) != 2 {
 		t.Errorf("44.1 kHz changed: %v at %d", x, r)
 	}
+}
+
+// pellowmire is a session of an engine that is not the demo: the
+// invented Pellowmire Stephenson two-cylinder drawing, each cylinder built
+// by the bench with its own errors and read in a first round.
+func pellowmire(t *testing.T) *session.Session {
+	t.Helper()
+	f, err := os.Open("../../testdata/engines/pellowmire-stephenson.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	spec, err := setting.DecodeEngineSpec(f)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := rand.New(rand.NewPCG(11, 5))
+	adj := demoSession(t).Adjustments // a Stephenson gear's, as the demo has them
+	var s *session.Session
+	for _, c := range spec.Cylinders {
+		e, err := trial.FromDrawing(r, spec, trial.Given{WheelMM: 120, ResMM: 0.01, GaugeSign: 1, Adjustments: adj})
+		if err != nil {
+			t.Fatal(err)
+		}
+		one, err := e.Session(r, trial.DeadCentresRound())
+		if err != nil {
+			t.Fatal(err)
+		}
+		one.Cylinders[0].Name = c.Name
+		if s == nil {
+			s = one
+			continue
+		}
+		s.Cylinders = append(s.Cylinders, one.Cylinders[0])
+	}
+	s.Engine.Cylinders = spec.Cylinders
+	s.Name = "Pellowmire"
+	if len(spec.Notches) > 0 {
+		s.Aims.RunningNotch = spec.Notches[0].Name
+	}
+	return s
+}
+
+// threeCylinders is the demo as a three-cylinder engine with cranks 120
+// degrees apart, the middle cylinder read as the right.
+func threeCylinders(t *testing.T) *session.Session {
+	t.Helper()
+	s := limpingDemo(t)
+	s.Engine.Cylinders = []setting.Cylinder{{Name: "right"}, {Name: "middle", CrankAngle: 120}, {Name: "left", CrankAngle: 240}}
+	mid := s.Cylinders[0]
+	mid.Name = "middle"
+	s.Cylinders = []session.Cylinder{s.Cylinders[0], mid, s.Cylinders[1]}
+	return s
 }

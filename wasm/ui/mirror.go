@@ -130,6 +130,8 @@ func (a *App) mirrorBody(line func(string)) {
 		a.mirrorPlan(line)
 	case History:
 		a.mirrorHistory(line)
+	case Whole:
+		a.mirrorBeat(line)
 	case Where:
 		if a.engine != nil {
 			line(fmt.Sprintf("The drawing: crank at %.0f deg, %s.", a.crankDeg, a.engine.PositionNames()[a.wherePosition()]))
@@ -219,4 +221,30 @@ func percentWords(v string) string {
 		return v
 	}
 	return v + " %"
+}
+
+
+// mirrorBeat says the beat card of the whole engine's position shown: its
+// evenness and the gaps between the exhausts in degrees of crank, today,
+// after the plans and as heard.
+func (a *App) mirrorBeat(line func(string)) {
+	pos, ok := a.wholeBeat().chosen()
+	if !ok {
+		return
+	}
+	heard := a.heardGaps(pos)
+	line("The beat, " + pos.Name + ": " + render.BeatFigures(pos, heard))
+	gaps := func(when string, g []float64) {
+		if len(g) == 0 {
+			return
+		}
+		t := make([]string, len(g))
+		for i, x := range g {
+			t[i] = fixed(x, 1)
+		}
+		line("Gaps between the exhausts " + when + ": " + strings.Join(t, ", ") + " deg.")
+	}
+	gaps("today", pos.Now.Gaps)
+	gaps("after the plans", pos.After.Gaps)
+	gaps("heard", heard)
 }

@@ -45,6 +45,11 @@ func TestMirrorReadsEveryScreen(t *testing.T) {
 		switch a.Screen() {
 		case Plan:
 			mirrorHasPlan(t, name, a, m)
+		case Whole:
+			if pos, ok := a.wholeBeat().chosen(); ok {
+				missing("the beat's figures", render.BeatFigures(pos, a.heardGaps(pos)))
+				missing("the gaps today", "Gaps between the exhausts today: "+fixed(pos.Now.Gaps[0], 1)+", ")
+			}
 		case History:
 			for ri, r := range a.Session().Cylinders[a.cyl].Rounds {
 				missing("a round", fmt.Sprintf("Round %d, %s.", ri+1, r.Date))
@@ -60,7 +65,7 @@ func TestMirrorReadsEveryScreen(t *testing.T) {
 			}
 		}
 	})
-	for _, s := range []Screen{Engines, Gear, Units, Sizes, Adjust, EngineSheet, Cautions, Measure, Readings, Plan, History, Menu, Where, Lead} {
+	for _, s := range []Screen{Engines, Gear, Units, Sizes, Adjust, EngineSheet, Cautions, Measure, Readings, Plan, History, Menu, Where, Lead, Whole, Listen} {
 		if !seen[s] {
 			t.Errorf("the tour never reached %s", s)
 		}

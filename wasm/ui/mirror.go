@@ -223,7 +223,6 @@ func percentWords(v string) string {
 	return v + " %"
 }
 
-
 // mirrorBeat says the beat card of the whole engine's position shown: its
 // evenness and the gaps between the exhausts in degrees of crank, today,
 // after the plans and as heard.

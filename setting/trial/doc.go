@@ -47,7 +47,9 @@
 // position. A plan is "worse" when a position ends farther from equal
 // than before by more than the readings can tell (0.02 mm, 0.5 %, or
 // for a balance the whole objective), and a "refusal" when it changes
-// nothing while whole steps could gain more than that. The second round
+// nothing while whole steps could gain more than that (a plan that names
+// the mistyped reading for taking again and waits for it is not one: the
+// setter is told what to do). The second round
 // makes the first plan's rounded steps, reads the engine again and plans
 // again.
 package trial

@@ -93,11 +93,13 @@ func TestTrials(t *testing.T) {
 		}
 	}
 	// EVENBEAT_TRIAL_FAILS=leads (or cut-offs, balanced) lists the
-	// engines that priority's plan failed on.
+	// engines that priority's plan failed on; "all" lists every
+	// priority's.
 	if prio := os.Getenv("EVENBEAT_TRIAL_FAILS"); prio != "" {
 		for _, c := range cs {
-			for _, r := range c.Results {
-				if string(r.Prio) == prio && (!r.Pass || r.Worse || r.Refused) {
+			for i, r := range c.Results {
+				second := i < len(c.Second) && !c.Second[i].RoundPass
+				if (prio == "all" || string(r.Prio) == prio) && (!r.Pass || r.Worse || r.Refused || second) {
 					var b strings.Builder
 					c.Describe(&b, r.Prio)
 					t.Log(b.String())

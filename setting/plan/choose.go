@@ -188,10 +188,11 @@ func (ev *evaluator) weighing(obj *objective, qNow []quantities, fit *Fit) goal 
 		// the model's own error (see leadWorseMM, cutWorsePct).
 		g.seen[i] = math.Max(1.5*res, 1.2*math.Min(rs, leadUnknownMM*k))
 		g.tol[i], g.sd[i] = math.Min(g.seen[i], leadWorseMM*k), sl
-		if sl > leadUnknownMM*k {
-			// A position the readings do not pin down is held only as
-			// far as the model knows it, within what a setter could see
-			// there; the plan says which readings to take.
+		if sl > leadUnknownMM*k && !readAt(fit, ev.ps[i].notch.Reverser) {
+			// A position nobody read is held only as far as the model
+			// knows it, within what a setter could see there; the plan
+			// says which readings to take. (One whose reading was left
+			// out to be taken again is held as strictly as the rest.)
 			g.tol[i], g.sd[i] = g.seen[i], 0
 		}
 		if g.prio == EqualCutOffs {
@@ -252,6 +253,20 @@ func readDiffSigma(fit *Fit, r setting.Reverser) (float64, bool) {
 		return 0, false
 	}
 	return math.Sqrt(v), true
+}
+
+// readAt reports whether the round has a dead-centre reading in reverser
+// position r, used in the fit or left out to be taken again.
+func readAt(fit *Fit, r setting.Reverser) bool {
+	if fit == nil {
+		return false
+	}
+	for _, o := range fit.obs {
+		if o.Kind == session.AtDeadCentre && o.Reverser == r {
+			return true
+		}
+	}
+	return false
 }
 
 // gaugeResolution returns the dial gauge's resolution (mm) from the
@@ -351,7 +366,16 @@ func (ev *evaluator) sheavePolicy(ks []knob, qNow []quantities, obj objective, c
 				sm = sdOf(fit, &q, [4]float64{0.5, 0.5, 0, 0})
 			}
 			d := obj.design[pos]
-			if math.Abs(m-d) > math.Max(0.5*math.Abs(d), 0.1*kc)+2*sm {
+			far := math.Abs(m-d) > math.Max(0.5*math.Abs(d), 0.1*kc)+2*sm
+			if far && !ev.slipBorneOut(k, pos, m-d, qNow, obj.design, fit) {
+				// One position's two readings alone: a mistyped one
+				// looks the same. The sheave is not turned on its word.
+				pol.usable[i] = false
+				pol.notes = append(pol.notes, fmt.Sprintf("The mean lead in %s is %s, far from the drawing's %s, but only its two dead-centre readings say so: take them again, or a sweep there, before the %s is turned.",
+					ev.ps[pos].name(), length(m, unit), length(d, unit), partName(k.adj, ev.spec.Gear.Kind)))
+				continue
+			}
+			if far {
 				pol.mean[pos] = true
 				pol.slipped = append(pol.slipped, slip{i, fmt.Sprintf("The mean lead in %s is %s, far from the drawing's %s: the %s has probably slipped on the axle. A spindle or rod change only shares the lead between the ends.",
 					ev.ps[pos].name(), length(m, unit), length(d, unit), partName(k.adj, ev.spec.Gear.Kind))})
@@ -400,6 +424,39 @@ func (ev *evaluator) sheavePolicy(ks []knob, qNow []quantities, obj objective, c
 		}
 	}
 	return pol
+}
+
+// slipBorneOut reports whether more than one position's dead-centre
+// readings bear out a slipped sheave of knob k, whose full-gear position
+// pos has its mean lead off the drawing's by off: a sweep there (its
+// readings show the valve's phase all round), or another position the
+// same eccentric drives (the running notches of its gear; a slip
+// eccentric's other gear) whose mean lead is off the same way by at least
+// a quarter as much (a notch mixes in the other eccentric).
+func (ev *evaluator) slipBorneOut(k knob, pos int, off float64, qNow []quantities, design []float64, fit *Fit) bool {
+	if fit == nil {
+		return true
+	}
+	want := ev.ps[pos].notch.Reverser
+	for _, o := range fit.obs {
+		if o.Kind == session.InSweep && o.Reverser == want {
+			return true
+		}
+	}
+	single := ev.spec.Gear.Kind == setting.KindSingleEccentric
+	for j, ps := range ev.ps {
+		if j == pos || j >= len(design) || !readAt(fit, ps.notch.Reverser) {
+			continue
+		}
+		if !single && (ps.notch.Reverser > 0) != (want > 0) {
+			continue
+		}
+		mj := (qNow[j].lead[0]+qNow[j].lead[1])/2 - design[j]
+		if mj*off > 0 && math.Abs(mj) >= 0.25*math.Abs(off) {
+			return true
+		}
+	}
+	return false
 }
 
 // unknownPositions marks the positions whose difference (leads, or

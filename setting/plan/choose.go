@@ -367,11 +367,11 @@ func (ev *evaluator) sheavePolicy(ks []knob, qNow []quantities, obj objective, c
 			}
 			d := obj.design[pos]
 			far := math.Abs(m-d) > math.Max(0.5*math.Abs(d), 0.1*kc)+2*sm
-			if far && !ev.slipBorneOut(k, pos, m-d, qNow, obj.design, fit) {
-				// One position's two readings alone: a mistyped one
-				// looks the same. The sheave is not turned on its word.
+			if far && !ev.slipBorneOut(pos, m-d, qNow, obj, fit) {
+				// One reading alone could say so: a mistyped one looks
+				// the same. The sheave is not turned on its word.
 				pol.usable[i] = false
-				pol.notes = append(pol.notes, fmt.Sprintf("The mean lead in %s is %s, far from the drawing's %s, but only its two dead-centre readings say so: take them again, or a sweep there, before the %s is turned.",
+				pol.notes = append(pol.notes, fmt.Sprintf("The mean lead in %s is %s, far from the drawing's %s, but only one of its dead-centre readings says so: take them again, or a sweep there, before the %s is turned.",
 					ev.ps[pos].name(), length(m, unit), length(d, unit), partName(k.adj, ev.spec.Gear.Kind)))
 				continue
 			}
@@ -426,16 +426,25 @@ func (ev *evaluator) sheavePolicy(ks []knob, qNow []quantities, obj objective, c
 	return pol
 }
 
-// slipBorneOut reports whether more than one position's dead-centre
-// readings bear out a slipped sheave of knob k, whose full-gear position
-// pos has its mean lead off the drawing's by off: a sweep there (its
-// readings show the valve's phase all round), or another position the
-// same eccentric drives (the running notches of its gear; a slip
-// eccentric's other gear) whose mean lead is off the same way by at least
-// a quarter as much (a notch mixes in the other eccentric).
-func (ev *evaluator) slipBorneOut(k knob, pos int, off float64, qNow []quantities, design []float64, fit *Fit) bool {
+// slipBorneOut reports whether more than one reading bears out a slipped
+// sheave whose full-gear position pos has its mean lead off the drawing's
+// by off: both ends' leads there off the same way (a slip moves both, a
+// mistyped reading one), each by at least a quarter as much; a sweep
+// there (its readings show the valve's phase all round); or another
+// position the same eccentric drives (the running notches of its gear; a
+// slip eccentric's other gear) whose mean lead is off the same way by at
+// least a quarter as much (a notch mixes in the other eccentric).
+func (ev *evaluator) slipBorneOut(pos int, off float64, qNow []quantities, obj objective, fit *Fit) bool {
 	if fit == nil {
 		return true
+	}
+	design := obj.design
+	if pos < len(obj.designEnds) {
+		e := obj.designEnds[pos]
+		f, b := qNow[pos].lead[0]-e[0], qNow[pos].lead[1]-e[1]
+		if f*off > 0 && b*off > 0 && math.Min(math.Abs(f), math.Abs(b)) >= 0.25*math.Abs(off) {
+			return true
+		}
 	}
 	want := ev.ps[pos].notch.Reverser
 	for _, o := range fit.obs {

@@ -177,10 +177,13 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 			// made.
 			none.ideal = firstIdeal
 		}
-		if c := ev.stepSearch(p, ks, ts, qNow, g, idx, zeroM); c != nil {
-			if firstIdeal != nil {
-				c.ideal = firstIdeal
+		var steppable []int
+		for _, k := range idx {
+			if !isSheave(ks[k]) {
+				steppable = append(steppable, k)
 			}
+		}
+		if c := ev.stepSearch(p, ks, ts, qNow, g, steppable, zeroM); c != nil {
 			return c, nil
 		}
 		return none, nil
@@ -603,7 +606,9 @@ func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []q
 }
 
 // stepSearch looks, when no rounding of a continuous answer holds, for a
-// few whole steps that still gain: one adjuster moved up to three steps
+// few whole steps of the knobs idx (no sheave: one is turned back by the
+// continuous answer or not at all) that still gain; their ideal is the
+// steps themselves: one adjuster moved up to three steps
 // either way, or two moved up to two steps each (two coarse threads
 // together make a finer step than either: a flat on one against a flat on
 // the other). The sets are judged on the linear model, those that leave

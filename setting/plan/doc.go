@@ -118,7 +118,10 @@
 //
 // Eccentric sheaves are turned only for a target lead, when the mean lead
 // of the gear an eccentric drives is far from the drawing's (a slipped
-// sheave; the plan says so), or when the profile allows nothing else. A
+// sheave; the plan says so) and more than one reading bears that out
+// (both ends' leads off the same way, a sweep there, or another position
+// the eccentric drives; else the plan asks for the readings again), or
+// when the profile allows nothing else. A
 // knob that acts mainly where the readings pin nothing down (a backward
 // rod with no readings in back gear) is left alone, and the plan says
 // which readings to take.

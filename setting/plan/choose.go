@@ -15,7 +15,14 @@ import (
 type goal struct {
 	prio    Priority
 	running int
-	tol     []float64 // per position: measurement uncertainty of its difference (mm or %)
+	// tol is, per position, how much worse than today its difference (mm
+	// or %) may end at the most, with the plan's own error allowed for
+	// (see worseAt); seen what the setter could see on measuring again,
+	// below which a difference left is not worth a note; sd the error
+	// of today's difference as the readings give it.
+	tol, seen, sd []float64
+	// ks are the knobs the changes judged by worse are of.
+	ks []knob
 	// slack is how much closer a plan of more steps must come to be
 	// preferred (what the setter can measure); fine how much closer a
 	// rounding of as many steps must come (half a gauge division).
@@ -37,27 +44,67 @@ func (g goal) diff(q quantities) float64 {
 // EqualLeads, any position's cut-off difference for EqualCutOffs (full
 // forward and full back are not given away for the running notch), the
 // whole weighted objective for Balanced.
-func (g goal) worse(now, after []quantities, ts []term) bool {
+func (g goal) worse(now, after []quantities, ts []term, a []float64) bool {
 	switch g.prio {
 	case Balanced:
 		return math.Sqrt(sumSquares(ts, after)) > math.Sqrt(sumSquares(ts, now))+g.slack
 	}
 	for i := range now {
-		if g.worseAt(now, after, i) {
+		if g.worseAt(now, after, i, a) {
 			return true
 		}
 	}
 	return false
 }
 
-// worseAt reports whether position i's difference (see diff) ends worse
-// than now by more than the readings can tell; never for Balanced, which
-// judges the whole objective.
-func (g goal) worseAt(now, after []quantities, i int) bool {
+// worseAt reports whether position i's difference (see diff) may end
+// worse than now by more than tol; never for Balanced, which judges the
+// whole objective.
+//
+// Today's difference is known only to its error sd: a change that carries
+// a position past equal is judged as if the position stood as near equal
+// as that error allows (a difference read as 0.06 +/- 0.03 mm may be
+// 0.03, and a change of -0.12 would then leave it 0.09 the other way).
+// A position the readings cannot tell from equal may be moved by no more
+// than tol either way. Common practice, no source: a fitter does not push
+// a setting he cannot see past the mark.
+func (g goal) worseAt(now, after []quantities, i int, a []float64) bool {
 	if g.prio == Balanced {
 		return false
 	}
-	return math.Abs(g.diff(after[i])) > math.Abs(g.diff(now[i]))+g.tol[i]
+	return passedBy(g.diff(now[i]), g.diff(after[i]), sdKnown*g.sd[i])+g.sideDoubt(now[i], a) > g.tol[i]
+}
+
+// sideDoubt returns the error of what changes a (knobs g.ks) do to a
+// position's difference from the doubt of each knob's effect (see
+// effectDoubt), in quadrature and by sideShare: where large changes
+// cancel at a position (a spindle against a radius rod), what is left
+// there is known only to a share of each.
+func (g goal) sideDoubt(q quantities, a []float64) float64 {
+	s := 0.0
+	for k, kb := range g.ks {
+		if k >= len(a) || a[k] == 0 {
+			continue
+		}
+		gd := q.grad[0][kb.p] - q.grad[1][kb.p]
+		if g.prio == EqualCutOffs {
+			gd = q.grad[2][kb.p] - q.grad[3][kb.p]
+		}
+		s += sq(kb.doubt * gd * a[k])
+	}
+	return sideShare * math.Sqrt(s)
+}
+
+// passedBy returns how much worse a difference d (known to sd) may end
+// when moved to a: the most |d'+(a-d)|-|d'| becomes for a true d'
+// within sd of d.
+func passedBy(d, a, sd float64) float64 {
+	move := a - d
+	near := math.Abs(d) - sd // the least the difference may be, on its own side
+	if d*move >= 0 || near <= 0 {
+		return math.Abs(move)
+	}
+	return math.Max(math.Abs(move)-2*near, -math.Abs(move))
 }
 
 // diffTerm reports whether term t is the difference the goal holds from
@@ -85,6 +132,20 @@ const (
 	// the 0.5 % a crosshead marked to half a millimetre can show on a 5 in
 	// gauge stroke (common practice, no source).
 	cutWorsePct = 0.3
+	// leadWorseMM is the most a plan lets a position's lead difference
+	// get worse (on a 5 in gauge engine, scaled with the crank): two
+	// divisions of a 0.01 mm gauge, what a setter reads as a change
+	// (common practice, no source).
+	leadWorseMM = 0.02
+	// sdKnown is how many of its errors a difference today is taken to
+	// be nearer equal than read, when a plan would carry it past equal.
+	sdKnown = 0.5
+	// sideShare is the share of the knobs' doubts (see effectDoubt) by
+	// which a side effect the changes leave at a position is taken to be
+	// off: on the bench's as-built engines such a side effect was off by
+	// one or two per cent of the changes' effects there, not effectDoubt's
+	// five, and a larger share refused plans that held.
+	sideShare = 0.25
 )
 
 // weighing fills the objective's position weights from the uncertainty
@@ -101,7 +162,7 @@ const (
 // difference cutWorsePct.
 func (ev *evaluator) weighing(obj *objective, qNow []quantities, fit *Fit) goal {
 	n := len(qNow)
-	g := goal{prio: obj.prio, running: obj.running, tol: make([]float64, n)}
+	g := goal{prio: obj.prio, running: obj.running, tol: make([]float64, n), seen: make([]float64, n), sd: make([]float64, n)}
 	obj.wLead, obj.wCut = make([]float64, n), make([]float64, n)
 	k := scaleOf(ev.spec)
 	res := gaugeResolution(fit)
@@ -122,11 +183,20 @@ func (ev *evaluator) weighing(obj *objective, qNow []quantities, fit *Fit) goal 
 		} else {
 			readMin = math.Min(readMin, rs)
 		}
-		// Kept within what the setter could see with a margin for the
-		// model's own error (see cutWorsePct).
-		g.tol[i] = math.Max(1.5*res, 1.2*math.Min(rs, leadUnknownMM*k))
+		// What the setter could see on measuring again; a position is
+		// kept from getting worse by less than that, with a margin for
+		// the model's own error (see leadWorseMM, cutWorsePct).
+		g.seen[i] = math.Max(1.5*res, 1.2*math.Min(rs, leadUnknownMM*k))
+		g.tol[i], g.sd[i] = math.Min(g.seen[i], leadWorseMM*k), sl
+		if sl > leadUnknownMM*k && !readAt(fit, ev.ps[i].notch.Reverser) {
+			// A position nobody read is held only as far as the model
+			// knows it, within what a setter could see there; the plan
+			// says which readings to take. (One whose reading was left
+			// out to be taken again is held as strictly as the rest.)
+			g.tol[i], g.sd[i] = g.seen[i], 0
+		}
 		if g.prio == EqualCutOffs {
-			g.tol[i] = cutWorsePct
+			g.tol[i], g.seen[i], g.sd[i] = cutWorsePct, cutWorsePct, sc
 		}
 	}
 	// A plan of more steps is preferred only when it comes closer by
@@ -183,6 +253,20 @@ func readDiffSigma(fit *Fit, r setting.Reverser) (float64, bool) {
 		return 0, false
 	}
 	return math.Sqrt(v), true
+}
+
+// readAt reports whether the round has a dead-centre reading in reverser
+// position r, used in the fit or left out to be taken again.
+func readAt(fit *Fit, r setting.Reverser) bool {
+	if fit == nil {
+		return false
+	}
+	for _, o := range fit.obs {
+		if o.Kind == session.AtDeadCentre && o.Reverser == r {
+			return true
+		}
+	}
+	return false
 }
 
 // gaugeResolution returns the dial gauge's resolution (mm) from the
@@ -282,7 +366,16 @@ func (ev *evaluator) sheavePolicy(ks []knob, qNow []quantities, obj objective, c
 				sm = sdOf(fit, &q, [4]float64{0.5, 0.5, 0, 0})
 			}
 			d := obj.design[pos]
-			if math.Abs(m-d) > math.Max(0.5*math.Abs(d), 0.1*kc)+2*sm {
+			far := math.Abs(m-d) > math.Max(0.5*math.Abs(d), 0.1*kc)+2*sm
+			if far && !ev.slipBorneOut(pos, m-d, qNow, obj, fit) {
+				// One reading alone could say so: a mistyped one looks
+				// the same. The sheave is not turned on its word.
+				pol.usable[i] = false
+				pol.notes = append(pol.notes, fmt.Sprintf("The mean lead in %s is %s, far from the drawing's %s, but only one of its dead-centre readings says so: take them again, or a sweep there, before the %s is turned.",
+					ev.ps[pos].name(), length(m, unit), length(d, unit), partName(k.adj, ev.spec.Gear.Kind)))
+				continue
+			}
+			if far {
 				pol.mean[pos] = true
 				pol.slipped = append(pol.slipped, slip{i, fmt.Sprintf("The mean lead in %s is %s, far from the drawing's %s: the %s has probably slipped on the axle. A spindle or rod change only shares the lead between the ends.",
 					ev.ps[pos].name(), length(m, unit), length(d, unit), partName(k.adj, ev.spec.Gear.Kind))})
@@ -331,6 +424,48 @@ func (ev *evaluator) sheavePolicy(ks []knob, qNow []quantities, obj objective, c
 		}
 	}
 	return pol
+}
+
+// slipBorneOut reports whether more than one reading bears out a slipped
+// sheave whose full-gear position pos has its mean lead off the drawing's
+// by off: both ends' leads there off the same way (a slip moves both, a
+// mistyped reading one), each by at least a quarter as much; a sweep
+// there (its readings show the valve's phase all round); or another
+// position the same eccentric drives (the running notches of its gear; a
+// slip eccentric's other gear) whose mean lead is off the same way by at
+// least a quarter as much (a notch mixes in the other eccentric).
+func (ev *evaluator) slipBorneOut(pos int, off float64, qNow []quantities, obj objective, fit *Fit) bool {
+	if fit == nil {
+		return true
+	}
+	design := obj.design
+	if pos < len(obj.designEnds) {
+		e := obj.designEnds[pos]
+		f, b := qNow[pos].lead[0]-e[0], qNow[pos].lead[1]-e[1]
+		if f*off > 0 && b*off > 0 && math.Min(math.Abs(f), math.Abs(b)) >= 0.25*math.Abs(off) {
+			return true
+		}
+	}
+	want := ev.ps[pos].notch.Reverser
+	for _, o := range fit.obs {
+		if o.Kind == session.InSweep && o.Reverser == want {
+			return true
+		}
+	}
+	single := ev.spec.Gear.Kind == setting.KindSingleEccentric
+	for j, ps := range ev.ps {
+		if j == pos || j >= len(design) || !readAt(fit, ps.notch.Reverser) {
+			continue
+		}
+		if !single && (ps.notch.Reverser > 0) != (want > 0) {
+			continue
+		}
+		mj := (qNow[j].lead[0]+qNow[j].lead[1])/2 - design[j]
+		if mj*off > 0 && math.Abs(mj) >= 0.25*math.Abs(off) {
+			return true
+		}
+	}
+	return false
 }
 
 // unknownPositions marks the positions whose difference (leads, or
@@ -491,7 +626,7 @@ func (ev *evaluator) leftNotes(ks []knob, usable []bool, qNow []quantities, ch *
 			continue
 		}
 		d := g.diff(q)
-		if math.Abs(d) <= g.tol[i] {
+		if math.Abs(d) <= g.seen[i] {
 			continue
 		}
 		what := fmt.Sprintf("the leads will still be %s apart (%s front, %s back)", length(math.Abs(d), unit), length(q.lead[0], unit), length(q.lead[1], unit))

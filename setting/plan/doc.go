@@ -121,7 +121,10 @@
 //
 // Eccentric sheaves are turned only for a target lead, when the mean lead
 // of the gear an eccentric drives is far from the drawing's (a slipped
-// sheave; the plan says so), or when the profile allows nothing else. A
+// sheave; the plan says so) and more than one reading bears that out
+// (both ends' leads off the same way, a sweep there, or another position
+// the eccentric drives; else the plan asks for the readings again), or
+// when the profile allows nothing else. A
 // knob that acts mainly where the readings pin nothing down (a backward
 // rod with no readings in back gear) is left alone, and the plan says
 // which readings to take.
@@ -143,12 +146,18 @@
 // changes are Plan.Ideal), rounded to the whole steps of each adjuster
 // either side, and the roundings judged (the best two on the linkage
 // solved afresh). A plan never leaves a position worse than today by more
-// than the setter could see on measuring again (a lead difference: 1.5
-// gauge divisions or 1.2 times its error as read; a cut-off difference
-// 0.3 % of stroke; Balanced: the whole objective); no change is the
-// answer only when nothing gains more than half a division. An adjuster
-// whose ideal change rounds to nothing is named in a note with what it
-// would want.
+// than a setter reads as a change (a lead difference: two divisions of a
+// 0.01 mm gauge, scaled with the crank; a cut-off difference 0.3 % of
+// stroke; Balanced: the whole objective), judged with the plan's own
+// doubts: a position carried past equal is taken to stand half its error
+// nearer equal than read, and where large changes cancel at a position
+// what is left there counts a share of each knob's doubt. A position the
+// readings do not pin down is held only as the model knows it. When no
+// rounding of a continuous answer holds, a few whole steps are tried (one
+// adjuster up to three steps, or two together: coarse threads against
+// each other make a finer step); no change is the answer only when
+// nothing gains more than half a division. An adjuster whose ideal change
+// rounds to nothing is named in a note with what it would want.
 //
 // Rounding: a length on a thread moves in whole flats (pitch / flats per
 // turn; 6 when not given; a thread turned by halves is written in half

@@ -282,7 +282,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 		}
 	}
 	running := runningIndex(spec, ps, opt)
-	design, full, err := designLeads(ev, drawn, ps)
+	design, full, ends, err := designLeads(ev, drawn, ps)
 	if err != nil {
 		return nil, err
 	}
@@ -307,7 +307,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 			return nil, err
 		}
 	}
-	main, err := ev.plan(p, ks, qNow, objective{prio: opt.Priority, weight: opt.Weight, running: running, target: opt.TargetLeadMM, design: design, full: full}, canLead, fit, opt.Unit)
+	main, err := ev.plan(p, ks, qNow, objective{prio: opt.Priority, weight: opt.Weight, running: running, target: opt.TargetLeadMM, design: design, designEnds: ends, full: full}, canLead, fit, opt.Unit)
 	if err != nil {
 		return nil, err
 	}
@@ -326,7 +326,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	if opt.Priority == EqualCutOffs {
 		other = EqualLeads
 	}
-	plan.later = &otherWork{ev: ev, p: p, ks: ks, qNow: qNow, obj: objective{prio: other, running: running, target: opt.TargetLeadMM, design: design, full: full},
+	plan.later = &otherWork{ev: ev, p: p, ks: ks, qNow: qNow, obj: objective{prio: other, running: running, target: opt.TargetLeadMM, design: design, designEnds: ends, full: full},
 		canLead: canLead, fit: fit, unit: opt.Unit, main: main, prio: opt.Priority, running: running, noteAt: len(plan.Notes)}
 	if !opt.OtherLater {
 		plan.AddOther()
@@ -355,13 +355,14 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 	return plan, nil
 }
 
-// designLeads returns the drawing's mean lead in each position and which
-// positions are full gear.
-func designLeads(ev *evaluator, drawn setting.EngineSpec, ps []position) ([]float64, []bool, error) {
+// designLeads returns the drawing's mean lead in each position, which
+// positions are full gear, and each end's lead.
+func designLeads(ev *evaluator, drawn setting.EngineSpec, ps []position) ([]float64, []bool, [][2]float64, error) {
 	g, err := Model{Spec: drawn}.Gear()
 	if err != nil {
-		return nil, nil, err
+		return nil, nil, nil, err
 	}
+	ends := make([][2]float64, len(ps))
 	design := make([]float64, len(ps))
 	full := make([]bool, len(ps))
 	anyFull := false
@@ -370,10 +371,11 @@ func designLeads(ev *evaluator, drawn setting.EngineSpec, ps []position) ([]floa
 		for k, th := range []float64{0, ev.crank.BackDeadCentre()} {
 			x, err := g.Valve(ev.spec.Engine, th, ps[i].notch.Reverser)
 			if err != nil {
-				return nil, nil, &setting.Error{Field: "engine.gear", Message: "The gear as drawn cannot close at a dead centre: " + err.Error()}
+				return nil, nil, nil, &setting.Error{Field: "engine.gear", Message: "The gear as drawn cannot close at a dead centre: " + err.Error()}
 			}
 			lead[k] = drawn.Valve.SteamEdge(setting.CylinderEnd(k), x)
 		}
+		ends[i] = lead
 		design[i] = (lead[0] + lead[1]) / 2
 		full[i] = math.Abs(float64(ps[i].notch.Reverser)) == 1
 		anyFull = anyFull || full[i]
@@ -381,7 +383,7 @@ func designLeads(ev *evaluator, drawn setting.EngineSpec, ps []position) ([]floa
 	if !anyFull {
 		full = nil
 	}
-	return design, full, nil
+	return design, full, ends, nil
 }
 
 // planned is one solved plan.

@@ -52,6 +52,7 @@ type option struct {
 // division (or the fine tolerance) without leaving a position worse.
 func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []quantities, g goal, usable []bool) (*choice, error) {
 	n := len(ks)
+	g.ks = ks
 	var idx []int
 	for k := range ks {
 		if usable[k] {
@@ -84,7 +85,7 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 		}
 		a := minimaxIdeal(ks, ts, qNow, set, rd, lin, g)
 		linearAt(qNow, ks, a, lin)
-		o := option{set: set, a: a, measure: measure(ts, lin), worse: g.worse(qNow, lin, ts)}
+		o := option{set: set, a: a, measure: measure(ts, lin), worse: g.worse(qNow, lin, ts, a)}
 		for _, k := range set {
 			o.effort += math.Abs(a[k]) / ks[k].scale
 		}
@@ -135,7 +136,7 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 			}
 			polished++
 			a, q, d := ev.polish(p, ks, ts, qNow, o.set, o.a, g)
-			if !g.worse(qNow, q, ts) {
+			if !g.worse(qNow, q, ts, a) {
 				o.a, o.q, o.defect, o.measure, o.polished = a, q, d, measure(ts, q), true
 			}
 		}
@@ -171,9 +172,19 @@ func (ev *evaluator) choose(p [numParams]float64, ks []knob, ts []term, qNow []q
 	}
 	if len(found) == 0 {
 		if firstIdeal != nil {
-			// No step hands can make holds; the continuous answer is
-			// still reported (Plan.Ideal), with why it is not made.
+			// No rounding of a continuous answer holds; the continuous
+			// answer is still reported (Plan.Ideal), with why it is not
+			// made.
 			none.ideal = firstIdeal
+		}
+		var steppable []int
+		for _, k := range idx {
+			if !isSheave(ks[k]) {
+				steppable = append(steppable, k)
+			}
+		}
+		if c := ev.stepSearch(p, ks, ts, qNow, g, steppable, zeroM); c != nil {
+			return c, nil
 		}
 		return none, nil
 	}
@@ -200,7 +211,7 @@ func minimaxIdeal(ks []knob, ts []term, qNow []quantities, set []int, rd []float
 	a := weightedIdeal(ks, ts, qNow, set, nil, rd)
 	linearAt(qNow, ks, a, lin)
 	bestA, bestM := a, math.Inf(1)
-	if !g.worse(qNow, lin, ts) {
+	if !g.worse(qNow, lin, ts, a) {
 		bestM = measure(ts, lin)
 	}
 	tw := make([]float64, len(ts))
@@ -221,7 +232,7 @@ func minimaxIdeal(ks []knob, ts []term, qNow []quantities, set []int, rd []float
 			break
 		}
 		for ti, t := range ts {
-			if g.diffTerm(t) && g.worseAt(qNow, lin, t.pos) {
+			if g.diffTerm(t) && g.worseAt(qNow, lin, t.pos, a) {
 				hold[ti] *= 10
 			}
 		}
@@ -232,7 +243,7 @@ func minimaxIdeal(ks []knob, ts []term, qNow []quantities, set []int, rd []float
 		}
 		a = weightedIdeal(ks, ts, qNow, set, w, rd)
 		linearAt(qNow, ks, a, lin)
-		if g.worse(qNow, lin, ts) {
+		if g.worse(qNow, lin, ts, a) {
 			continue
 		}
 		if m := measure(ts, lin); m < bestM-1e-9 {
@@ -269,7 +280,7 @@ func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow 
 			}
 		}
 		m := measure(ts, lin)
-		if g.worse(qNow, lin, ts) {
+		if g.worse(qNow, lin, ts, a) {
 			m += 1e6
 		}
 		return m
@@ -376,7 +387,7 @@ func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow 
 		}
 		seen[key] = true
 		q, err := ev.quick(ev.surrogate(ks, c.a, defect), qI, nil)
-		if err != nil || g.worse(qNow, q, ts) {
+		if err != nil || g.worse(qNow, q, ts, c.a) {
 			continue
 		}
 		rs = append(rs, judgedR{c.a, measure(ts, q)})
@@ -386,24 +397,12 @@ func (ev *evaluator) roundBest(p [numParams]float64, ks []knob, ts []term, qNow 
 		if x >= 2 {
 			break
 		}
-		cs, err := ev.curvesAt(applyKnobs(p, ks, r.a))
-		if err != nil {
+		ch, ok := ev.exactChoice(p, ks, ts, qNow, g, r.a)
+		if !ok {
 			continue
 		}
-		full, err := ev.eventsOf(cs, nil)
-		if err != nil || g.worse(qNow, full, ts) {
-			continue
-		}
-		for i := range full {
-			full[i].grad, full[i].cg, full[i].group = qNow[i].grad, qNow[i].cg, qNow[i].group
-		}
-		ch := &choice{ideal: ideal, rounded: r.a, qAft: full}
-		for k, v := range r.a {
-			if v != 0 {
-				ch.set = append(ch.set, k)
-			}
-		}
-		return ch, measure(ts, full), true, ideal
+		ch.ideal = ideal
+		return ch, measure(ts, ch.qAft), true, ideal
 	}
 	return nil, math.Inf(1), false, ideal
 }
@@ -537,7 +536,7 @@ func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []q
 			}
 			for ti, t := range ts {
 				tw[ti] = tw[ti]/s*float64(len(tw)) + 1e-9
-				if g.diffTerm(t) && g.worseAt(qNow, q, t.pos) {
+				if g.diffTerm(t) && g.worseAt(qNow, q, t.pos, a) {
 					tw[ti] *= 10
 				}
 			}
@@ -554,7 +553,7 @@ func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []q
 		if !ok {
 			break
 		}
-		if !g.worse(qNow, qe, ts) {
+		if !g.worse(qNow, qe, ts, a) {
 			if mq := measure(ts, qe); mq < bestM {
 				bestA, bestM, bestCS = append([]float64(nil), a...), mq, cs
 			}
@@ -604,4 +603,120 @@ func (ev *evaluator) polish(p [numParams]float64, ks []knob, ts []term, qNow []q
 		}
 	}
 	return bestA, q, defect
+}
+
+// stepSearch looks, when no rounding of a continuous answer holds, for a
+// few whole steps of the knobs idx (no sheave: one is turned back by the
+// continuous answer or not at all) that still gain; their ideal is the
+// steps themselves: one adjuster moved up to three steps
+// either way, or two moved up to two steps each (two coarse threads
+// together make a finer step than either: a flat on one against a flat on
+// the other). The sets are judged on the linear model, those that leave
+// nothing worse and gain more than half a division ranked (within the
+// slack of the best, fewest steps first), and the first three checked on
+// the linkage solved afresh. It returns nil when none gains.
+func (ev *evaluator) stepSearch(p [numParams]float64, ks []knob, ts []term, qNow []quantities, g goal, idx []int, zeroM float64) *choice {
+	type cand struct {
+		a     []float64
+		m     float64
+		steps int
+	}
+	n := len(ks)
+	lin := make([]quantities, len(qNow))
+	var cs []cand
+	try := func(a []float64, steps int) {
+		for _, k := range idx {
+			if a[k] < ks[k].adj.Min-1e-9 || a[k] > ks[k].adj.Max+1e-9 {
+				return
+			}
+		}
+		linearAt(qNow, ks, a, lin)
+		if g.worse(qNow, lin, ts, a) {
+			return
+		}
+		if m := measure(ts, lin); m < zeroM-g.fine {
+			cs = append(cs, cand{a, m, steps})
+		}
+	}
+	for x, k := range idx {
+		for s := -3; s <= 3; s++ {
+			if s == 0 {
+				continue
+			}
+			a := make([]float64, n)
+			a[k] = float64(s) * ks[k].step
+			try(a, abs(s))
+			for _, k2 := range idx[x+1:] {
+				if abs(s) > 2 {
+					continue
+				}
+				for s2 := -2; s2 <= 2; s2++ {
+					if s2 == 0 {
+						continue
+					}
+					b := append([]float64(nil), a...)
+					b[k2] = float64(s2) * ks[k2].step
+					try(b, abs(s)+abs(s2))
+				}
+			}
+		}
+	}
+	if len(cs) == 0 {
+		return nil
+	}
+	best := math.Inf(1)
+	for _, c := range cs {
+		best = math.Min(best, c.m)
+	}
+	sort.SliceStable(cs, func(i, j int) bool {
+		ti, tj := cs[i].m <= best+g.slack, cs[j].m <= best+g.slack
+		if ti != tj {
+			return ti
+		}
+		if ti && cs[i].steps != cs[j].steps {
+			return cs[i].steps < cs[j].steps
+		}
+		return cs[i].m < cs[j].m
+	})
+	for x, c := range cs {
+		if x >= 3 {
+			break
+		}
+		if ch, ok := ev.exactChoice(p, ks, ts, qNow, g, c.a); ok && measure(ts, ch.qAft) < zeroM-g.fine {
+			return ch
+		}
+	}
+	return nil
+}
+
+func abs(i int) int {
+	if i < 0 {
+		return -i
+	}
+	return i
+}
+
+// exactChoice solves the linkage afresh with the whole-step changes a and
+// returns them as the plan's choice (its ideal a as well, for the caller
+// to replace), or false when the linkage does not close or a position
+// would end worse.
+func (ev *evaluator) exactChoice(p [numParams]float64, ks []knob, ts []term, qNow []quantities, g goal, a []float64) (*choice, bool) {
+	cs, err := ev.curvesAt(applyKnobs(p, ks, a))
+	if err != nil {
+		return nil, false
+	}
+	full, err := ev.eventsOf(cs, nil)
+	if err != nil || g.worse(qNow, full, ts, a) {
+		return nil, false
+	}
+	for i := range full {
+		full[i].grad, full[i].cg, full[i].group = qNow[i].grad, qNow[i].cg, qNow[i].group
+	}
+	ch := &choice{ideal: a, rounded: a, qAft: full}
+	for k, v := range a {
+		if v != 0 {
+			ch.set = append(ch.set, k)
+		}
+	}
+	return ch, true
 }

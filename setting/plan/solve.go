@@ -653,7 +653,10 @@ type objective struct {
 	target  *float64
 	// design is the drawing's mean lead per position.
 	design []float64
-	full   []bool // positions in full gear, where a target lead applies
+	// designEnds is the drawing's lead at each end (front, back) per
+	// position.
+	designEnds [][2]float64
+	full       []bool // positions in full gear, where a target lead applies
 	// wLead and wCut weigh each position's differences by how well the
 	// readings know them (see weighing); nil weighs all alike.
 	wLead, wCut []float64

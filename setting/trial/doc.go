@@ -12,7 +12,13 @@
 // It is the project's bench for the plan: TestTrials runs it and prints
 // its table (go test -run TestTrials -v ./setting/trial; EVENBEAT_TRIALS=600
 // for the full figures), TestStepUncertaintyCoversTheScatter checks each
-// step's +/- against repeated rounds (StepCoverage). Nothing in the app
+// step's +/- against repeated rounds (StepCoverage).
+// EVENBEAT_TRIAL_FAILS=all lists every priority's failures with their
+// second round; TestDiagnose (EVENBEAT_DIAG=12:leads,40:cut-offs, with
+// EVENBEAT_DIAG_SHORT=1 for a line a position) prints what one engine's
+// plan believed of each position today and after, against the truth, and
+// the true effect of each adjustment: it tells a wrong state (the fit)
+// from a wrong move (the planner). Nothing in the app
 // imports it. It imports the standard
 // library and evenbeat/setting, evenbeat/setting/session and
 // evenbeat/setting/plan.
@@ -47,7 +53,9 @@
 // position. A plan is "worse" when a position ends farther from equal
 // than before by more than the readings can tell (0.02 mm, 0.5 %, or
 // for a balance the whole objective), and a "refusal" when it changes
-// nothing while whole steps could gain more than that. The second round
+// nothing while whole steps could gain more than that (a plan that names
+// the mistyped reading for taking again and waits for it is not one: the
+// setter is told what to do). The second round
 // makes the first plan's rounded steps, reads the engine again and plans
 // again.
 package trial

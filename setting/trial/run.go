@@ -32,10 +32,9 @@ type Case struct {
 	Second []Result
 }
 
-// RunOne draws engine number i of a bench seeded with seed (the gears
-// taken in turn), takes its round and tries every priority.
-func RunOne(seed uint64, i int, opt Options) (Case, error) {
-	r := rand.New(rand.NewPCG(seed, uint64(i)))
+// drawEngine draws engine number i of a bench from r (the gears taken in
+// turn), drawing again when a design does not work.
+func drawEngine(r *rand.Rand, i int, opt Options) (Engine, error) {
 	kind := Kinds[i%len(Kinds)]
 	var e Engine
 	var err error
@@ -44,6 +43,14 @@ func RunOne(seed uint64, i int, opt Options) (Case, error) {
 			break
 		}
 	}
+	return e, err
+}
+
+// RunOne draws engine number i of a bench seeded with seed (the gears
+// taken in turn), takes its round and tries every priority.
+func RunOne(seed uint64, i int, opt Options) (Case, error) {
+	r := rand.New(rand.NewPCG(seed, uint64(i)))
+	e, err := drawEngine(r, i, opt)
 	if err != nil {
 		return Case{}, err
 	}
@@ -57,6 +64,12 @@ func RunOne(seed uint64, i int, opt Options) (Case, error) {
 		res, err := e.Try(s, p)
 		if err != nil {
 			return c, fmt.Errorf("engine %d, %s: %w", i, p, err)
+		}
+		if res.Refused && rd.Wild >= 0 && res.names(wildField(rd.Wild)) {
+			// A plan that names the mistyped reading for taking again
+			// and waits for it has not refused: the setter is told what
+			// to do, and nothing measured says how far to go until then.
+			res.Refused = false
 		}
 		c.Results = append(c.Results, res)
 		e2 := e
@@ -78,6 +91,23 @@ func RunOne(seed uint64, i int, opt Options) (Case, error) {
 		c.Second = append(c.Second, res2)
 	}
 	return c, nil
+}
+
+// wildField is the session field of the dead-centre reading number i of
+// the first round, as a plan names it for taking again.
+func wildField(i int) string {
+	return fmt.Sprintf("cylinders[0].rounds[0].dead_centre_readings[%d]", i)
+}
+
+// names reports whether the plan asked for the reading in field to be
+// taken again.
+func (r Result) names(field string) bool {
+	for _, f := range r.Rechecked {
+		if f == field {
+			return true
+		}
+	}
+	return false
 }
 
 // Tally counts the results of one priority over a set of engines.
@@ -126,7 +156,7 @@ func Summarise(cs []Case) Summary {
 			want := ""
 			if c.Round.Wild >= 0 {
 				s.Wild++
-				want = fmt.Sprintf("cylinders[0].rounds[0].dead_centre_readings[%d]", c.Round.Wild)
+				want = wildField(c.Round.Wild)
 			}
 			for _, f := range c.Results[0].Rechecked {
 				if f == want {
@@ -216,10 +246,13 @@ func (c Case) Describe(w io.Writer, prio plan.Priority) {
 	e := c.Engine
 	fmt.Fprintf(w, "case %d: %s %s crank %.1f, %s admission, %d positions; round: sweeps %g, cut-offs %v, feelers %v, wild %d (%+.2f); errors: %s\n",
 		c.Index, e.Kind, e.Size, e.Drawing.Engine.CrankRadius, e.Drawing.Valve.Admission, len(e.Positions), c.Round.SweepStepDeg, c.Round.CutOffs, c.Round.Feelers, c.Round.Wild, c.Round.WildMM, strings.Join(e.Errors, "; "))
-	_ = prio
-	for _, r := range c.Results {
+	for i, r := range c.Results {
 		if r.Prio != prio {
 			continue
+		}
+		if i < len(c.Second) {
+			s := c.Second[i]
+			fmt.Fprintf(w, "  second round: before %.3f rounded %.3f best %.3f pass %v worse %v refused %v steps %d\n", s.Before, s.Rounded, s.Best, s.RoundPass, s.Worse, s.Refused, s.Steps)
 		}
 		fmt.Fprintf(w, "  %-9s before %.3f ideal %.3f rounded %.3f (predicted %.3f) best %.3f pass %v/%v worse %v refused %v steps %d %s\n    ideal %v\n    best  %v\n",
 			r.Prio, r.Before, r.Ideal, r.Rounded, r.Predicted, r.Best, r.Pass, r.RoundPass, r.Worse, r.Refused, r.Steps, r.Err, fmtAmounts(r.IdealAmounts), fmtAmounts(r.BestAmounts))
@@ -250,14 +283,7 @@ type Coverage struct {
 // +/- the plans state.
 func StepCoverage(seed uint64, i, trials int) (Coverage, error) {
 	r := rand.New(rand.NewPCG(seed, uint64(i)))
-	kind := Kinds[i%len(Kinds)]
-	var e Engine
-	var err error
-	for try := 0; try < 20; try++ {
-		if e, err = NewEngine(r, kind, Options{}); err == nil {
-			break
-		}
-	}
+	e, err := drawEngine(r, i, Options{})
 	if err != nil {
 		return Coverage{}, err
 	}
@@ -319,14 +345,7 @@ func StepCoverage(seed uint64, i, trials int) (Coverage, error) {
 // for looking at one plan quickly.
 func RunOneFirst(seed uint64, i int) (Case, error) {
 	r := rand.New(rand.NewPCG(seed, uint64(i)))
-	kind := Kinds[i%len(Kinds)]
-	var e Engine
-	var err error
-	for try := 0; try < 20; try++ {
-		if e, err = NewEngine(r, kind, Options{}); err == nil {
-			break
-		}
-	}
+	e, err := drawEngine(r, i, Options{})
 	if err != nil {
 		return Case{}, err
 	}

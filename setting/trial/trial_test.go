@@ -66,9 +66,11 @@ func TestTrials(t *testing.T) {
 		}{
 			// Shares of engines; "first": the plan's continuous amounts
 			// after one round, "second": rounded amounts after two.
-			"leads":    {0.28, 0.90, 8},
-			"cut-offs": {0.38, 0.90, 3},
-			"balanced": {0.38, 0.80, 3},
+			// Reached on these engines: 33/92 % with 2 worse, 47/90 %
+			// with none, 45/88 % with none.
+			"leads":    {0.30, 0.90, 3},
+			"cut-offs": {0.42, 0.90, 2},
+			"balanced": {0.40, 0.84, 2},
 		}
 		for _, p := range Priorities {
 			tl := sum.All[p]
@@ -80,8 +82,8 @@ func TestTrials(t *testing.T) {
 			if share(tl.Pass) < f.first || share(tl.Second) < f.second {
 				t.Errorf("%s: %.0f %% pass after one round (floor %.0f %%), %.0f %% after two (floor %.0f %%)", p, 100*share(tl.Pass), 100*f.first, 100*share(tl.Second), 100*f.second)
 			}
-			if tl.Worse > f.worse || tl.Refused > 3 {
-				t.Errorf("%s: %d plans leave a position worse (at most %d), %d refuse a gain (at most 3)", p, tl.Worse, f.worse, tl.Refused)
+			if tl.Worse > f.worse || tl.Refused > 2 {
+				t.Errorf("%s: %d plans leave a position worse (at most %d), %d refuse a gain (at most 2)", p, tl.Worse, f.worse, tl.Refused)
 			}
 		}
 		for _, c := range cs {
@@ -93,11 +95,13 @@ func TestTrials(t *testing.T) {
 		}
 	}
 	// EVENBEAT_TRIAL_FAILS=leads (or cut-offs, balanced) lists the
-	// engines that priority's plan failed on.
+	// engines that priority's plan failed on; "all" lists every
+	// priority's.
 	if prio := os.Getenv("EVENBEAT_TRIAL_FAILS"); prio != "" {
 		for _, c := range cs {
-			for _, r := range c.Results {
-				if string(r.Prio) == prio && (!r.Pass || r.Worse || r.Refused) {
+			for i, r := range c.Results {
+				second := i < len(c.Second) && !c.Second[i].RoundPass
+				if (prio == "all" || string(r.Prio) == prio) && (!r.Pass || r.Worse || r.Refused || second) {
 					var b strings.Builder
 					c.Describe(&b, r.Prio)
 					t.Log(b.String())

@@ -187,6 +187,43 @@ func (a *App) sidesWords(l *layouter, pos beat.Position) {
 	for _, t := range beat.SideWords(pos, u) {
 		l.text(t, true)
 	}
+	if lead, ok := a.wholeBeat().matchedLead(); ok {
+		l.button(MatchLeadsLabel+": "+session.FormatLength(lead, u), false, func() { a.matchLeads(lead) })
+	}
+}
+
+// MatchLeadsLabel begins the whole engine's button that plans every
+// cylinder to the same lead.
+const MatchLeadsLabel = "Same lead on every cylinder"
+
+// matchedLead is the lead to plan every cylinder to when their mean leads
+// in full forward stay apart after the plans by more than the gauge tells
+// (the mean of them, mm); ok is false when they already match, or when a
+// target lead already holds them to one.
+func (w *wholeEngine) matchedLead() (float64, bool) {
+	if w.s == nil || w.s.Aims.TargetLeadMM != nil {
+		return 0, false
+	}
+	for _, p := range w.ps {
+		if p.Name != session.FullForward || len(p.Sides) < 2 {
+			continue
+		}
+		lo, hi, mean := p.Sides[0].LeadAfter, p.Sides[0].LeadAfter, 0.0
+		for _, sd := range p.Sides {
+			lo, hi = min(lo, sd.LeadAfter), max(hi, sd.LeadAfter)
+			mean += sd.LeadAfter / float64(len(p.Sides))
+		}
+		return mean, hi-lo > w.s.Measuring.GaugeResolutionMM*2
+	}
+	return 0, false
+}
+
+// matchLeads keeps lead (mm) as the session's target lead, which every
+// cylinder's plan aims at, and plans again: the cylinders matched to each
+// other as well as front against back, where their sheaves allow it.
+func (a *App) matchLeads(lead float64) {
+	a.setTargetLead(&lead)
+	a.makePlan()
 }
 
 // drawWhole draws the beat card of the position shown.

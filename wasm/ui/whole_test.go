@@ -6,6 +6,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"os"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -475,4 +476,59 @@ func threeCylinders(t *testing.T) *session.Session {
 	mid.Name = "middle"
 	s.Cylinders = []session.Cylinder{s.Cylinders[0], mid, s.Cylinders[1]}
 	return s
+}
+
+// TestSameLeadOnEveryCylinder: where the cylinders' mean leads in full
+// forward stay apart after their plans (here the left cylinder's laps
+// taken 0.06 mm less and its leads read that much more with feelers), the whole engine offers to plan every
+// cylinder to one lead, the mean of them; a tap keeps it as the session's
+// target lead, which every cylinder's plan then aims at, and the offer
+// goes.
+func TestSameLeadOnEveryCylinder(t *testing.T) {
+	s := demoSession(t)
+	s.Aims.TargetLeadMM = nil
+	r := &s.Cylinders[1].Rounds[len(s.Cylinders[1].Rounds)-1]
+	r.Laps.FrontMM -= 0.06
+	r.Laps.BackMM -= 0.06
+	for k := range r.FeelerOpenings {
+		r.FeelerOpenings[k].OpeningMM += 0.06
+	}
+	full := positionOf(t, s, session.FullForward)
+	if len(full.Sides) != 2 || math.Abs(full.Sides[0].LeadAfter-full.Sides[1].LeadAfter) < 0.04 {
+		t.Fatalf("the sides' leads after the plans are not apart: %+v", full.Sides)
+	}
+	want := (full.Sides[0].LeadAfter + full.Sides[1].LeadAfter) / 2
+	a, _, _, _ := wholeApp(t, s)
+	tg, ok := targetAt(a, MatchLeadsLabel+": "+session.FormatLength(want, a.unit()))
+	if !ok {
+		text, _ := flatText(a)
+		t.Fatalf("no offer of one lead for every cylinder (%s):\n%s", session.FormatLength(want, a.unit()), text)
+	}
+	tg.act()
+	got := a.Session().Aims.TargetLeadMM
+	if got == nil || math.Abs(*got-want) > 1e-9 {
+		t.Fatalf("the target lead kept is %v; want %.4f mm", got, want)
+	}
+	if _, ok := targetAt(a, MatchLeadsLabel+": "+session.FormatLength(want, a.unit())); ok {
+		t.Error("the offer stays once every cylinder is planned to one lead")
+	}
+	// The demo's sheaves turn in whole steps, so the lead is met only to
+	// a step; each plan says where it is not met and what it gives.
+	after := positionOf(t, a.Session(), session.FullForward)
+	apart := func(p beat.Position) float64 { return math.Abs(p.Sides[0].LeadAfter - p.Sides[1].LeadAfter) }
+	if apart(after) > apart(full) {
+		t.Errorf("planned to one lead, the sides' leads in full forward are %.3f mm apart, further than before (%.3f)", apart(after), apart(full))
+	}
+	for i := range a.Session().Cylinders {
+		a.cyl = i
+		a.makePlan()
+		if a.plan == nil {
+			t.Fatalf("no plan for cylinder %d: %q", i, a.planNote)
+		}
+		if !slices.ContainsFunc(a.plan.Notes, func(n string) bool {
+			return strings.Contains(n, "target lead of "+session.FormatLength(want, a.unit()))
+		}) {
+			t.Errorf("cylinder %d's plan says nothing of the target lead: %q", i, a.plan.Notes)
+		}
+	}
 }

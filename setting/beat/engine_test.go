@@ -82,11 +82,19 @@ func TestSidesCompared(t *testing.T) {
 	if err := WriteText(&b, nil, []Position{p}, nil, session.UnitMM); err != nil {
 		t.Fatal(err)
 	}
-	for _, want := range []string{"leads stay 0.10 mm apart", "same target lead, e.g. 0.25 mm", "cut off 2.0 % of stroke apart", "reversing linkage"} {
+	for _, want := range []string{"leads stay 0.10 mm apart", "same target lead (the lead wanted in full gear).", "cut off 2.0 % of stroke apart", "reversing linkage"} {
 		if !strings.Contains(b.String(), want) {
 			t.Errorf("the comparison lacks %q:\n%s", want, b.String())
 		}
 	}
+	// In full gear the target lead to give is the mean of the sides'.
+	p.Name = session.FullForward
+	b.Reset()
+	WriteText(&b, nil, []Position{p}, nil, session.UnitMM)
+	if want := "same target lead, e.g. 0.25 mm."; !strings.Contains(b.String(), want) {
+		t.Errorf("the comparison in full forward lacks %q:\n%s", want, b.String())
+	}
+	p.Name = "running notch"
 	p.Sides[1].LeadAfter, p.Sides[1].CutOffAfter = 0.205, 40.2
 	b.Reset()
 	WriteText(&b, nil, []Position{p}, nil, session.UnitMM)

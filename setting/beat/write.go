@@ -117,7 +117,13 @@ func SideWords(p Position, unit session.Unit) []string {
 	}
 	var out []string
 	if hiL-loL > sideLeadTolMM {
-		out = append(out, "The cylinders' leads stay "+session.FormatLength(hiL-loL, unit)+" apart after the plans: only the eccentric sheaves (or return cranks) move a cylinder's mean lead; to match them, plan every cylinder with the same target lead, e.g. "+session.FormatLength(mean, unit)+".")
+		// A target lead is a lead in full gear: the mean of this
+		// position's leads is one only there.
+		eg := " (the lead wanted in full gear)."
+		if p.Name == session.FullForward || p.Name == session.FullBack {
+			eg = ", e.g. " + session.FormatLength(mean, unit) + "."
+		}
+		out = append(out, "The cylinders' leads stay "+session.FormatLength(hiL-loL, unit)+" apart after the plans: only the eccentric sheaves (or return cranks) move a cylinder's mean lead; to match them, plan every cylinder with the same target lead"+eg)
 	}
 	if hiC-loC > sideCutTolPct {
 		out = append(out, "The cylinders cut off "+strconv.FormatFloat(hiC-loC, 'f', 1, 64)+" % of stroke apart after the plans: in a notch that is set by each side's reversing linkage (its lifting link or reach rod), which the plans do not change yet; check the die's place in each link with the reverser in that notch.")

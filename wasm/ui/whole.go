@@ -194,7 +194,7 @@ func (a *App) sidesWords(l *layouter, pos beat.Position) {
 
 // MatchLeadsLabel begins the whole engine's button that plans every
 // cylinder to the same lead.
-const MatchLeadsLabel = "Same lead on every cylinder"
+const MatchLeadsLabel = "Same full-gear lead on every cylinder"
 
 // matchedLead is the lead to plan every cylinder to when their mean leads
 // in full forward stay apart after the plans by more than the gauge tells

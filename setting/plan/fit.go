@@ -858,6 +858,11 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 		res = 0.01
 	}
 	k := scaleOf(spec)
+	// A reading is suspected against what the gear's unmodelled errors
+	// could do, and those grow slower than the engine: a full-size shop
+	// holds larger errors than a model engineer's, but not twelve times
+	// larger (common practice, no source).
+	ks := math.Pow(k, 0.7)
 	pb.prior = priors(spec, dcSig)
 	pb.idx = []param{pGaugeZero, pValveOffset}
 	if hasSweep(obs) {
@@ -910,19 +915,28 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 	// (With a sweep the unmodelled parts are pinned by the sweep's own
 	// readings, and a slip stands out against them: the first pass is
 	// not needed.)
+	// A position swept keeps its unmodelled part in this first pass (its
+	// own readings pin it); the dead-centre readings of the others are
+	// checked against the deviations alone.
 	nc := pb.cN
-	sweep := hasSweep(obs)
 	pb.cN = make([]int, len(pb.revs))
-	sA := state{p: s0.p}
-	var err error
-	if !sweep {
-		if sA, err = pb.fitOuter(sA); err != nil {
-			return nil, err
+	swept := false
+	for g, n := range nc {
+		if n >= 5 {
+			pb.cN[g], swept = n, true
 		}
 	}
-	if !opt.NoRecheck && !sweep {
-		if cands := pb.suspects(sA, k, suspectFloor); len(cands) > 0 {
-			if named, q, ok := pb.confirm(sA, cands, k, suspectFloor); ok {
+	sA := state{p: s0.p}
+	if swept {
+		sA.c = make([]float64, pb.nc())
+	}
+	sA, err := pb.fitOuter(sA)
+	if err != nil {
+		return nil, err
+	}
+	if !opt.NoRecheck {
+		if cands := pb.suspects(sA, ks, suspectFloor); len(cands) > 0 {
+			if named, q, ok := pb.confirm(sA, cands, ks, suspectFloor); ok {
 				f.expect = append(f.expect, named...)
 				sA = q
 			}
@@ -939,7 +953,7 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 	// With the unmodelled parts a sweep's readings check one another
 	// closely: a knocked reading among them stands out there.
 	if !opt.NoRecheck && len(f.expect) == 0 {
-		if cands := pb.suspects(s, k, 0); len(cands) > 0 && cands[0].t > 5 && (len(cands) == 1 || cands[0].t > 2*cands[1].t) {
+		if cands := pb.suspects(s, ks, 0); len(cands) > 0 && cands[0].t > 5 && (len(cands) == 1 || cands[0].t > 2*cands[1].t) {
 			pb.use[cands[0].i] = false
 			f.expect = append(f.expect, cands[0])
 			pb.setUnmodelled(k)
@@ -1084,15 +1098,26 @@ func (pb *problem) confirm(s state, cands []expected, k, floor float64) ([]expec
 			pred := pb.predictS(c.i, q)
 			sd := math.Hypot(pb.sig[c.i], floor*k)
 			worst := pb.worstResidual(q, k, floor)
-			tries = append(tries, try{expected{i: c.i, expect: pred, t: math.Abs(Target(o)-pred) / sd, with: -1}, q, worst < 3, worst})
+			t := math.Abs(Target(o)-pred) / sd
+			// The rest agree: every residual within three standard
+			// deviations, or the one left out stands at least twice as
+			// far off as any left in.
+			tries = append(tries, try{expected{i: c.i, expect: pred, t: t, with: -1}, q, worst < math.Max(3, t/2), worst})
 		}
 		pb.use[c.i] = true
 	}
 	var good []try
 	for _, t := range tries {
+
 		if t.agrees && t.e.t > 4 && math.Abs(Target(pb.obs[t.e.i])-t.e.expect) > 0.15*k {
 			good = append(good, t)
 		}
+	}
+	// The one whose leaving out makes the rest agree best; a second is
+	// named beside it only when it explains the rest nearly as well.
+	sort.SliceStable(good, func(a, b int) bool { return good[a].worst < good[b].worst })
+	if len(good) > 1 && good[1].worst > math.Max(2*good[0].worst, good[0].worst+0.5) {
+		good = good[:1]
 	}
 	switch len(good) {
 	case 0:

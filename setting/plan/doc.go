@@ -82,11 +82,12 @@
 // full-size shop's errors are larger, not twelve times larger); the fit is
 // made again without each, and the one whose leaving out makes the rest
 // agree (every residual within three standard deviations, or the one left
-// out twice as far off as any left in) best is named with what the fit
-// without it predicts ("Take again the front dead centre, full back: the
-// gauge read 4.53 mm, where the other readings put it near 3.33 mm").
-// Two that would each explain the rest nearly as well are named as a pair
-// and both left out. With a sweep, a knocked reading in it stands out
+// out twice as far off as any left in) best (the least sum of squares,
+// priors included, of what is left) is named with what the fit without it
+// predicts ("Take again the front dead centre, full back: the gauge read
+// 4.53 mm, where the other readings put it near 3.33 mm"). Two that would
+// each explain the rest nearly as well (within 4 of that sum) are named as
+// a pair and both left out. With a sweep, a knocked reading in it stands out
 // against the unmodelled parts: a deleted residual five standard
 // deviations off, twice any other's.
 // Readings that no state of the gear follows within ten times their

@@ -1088,6 +1088,7 @@ func (pb *problem) confirm(s state, cands []expected, k, floor float64) ([]expec
 		s      state
 		agrees bool
 		worst  float64
+		sum    float64
 	}
 	var tries []try
 	for _, c := range cands {
@@ -1097,26 +1098,27 @@ func (pb *problem) confirm(s state, cands []expected, k, floor float64) ([]expec
 			o := pb.obs[c.i]
 			pred := pb.predictS(c.i, q)
 			sd := math.Hypot(pb.sig[c.i], floor*k)
-			worst := pb.worstResidual(q, k, floor)
+			worst, sum := pb.misfit(q, k, floor)
 			t := math.Abs(Target(o)-pred) / sd
 			// The rest agree: every residual within three standard
 			// deviations, or the one left out stands at least twice as
 			// far off as any left in.
-			tries = append(tries, try{expected{i: c.i, expect: pred, t: t, with: -1}, q, worst < math.Max(3, t/2), worst})
+			tries = append(tries, try{expected{i: c.i, expect: pred, t: t, with: -1}, q, worst < math.Max(3, t/2), worst, sum})
 		}
 		pb.use[c.i] = true
 	}
 	var good []try
 	for _, t := range tries {
-
 		if t.agrees && t.e.t > 4 && math.Abs(Target(pb.obs[t.e.i])-t.e.expect) > 0.15*k {
 			good = append(good, t)
 		}
 	}
-	// The one whose leaving out makes the rest agree best; a second is
-	// named beside it only when it explains the rest nearly as well.
-	sort.SliceStable(good, func(a, b int) bool { return good[a].worst < good[b].worst })
-	if len(good) > 1 && good[1].worst > math.Max(2*good[0].worst, good[0].worst+0.5) {
+	// The one whose leaving out makes the rest agree best (the least sum
+	// of squares, priors included: the likeliest state of the gear); a
+	// second is named beside it only when it explains the rest nearly as
+	// well (within 4 of that sum, odds under about seven to one).
+	sort.SliceStable(good, func(a, b int) bool { return good[a].sum < good[b].sum })
+	if len(good) > 1 && good[1].sum > good[0].sum+4 {
 		good = good[:1]
 	}
 	switch len(good) {
@@ -1142,18 +1144,32 @@ func (pb *problem) confirm(s state, cands []expected, k, floor float64) ([]expec
 // standard deviations (each reading's own, with floor for the gear's
 // unmodelled errors).
 func (pb *problem) worstResidual(s state, k, floor float64) float64 {
+	w, _ := pb.misfit(s, k, floor)
+	return w
+}
+
+// misfit returns the largest residual of the used readings at s in
+// standard deviations (each reading's own, with floor for the gear's
+// unmodelled errors), and the sum of their squares with the deviations'
+// priors: how unlikely the readings left in make the fit.
+func (pb *problem) misfit(s state, k, floor float64) (worst, sum float64) {
 	r := make([]float64, pb.nUsed())
 	if pb.eval(s, r) != nil {
-		return math.Inf(1)
+		return math.Inf(1), math.Inf(1)
 	}
-	w, kk := 0.0, 0
+	kk := 0
 	for i := range pb.obs {
 		if pb.use[i] {
-			w = math.Max(w, math.Abs(r[kk])/math.Hypot(pb.sig[i], floor*k))
+			z := math.Abs(r[kk]) / math.Hypot(pb.sig[i], floor*k)
+			worst = math.Max(worst, z)
+			sum += z * z
 			kk++
 		}
 	}
-	return w
+	for _, j := range pb.idx {
+		sum += sq((s.p[j] - pb.mean[j]) / pb.prior[j])
+	}
+	return worst, sum
 }
 
 // finish fills the fit's report: the model with its unmodelled parts,

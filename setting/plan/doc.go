@@ -87,9 +87,16 @@
 // predicts ("Take again the front dead centre, full back: the gauge read
 // 4.53 mm, where the other readings put it near 3.33 mm"). Two that would
 // each explain the rest nearly as well (within 4 of that sum) are named as
-// a pair and both left out. With a sweep, a knocked reading in it stands out
-// against the unmodelled parts: a deleted residual five standard
-// deviations off, twice any other's.
+// a pair and both left out. Where the linkage cannot check a position's
+// readings (a notch read at its dead centres alone, between swept full
+// gears), the fit with its unmodelled parts tells: a real engine's
+// unmodelled errors move both ends of a position together or apart, a
+// mistyped reading one end alone; a position whose unmodelled part bends
+// 0.3 mm (at 5 in gauge, to the power 0.7) at one end and less than a
+// third of that at the other has that reading named when the fit without
+// it puts it four standard deviations off. With a sweep, a knocked
+// reading in it stands out against the unmodelled parts: a deleted
+// residual five standard deviations off, twice any other's.
 // Readings that no state of the gear follows within ten times their
 // errors are refused as contradictory.
 //

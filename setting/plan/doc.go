@@ -72,19 +72,31 @@
 // the test engines); derivatives by each deviation are effect curves
 // sampled at 24 angles.
 //
-// A reading the others contradict is named and left out. Without a sweep,
-// the deviations alone are fitted first, where the readings check one
-// another through the linkage: the readings whose deleted residual
-// (r/(1-h), h the leverage) lies more than three of its standard
-// deviations off (a floor of 0.15 mm for what unmodelled errors explain)
-// and more than 0.15 mm are suspects; the fit is made again without each,
-// and the one whose leaving out makes the rest agree (every residual
-// within three standard deviations) is named with what the fit without it
+// A reading the others contradict is named and left out. The deviations
+// alone are fitted first (a swept position keeps its unmodelled part, which
+// its sweep pins), where the readings check one another through the
+// linkage: the readings whose deleted residual (r/(1-h), h the leverage)
+// lies more than three of its standard deviations off (a floor of 0.15 mm
+// for what unmodelled errors explain) and more than 0.15 mm are suspects
+// (both at 5 in gauge, growing with the engine's size to the power 0.7: a
+// full-size shop's errors are larger, not twelve times larger); the fit is
+// made again without each, and the one whose leaving out makes the rest
+// agree (every residual within three standard deviations, or the one left
+// out twice as far off as any left in) best (the least sum of squares,
+// priors included, of what is left) is named with what the fit without it
 // predicts ("Take again the front dead centre, full back: the gauge read
 // 4.53 mm, where the other readings put it near 3.33 mm"). Two that would
-// each explain the rest are named as a pair and both left out. With a
-// sweep, a knocked reading stands out against the unmodelled parts: a
-// deleted residual five standard deviations off, twice any other's.
+// each explain the rest nearly as well (within 4 of that sum) are named as
+// a pair and both left out. Where the linkage cannot check a position's
+// readings (a notch read at its dead centres alone, between swept full
+// gears), the fit with its unmodelled parts tells: a real engine's
+// unmodelled errors move both ends of a position together or apart, a
+// mistyped reading one end alone; a position whose unmodelled part bends
+// 0.3 mm (at 5 in gauge, to the power 0.7) at one end and less than a
+// third of that at the other has that reading named when the fit without
+// it puts it four standard deviations off. With a sweep, a knocked
+// reading in it stands out against the unmodelled parts: a deleted
+// residual five standard deviations off, twice any other's.
 // Readings that no state of the gear follows within ten times their
 // errors are refused as contradictory.
 //

@@ -858,6 +858,11 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 		res = 0.01
 	}
 	k := scaleOf(spec)
+	// A reading is suspected against what the gear's unmodelled errors
+	// could do, and those grow slower than the engine: a full-size shop
+	// holds larger errors than a model engineer's, but not twelve times
+	// larger (common practice, no source).
+	ks := math.Pow(k, 0.7)
 	pb.prior = priors(spec, dcSig)
 	pb.idx = []param{pGaugeZero, pValveOffset}
 	if hasSweep(obs) {
@@ -910,19 +915,28 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 	// (With a sweep the unmodelled parts are pinned by the sweep's own
 	// readings, and a slip stands out against them: the first pass is
 	// not needed.)
+	// A position swept keeps its unmodelled part in this first pass (its
+	// own readings pin it); the dead-centre readings of the others are
+	// checked against the deviations alone.
 	nc := pb.cN
-	sweep := hasSweep(obs)
 	pb.cN = make([]int, len(pb.revs))
-	sA := state{p: s0.p}
-	var err error
-	if !sweep {
-		if sA, err = pb.fitOuter(sA); err != nil {
-			return nil, err
+	swept := false
+	for g, n := range nc {
+		if n >= 5 {
+			pb.cN[g], swept = n, true
 		}
 	}
-	if !opt.NoRecheck && !sweep {
-		if cands := pb.suspects(sA, k, suspectFloor); len(cands) > 0 {
-			if named, q, ok := pb.confirm(sA, cands, k, suspectFloor); ok {
+	sA := state{p: s0.p}
+	if swept {
+		sA.c = make([]float64, pb.nc())
+	}
+	sA, err := pb.fitOuter(sA)
+	if err != nil {
+		return nil, err
+	}
+	if !opt.NoRecheck {
+		if cands := pb.suspects(sA, ks, suspectFloor); len(cands) > 0 {
+			if named, q, ok := pb.confirm(sA, cands, ks, suspectFloor); ok {
 				f.expect = append(f.expect, named...)
 				sA = q
 			}
@@ -939,13 +953,19 @@ func FitObservations(spec setting.EngineSpec, obs []session.Observation, opt Fit
 	// With the unmodelled parts a sweep's readings check one another
 	// closely: a knocked reading among them stands out there.
 	if !opt.NoRecheck && len(f.expect) == 0 {
-		if cands := pb.suspects(s, k, 0); len(cands) > 0 && cands[0].t > 5 && (len(cands) == 1 || cands[0].t > 2*cands[1].t) {
+		if cands := pb.suspects(s, ks, 0); len(cands) > 0 && cands[0].t > 5 && (len(cands) == 1 || cands[0].t > 2*cands[1].t) {
 			pb.use[cands[0].i] = false
 			f.expect = append(f.expect, cands[0])
 			pb.setUnmodelled(k)
 			if s, err = pb.fitOuter(state{p: s.p, c: make([]float64, pb.nc())}); err != nil {
 				return nil, err
 			}
+		}
+	}
+	if !opt.NoRecheck && len(f.expect) == 0 {
+		if e, q, ok := pb.oneEnd(s, k, ks); ok {
+			f.expect = append(f.expect, e)
+			s = q
 		}
 	}
 	if err := pb.finish(f, s, res); err != nil {
@@ -1062,6 +1082,67 @@ func (pb *problem) suspects(s state, k, floor float64) []expected {
 	return out
 }
 
+// oneEnd looks for a position read at its two dead centres alone whose
+// unmodelled part bends far at one end and hardly at the other: the gear's
+// unmodelled errors move both ends together (an offset) or apart (a
+// phase), and only by chance one end alone, while a mistyped reading moves
+// one. Such a reading is a suspect: the fit is made again without it, and
+// it is named (see confirm) when what the rest put it at lies four
+// standard deviations and 0.15 mm (at 5 in gauge, ks the scale) from it.
+// k scales the unmodelled parts' priors.
+func (pb *problem) oneEnd(s state, k, ks float64) (expected, state, bool) {
+	cc := pb.corrCurves(s)
+	if cc == nil {
+		return expected{}, s, false
+	}
+	best, bestU := -1, 0.0
+	for g := range pb.revs {
+		if pb.cN[g] != 2 || cc[g] == nil {
+			continue
+		}
+		var at []int
+		for i, o := range pb.obs {
+			if pb.use[i] && pb.grp[i] == g && o.Kind == session.AtDeadCentre {
+				at = append(at, i)
+			}
+		}
+		if len(at) != 2 {
+			continue
+		}
+		for a, i := range at {
+			j := at[1-a]
+			ui, _ := cc[g].at(pb.obs[i].CrankDeg + s.p[pDeadCentre])
+			uj, _ := cc[g].at(pb.obs[j].CrankDeg + s.p[pDeadCentre])
+			if math.Abs(ui) > math.Max(oneEndMM*ks, 4*pb.sig[i]) && math.Abs(uj) < math.Abs(ui)/3 && math.Abs(ui) > bestU {
+				best, bestU = i, math.Abs(ui)
+			}
+		}
+	}
+	if best < 0 {
+		return expected{}, s, false
+	}
+	pb.use[best] = false
+	pb.setUnmodelled(k)
+	q, err := pb.fitOuter(state{p: s.p, c: make([]float64, pb.nc())})
+	if err == nil {
+		o := pb.obs[best]
+		pred := pb.predictS(best, q)
+		t := math.Abs(Target(o)-pred) / math.Hypot(pb.sig[best], suspectFloor*ks)
+		if t > 4 && math.Abs(Target(o)-pred) > 0.15*ks && pb.worstResidual(q, ks, suspectFloor) < 3 {
+			return expected{i: best, expect: pred, t: t, with: -1}, q, true
+		}
+	}
+	pb.use[best] = true
+	pb.setUnmodelled(k)
+	return expected{}, s, false
+}
+
+// oneEndMM is how far (mm at 5 in gauge) a position's unmodelled part must
+// bend at one dead centre before the reading there is suspected (see
+// oneEnd): the unmodelled part's own prior, what the gear's errors leave
+// there at most (common practice, no source).
+const oneEndMM = 0.3
+
 // confirm fits again without each suspect (see suspects) and names the
 // one whose leaving out makes the rest agree (every residual within three
 // standard deviations, floor among them) while leaving out any other does
@@ -1074,6 +1155,7 @@ func (pb *problem) confirm(s state, cands []expected, k, floor float64) ([]expec
 		s      state
 		agrees bool
 		worst  float64
+		sum    float64
 	}
 	var tries []try
 	for _, c := range cands {
@@ -1083,8 +1165,12 @@ func (pb *problem) confirm(s state, cands []expected, k, floor float64) ([]expec
 			o := pb.obs[c.i]
 			pred := pb.predictS(c.i, q)
 			sd := math.Hypot(pb.sig[c.i], floor*k)
-			worst := pb.worstResidual(q, k, floor)
-			tries = append(tries, try{expected{i: c.i, expect: pred, t: math.Abs(Target(o)-pred) / sd, with: -1}, q, worst < 3, worst})
+			worst, sum := pb.misfit(q, k, floor)
+			t := math.Abs(Target(o)-pred) / sd
+			// The rest agree: every residual within three standard
+			// deviations, or the one left out stands at least twice as
+			// far off as any left in.
+			tries = append(tries, try{expected{i: c.i, expect: pred, t: t, with: -1}, q, worst < math.Max(3, t/2), worst, sum})
 		}
 		pb.use[c.i] = true
 	}
@@ -1093,6 +1179,14 @@ func (pb *problem) confirm(s state, cands []expected, k, floor float64) ([]expec
 		if t.agrees && t.e.t > 4 && math.Abs(Target(pb.obs[t.e.i])-t.e.expect) > 0.15*k {
 			good = append(good, t)
 		}
+	}
+	// The one whose leaving out makes the rest agree best (the least sum
+	// of squares, priors included: the likeliest state of the gear); a
+	// second is named beside it only when it explains the rest nearly as
+	// well (within 4 of that sum, odds under about seven to one).
+	sort.SliceStable(good, func(a, b int) bool { return good[a].sum < good[b].sum })
+	if len(good) > 1 && good[1].sum > good[0].sum+4 {
+		good = good[:1]
 	}
 	switch len(good) {
 	case 0:
@@ -1117,18 +1211,32 @@ func (pb *problem) confirm(s state, cands []expected, k, floor float64) ([]expec
 // standard deviations (each reading's own, with floor for the gear's
 // unmodelled errors).
 func (pb *problem) worstResidual(s state, k, floor float64) float64 {
+	w, _ := pb.misfit(s, k, floor)
+	return w
+}
+
+// misfit returns the largest residual of the used readings at s in
+// standard deviations (each reading's own, with floor for the gear's
+// unmodelled errors), and the sum of their squares with the deviations'
+// priors: how unlikely the readings left in make the fit.
+func (pb *problem) misfit(s state, k, floor float64) (worst, sum float64) {
 	r := make([]float64, pb.nUsed())
 	if pb.eval(s, r) != nil {
-		return math.Inf(1)
+		return math.Inf(1), math.Inf(1)
 	}
-	w, kk := 0.0, 0
+	kk := 0
 	for i := range pb.obs {
 		if pb.use[i] {
-			w = math.Max(w, math.Abs(r[kk])/math.Hypot(pb.sig[i], floor*k))
+			z := math.Abs(r[kk]) / math.Hypot(pb.sig[i], floor*k)
+			worst = math.Max(worst, z)
+			sum += z * z
 			kk++
 		}
 	}
-	return w
+	for _, j := range pb.idx {
+		sum += sq((s.p[j] - pb.mean[j]) / pb.prior[j])
+	}
+	return worst, sum
 }
 
 // finish fills the fit's report: the model with its unmodelled parts,

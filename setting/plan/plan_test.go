@@ -547,6 +547,49 @@ func TestMistypedDeadCentreReadingIsNamed(t *testing.T) {
 	}
 }
 
+// A mistyped reading in a notch read at its dead centres alone, between
+// full gears swept, is named too: the sweeps pin the gear, and the notch's
+// own unmodelled part would otherwise bend to the reading and the plan
+// report the gear off its drawing there (issue 11).
+func TestMistypedNotchReadingBetweenSweepsIsNamed(t *testing.T) {
+	for _, kind := range []string{setting.KindStephenson, setting.KindWalschaerts} {
+		sim := simulated{spec: testSpec(t, kind), dev: injected(kind)}
+		s := sim.session(t, 15, testAdjustments(kind))
+		r := &s.Cylinders[0].Rounds[0]
+		var sw []session.Sweep
+		for _, x := range r.Sweeps {
+			if x.Reverser.Notch != "running" {
+				sw = append(sw, x)
+			}
+		}
+		r.Sweeps = sw
+		true2 := r.DeadCentreReadings[2].GaugeMM // front dead centre, running
+		r.DeadCentreReadings[2].GaugeMM += 1.2
+		p, err := Make(s, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		// Named alone, or beside the other end of the notch where the
+		// rest cannot tell which of the two is off.
+		var named []string
+		found := false
+		for _, rc := range p.Recheck {
+			named = append(named, rc.Field)
+			if rc.Field != "cylinders[0].rounds[0].dead_centre_readings[2]" {
+				continue
+			}
+			found = true
+			if rc.Pair == "" && math.Abs(rc.ExpectMM-true2) > 0.15 {
+				t.Errorf("%s: the others put it at %.3f mm; it was %.3f before the slip", kind, rc.ExpectMM, true2)
+			}
+		}
+		if !found || len(named) > 2 {
+			t.Errorf("%s: named %q, want the running notch's front dead centre", kind, named)
+		}
+		t.Logf("%s: named %q", kind, named)
+	}
+}
+
 // A deviation beyond what a build would leave is never used silently: the
 // plan names it (a radius rod 9 mm longer than drawn on a 5 in gauge
 // gear), while ordinary build errors give no such finding (issue 11).

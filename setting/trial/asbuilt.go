@@ -294,27 +294,10 @@ func NewEngine(r *rand.Rand, kind string, opt Options) (Engine, error) {
 	e.Truth = t
 	e.Positions = positionsOf(d.spec)
 	if kind != setting.KindSingleEccentric && !opt.OnlyModelled {
-		// The die's place in the link in each position: a notch cut a
-		// little off, a reverser stop not quite at full gear.
-		for _, p := range e.Positions {
-			sd := 0.012
-			if math.Abs(float64(p.Reverser)) == 1 {
-				sd = 0.006
-			}
-			e.RevErr[p.Reverser] = normal(r, sd)
-		}
+		e.dieErrors(r)
 	}
-	if err := e.Truth.Validate(); err != nil {
-		return Engine{}, fmt.Errorf("the as-built engine does not close: %w", err)
-	}
-	for _, p := range e.Positions {
-		set, err := e.Events(p)
-		if err != nil {
-			return Engine{}, fmt.Errorf("as built, %s: %w", p.Name, err)
-		}
-		if set.Front.NeverOpens || set.Back.NeverOpens {
-			return Engine{}, fmt.Errorf("as built, a port never opens in %s", p.Name)
-		}
+	if err := e.checkBuilt(); err != nil {
+		return Engine{}, err
 	}
 	e.Adjustments = adjustmentsFor(r, kind, s)
 	// A real gear goes round with its adjusters moved a little either
@@ -407,4 +390,34 @@ func knobsOf(adjs []session.Adjustment) []knob {
 		out[i] = knob{a.Kind, a.Eccentric}
 	}
 	return out
+}
+
+// dieErrors draws the die's place in the link in each position: a notch
+// cut a little off, a reverser stop not quite at full gear.
+func (e *Engine) dieErrors(r *rand.Rand) {
+	for _, p := range e.Positions {
+		sd := 0.012
+		if math.Abs(float64(p.Reverser)) == 1 {
+			sd = 0.006
+		}
+		e.RevErr[p.Reverser] = normal(r, sd)
+	}
+}
+
+// checkBuilt refuses an as-built engine whose linkage does not close or
+// one of whose ports never opens in a position.
+func (e Engine) checkBuilt() error {
+	if err := e.Truth.Validate(); err != nil {
+		return fmt.Errorf("the as-built engine does not close: %w", err)
+	}
+	for _, p := range e.Positions {
+		set, err := e.Events(p)
+		if err != nil {
+			return fmt.Errorf("as built, %s: %w", p.Name, err)
+		}
+		if set.Front.NeverOpens || set.Back.NeverOpens {
+			return fmt.Errorf("as built, a port never opens in %s", p.Name)
+		}
+	}
+	return nil
 }

@@ -92,25 +92,10 @@ func FromDrawing(r *rand.Rand, drawing setting.EngineSpec, g Given) (Engine, err
 	e.Errors = append(e.Errors, fmt.Sprintf("valve on spindle %+.2f mm; every dimension off by a build error", e.ValveOffsetMM))
 	e.Truth = t
 	if e.Kind != setting.KindSingleEccentric {
-		for _, p := range e.Positions {
-			sd := 0.012
-			if math.Abs(float64(p.Reverser)) == 1 {
-				sd = 0.006
-			}
-			e.RevErr[p.Reverser] = normal(r, sd)
-		}
+		e.dieErrors(r)
 	}
-	if err := e.Truth.Validate(); err != nil {
-		return Engine{}, fmt.Errorf("the as-built engine does not close: %w", err)
-	}
-	for _, p := range e.Positions {
-		set, err := e.Events(p)
-		if err != nil {
-			return Engine{}, fmt.Errorf("as built, %s: %w", p.Name, err)
-		}
-		if set.Front.NeverOpens || set.Back.NeverOpens {
-			return Engine{}, fmt.Errorf("as built, a port never opens in %s", p.Name)
-		}
+	if err := e.checkBuilt(); err != nil {
+		return Engine{}, err
 	}
 	ks := knobsOf(e.Adjustments)
 	for j, a := range e.Adjustments {

@@ -407,8 +407,18 @@ func (s EngineSpec) Works() []error {
 // outside 65 to 85 % of the stroke, or a port that never closes (cut-off
 // at the end of the stroke); possible, but a dimension is likely wrong.
 func (s EngineSpec) WorkChecks() (refusals, warnings []error) {
+	invalid, refusals, warnings := s.CheckWork()
+	if invalid != nil {
+		return []error{invalid}, nil
+	}
+	return refusals, warnings
+}
+
+// CheckWork is WorkChecks with Validate's error apart: when the spec
+// does not validate, invalid is the error and there is nothing else.
+func (s EngineSpec) CheckWork() (invalid error, refusals, warnings []error) {
 	if err := s.Validate(); err != nil {
-		return []error{err}, nil
+		return err, nil, nil
 	}
 	g, _ := s.Gear.Gear()
 	dirs := []struct {
@@ -447,7 +457,7 @@ func (s EngineSpec) WorkChecks() (refusals, warnings []error) {
 			}
 		}
 	}
-	return refusals, warnings
+	return nil, refusals, warnings
 }
 
 // equalBackLeads sets a Stephenson gear's backward eccentric rod so that

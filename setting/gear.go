@@ -23,6 +23,34 @@ type Gear interface {
 	Valve(e Engine, thetaDeg float64, r Reverser) (float64, error)
 }
 
+// CurveGear is a Gear that also gives its valve at many crank angles in
+// one call, faster than Valve angle by angle and equal to its values to
+// the linkage tolerance (ValveCurve uses it).
+type CurveGear interface {
+	Gear
+	// ValveCurve fills out (as long as thetaDeg) with the valve
+	// displacement at each crank angle with the reverser at r; errors as
+	// Valve.
+	ValveCurve(e Engine, thetaDeg []float64, r Reverser, out []float64) error
+}
+
+// ValveCurve fills out (as long as thetaDeg) with g's valve displacement at
+// each crank angle with the reverser at r: in one call when g is a
+// CurveGear, else angle by angle.
+func ValveCurve(g Gear, e Engine, thetaDeg []float64, r Reverser, out []float64) error {
+	if c, ok := g.(CurveGear); ok {
+		return c.ValveCurve(e, thetaDeg, r, out)
+	}
+	for i, th := range thetaDeg {
+		v, err := g.Valve(e, th, r)
+		if err != nil {
+			return err
+		}
+		out[i] = v
+	}
+	return nil
+}
+
 // PosedGear is a Gear that also gives the solved position of every joint,
 // for drawing the motion. Pose and Valve share one solution of the linkage,
 // so the drawing always shows the motion the events were found from.

@@ -838,10 +838,10 @@ const (
 // against the 75 % a miniature engine starts easily with. A spec that
 // does not validate gives no warnings (Validate says what is wrong).
 func (s EngineSpec) Warnings() []string {
-	if s.Validate() != nil {
+	invalid, refusals, warnings := s.CheckWork()
+	if invalid != nil {
 		return nil
 	}
-	refusals, warnings := s.WorkChecks()
 	var w []string
 	for _, err := range append(refusals, warnings...) {
 		var e *Error

@@ -89,7 +89,15 @@ func (g Stephenson) Validate(e Engine) error {
 	case !(g.ValveCentreU > 0):
 		return &Error{"valve_centre_u", fmt.Sprintf("The die block must lie ahead of the axle (valve central position %g mm must be positive).", g.ValveCentreU)}
 	}
-	return sweepCheck(e, g.Valve)
+	// Each angle afresh, as Valve solves it.
+	return sweepCheck(e, func(r Reverser) func(float64) error {
+		f := g.frame(r)
+		f.turn()
+		return func(th float64) error {
+			_, err := g.valveIn(&f, e, th, r, nil)
+			return err
+		}
+	})
 }
 
 // stephensonPose is the solved linkage.
@@ -130,38 +138,117 @@ func (g Stephenson) hang() float64 {
 	return sign(g.Guide + g.Link.Suspension.W - g.Weighshaft.W)
 }
 
+// stephensonFrame is what stays put while the crank turns with the
+// reverser at one place: the sheaves' angles from the crank (as cosine and
+// sine), the lifting-link pin on the reverse arm and the link's pins in
+// its own frame.
+type stephensonFrame struct {
+	fwdAngle, backAngle              float64 // radians
+	fwdCos, fwdSin, backCos, backSin float64 // with turned: their cosines and sines
+	turned                           bool
+	armPin                           Point
+	fLocal, bLocal, sLocal           Point
+	hang                             float64
+}
+
+// frame returns the gear's frame with the reverser at r.
+func (g *Stephenson) frame(r Reverser) stephensonFrame {
+	s := g.sense()
+	fs := g.forwardSide()
+	f := stephensonFrame{armPin: g.armPin(r), fLocal: g.Link.pin(fs), bLocal: g.Link.pin(-fs), sLocal: g.Link.Suspension, hang: g.hang()}
+	f.fwdAngle, f.backAngle = g.Forward.sheaveAngle(s, true), g.Backward.sheaveAngle(s, false)
+	return f
+}
+
+// turn works out the sheave angles' cosines and sines, for solving at
+// many crank angles (one sine and cosine of the crank angle each, not
+// one per sheave).
+func (f *stephensonFrame) turn() {
+	f.fwdSin, f.fwdCos = math.Sincos(f.fwdAngle)
+	f.backSin, f.backCos = math.Sincos(f.backAngle)
+	f.turned = true
+}
+
 // solve places every joint at crank angle thetaDeg (the crank pin only when
 // withCrank: Valve does not need it).
 func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank bool) (stephensonPose, error) {
-	var p stephensonPose
 	if err := checkCall(thetaDeg, r); err != nil {
-		return p, err
+		return stephensonPose{}, err
 	}
+	f := g.frame(r)
+	return g.solveIn(&f, e, thetaDeg, r, withCrank, nil)
+}
+
+// linkGuess is a solved link's middle and tilt, to start the next crank
+// angle's Newton's method from.
+type linkGuess struct {
+	centre [3]Point   // the last three angles' link middles, latest first
+	sin    [3]float64 // their tilts
+	n      int        // how many of them are solved (the latest n)
+}
+
+// next extrapolates the link's middle and tilt to the next angle (by
+// the parabola through the last three, or the line through two).
+func (l *linkGuess) next() (Point, float64) {
+	c, s := l.centre, l.sin
+	switch l.n {
+	case 1:
+		return c[0], s[0]
+	case 2:
+		return c[0].Scale(2).Sub(c[1]), 2*s[0] - s[1]
+	}
+	return c[0].Sub(c[1]).Scale(3).Add(c[2]), 3*(s[0]-s[1]) + s[2]
+}
+
+// push records an angle's link, solved or not.
+func (l *linkGuess) push(c Point, s float64, ok bool) {
+	if !ok {
+		l.n = 0
+		return
+	}
+	l.centre = [3]Point{c, l.centre[0], l.centre[1]}
+	l.sin = [3]float64{s, l.sin[0], l.sin[1]}
+	l.n = min(l.n+1, 3)
+}
+
+// solveIn is solve in frame f (made for reverser r, thetaDeg checked).
+// With a solved guess, Newton's method starts from it instead of the
+// fixed-point passes; a guess that does not converge falls back to them.
+func (g *Stephenson) solveIn(f *stephensonFrame, e Engine, thetaDeg float64, r Reverser, withCrank bool, guess *linkGuess) (stephensonPose, error) {
+	var p stephensonPose
 	phi := crankRotation(e, thetaDeg)
-	s := g.sense()
 	if withCrank {
 		p.crank = onAxle(e.CrankRadius, phi)
 	}
-	p.fwdSheave = onAxle(g.Forward.Throw, phi+g.Forward.sheaveAngle(s, true))
-	p.backSheave = onAxle(g.Backward.Throw, phi+g.Backward.sheaveAngle(s, false))
-	p.armPin = g.armPin(r)
+	if f.turned { // onAxle at phi plus each sheave's angle, by the sum formulae
+		sp, cp := math.Sincos(phi)
+		p.fwdSheave = Point{g.Forward.Throw * (cp*f.fwdCos - sp*f.fwdSin), -g.Forward.Throw * (sp*f.fwdCos + cp*f.fwdSin)}
+		p.backSheave = Point{g.Backward.Throw * (cp*f.backCos - sp*f.backSin), -g.Backward.Throw * (sp*f.backCos + cp*f.backSin)}
+	} else {
+		p.fwdSheave = onAxle(g.Forward.Throw, phi+f.fwdAngle)
+		p.backSheave = onAxle(g.Backward.Throw, phi+f.backAngle)
+	}
+	p.armPin = f.armPin
+	fLocal, bLocal, sLocal, hang := f.fLocal, f.bLocal, f.sLocal, f.hang
 
-	fs := g.forwardSide()
-	fLocal, bLocal, sLocal := g.Link.pin(fs), g.Link.pin(-fs), g.Link.Suspension
-	hang := g.hang()
-
-	// Starting point: the suspension pin hangs straight below (or above) the
-	// arm pin; then, startPasses times, the rod pins go where rods of their
-	// length reach at their heights, the link tilts to meet both, and the
-	// lifting link at its slant sets the height. This leaves Newton's method
-	// one or two steps.
+	// Starting point: the suspension pin hangs straight below (or above)
+	// the arm pin, or the link where the last angles' links point; then
+	// the rod pins go where rods of their length reach at their heights,
+	// the link tilts to meet both, and the lifting link at its slant sets
+	// the height, startPasses times from the hanging start (warmPasses from
+	// the extrapolated one). This leaves Newton's method one or two steps.
 	reach := func(sheave Point, rod, pinW float64) float64 {
 		dw := pinW - sheave.W
 		return sheave.U + rootPos(rod*rod-dw*dw)
 	}
-	centre := Point{0, p.armPin.W + hang*g.LiftingLink - sLocal.W}
-	sa, ca := 0.0, 1.0
-	for pass := 0; pass < startPasses; pass++ {
+	warm := guess != nil && guess.n > 0
+	centre, sa, passes := Point{0, p.armPin.W + hang*g.LiftingLink - sLocal.W}, 0.0, startPasses
+	if warm {
+		centre, sa = guess.next()
+		sa, passes = clamp(sa, 0.8), warmPasses
+	}
+	ca := math.Sqrt(1 - sa*sa)
+	for pass := 0; pass < passes; pass++ {
 		qf, qb := turn(fLocal, ca, sa), turn(bLocal, ca, sa)
 		pf := reach(p.fwdSheave, g.Forward.Rod, centre.W+qf.W)
 		pb := reach(p.backSheave, g.Backward.Rod, centre.W+qb.W)
@@ -172,35 +259,22 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 		su := centre.U + qs.U - p.armPin.U
 		centre.W = p.armPin.W + hang*rootPos(g.LiftingLink*g.LiftingLink-su*su) - qs.W
 	}
-	// Newton's method on the three loop equations (|pin - anchor|^2 -
-	// length^2) / 2 = 0 in the link centre and the sine of its tilt.
-	ok := false
-	for it := 0; it < 20; it++ {
-		if !(math.Abs(sa) < 0.9) {
-			break
-		}
-		ca = math.Sqrt(1 - sa*sa)
-		ica := 1 / ca
-		r0, f0 := loopRow(centre, ca, sa, ica, fLocal, p.fwdSheave, g.Forward.Rod)
-		r1, f1 := loopRow(centre, ca, sa, ica, bLocal, p.backSheave, g.Backward.Rod)
-		r2, f2 := loopRow(centre, ca, sa, ica, sLocal, p.armPin, g.LiftingLink)
-		dx, solved := solve3(&[3][3]float64{r0, r1, r2}, &[3]float64{f0, f1, f2})
-		if !solved {
-			break
-		}
-		centre.U -= dx[0]
-		centre.W -= dx[1]
-		sa -= dx[2]
-		if math.Abs(dx[0])+math.Abs(dx[1])+math.Abs(dx[2])*g.Link.Radius < newtonStep {
-			ok = math.Abs(sa) < 0.9
-			ca = math.Sqrt(1 - sa*sa)
-			break
-		}
+	ok := g.newton(&p, fLocal, bLocal, sLocal, &centre, &sa, &ca)
+	if !ok && warm { // perhaps a poor start: afresh
+		guess.n = 0
+		return g.solveIn(f, e, thetaDeg, r, withCrank, guess)
+	}
+	if guess != nil {
+		guess.push(centre, sa, ok)
 	}
 	place := func(q Point) Point { return centre.Add(turn(q, ca, sa)) }
 	p.centre, p.sin, p.cos = centre, sa, ca
 	p.fwdPin, p.backPin, p.suspension = place(fLocal), place(bLocal), place(sLocal)
 	if !ok || !p.fwdPin.Finite() || p.fwdPin.U < p.fwdSheave.U || p.backPin.U < p.backSheave.U || (p.suspension.W-p.armPin.W)*hang < 0 {
+		if warm { // perhaps a wrong start: afresh
+			guess.n = 0
+			return g.solveIn(f, e, thetaDeg, r, withCrank, guess)
+		}
 		return p, g.misfit(p, r, fLocal, bLocal, sLocal, thetaDeg)
 	}
 	var found bool
@@ -214,6 +288,62 @@ func (g *Stephenson) solve(e Engine, thetaDeg float64, r Reverser, withCrank boo
 		return p, closeError("arm_swing", fmt.Sprintf("The die block runs off the end of the expansion link (%.1f mm from its middle, the rod pins %.1f mm)", math.Abs(along), g.Link.PinSpacing/2), thetaDeg)
 	}
 	return p, nil
+}
+
+// newton runs Newton's method on the three loop equations (|pin -
+// anchor|^2 - length^2) / 2 = 0 in the link centre and the sine of its
+// tilt, from centre and sa, with the sheaves and arm pin placed in p; it
+// reports whether it converged with the link less than steeply tilted.
+func (g *Stephenson) newton(p *stephensonPose, fLocal, bLocal, sLocal Point, centre *Point, sa, ca *float64) bool {
+	for it := 0; it < 20; it++ {
+		if !(math.Abs(*sa) < 0.9) {
+			return false
+		}
+		*ca = math.Sqrt(1 - *sa**sa)
+		ica := 1 / *ca
+		r0, f0 := loopRow(*centre, *ca, *sa, ica, fLocal, p.fwdSheave, g.Forward.Rod)
+		r1, f1 := loopRow(*centre, *ca, *sa, ica, bLocal, p.backSheave, g.Backward.Rod)
+		r2, f2 := loopRow(*centre, *ca, *sa, ica, sLocal, p.armPin, g.LiftingLink)
+		dx, solved := solve3(&[3][3]float64{r0, r1, r2}, &[3]float64{f0, f1, f2})
+		if !solved {
+			return false
+		}
+		NewtonIters++
+		centre.U -= dx[0]
+		centre.W -= dx[1]
+		*sa -= dx[2]
+		if math.Abs(dx[0])+math.Abs(dx[1])+math.Abs(dx[2])*g.Link.Radius < newtonStep {
+			*ca = math.Sqrt(1 - *sa**sa)
+			return math.Abs(*sa) < 0.9
+		}
+	}
+	return false
+}
+
+// ValveCurve fills out with the valve displacement at each crank angle of
+// thetaDeg (len(out) == len(thetaDeg)) with the reverser at r, as Valve
+// gives them, only faster: what the reverser fixes is placed once, and
+// each angle's link starts from the last one's. A start that does not
+// converge is made afresh, so the values are Valve's to the linkage
+// tolerance.
+func (g Stephenson) ValveCurve(e Engine, thetaDeg []float64, r Reverser, out []float64) error {
+	if err := checkCall(0, r); err != nil {
+		return err
+	}
+	f := g.frame(r)
+	f.turn()
+	var guess linkGuess
+	for i, th := range thetaDeg {
+		if err := checkCall(th, r); err != nil {
+			return err
+		}
+		v, err := g.valveIn(&f, e, th, r, &guess)
+		if err != nil {
+			return err
+		}
+		out[i] = v
+	}
+	return nil
 }
 
 // loopRow returns one loop equation of the link, (|pin - anchor|^2 -
@@ -278,7 +408,17 @@ func solve3(a *[3][3]float64, b *[3]float64) ([3]float64, bool) {
 // Valve returns the valve displacement (mm, positive forward) at crank angle
 // thetaDeg with the reverser at r.
 func (g Stephenson) Valve(e Engine, thetaDeg float64, r Reverser) (float64, error) {
-	p, err := g.solve(e, thetaDeg, r, false)
+	if err := checkCall(thetaDeg, r); err != nil {
+		return 0, err
+	}
+	f := g.frame(r)
+	return g.valveIn(&f, e, thetaDeg, r, nil)
+}
+
+// valveIn is Valve in frame f (made for reverser r, thetaDeg checked),
+// starting from guess as solveIn.
+func (g *Stephenson) valveIn(f *stephensonFrame, e Engine, thetaDeg float64, r Reverser, guess *linkGuess) (float64, error) {
+	p, err := g.solveIn(f, e, thetaDeg, r, false, guess)
 	if err != nil {
 		return 0, err
 	}
@@ -328,3 +468,5 @@ func (g Stephenson) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) {
 	b.p.Valve = valve
 	return b.p, nil
 }
+
+var NewtonIters int

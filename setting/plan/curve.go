@@ -25,6 +25,7 @@ type curve []float64
 type trig struct {
 	n        int
 	cos, sin [][]float64 // [k][j]
+	angles   []float64   // [j], degrees
 }
 
 // curveTrig and effectTrig are the tables of curveSamples and
@@ -35,7 +36,10 @@ var (
 )
 
 func newTrig(n int) *trig {
-	t := &trig{n: n}
+	t := &trig{n: n, angles: make([]float64, n)}
+	for j := range t.angles {
+		t.angles[j] = t.angle(j)
+	}
 	K := n / 2
 	t.cos = make([][]float64, K+1)
 	t.sin = make([][]float64, K+1)
@@ -152,6 +156,19 @@ func (c curve) motion() setting.Motion {
 // gearCurves samples the gear's valve curve (plus the valve offset when
 // withOffset) at deviations p in each reverser position, at tr's angles.
 func gearCurves(spec setting.EngineSpec, p [numParams]float64, revs []setting.Reverser, tr *trig, withOffset bool) ([]curve, error) {
+	xs, err := gearSamples(spec, p, revs, tr, withOffset)
+	if err != nil {
+		return nil, err
+	}
+	out := make([]curve, len(revs))
+	for k, x := range xs {
+		out[k] = tr.fit(x)
+	}
+	return out, nil
+}
+
+// gearSamples is gearCurves' samples, [reverser position][angle].
+func gearSamples(spec setting.EngineSpec, p [numParams]float64, revs []setting.Reverser, tr *trig, withOffset bool) ([][]float64, error) {
 	g, err := Model{Spec: spec, Dev: devOf(p)}.Gear()
 	if err != nil {
 		return nil, err
@@ -160,19 +177,31 @@ func gearCurves(spec setting.EngineSpec, p [numParams]float64, revs []setting.Re
 	if withOffset {
 		off = p[pValveOffset]
 	}
-	out := make([]curve, len(revs))
-	x := make([]float64, tr.n)
+	out := make([][]float64, len(revs))
 	for k, r := range revs {
-		for j := range x {
-			v, err := g.Valve(spec.Engine, tr.angle(j), r)
-			if err != nil {
-				return nil, fmt.Errorf("%s: %w", notchName("", r), err)
-			}
-			x[j] = v + off
+		x := make([]float64, tr.n)
+		if err := setting.ValveCurve(g, spec.Engine, tr.angles, r, x); err != nil {
+			return nil, fmt.Errorf("%s: %w", notchName("", r), err)
 		}
-		out[k] = tr.fit(x)
+		for j := range x {
+			x[j] += off
+		}
+		out[k] = x
 	}
 	return out, nil
+}
+
+// valuesAt returns each curve's values at tr's angles (what effect
+// takes as its base).
+func valuesAt(cs []curve, tr *trig) [][]float64 {
+	out := make([][]float64, len(cs))
+	for k, c := range cs {
+		out[k] = make([]float64, tr.n)
+		for j, th := range tr.angles {
+			out[k][j] = c.value(th)
+		}
+	}
+	return out
 }
 
 // effectSamples is how many points round a turn an effect curve is
@@ -181,25 +210,24 @@ const effectSamples = 2 * effectHarmonics
 
 // effect returns, per reverser position, the curve of the effect of one
 // unit of deviation j: the gear sampled at p moved by h (by -h when the
-// linkage cannot close at +h) at tr24's angles, less the base curves there,
-// over h. withOffset must be as the base curves were sampled.
-func effect(spec setting.EngineSpec, p [numParams]float64, revs []setting.Reverser, tr24 *trig, j param, h float64, base []curve, withOffset bool) ([]curve, error) {
+// linkage cannot close at +h) at tr24's angles, less the base curves
+// there (base: their values at those angles, see valuesAt), over h.
+// withOffset must be as the base curves were sampled.
+func effect(spec setting.EngineSpec, p [numParams]float64, revs []setting.Reverser, tr24 *trig, j param, h float64, base [][]float64, withOffset bool) ([]curve, error) {
 	q := p
 	q[j] += h
-	cs, err := gearCurves(spec, q, revs, tr24, withOffset)
+	xs, err := gearSamples(spec, q, revs, tr24, withOffset)
 	if err != nil {
 		q[j] = p[j] - h
-		if cs, err = gearCurves(spec, q, revs, tr24, withOffset); err != nil {
+		if xs, err = gearSamples(spec, q, revs, tr24, withOffset); err != nil {
 			return nil, err
 		}
 		h = -h
 	}
-	out := make([]curve, len(cs))
-	x := make([]float64, tr24.n)
-	for i := range cs {
+	out := make([]curve, len(xs))
+	for i, x := range xs {
 		for m := range x {
-			th := tr24.angle(m)
-			x[m] = (cs[i].value(th) - base[i].value(th)) / h
+			x[m] = (x[m] - base[i][m]) / h
 		}
 		out[i] = tr24.fit(x)
 	}

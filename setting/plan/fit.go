@@ -412,11 +412,12 @@ func (pb *problem) sampleAt(p [numParams]float64, withSens bool) error {
 	if withSens || pb.sens == nil {
 		// Filled aside and kept only when every effect could be sampled.
 		sens := make([][numParams]curve, len(pb.revs))
+		at24 := valuesAt(base, pb.tr24)
 		for _, j := range pb.idx {
 			if !isGearParam(j) {
 				continue
 			}
-			ds, err := effect(pb.spec, p, pb.revs, pb.tr24, j, stepOf(j), base, false)
+			ds, err := effect(pb.spec, p, pb.revs, pb.tr24, j, stepOf(j), at24, false)
 			if err != nil {
 				return err
 			}

@@ -261,6 +261,7 @@ func (ev *evaluator) setKnobs(p [numParams]float64, ks []knob, fit *Fit) error {
 		return err
 	}
 	ev.base = base
+	var at24 [][]float64 // base at the effects' angles, once needed
 	ev.sens = make([][]curve, len(ev.ps))
 	for i := range ev.ps {
 		ev.sens[i] = make([]curve, len(ks))
@@ -287,7 +288,10 @@ func (ev *evaluator) setKnobs(p [numParams]float64, ks []knob, fit *Fit) error {
 		// A secant over a tenth of a typical change keeps the linear
 		// model good across the changes a plan makes.
 		h := 0.1 * kb.scale
-		ds, err := effect(ev.spec, p, ev.revs(), ev.tr24, kb.p, h, base, true)
+		if at24 == nil {
+			at24 = valuesAt(base, ev.tr24)
+		}
+		ds, err := effect(ev.spec, p, ev.revs(), ev.tr24, kb.p, h, at24, true)
 		if err != nil {
 			return err
 		}

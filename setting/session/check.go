@@ -560,11 +560,11 @@ func engineWarnings(spec setting.EngineSpec) []Warning {
 // engine that does not yet validate gives none: Decode refuses it, and an
 // app's set-up names the part that does not fit as it is typed.
 func engineRefusals(spec setting.EngineSpec) []Problem {
-	if spec.Validate() != nil {
+	invalid, refusals, _ := spec.CheckWork()
+	if invalid != nil {
 		return nil
 	}
 	var ps []Problem
-	refusals, _ := spec.WorkChecks()
 	for _, err := range refusals {
 		ps = append(ps, Problem{Field: engineField(err), Blocking: true, Message: messageOf(err) + " The readings are kept; correct the engine's dimensions and the plan is made again."})
 	}

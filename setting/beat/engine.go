@@ -57,6 +57,10 @@ type SideMeans struct {
 	Cylinder               string
 	LeadNow, LeadAfter     float64
 	CutOffNow, CutOffAfter float64
+	// CutOffPerDieMM is how much the mean cut-off grows for each mm the
+	// die stands further from the middle of its link in this notch
+	// (plan.Plan.CutOffPerDieMM); 0 where that does not apply.
+	CutOffPerDieMM float64
 }
 
 // meansOf returns the means of a cylinder's two ends in set.
@@ -108,6 +112,7 @@ func FromPlans(s *session.Session, plans []*plan.Plan, st Steam) ([]Position, er
 			sm.Cylinder = name
 			sm.LeadNow, sm.CutOffNow = meansOf(all[i].now[j])
 			sm.LeadAfter, sm.CutOffAfter = meansOf(a)
+			sm.CutOffPerDieMM, _ = p.CutOffPerDieMM(j)
 			pos.Sides = append(pos.Sides, sm)
 		}
 		if now == nil {

@@ -102,3 +102,35 @@ func TestSidesCompared(t *testing.T) {
 		t.Errorf("sides within what the readings tell are called apart:\n%s", b.String())
 	}
 }
+
+// Where each side's cut-off per mm of die is known, the sides cut off
+// apart in a notch are told how far each die wants to move, and which
+// way, to cut off alike at their mean: (40 - 38) / 4 = 0.5 mm further out
+// for one, (42 - 40) / 4 = 0.5 mm nearer the middle for the other, in
+// inches too (0.5 mm = 0.020 in; 4 % a mm is 1.0 % each 0.01 in). Where
+// it is not known, the words say only what sets the cut-offs apart.
+func TestSidesCutOffApartSayHowFarEachDie(t *testing.T) {
+	p := Position{Name: "running notch", Sides: []SideMeans{
+		{Cylinder: "right", CutOffNow: 38, CutOffAfter: 38, CutOffPerDieMM: 4},
+		{Cylinder: "left", CutOffNow: 42, CutOffAfter: 42, CutOffPerDieMM: 4},
+	}}
+	for _, c := range []struct {
+		unit session.Unit
+		want []string
+	}{
+		{session.UnitMM, []string{"apart after the plans (right 38.0 %, left 42.0 %)", "at 40.0 %", "move the right die about 0.50 mm further from the middle of its link", "move the left die about 0.50 mm nearer to the middle of its link", "each mm moves a cut-off about 4.0 %"}},
+		{session.UnitInch, []string{"the right die about 0.020 in further from", "the left die about 0.020 in nearer to", "each 0.01 in moves a cut-off about 1.0 %"}},
+	} {
+		w := strings.Join(SideWords(p, c.unit), " ")
+		for _, want := range c.want {
+			if !strings.Contains(w, want) {
+				t.Errorf("%v: the words lack %q:\n%s", c.unit, want, w)
+			}
+		}
+	}
+	p.Sides[1].CutOffPerDieMM = 0
+	w := strings.Join(SideWords(p, session.UnitMM), " ")
+	if strings.Contains(w, "further from") || !strings.Contains(w, "Check the die's place in each link") {
+		t.Errorf("a side without its cut-off per mm of die still moved:\n%s", w)
+	}
+}

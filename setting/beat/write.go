@@ -3,6 +3,7 @@ package beat
 import (
 	"fmt"
 	"io"
+	"math"
 	"strconv"
 	"strings"
 
@@ -126,9 +127,68 @@ func SideWords(p Position, unit session.Unit) []string {
 		out = append(out, "The cylinders' leads stay "+session.FormatLength(hiL-loL, unit)+" apart after the plans: only the eccentric sheaves (or return cranks) move a cylinder's mean lead; to match them, plan every cylinder with the same target lead"+eg)
 	}
 	if hiC-loC > sideCutTolPct {
-		out = append(out, "The cylinders cut off "+strconv.FormatFloat(hiC-loC, 'f', 1, 64)+" % of stroke apart after the plans: in a notch that is set by each side's reversing linkage (its lifting link or reach rod), which the plans do not change yet; check the die's place in each link with the reverser in that notch.")
+		out = append(out, cutApartWords(p, hiC-loC, unit))
 	}
 	return out
+}
+
+// DieMoves returns how far each side's die wants to move in position p,
+// in the order of p.Sides (mm, further from the middle of its link
+// positive), for every side to cut off at the sides' mean after the
+// plans, and that mean; ok is false unless every side's cut-off per mm of
+// die is known (a notch of a link gear).
+func (p Position) DieMoves() (moves []float64, mean float64, ok bool) {
+	if len(p.Sides) < 2 {
+		return nil, 0, false
+	}
+	for _, sd := range p.Sides {
+		if !(sd.CutOffPerDieMM > 0) {
+			return nil, 0, false
+		}
+		mean += sd.CutOffAfter / float64(len(p.Sides))
+	}
+	for _, sd := range p.Sides {
+		moves = append(moves, (mean-sd.CutOffAfter)/sd.CutOffPerDieMM)
+	}
+	return moves, mean, true
+}
+
+// cutApartWords says that p's sides cut off apart by spread % after the
+// plans, what sets that, and, where every side's cut-off per mm of die
+// is known, how far each die wants to move to cut off alike at the
+// sides' mean (DieMoves).
+func cutApartWords(p Position, spread float64, unit session.Unit) string {
+	pct := func(x float64) string { return strconv.FormatFloat(x, 'f', 1, 64) + " %" }
+	var each []string
+	for _, sd := range p.Sides {
+		each = append(each, sd.Cylinder+" "+pct(sd.CutOffAfter))
+	}
+	w := "The cylinders cut off " + pct(spread) + " of stroke apart after the plans (" + strings.Join(each, ", ") + "). In a notch, each side's reversing linkage (lifting link, arm on the weighshaft, reach rod) sets where its die stands in the link; the plans do not change it."
+	moves, mean, ok := p.DieMoves()
+	if !ok {
+		return w + " Check the die's place in each link with the reverser in that notch."
+	}
+	var say []string
+	per := 0.0
+	for i, d := range moves {
+		sd := p.Sides[i]
+		per += sd.CutOffPerDieMM / float64(len(moves))
+		if math.Abs(d) < 0.05 {
+			say = append(say, "leave the "+sd.Cylinder+" die where it is")
+			continue
+		}
+		way := "further from the middle of its link"
+		if d < 0 {
+			way = "nearer to the middle of its link"
+		}
+		say = append(say, "move the "+sd.Cylinder+" die about "+session.FormatLength(math.Abs(d), unit)+" "+way)
+	}
+	// How much a cut-off moves for a step of die a setter can measure.
+	step, stepWords := 1.0, "each mm"
+	if unit == session.UnitInch {
+		step, stepWords = 0.254, "each 0.01 in"
+	}
+	return w + " To cut off alike at " + pct(mean) + ": " + strings.Join(say, ", and ") + " (" + stepWords + " moves a cut-off about " + pct(per*step) + "). First measure each die's distance from the middle of its link with the reverser in this notch: change the side that differs from the drawing."
 }
 
 // Designed returns the beat of an engine as designed: every cylinder the

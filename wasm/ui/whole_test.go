@@ -3,6 +3,7 @@ package ui
 import (
 	"fmt"
 	"image/color"
+	"maps"
 	"math"
 	"math/rand/v2"
 	"os"
@@ -529,6 +530,62 @@ func TestSameLeadOnEveryCylinder(t *testing.T) {
 			return strings.Contains(n, "target lead of "+session.FormatLength(want, a.unit()))
 		}) {
 			t.Errorf("cylinder %d's plan says nothing of the target lead: %q", i, a.plan.Notes)
+		}
+	}
+}
+
+// TestSidesDieMovesOnTheWholeEngine: an engine whose left side's die
+// stands out of place in the running notch (its reversing linkage off),
+// read with the cut-offs at the crosshead on both sides, shows on the
+// whole engine how far each side's die wants to move to cut off alike,
+// in the session's unit: mm, then inches.
+func TestSidesDieMovesOnTheWholeEngine(t *testing.T) {
+	r := rand.New(rand.NewPCG(5, 5))
+	var right trial.Engine
+	var err error
+	for try := 0; try < 20; try++ {
+		if right, err = trial.NewEngine(r, setting.KindStephenson, trial.Options{}); err == nil {
+			break
+		}
+	}
+	if err != nil {
+		t.Fatal(err)
+	}
+	left := right
+	left.RevErr = maps.Clone(right.RevErr)
+	notch := setting.Reverser(right.Drawing.Notches[0].Reverser)
+	left.RevErr[notch] += 0.06
+	rd := trial.Round{Wild: -1, Tyre: true, CutOffs: true}
+	s, err := right.Session(r, rd)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sl, err := left.Session(r, rd)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Engine.Cylinders = []setting.Cylinder{{Name: "right"}, {Name: "left", CrankAngle: -90}}
+	c := sl.Cylinders[0]
+	c.Name = "left"
+	s.Cylinders = append(s.Cylinders, c)
+	pos := positionOf(t, s, right.Drawing.Notches[0].Name)
+	moves, _, ok := pos.DieMoves()
+	if !ok || math.Abs(pos.Sides[0].CutOffAfter-pos.Sides[1].CutOffAfter) < 1 {
+		t.Fatalf("the sides are not told apart in the notch: %+v", pos.Sides)
+	}
+	for _, unit := range []session.Unit{session.UnitMM, session.UnitInch} {
+		s.DisplayUnit = unit
+		a, _, _, _ := wholeApp(t, s)
+		text, _ := flatText(a)
+		for k, sd := range pos.Sides {
+			way := "further from"
+			if moves[k] < 0 {
+				way = "nearer to"
+			}
+			want := "the " + sd.Cylinder + " die about " + session.FormatLength(math.Abs(moves[k]), unit) + " " + way + " the middle of its link"
+			if !strings.Contains(text, want) {
+				t.Errorf("%v: the whole engine lacks %q:\n%s", unit, want, text)
+			}
 		}
 	}
 }

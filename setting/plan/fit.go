@@ -68,6 +68,9 @@ type Fit struct {
 	cStart, cN []int
 	nc         int
 	shape      []unmodShape
+	// unmodPrior is the prior of an unmodelled coefficient (see
+	// setUnmodelled), for those a position's readings cannot carry.
+	unmodPrior float64
 }
 
 // FitOptions tunes the fit. The zero value is the default.
@@ -228,6 +231,7 @@ type problem struct {
 	// cStart[g]+cN[g]], shaped by shape[g].
 	cStart, cN []int
 	cPrior     []float64
+	unmodK     float64 // the scale of cPrior
 	shape      []unmodShape
 	// cc caches the unmodelled parts as curves for the coefficients ccFor
 	// (see corrCurves).
@@ -344,6 +348,7 @@ func newProblem(spec setting.EngineSpec, obs []session.Observation) *problem {
 // five or more (a sweep). k scales the prior.
 func (pb *problem) setUnmodelled(k float64) {
 	pb.cStart, pb.cN, pb.cPrior = make([]int, len(pb.revs)), make([]int, len(pb.revs)), nil
+	pb.unmodK = k
 	pb.cc, pb.ccFor = nil, nil
 	pb.shape = make([]unmodShape, len(pb.revs))
 	n := 0
@@ -392,6 +397,35 @@ func (pb *problem) setUnmodelled(k float64) {
 		n += m
 	}
 }
+
+// unreadCut is one standard deviation of end k's cut-off in position q
+// from the unmodelled coefficients its readings cannot carry (see
+// setUnmodelled: with the dead centres alone, the phase and the second
+// harmonic, which move a cut-off and not a lead), each at its prior. The
+// fit's covariance holds only the coefficients it fitted; without this a
+// cut-off read from the dead centres alone is stated 2 to 3 times too
+// sure (issue 11's bench: 33 to 42 % of true cut-offs within one stated
+// standard deviation on single-eccentric and Stephenson gears).
+func (f *Fit) unreadCut(q *quantities, k int) float64 {
+	n := 0
+	if g := q.group; g >= 0 && g < len(f.cN) {
+		n = f.cN[g]
+	}
+	b := basis(q.cutTheta[k])
+	v := 0.0
+	for j := n; j < 3; j++ {
+		pr := unreadShare * f.unmodPrior
+		if j >= 2 {
+			pr /= 3
+		}
+		v += sq(pr * b[j])
+	}
+	return math.Sqrt(v) * math.Abs(q.cutPerX[k])
+}
+
+// unreadShare scales the priors of the unmodelled coefficients a
+// position's readings cannot carry, for unreadCut.
+const unreadShare = 0.5
 
 // nc returns the number of unmodelled coefficients.
 func (pb *problem) nc() int { return len(pb.cPrior) }
@@ -1253,6 +1287,7 @@ func (pb *problem) finish(f *Fit, s state, res float64) error {
 	}
 	f.idx = pb.idx
 	f.cStart, f.cN, f.nc, f.shape = pb.cStart, pb.cN, pb.nc(), pb.shape
+	f.unmodPrior = unmodelledPrior * pb.unmodK
 	f.used = append([]bool(nil), pb.use...)
 	f.resMM = res
 	f.sig = append([]float64(nil), pb.sig...)

@@ -604,7 +604,7 @@ func (ev *evaluator) states(qs []quantities, fit *Fit) []PositionState {
 				if q.cutOK {
 					c = [4]float64{}
 					c[2+k] = 1
-					es.CutOffSigmaPct = clean(sdOf(fit, &q, c))
+					es.CutOffSigmaPct = clean(math.Hypot(sdOf(fit, &q, c), fit.unreadCut(&q, k)))
 				}
 			}
 			if k == 0 {

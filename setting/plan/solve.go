@@ -463,8 +463,11 @@ type quantities struct {
 	// cg is the same by the coefficients of the position's unmodelled
 	// part (see Unmodelled), whose place among the fit's is group (an
 	// index into Fit.revs; -1 when the readings did not cover it).
-	cg        [4][5]float64
-	group     int
+	cg    [4][5]float64
+	group int
+	// cutPerX is each end's cut-off change (% of stroke) for a valve moved
+	// 1 mm at its cut-off (0 where the cut-off is not found).
+	cutPerX   [2]float64
 	cutTheta  [2]float64
 	leadTheta [2]float64
 }
@@ -572,6 +575,12 @@ func (ev *evaluator) gradients(p [numParams]float64, r setting.Reverser, q *quan
 		q.grad[k][j] = -1
 		if q.cutOK && slope[k] != 0 {
 			q.grad[2+k][j] = dpct[k] / (kEdge[k] * slope[k])
+		}
+	}
+	for k := 0; k < 2; k++ {
+		q.cutPerX[k] = 0
+		if q.cutOK && slope[k] != 0 {
+			q.cutPerX[k] = -dpct[k] / slope[k]
 		}
 	}
 	q.group = -1

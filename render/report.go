@@ -291,6 +291,15 @@ func wholeEngineReport(pg *page, rm ReportModel) {
 			}
 			pg.y = table(c, Point{pg.x0, pg.y}, pg.x1-pg.x0, []float64{0.3, 0.22, 0.13, 0.22, 0.13}, rows, th)
 		}
+		// Where the cylinders stay apart after the plans, what would
+		// match them (the die's place in each link, a target lead).
+		unit := session.UnitMM
+		if rm.Model != nil {
+			unit = rm.Model.Unit
+		}
+		for _, w := range beat.SideWords(pos, unit) {
+			pg.para(w, TextStyle{Color: th.Warn, Size: BodySize})
+		}
 	}
 	st := beat.DefaultSteam
 	pg.para(fmt.Sprintf("Work from a simple indicator diagram: admission at %.1f bar less %.0f %%, expansion and compression with pV constant, %.0f %% clearance, exhaust at %.1f bar; each end's share is of the mean of all of them.",

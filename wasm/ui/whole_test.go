@@ -587,5 +587,19 @@ func TestSidesDieMovesOnTheWholeEngine(t *testing.T) {
 				t.Errorf("%v: the whole engine lacks %q:\n%s", unit, want, text)
 			}
 		}
+		// The shared report says it too.
+		rm := render.WholeEngine(a.Session(), a.model, plan.AimsOptions(a.Session().Aims))
+		c := recorder.New(render.ReportWidth, render.ReportHeight(render.ReportWidth, rm))
+		render.Report(c, rm, render.Light())
+		var b strings.Builder
+		for _, op := range c.Ops() {
+			if op.Kind == recorder.Text {
+				b.WriteString(op.Str + " ")
+			}
+		}
+		report := strings.Join(strings.Fields(b.String()), " ")
+		if !strings.Contains(report, "die about "+session.FormatLength(math.Abs(moves[0]), unit)) {
+			t.Errorf("%v: the report does not say how far the dies want to move:\n%s", unit, report)
+		}
 	}
 }

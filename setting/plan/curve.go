@@ -111,6 +111,55 @@ func (c curve) at(th float64) (x, dx float64) {
 	return x, dx * math.Pi / 180
 }
 
+// harm holds cos(k th) and sin(k th) for k up to a curve's harmonics at
+// one angle th, by the same recurrence at and value use: curves sampled
+// at one reading's angle share it (atH and valueH give at's and value's
+// results exactly).
+type harm struct {
+	th   float64
+	ok   bool
+	c, s [curveSamples/2 + 1]float64
+}
+
+// set fills h for th degrees.
+func (h *harm) set(th float64) {
+	s1, c1 := math.Sincos(th * math.Pi / 180)
+	ck, sk := 1.0, 0.0
+	h.c[0], h.s[0] = 1, 0
+	for k := 1; k < len(h.c); k++ {
+		ck, sk = ck*c1-sk*s1, sk*c1+ck*s1
+		h.c[k], h.s[k] = ck, sk
+	}
+	h.th, h.ok = th, true
+}
+
+// atH is at(h.th) from h's table (the curve's harmonics no more than
+// the table's).
+func (c curve) atH(h *harm) (x, dx float64) {
+	if len(c) == 0 {
+		return 0, 0
+	}
+	x = c[0]
+	for k := 1; 2*k < len(c); k++ {
+		a, b := c[2*k-1], c[2*k]
+		x += a*h.c[k] + b*h.s[k]
+		dx += float64(k) * (b*h.c[k] - a*h.s[k])
+	}
+	return x, dx * math.Pi / 180
+}
+
+// valueH is value(h.th) from h's table.
+func (c curve) valueH(h *harm) float64 {
+	if len(c) == 0 {
+		return 0
+	}
+	x := c[0]
+	for k := 1; 2*k < len(c); k++ {
+		x += c[2*k-1]*h.c[k] + c[2*k]*h.s[k]
+	}
+	return x
+}
+
 // value returns the curve's value at th degrees.
 func (c curve) value(th float64) float64 {
 	if len(c) == 0 {

@@ -232,7 +232,10 @@ type problem struct {
 	cStart, cN []int
 	cPrior     []float64
 	unmodK     float64 // the scale of cPrior
-	shape      []unmodShape
+	// harms holds each observation's harmonics at its last true crank
+	// angle (see harmAt).
+	harms []harm
+	shape []unmodShape
 	// cc caches the unmodelled parts as curves for the coefficients ccFor
 	// (see corrCurves).
 	cc    []curve
@@ -318,7 +321,7 @@ func (s state) clone() state { return state{s.p, append([]float64(nil), s.c...)}
 
 // newProblem groups the observations by reverser position.
 func newProblem(spec setting.EngineSpec, obs []session.Observation) *problem {
-	pb := &problem{spec: spec, obs: obs, use: make([]bool, len(obs)), sig: make([]float64, len(obs)), grp: make([]int, len(obs)), tr: curveTrig, tr24: effectTrig}
+	pb := &problem{spec: spec, obs: obs, use: make([]bool, len(obs)), sig: make([]float64, len(obs)), grp: make([]int, len(obs)), tr: curveTrig, tr24: effectTrig, harms: make([]harm, len(obs))}
 	for k := 0; k < 2; k++ {
 		pb.kEdge[k] = edgeSlope(spec.Valve, setting.CylinderEnd(k))
 	}
@@ -480,21 +483,32 @@ func isGearParam(j param) bool {
 // crank angle (mm per degree).
 func (pb *problem) gear(i int, s state) (x, slope float64) {
 	g := pb.grp[i]
-	th := pb.obs[i].CrankDeg + s.p[pDeadCentre]
-	x, slope = pb.base[g].at(th)
+	h := pb.harmAt(i, s)
+	x, slope = pb.base[g].atH(h)
 	for _, j := range pb.idx {
 		if d := pb.sens[g][j]; d != nil && s.p[j] != pb.p0[j] {
-			v, dv := d.at(th)
+			v, dv := d.atH(h)
 			x += (s.p[j] - pb.p0[j]) * v
 			slope += (s.p[j] - pb.p0[j]) * dv
 		}
 	}
 	if cc := pb.corrCurves(s); cc != nil && cc[g] != nil {
-		v, dv := cc[g].at(th)
+		v, dv := cc[g].at(h.th)
 		x += v
 		slope += dv
 	}
 	return x, slope
+}
+
+// harmAt returns observation i's harmonics at its true crank angle in
+// state s, worked out again only when the dead-centre error has moved.
+func (pb *problem) harmAt(i int, s state) *harm {
+	th := pb.obs[i].CrankDeg + s.p[pDeadCentre]
+	h := &pb.harms[i]
+	if !h.ok || h.th != th {
+		h.set(th)
+	}
+	return h
 }
 
 // corrCurves returns each position's unmodelled part at s as a curve (nil
@@ -525,8 +539,9 @@ func (pb *problem) corrCurves(s state) []curve {
 // dead-centre mark's column of the Jacobian).
 func (pb *problem) slopeAt(i int, s state) float64 {
 	g := pb.grp[i]
-	th := pb.obs[i].CrankDeg + s.p[pDeadCentre]
-	_, slope := pb.base[g].at(th)
+	h := pb.harmAt(i, s)
+	th := h.th
+	_, slope := pb.base[g].atH(h)
 	if cc := pb.corrCurves(s); cc != nil && cc[g] != nil {
 		_, dv := cc[g].at(th)
 		slope += dv
@@ -633,7 +648,7 @@ func (pb *problem) row(i int, s state, out []float64) {
 			}
 		default:
 			if o.HasCrank {
-				out[c] = edge * pb.sens[pb.grp[i]][j].value(th)
+				out[c] = edge * pb.sens[pb.grp[i]][j].valueH(pb.harmAt(i, s))
 			}
 		}
 	}

@@ -146,6 +146,9 @@ type Plan struct {
 	Cautions []string `json:"cautions"`
 
 	fit *Fit
+	// give are the steps of the give-and-take plan a note offers (see
+	// giveFar), nil when none is.
+	give []Step
 	// later is the other priority's plan still to make (Options.OtherLater).
 	later *otherWork
 	// sets are the full event sets behind Now and After, and the steps
@@ -173,6 +176,11 @@ type otherWork struct {
 	running int
 	noteAt  int
 }
+
+// GiveAndTake returns the steps of the give-and-take plan the notes
+// offer (a position left far apart closed at the cost of another ending
+// worse by up to twice what its readings tell), or nil.
+func (p *Plan) GiveAndTake() []Step { return p.give }
 
 // OtherPending reports whether the plan with the other priority is still
 // to be made (see Options.OtherLater and AddOther).
@@ -318,6 +326,7 @@ func FromFit(fit *Fit, adjs []session.Adjustment, opt Options) (*Plan, error) {
 		plan.sets.after = append(plan.sets.after, main.qAft[i].ev)
 	}
 	plan.Notes = append(plan.Notes, main.notes...)
+	plan.give = main.give
 	if opt.TargetLeadMM != nil {
 		missed := targetNotes(*opt.TargetLeadMM, spec.Gear.Kind, ks, ps, main.after, main.steps, opt.Unit)
 		plan.Notes = append(plan.Notes[:targetAt:targetAt], append(missed, plan.Notes[targetAt:]...)...)
@@ -394,6 +403,7 @@ type planned struct {
 	qNow, qAft []quantities
 	prio       Priority
 	notes      []string // what the plan chose and what rounding leaves
+	give       []Step   // the give-and-take plan's steps, when one is offered
 }
 
 // plan solves, rounds and describes one priority.
@@ -474,7 +484,84 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 		out.steps = []Step{}
 	}
 	out.notes = append(out.notes, ev.leftNotes(ks, pol.usable, qNow, ch, g, unit)...)
+	if note, alt, err := ev.giveAndTake(p, ks, ts, qNow, ch, g, pol.usable, unit); err == nil && note != "" {
+		out.notes = append(out.notes, note)
+		out.give = alt
+	}
 	return out, nil
+}
+
+// Give and take: where the plan leaves a position's leads far apart
+// because closing them would leave another position worse by more than
+// the plan allows itself, the plan made again allowing each position to
+// end worse by up to twice what its readings can tell (common practice,
+// no source: a setter trades a hair he can barely measure for a
+// difference he can see). Said only when that brings the worst position
+// left under half of it.
+const (
+	// giveFar is how many of the plan's own tolerances a difference left
+	// must be for the trade to be looked at.
+	giveFar = 5.0
+	// giveTell is how many of a difference's standard deviations the
+	// trade may let a position end worse by.
+	giveTell = 2.0
+)
+
+// giveAndTake returns the note of the trade (see giveFar) and its steps,
+// or "".
+func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNow []quantities, ch *choice, g goal, usable []bool, unit session.Unit) (string, []Step, error) {
+	if g.prio != EqualLeads {
+		return "", nil, nil
+	}
+	worst, wi, far := 0.0, -1, false
+	for i, q := range ch.qAft {
+		d := math.Abs(g.diff(q))
+		if d > worst {
+			worst, wi = d, i
+		}
+		far = far || d > giveFar*g.tol[i]
+	}
+	if !far || wi < 0 {
+		return "", nil, nil
+	}
+	g2 := g
+	g2.tol = make([]float64, len(g.tol))
+	loosened := false
+	for i := range g.tol {
+		g2.tol[i] = math.Max(g.tol[i], giveTell*g.sd[i])
+		loosened = loosened || g2.tol[i] > g.tol[i]
+	}
+	if !loosened {
+		return "", nil, nil
+	}
+	ch2, err := ev.choose(p, ks, ts, qNow, g2, usable)
+	if err != nil || len(ch2.set) == 0 {
+		return "", nil, err
+	}
+	worst2 := 0.0
+	var worse []string
+	for i, q := range ch2.qAft {
+		d := math.Abs(g.diff(q))
+		worst2 = math.Max(worst2, d)
+		if d > math.Abs(g.diff(qNow[i]))+g.tol[i] {
+			worse = append(worse, fmt.Sprintf("%s (to %s)", ev.ps[i].name(), length(d, unit)))
+		}
+	}
+	if !(worst2 < worst/2) || len(worse) == 0 {
+		return "", nil, nil
+	}
+	var steps []Step
+	var words []string
+	for _, i := range workOrder(ev.spec.Gear.Kind, ks) {
+		if ch2.rounded[i] != 0 {
+			st := newStep(ks[i], ev.spec.Gear.Kind, ch2.ideal[i], ch2.rounded[i])
+			st.Words = stepWords(st, unit)
+			steps = append(steps, st)
+			words = append(words, st.Words)
+		}
+	}
+	return fmt.Sprintf("Give and take: letting the leads in %s go further apart than the plan allows itself (but within twice what the readings tell), no position would be left more than %s apart, where %s is now left %s apart. The steps for that instead: %s",
+		strings.Join(worse, " and "), length(worst2, unit), ev.ps[wi].name(), length(worst, unit), strings.Join(words, " ")), steps, nil
 }
 
 func applyKnobs(p [numParams]float64, ks []knob, a []float64) [numParams]float64 {

@@ -2,7 +2,6 @@ package trial
 
 import (
 	"fmt"
-	"math/rand/v2"
 	"os"
 	"strconv"
 	"strings"
@@ -28,16 +27,7 @@ func TestDiagnose(t *testing.T) {
 		f := strings.Split(one, ":")
 		i, _ := strconv.Atoi(f[0])
 		prio := plan.Priority(f[1])
-		r := rand.New(rand.NewPCG(seed, uint64(i)))
-		e, err := drawEngine(r, i, Options{})
-		if err != nil {
-			t.Fatal(err)
-		}
-		rd := NewRound(r, e, Options{})
-		s, err := e.Session(r, rd)
-		if err != nil {
-			t.Fatal(err)
-		}
+		e, rd, s := benchRound(t, seed, i, false)
 		c := Case{Seed: seed, Index: i, Engine: e, Round: rd}
 		res, err := e.Try(s, prio)
 		if err != nil {

@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"maps"
 	"math"
-	"math/rand/v2"
 	"slices"
 	"testing"
 
@@ -47,17 +46,7 @@ func TestTodaysUncertaintyCoversTheTruth(t *testing.T) {
 		}
 	}
 	for i := 0; i < n; i++ {
-		r := rand.New(rand.NewPCG(31, uint64(i)))
-		e, err := drawEngine(r, i, Options{})
-		if err != nil {
-			t.Fatal(err)
-		}
-		rd := NewRound(r, e, Options{})
-		rd.Wild = -1
-		s, err := e.Session(r, rd)
-		if err != nil {
-			t.Fatal(err)
-		}
+		e, rd, s := benchRound(t, 31, i, true)
 		p, err := plan.Make(s, plan.Options{Priority: plan.EqualLeads, Unit: session.UnitMM})
 		if err != nil {
 			continue

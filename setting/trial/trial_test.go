@@ -1,11 +1,14 @@
 package trial
 
 import (
+	"math/rand/v2"
 	"os"
 	"strconv"
 	"strings"
 	"sync"
 	"testing"
+
+	"evenbeat/setting/session"
 )
 
 // runCases runs engines 0..n-1 of the bench on every core.
@@ -144,4 +147,25 @@ func TestStepUncertaintyCoversTheScatter(t *testing.T) {
 	if mr < 0.6 || mr > 1.8 {
 		t.Errorf("the stated +/- is a median %.2f times the scatter", mr)
 	}
+}
+
+// benchRound draws engine number i of a bench seeded with seed and its
+// round, as RunOne does (with no mistyped reading when clean), and
+// returns them with the session the readings make.
+func benchRound(t *testing.T, seed uint64, i int, clean bool) (Engine, Round, *session.Session) {
+	t.Helper()
+	r := rand.New(rand.NewPCG(seed, uint64(i)))
+	e, err := drawEngine(r, i, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	rd := NewRound(r, e, Options{})
+	if clean {
+		rd.Wild = -1
+	}
+	s, err := e.Session(r, rd)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return e, rd, s
 }

@@ -560,8 +560,8 @@ func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNo
 			words = append(words, st.Words)
 		}
 	}
-	return fmt.Sprintf("Give and take: letting the leads in %s go further apart than the plan allows itself (but within twice what the readings tell), no position would be left more than %s apart, where %s is now left %s apart. The steps for that instead: %s",
-		strings.Join(worse, " and "), length(worst2, unit), ev.ps[wi].name(), length(worst, unit), strings.Join(words, " ")), steps, nil
+	return fmt.Sprintf("Give and take: the plan above leaves the leads in %s %s apart. If the leads in %s may go further apart than the plan allows itself (but within twice what the readings tell), no position need be left more than %s apart. These steps instead of the plan's: %s",
+		ev.ps[wi].name(), length(worst, unit), strings.Join(worse, " and "), length(worst2, unit), strings.Join(words, " ")), steps, nil
 }
 
 func applyKnobs(p [numParams]float64, ks []knob, a []float64) [numParams]float64 {

@@ -534,6 +534,31 @@ func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNo
 	if !loosened {
 		return "", nil, nil
 	}
+	// Worth a second search only if it is not the adjusters' steps that
+	// leave it (no knob's one step there is as large), and if the knobs
+	// could close it at all: on the linear model, with nothing held back,
+	// the worst position left under half of it.
+	for k, kb := range ks {
+		gd := math.Abs(qNow[wi].grad[0][kb.p] - qNow[wi].grad[1][kb.p])
+		if usable[k] && !isSheave(kb) && gd*kb.step > 1e-6 && worst <= gd*kb.step {
+			return "", nil, nil
+		}
+	}
+	var all []int
+	for k := range ks {
+		if usable[k] {
+			all = append(all, k)
+		}
+	}
+	lin := make([]quantities, len(qNow))
+	linearAt(qNow, ks, subsetIdeal(ks, ts, qNow, all), lin)
+	free := 0.0
+	for i := range lin {
+		free = math.Max(free, math.Abs(g.diff(lin[i])))
+	}
+	if !(free < worst/2) {
+		return "", nil, nil
+	}
 	ch2, err := ev.choose(p, ks, ts, qNow, g2, usable)
 	if err != nil || len(ch2.set) == 0 {
 		return "", nil, err

@@ -121,7 +121,7 @@ func (g SingleEccentric) Validate(e Engine) error {
 			return err
 		}
 	}
-	return sweepCheck(e, eachAngle(e, g.Valve))
+	return sweepCheck(e, g.Valve)
 }
 
 // singlePose is the solved linkage of a SingleEccentric.

@@ -247,27 +247,16 @@ func firstError(errs ...error) error {
 
 // sweepCheck solves a gear every checkStepDeg degrees of crank in full
 // forward, mid and full back gear, so Validate can report a linkage that cannot close
-// before any event code meets it. at(r) returns the solver at reverser r.
-func sweepCheck(e Engine, at func(r Reverser) func(thetaDeg float64) error) error {
+// before any event code meets it.
+func sweepCheck(e Engine, valve func(Engine, float64, Reverser) (float64, error)) error {
 	for _, r := range []Reverser{1, 0, -1} {
-		solve := at(r)
 		for th := 0.0; th < 360; th += checkStepDeg {
-			if err := solve(th); err != nil {
+			if _, err := valve(e, th, r); err != nil {
 				return err
 			}
 		}
 	}
 	return nil
-}
-
-// eachAngle makes a Valve method sweepCheck's solver.
-func eachAngle(e Engine, valve func(Engine, float64, Reverser) (float64, error)) func(Reverser) func(float64) error {
-	return func(r Reverser) func(float64) error {
-		return func(th float64) error {
-			_, err := valve(e, th, r)
-			return err
-		}
-	}
 }
 
 // newtonStep is the Newton step (mm) after which a linkage solution is

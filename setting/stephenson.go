@@ -89,15 +89,7 @@ func (g Stephenson) Validate(e Engine) error {
 	case !(g.ValveCentreU > 0):
 		return &Error{"valve_centre_u", fmt.Sprintf("The die block must lie ahead of the axle (valve central position %g mm must be positive).", g.ValveCentreU)}
 	}
-	// Each angle afresh, as Valve solves it.
-	return sweepCheck(e, func(r Reverser) func(float64) error {
-		f := g.frame(r)
-		f.turn()
-		return func(th float64) error {
-			_, err := g.valveIn(&f, e, th, r, nil)
-			return err
-		}
-	})
+	return sweepCheck(e, g.Valve)
 }
 
 // stephensonPose is the solved linkage.
@@ -260,10 +252,6 @@ func (g *Stephenson) solveIn(f *stephensonFrame, e Engine, thetaDeg float64, r R
 		centre.W = p.armPin.W + hang*rootPos(g.LiftingLink*g.LiftingLink-su*su) - qs.W
 	}
 	ok := g.newton(&p, fLocal, bLocal, sLocal, &centre, &sa, &ca)
-	if !ok && warm { // perhaps a poor start: afresh
-		guess.n = 0
-		return g.solveIn(f, e, thetaDeg, r, withCrank, guess)
-	}
 	if guess != nil {
 		guess.push(centre, sa, ok)
 	}
@@ -271,7 +259,7 @@ func (g *Stephenson) solveIn(f *stephensonFrame, e Engine, thetaDeg float64, r R
 	p.centre, p.sin, p.cos = centre, sa, ca
 	p.fwdPin, p.backPin, p.suspension = place(fLocal), place(bLocal), place(sLocal)
 	if !ok || !p.fwdPin.Finite() || p.fwdPin.U < p.fwdSheave.U || p.backPin.U < p.backSheave.U || (p.suspension.W-p.armPin.W)*hang < 0 {
-		if warm { // perhaps a wrong start: afresh
+		if warm { // perhaps a poor or wrong start: afresh
 			guess.n = 0
 			return g.solveIn(f, e, thetaDeg, r, withCrank, guess)
 		}
@@ -308,7 +296,6 @@ func (g *Stephenson) newton(p *stephensonPose, fLocal, bLocal, sLocal Point, cen
 		if !solved {
 			return false
 		}
-		NewtonIters++
 		centre.U -= dx[0]
 		centre.W -= dx[1]
 		*sa -= dx[2]
@@ -468,5 +455,3 @@ func (g Stephenson) Pose(e Engine, thetaDeg float64, r Reverser) (Pose, error) {
 	b.p.Valve = valve
 	return b.p, nil
 }
-
-var NewtonIters int

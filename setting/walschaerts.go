@@ -136,7 +136,7 @@ func (g Walschaerts) Validate(e Engine) error {
 	case math.Abs(g.FullGearDie) >= g.LinkRadius:
 		return &Error{"full_gear_die", fmt.Sprintf("The full-gear die position %g mm must be well inside the link radius %g mm.", g.FullGearDie, g.LinkRadius)}
 	}
-	return sweepCheck(e, eachAngle(e, g.Valve))
+	return sweepCheck(e, g.Valve)
 }
 
 // walschaertsPose is the solved linkage.

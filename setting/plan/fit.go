@@ -68,9 +68,6 @@ type Fit struct {
 	cStart, cN []int
 	nc         int
 	shape      []unmodShape
-	// unmodPrior is the prior of an unmodelled coefficient (see
-	// setUnmodelled), for those a position's readings cannot carry.
-	unmodPrior float64
 }
 
 // FitOptions tunes the fit. The zero value is the default.
@@ -231,7 +228,6 @@ type problem struct {
 	// cStart[g]+cN[g]], shaped by shape[g].
 	cStart, cN []int
 	cPrior     []float64
-	unmodK     float64 // the scale of cPrior
 	// harms holds each observation's harmonics at its last true crank
 	// angle (see harmAt).
 	harms []harm
@@ -351,7 +347,6 @@ func newProblem(spec setting.EngineSpec, obs []session.Observation) *problem {
 // five or more (a sweep). k scales the prior.
 func (pb *problem) setUnmodelled(k float64) {
 	pb.cStart, pb.cN, pb.cPrior = make([]int, len(pb.revs)), make([]int, len(pb.revs)), nil
-	pb.unmodK = k
 	pb.cc, pb.ccFor = nil, nil
 	pb.shape = make([]unmodShape, len(pb.revs))
 	n := 0
@@ -402,24 +397,25 @@ func (pb *problem) setUnmodelled(k float64) {
 }
 
 // unreadCut is one standard deviation of end k's cut-off in position q
-// from the unmodelled coefficients its readings cannot carry (see
-// setUnmodelled: with the dead centres alone, the phase and the second
-// harmonic, which move a cut-off and not a lead), each at its prior. The
-// fit's covariance holds only the coefficients it fitted; without this a
-// cut-off read from the dead centres alone is stated 2 to 3 times too
-// sure (issue 11's bench: 33 to 42 % of true cut-offs within one stated
-// standard deviation on single-eccentric and Stephenson gears).
+// from the unmodelled coefficients of the first harmonic its readings
+// cannot carry (see setUnmodelled: with the dead centres alone, the phase
+// b1, which moves a cut-off and not a lead; all three without readings),
+// each at unreadShare of its prior. The fit's covariance holds only the
+// coefficients it fitted; without this a cut-off read from the dead
+// centres alone is stated 2 to 3 times too sure (issue 11's bench: 33 to
+// 42 % of true cut-offs within one stated standard deviation on
+// single-eccentric and Stephenson gears).
 func (f *Fit) unreadCut(q *quantities, k int) float64 {
 	n := 0
 	if g := q.group; g >= 0 && g < len(f.cN) {
 		n = f.cN[g]
 	}
 	b := basis(q.cutTheta[k])
+	pr := unreadShare * unmodelledPrior * scaleOf(f.Model.Spec)
 	v := 0.0
 	for j := n; j < 3; j++ {
-		pr := unreadShare * f.unmodPrior
-		if j >= 2 {
-			pr /= 3
+		if j == 2 {
+			pr /= 3 // the phase's prior, as setUnmodelled holds it
 		}
 		v += sq(pr * b[j])
 	}
@@ -505,8 +501,8 @@ func (pb *problem) gear(i int, s state) (x, slope float64) {
 func (pb *problem) harmAt(i int, s state) *harm {
 	th := pb.obs[i].CrankDeg + s.p[pDeadCentre]
 	h := &pb.harms[i]
-	if !h.ok || h.th != th {
-		h.set(th)
+	if h.n == 0 || h.th != th {
+		h.set(th, len(h.c)-1)
 	}
 	return h
 }
@@ -1302,7 +1298,6 @@ func (pb *problem) finish(f *Fit, s state, res float64) error {
 	}
 	f.idx = pb.idx
 	f.cStart, f.cN, f.nc, f.shape = pb.cStart, pb.cN, pb.nc(), pb.shape
-	f.unmodPrior = unmodelledPrior * pb.unmodK
 	f.used = append([]bool(nil), pb.use...)
 	f.resMM = res
 	f.sig = append([]float64(nil), pb.sig...)

@@ -111,6 +111,11 @@ func typeKeys(t testing.TB, a *App, text string) {
 func drawText(a *App) (string, *recorder.Canvas) {
 	c := recorder.New(phoneW, phoneH)
 	a.Draw(c)
+	return recordedText(c), c
+}
+
+// recordedText returns every text drawn on c, a line each.
+func recordedText(c *recorder.Canvas) string {
 	var b strings.Builder
 	for _, op := range c.Ops() {
 		if op.Kind == recorder.Text {
@@ -118,7 +123,7 @@ func drawText(a *App) (string, *recorder.Canvas) {
 			b.WriteByte('\n')
 		}
 	}
-	return b.String(), c
+	return b.String()
 }
 
 // demoSession is the invented demo session the readings are typed from.

@@ -591,13 +591,7 @@ func TestSidesDieMovesOnTheWholeEngine(t *testing.T) {
 		rm := render.WholeEngine(a.Session(), a.model, plan.AimsOptions(a.Session().Aims))
 		c := recorder.New(render.ReportWidth, render.ReportHeight(render.ReportWidth, rm))
 		render.Report(c, rm, render.Light())
-		var b strings.Builder
-		for _, op := range c.Ops() {
-			if op.Kind == recorder.Text {
-				b.WriteString(op.Str + " ")
-			}
-		}
-		report := strings.Join(strings.Fields(b.String()), " ")
+		report := strings.Join(strings.Fields(recordedText(c)), " ")
 		if !strings.Contains(report, "die about "+session.FormatLength(math.Abs(moves[0]), unit)) {
 			t.Errorf("%v: the report does not say how far the dies want to move:\n%s", unit, report)
 		}

@@ -188,12 +188,25 @@ func (ev *evaluator) weighing(obj *objective, qNow []quantities, fit *Fit) goal 
 		// the model's own error (see leadWorseMM, cutWorsePct).
 		g.seen[i] = math.Max(1.5*res, 1.2*math.Min(rs, leadUnknownMM*k))
 		g.tol[i], g.sd[i] = math.Min(g.seen[i], leadWorseMM*k), sl
-		if sl > leadUnknownMM*k && !readAt(fit, ev.ps[i].notch.Reverser) {
-			// A position nobody read is held only as far as the model
-			// knows it, within what a setter could see there; the plan
-			// says which readings to take. (One whose reading was left
-			// out to be taken again is held as strictly as the rest.)
-			g.tol[i], g.sd[i] = g.seen[i], 0
+		if sl > leadUnknownMM*k {
+			if r := ev.ps[i].notch.Reverser; readAt(fit, r) {
+				// A position whose dead-centre reading was left out to be
+				// taken again is known through the model; but where the
+				// model had to be bent far from the drawing to follow the
+				// readings there (further than a build's errors leave,
+				// see oneEndMM), what it says of the end not read is not
+				// known to stand on either side of equal: the plan moves
+				// that difference by no more than the tolerance either
+				// way until it is read again.
+				if fit.bentAt(r) > oneEndMM*k {
+					g.sd[i] = math.Inf(1)
+				}
+			} else {
+				// A position nobody read is held only as far as the model
+				// knows it, within what a setter could see there; the
+				// plan says which readings to take.
+				g.tol[i], g.sd[i] = g.seen[i], 0
+			}
 		}
 		if g.prio == EqualCutOffs {
 			g.tol[i], g.seen[i], g.sd[i] = cutWorsePct, cutWorsePct, sc

@@ -528,7 +528,11 @@ func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNo
 	g2.tol = make([]float64, len(g.tol))
 	loosened := false
 	for i := range g.tol {
-		g2.tol[i] = math.Max(g.tol[i], giveTell*g.sd[i])
+		g2.tol[i] = g.tol[i]
+		if !math.IsInf(g.sd[i], 1) {
+			// (A position whose reading is to be taken again gives nothing.)
+			g2.tol[i] = math.Max(g.tol[i], giveTell*g.sd[i])
+		}
 		loosened = loosened || g2.tol[i] > g.tol[i]
 	}
 	if !loosened {

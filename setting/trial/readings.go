@@ -279,3 +279,37 @@ func reverserOf(p Position) session.ReverserPosition {
 }
 
 func sq(x float64) float64 { return x * x }
+
+// readError returns, per planned position, the standard deviation of the
+// lead difference as a setter reads it straight off the gauge (the two
+// dead-centre readings less the port marks), over repeated rounds of the
+// same engine with fresh reading and marking errors: what a round can
+// tell of that difference, whatever the planner makes of it.
+func (e Engine) readError(seed uint64, i int, rd Round) ([]float64, error) {
+	const repeats = 24
+	plain := Round{Wild: -1, Tyre: rd.Tyre}
+	sum := make([]float64, len(e.Positions))
+	sum2 := make([]float64, len(e.Positions))
+	for k := 0; k < repeats; k++ {
+		r := rand.New(rand.NewPCG(seed^0x5eed, uint64(i)*repeats+uint64(k)))
+		s, err := e.Session(r, plain)
+		if err != nil {
+			return nil, err
+		}
+		rn := s.Cylinders[0].Rounds[0]
+		m := rn.PortMarks.FrontGaugeMM + rn.PortMarks.BackGaugeMM
+		for p := range e.Positions {
+			// Front lead less back lead, up to the gauge's sense: the
+			// readings at both ends less both marks.
+			d := (rn.DeadCentreReadings[2*p].GaugeMM + rn.DeadCentreReadings[2*p+1].GaugeMM - m) / e.GaugeScale
+			sum[p] += d
+			sum2[p] += d * d
+		}
+	}
+	out := make([]float64, len(e.Positions))
+	for p := range out {
+		mean := sum[p] / repeats
+		out[p] = math.Sqrt(math.Max(0, (sum2[p]-repeats*mean*mean)/(repeats-1)))
+	}
+	return out, nil
+}

@@ -60,11 +60,16 @@ func RunOne(seed uint64, i int, opt Options) (Case, error) {
 		return Case{}, fmt.Errorf("engine %d: the readings do not make a session: %w", i, err)
 	}
 	c := Case{Seed: seed, Index: i, Engine: e, Round: rd}
+	readSD, err := e.readError(seed, i, rd)
+	if err != nil {
+		return c, fmt.Errorf("engine %d: %w", i, err)
+	}
 	for _, p := range Priorities {
 		res, err := e.Try(s, p)
 		if err != nil {
 			return c, fmt.Errorf("engine %d, %s: %w", i, p, err)
 		}
+		res.Beyond = res.beyond(readSD, e.tolerance(p))
 		if res.Refused && rd.Wild >= 0 && res.names(wildField(rd.Wild)) {
 			// A plan that names the mistyped reading for taking again
 			// and waits for it has not refused: the setter is told what
@@ -112,7 +117,7 @@ func (r Result) names(field string) bool {
 
 // Tally counts the results of one priority over a set of engines.
 type Tally struct {
-	N, Pass, RoundPass, Abs, Worse, Refused, Errors int
+	N, Pass, RoundPass, Abs, Worse, Beyond, Refused, Errors int
 	// Second is how many passed with rounded amounts after a second
 	// round (see Case.Second).
 	Second     int
@@ -184,6 +189,9 @@ func Summarise(cs []Case) Summary {
 				if r.Worse {
 					t.Worse++
 				}
+				if r.Beyond {
+					t.Beyond++
+				}
 				if r.Refused {
 					t.Refused++
 				}
@@ -214,7 +222,7 @@ func quantile(xs []float64, q float64) float64 {
 func (s Summary) Write(w io.Writer) {
 	defer fmt.Fprintf(w, "mistyped readings: %d rounds, %d named; %d good readings named\n", s.Wild, s.Named, s.Wrong)
 	unit := map[plan.Priority]string{plan.EqualLeads: "mm", plan.EqualCutOffs: "%", plan.Balanced: "u"}
-	fmt.Fprintf(w, "%-9s %-19s %5s %14s %14s %14s %14s %6s %8s %6s %22s\n", "priority", "gear", "n", "pass (ideal)", "pass (rounded)", "<= 0.02 mm", "2nd round", "worse", "refused", "errors", "after ideal: med / max")
+	fmt.Fprintf(w, "%-9s %-19s %5s %14s %14s %14s %14s %6s %8s %8s %6s %22s\n", "priority", "gear", "n", "pass (ideal)", "pass (rounded)", "<= 0.02 mm", "2nd round", "worse", "(reads)", "refused", "errors", "after ideal: med / max")
 	for _, p := range Priorities {
 		rows := []string{"all"}
 		rows = append(rows, Kinds...)
@@ -234,7 +242,7 @@ func (s Summary) Write(w io.Writer) {
 			if p == plan.EqualLeads {
 				abs = pct(t.Abs)
 			}
-			fmt.Fprintf(w, "%-9s %-19s %5d %14s %14s %14s %14s %6d %8d %6d %10.3f / %-7.3f %s\n", p, k, t.N, pct(t.Pass), pct(t.RoundPass), abs, pct(t.Second), t.Worse, t.Refused, t.Errors,
+			fmt.Fprintf(w, "%-9s %-19s %5d %14s %14s %14s %14s %6d %8d %8d %6d %10.3f / %-7.3f %s\n", p, k, t.N, pct(t.Pass), pct(t.RoundPass), abs, pct(t.Second), t.Worse, t.Beyond, t.Refused, t.Errors,
 				quantile(t.IdealWorst, 0.5), quantile(t.IdealWorst, 1), unit[p])
 		}
 	}
@@ -254,8 +262,8 @@ func (c Case) Describe(w io.Writer, prio plan.Priority) {
 			s := c.Second[i]
 			fmt.Fprintf(w, "  second round: before %.3f rounded %.3f best %.3f pass %v worse %v refused %v steps %d\n", s.Before, s.Rounded, s.Best, s.RoundPass, s.Worse, s.Refused, s.Steps)
 		}
-		fmt.Fprintf(w, "  %-9s before %.3f ideal %.3f rounded %.3f (predicted %.3f) best %.3f pass %v/%v worse %v refused %v steps %d %s\n    ideal %v\n    best  %v\n",
-			r.Prio, r.Before, r.Ideal, r.Rounded, r.Predicted, r.Best, r.Pass, r.RoundPass, r.Worse, r.Refused, r.Steps, r.Err, fmtAmounts(r.IdealAmounts), fmtAmounts(r.BestAmounts))
+		fmt.Fprintf(w, "  %-9s before %.3f ideal %.3f rounded %.3f (predicted %.3f) best %.3f pass %v/%v worse %v (beyond the readings %v) refused %v steps %d %s\n    ideal %v\n    best  %v\n",
+			r.Prio, r.Before, r.Ideal, r.Rounded, r.Predicted, r.Best, r.Pass, r.RoundPass, r.Worse, r.Beyond, r.Refused, r.Steps, r.Err, fmtAmounts(r.IdealAmounts), fmtAmounts(r.BestAmounts))
 	}
 }
 

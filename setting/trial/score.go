@@ -290,6 +290,12 @@ type Result struct {
 	// than the readings can tell (0.02 mm, 0.5 %). Refused: no step while
 	// the best reachable gains more than that.
 	Worse, Refused bool
+	// Beyond: a position's lead difference ends farther from equal than
+	// before by more than twice the error of that difference as read
+	// straight off the gauge (see Engine.readError), or tol where that is
+	// larger: the "worse than the readings can tell". For
+	// cut-offs and balanced, as Worse.
+	Beyond bool
 	// Broken: the plan's changes leave the true gear unable to go round.
 	Broken bool
 	// Steps is the number of steps; SigmaOK counts steps whose stated +/-
@@ -300,6 +306,24 @@ type Result struct {
 	// truth's best.
 	IdealAmounts, RoundedAmounts, BestAmounts []float64
 	Notes                                     []string
+	// BeforeDiffs and RoundedDiffs are the priority's differences per
+	// position on the true engine today and after the rounded plan.
+	BeforeDiffs, RoundedDiffs []float64
+}
+
+// beyond reports whether the rounded plan left a lead difference worse
+// than before by more than twice its read error sd (per position), or
+// tol when larger (see Result.Beyond).
+func (r Result) beyond(sd []float64, tol float64) bool {
+	if r.Prio != plan.EqualLeads || len(sd) != len(r.BeforeDiffs) || len(r.RoundedDiffs) != len(sd) {
+		return r.Worse
+	}
+	for i, b := range r.BeforeDiffs {
+		if math.Abs(r.RoundedDiffs[i]) > math.Abs(b)+math.Max(tol, 2*sd[i]) {
+			return true
+		}
+	}
+	return false
 }
 
 // tolerance is the least difference the readings can tell: 0.02 mm (two
@@ -409,6 +433,7 @@ func (e Engine) Try(s *session.Session, prio plan.Priority) (Result, error) {
 		return res, nil
 	}
 	res.Ideal, res.Rounded = wi, wr
+	res.BeforeDiffs, res.RoundedDiffs = obj0, or
 	goal := res.Best + tol
 	if prio == plan.EqualLeads {
 		// 0.02 mm (in proportion on an engine larger than 5 in gauge),

@@ -420,8 +420,25 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 	if err != nil {
 		return nil, err
 	}
+	// Where no step keeps every position within what the plan allows
+	// itself, but letting one end worse by up to twice what its readings
+	// tell closes a difference far larger, that trade is the plan: the
+	// readings cannot tell that position's change from none, and the
+	// setter is not told there is nothing to change while there is
+	// (issue 11: refuse only when nothing measurable can be gained).
+	var traded string
+	if !hasSteps(ch) {
+		if t, ok, err := ev.trade(p, ks, ts, qNow, ch, g, pol.usable, unit); err == nil && ok {
+			ch = t.ch
+			traded = fmt.Sprintf("No step keeps every position as close as the plan allows itself, so the steps let the leads in %s go further apart, within twice what the readings tell, to bring %s from %s apart to %s at the most.",
+				strings.Join(t.worse, " and "), ev.ps[t.wi].name(), length(t.worst, unit), length(t.worstAfter, unit))
+		}
+	}
 	rounded := ch.rounded
 	out := &planned{prio: obj.prio, qNow: qNow, qAft: ch.qAft, notes: pol.notes}
+	if traded != "" {
+		out.notes = append(out.notes, traded)
+	}
 	for _, sl := range pol.slipped {
 		if ch.rounded[sl.k] != 0 {
 			out.notes = append(out.notes, sl.note+" The plan turns the sheave back.")
@@ -484,6 +501,9 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 		out.steps = []Step{}
 	}
 	out.notes = append(out.notes, ev.leftNotes(ks, pol.usable, qNow, ch, g, unit)...)
+	if traded != "" {
+		return out, nil
+	}
 	if note, alt, err := ev.giveAndTake(p, ks, ts, qNow, ch, g, pol.usable, unit); err == nil && note != "" {
 		out.notes = append(out.notes, note)
 		out.give = alt
@@ -497,7 +517,8 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 // end worse by up to twice what its readings can tell (common practice,
 // no source: a setter trades a hair he can barely measure for a
 // difference he can see). Said only when that brings the worst position
-// left under half of it.
+// left under half of it: as a note beside a plan that makes steps, and as
+// the plan itself where the strict plan would make none.
 const (
 	// giveFar is how many of the plan's own tolerances a difference left
 	// must be for the trade to be looked at.
@@ -507,11 +528,23 @@ const (
 	giveTell = 2.0
 )
 
-// giveAndTake returns the note of the trade (see giveFar) and its steps,
-// or "".
-func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNow []quantities, ch *choice, g goal, usable []bool, unit session.Unit) (string, []Step, error) {
+// trade is a plan made again allowing positions to end worse by up to
+// twice what their readings tell (see giveFar): its choice, the position
+// the first plan leaves furthest apart (wi, worst), the worst the trade
+// leaves, and the positions it lets go, in words.
+type trade struct {
+	ch         *choice
+	wi         int
+	worst      float64
+	worstAfter float64
+	worse      []string
+}
+
+// trade looks for the trade (see giveFar) beside choice ch; false when
+// there is none worth saying.
+func (ev *evaluator) trade(p [numParams]float64, ks []knob, ts []term, qNow []quantities, ch *choice, g goal, usable []bool, unit session.Unit) (trade, bool, error) {
 	if g.prio != EqualLeads {
-		return "", nil, nil
+		return trade{}, false, nil
 	}
 	worst, wi, far := 0.0, -1, false
 	for i, q := range ch.qAft {
@@ -522,7 +555,7 @@ func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNo
 		far = far || d > giveFar*g.tol[i]
 	}
 	if !far || wi < 0 {
-		return "", nil, nil
+		return trade{}, false, nil
 	}
 	g2 := g
 	g2.tol = make([]float64, len(g.tol))
@@ -536,7 +569,7 @@ func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNo
 		loosened = loosened || g2.tol[i] > g.tol[i]
 	}
 	if !loosened {
-		return "", nil, nil
+		return trade{}, false, nil
 	}
 	// Worth a second search only if it is not the adjusters' steps that
 	// leave it (no knob's one step there is as large), and if the knobs
@@ -545,7 +578,7 @@ func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNo
 	for k, kb := range ks {
 		gd := math.Abs(qNow[wi].grad[0][kb.p] - qNow[wi].grad[1][kb.p])
 		if usable[k] && !isSheave(kb) && gd*kb.step > 1e-6 && worst <= gd*kb.step {
-			return "", nil, nil
+			return trade{}, false, nil
 		}
 	}
 	var all []int
@@ -561,36 +594,55 @@ func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNo
 		free = math.Max(free, math.Abs(g.diff(lin[i])))
 	}
 	if !(free < worst/2) {
-		return "", nil, nil
+		return trade{}, false, nil
 	}
 	ch2, err := ev.choose(p, ks, ts, qNow, g2, usable)
 	if err != nil || len(ch2.set) == 0 {
-		return "", nil, err
+		return trade{}, false, err
 	}
-	worst2 := 0.0
-	var worse []string
+	t := trade{ch: ch2, wi: wi, worst: worst}
 	for i, q := range ch2.qAft {
 		d := math.Abs(g.diff(q))
-		worst2 = math.Max(worst2, d)
+		t.worstAfter = math.Max(t.worstAfter, d)
 		if d > math.Abs(g.diff(qNow[i]))+g.tol[i] {
-			worse = append(worse, fmt.Sprintf("%s (to %s)", ev.ps[i].name(), length(d, unit)))
+			t.worse = append(t.worse, fmt.Sprintf("%s (to %s)", ev.ps[i].name(), length(d, unit)))
 		}
 	}
-	if !(worst2 < worst/2) || len(worse) == 0 {
-		return "", nil, nil
+	if !(t.worstAfter < worst/2) || len(t.worse) == 0 {
+		return trade{}, false, nil
+	}
+	return t, true, nil
+}
+
+// giveAndTake returns the note of the trade (see giveFar) and its steps,
+// or "".
+func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNow []quantities, ch *choice, g goal, usable []bool, unit session.Unit) (string, []Step, error) {
+	t, ok, err := ev.trade(p, ks, ts, qNow, ch, g, usable, unit)
+	if !ok || err != nil {
+		return "", nil, err
 	}
 	var steps []Step
 	var words []string
 	for _, i := range workOrder(ev.spec.Gear.Kind, ks) {
-		if ch2.rounded[i] != 0 {
-			st := newStep(ks[i], ev.spec.Gear.Kind, ch2.ideal[i], ch2.rounded[i])
+		if t.ch.rounded[i] != 0 {
+			st := newStep(ks[i], ev.spec.Gear.Kind, t.ch.ideal[i], t.ch.rounded[i])
 			st.Words = stepWords(st, unit)
 			steps = append(steps, st)
 			words = append(words, st.Words)
 		}
 	}
 	return fmt.Sprintf("Give and take: the plan above leaves the leads in %s %s apart. If the leads in %s may go further apart than the plan allows itself (but within twice what the readings tell), no position need be left more than %s apart. These steps instead of the plan's: %s",
-		ev.ps[wi].name(), length(worst, unit), strings.Join(worse, " and "), length(worst2, unit), strings.Join(words, " ")), steps, nil
+		ev.ps[t.wi].name(), length(t.worst, unit), strings.Join(t.worse, " and "), length(t.worstAfter, unit), strings.Join(words, " ")), steps, nil
+}
+
+// hasSteps reports whether a choice changes anything.
+func hasSteps(ch *choice) bool {
+	for _, a := range ch.rounded {
+		if a != 0 {
+			return true
+		}
+	}
+	return false
 }
 
 func applyKnobs(p [numParams]float64, ks []knob, a []float64) [numParams]float64 {

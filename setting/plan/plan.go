@@ -430,8 +430,8 @@ func (ev *evaluator) plan(p [numParams]float64, ks []knob, qNow []quantities, ob
 	if !hasSteps(ch) {
 		if t, ok, err := ev.trade(p, ks, ts, qNow, ch, g, pol.usable, unit); err == nil && ok {
 			ch = t.ch
-			traded = fmt.Sprintf("No step keeps every position as close as the plan allows itself, so the steps let the leads in %s go further apart, within twice what the readings tell, to bring %s from %s apart to %s at the most.",
-				strings.Join(t.worse, " and "), ev.ps[t.wi].name(), length(t.worst, unit), length(t.worstAfter, unit))
+			traded = fmt.Sprintf("No step keeps every position as close as the plan allows itself, so the steps let the %s in %s go further apart, within twice what the readings tell, to bring %s from %s apart to %s at the most.",
+				g.what(), strings.Join(t.worse, " and "), ev.ps[t.wi].name(), g.amount(t.worst, unit), g.amount(t.worstAfter, unit))
 		}
 	}
 	rounded := ch.rounded
@@ -543,7 +543,7 @@ type trade struct {
 // trade looks for the trade (see giveFar) beside choice ch; false when
 // there is none worth saying.
 func (ev *evaluator) trade(p [numParams]float64, ks []knob, ts []term, qNow []quantities, ch *choice, g goal, usable []bool, unit session.Unit) (trade, bool, error) {
-	if g.prio != EqualLeads {
+	if g.prio == Balanced {
 		return trade{}, false, nil
 	}
 	worst, wi, far := 0.0, -1, false
@@ -577,6 +577,9 @@ func (ev *evaluator) trade(p [numParams]float64, ks []knob, ts []term, qNow []qu
 	// the worst position left under half of it.
 	for k, kb := range ks {
 		gd := math.Abs(qNow[wi].grad[0][kb.p] - qNow[wi].grad[1][kb.p])
+		if g.prio == EqualCutOffs {
+			gd = math.Abs(qNow[wi].grad[2][kb.p] - qNow[wi].grad[3][kb.p])
+		}
 		if usable[k] && !isSheave(kb) && gd*kb.step > 1e-6 && worst <= gd*kb.step {
 			return trade{}, false, nil
 		}
@@ -605,7 +608,7 @@ func (ev *evaluator) trade(p [numParams]float64, ks []knob, ts []term, qNow []qu
 		d := math.Abs(g.diff(q))
 		t.worstAfter = math.Max(t.worstAfter, d)
 		if d > math.Abs(g.diff(qNow[i]))+g.tol[i] {
-			t.worse = append(t.worse, fmt.Sprintf("%s (to %s)", ev.ps[i].name(), length(d, unit)))
+			t.worse = append(t.worse, fmt.Sprintf("%s (to %s)", ev.ps[i].name(), g.amount(d, unit)))
 		}
 	}
 	if !(t.worstAfter < worst/2) || len(t.worse) == 0 {
@@ -617,6 +620,9 @@ func (ev *evaluator) trade(p [numParams]float64, ks []knob, ts []term, qNow []qu
 // giveAndTake returns the note of the trade (see giveFar) and its steps,
 // or "".
 func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNow []quantities, ch *choice, g goal, usable []bool, unit session.Unit) (string, []Step, error) {
+	if g.prio != EqualLeads {
+		return "", nil, nil
+	}
 	t, ok, err := ev.trade(p, ks, ts, qNow, ch, g, usable, unit)
 	if !ok || err != nil {
 		return "", nil, err
@@ -633,6 +639,23 @@ func (ev *evaluator) giveAndTake(p [numParams]float64, ks []knob, ts []term, qNo
 	}
 	return fmt.Sprintf("Give and take: the plan above leaves the leads in %s %s apart. If the leads in %s may go further apart than the plan allows itself (but within twice what the readings tell), no position need be left more than %s apart. These steps instead of the plan's: %s",
 		ev.ps[t.wi].name(), length(t.worst, unit), strings.Join(t.worse, " and "), length(t.worstAfter, unit), strings.Join(words, " ")), steps, nil
+}
+
+// what names the differences the goal equalises.
+func (g goal) what() string {
+	if g.prio == EqualCutOffs {
+		return "cut-offs"
+	}
+	return "leads"
+}
+
+// amount says a difference the goal equalises: a length, or % of the
+// stroke.
+func (g goal) amount(d float64, unit session.Unit) string {
+	if g.prio == EqualCutOffs {
+		return fmt.Sprintf("%.1f %% of the stroke", d)
+	}
+	return length(d, unit)
 }
 
 // hasSteps reports whether a choice changes anything.

@@ -144,9 +144,10 @@ type Summary struct {
 	// read off the gauge over its positions, against the 0.02 mm goal's
 	// scale (0.02 mm at 5 in gauge, in proportion above).
 	ReadWorst []float64
-	// Readable counts the engines whose ReadWorst is within 0.01 mm;
-	// ReadableAbs those of them whose equal-leads plan left the leads
-	// within 0.02 mm.
+	// Readable counts the engines whose ReadWorst is within 0.01 mm and
+	// whose leads some allowed change brings within 0.01 mm (at 5 in
+	// gauge scale); ReadableAbs those of them whose equal-leads plan left
+	// the leads within 0.02 mm.
 	Readable, ReadableAbs int
 }
 
@@ -172,10 +173,10 @@ func Summarise(cs []Case) Summary {
 		if len(c.ReadSD) > 0 {
 			rw := worst(c.ReadSD) / c.Engine.sizeScale()
 			s.ReadWorst = append(s.ReadWorst, rw)
-			if rw <= 0.01 {
-				s.Readable++
-				for _, r := range c.Results {
-					if r.Prio == plan.EqualLeads && r.Abs {
+			for _, r := range c.Results {
+				if r.Prio == plan.EqualLeads && rw <= 0.01 && r.Best <= c.Engine.tolerance(plan.EqualLeads)/2 {
+					s.Readable++
+					if r.Abs {
 						s.ReadableAbs++
 					}
 				}
@@ -247,7 +248,13 @@ func (s Summary) Write(w io.Writer) {
 	defer func() {
 		fmt.Fprintf(w, "mistyped readings: %d rounds, %d named; %d good readings named\n", s.Wild, s.Named, s.Wrong)
 		if n := len(s.ReadWorst); n > 0 {
-			fmt.Fprintf(w, "lead differences as read off the gauge, worst position per engine (at 5 in gauge scale): sd median %.3f mm; within 0.01 mm (the 0.02 mm goal two sd wide) on %d of %d engines, whose leads the plan left within 0.02 mm after one round on %d\n", quantile(s.ReadWorst, 0.5), s.Readable, n, s.ReadableAbs)
+			within := 0
+			for _, x := range s.ReadWorst {
+				if x <= 0.01 {
+					within++
+				}
+			}
+			fmt.Fprintf(w, "lead differences as read off the gauge, worst position per engine (at 5 in gauge scale): sd median %.3f mm; within 0.01 mm (the 0.02 mm goal two sd wide) on %d of %d engines; of those whose leads an allowed change brings within 0.01 mm, %d, the plan left them within 0.02 mm after one round on %d\n", quantile(s.ReadWorst, 0.5), within, n, s.Readable, s.ReadableAbs)
 		}
 	}()
 	unit := map[plan.Priority]string{plan.EqualLeads: "mm", plan.EqualCutOffs: "%", plan.Balanced: "u"}
